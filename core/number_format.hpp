@@ -1,0 +1,18 @@
+// How numbers are written for people: statistics, counts and probabilities at every size.
+// A probability is never written as 0: below the double range it is written from its log10.
+#pragma once
+#include <string>
+
+#include "chi_square_tail.hpp"
+
+namespace tallyproof {
+
+std::string format_fixed(double x, int decimals);        // "5.27"; "n/a" when not finite
+std::string format_count(double x);                       // "1234" (whole) or "12.5"
+std::string format_plain(double x);                       // shortest form: "0.05", "1e-06"
+std::string format_significant(double x, int digits);     // "0.0431", "3.21 × 10⁻⁵"
+std::string format_probability(const TailProbability& p); // 3 significant digits at any size
+std::string format_p_report(const TailProbability& p);    // reporting style: "= .043", "< .001"
+std::string superscript_exponent(int e);                  // "⁻¹⁰⁸³"
+
+}  // namespace tallyproof

@@ -1,0 +1,15 @@
+// Reports of a Result: the plain-text block shown beside the chart and mirrored into the page's
+// live region, the one-line verdict, and the JSON result document.
+#pragma once
+#include <string>
+
+#include "analysis.hpp"
+#include "result.hpp"
+
+namespace tallyproof {
+
+std::string verdict_sentence(const Result& r);                     // decision at alpha, in words
+std::string report_text(const Analysis& a, const Result& r);       // multi-line plain text
+std::string report_json(const Analysis& a, const Result& r);       // result document (one line)
+
+}  // namespace tallyproof

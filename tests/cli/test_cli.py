@@ -1,0 +1,91 @@
+#!/usr/bin/python3
+"""Command-line tests of `tallyproof`: the same pasted text the page takes, read from a file
+and from stdin, printed as text and as JSON; bad input exits 1 with a message naming the line.
+Usage: test_cli.py PATH_TO_TALLYPROOF"""
+import json
+import os
+import subprocess
+import sys
+import tempfile
+
+TOOL = sys.argv[1]
+failures = []
+
+
+def check(cond, what):
+    if not cond:
+        failures.append(what)
+        print("FAIL:", what)
+
+
+def run(args, stdin=None):
+    return subprocess.run([TOOL] + args, input=stdin, capture_output=True, text=True, timeout=30)
+
+
+def close(a, b, rel):
+    return abs(a - b) <= rel * abs(b)
+
+
+# Four grades of an invented sorting line, pasted as a spreadsheet copies them (TSV, CRLF).
+paste = "Grade\tCount\r\nA\t18\r\nB\t25\r\nC\t31\r\nD\t26\r\n"
+# Reference: R 4.2 chisq.test(c(18,25,31,26)): X-squared = 3.44, df = 3, p = 0.32862769938219899,
+# and qchisq(0.95, 3) = 7.8147279032511792.
+R_STAT, R_P, R_CRIT = 3.44, 0.32862769938219899, 7.8147279032511792
+
+with tempfile.NamedTemporaryFile("w", suffix=".tsv", delete=False) as f:
+    f.write(paste)
+    path = f.name
+
+r = run(["--json", path])
+check(r.returncode == 0, f"--json FILE exits 0 (got {r.returncode}: {r.stderr})")
+doc = json.loads(r.stdout)
+check(doc["categories"] == ["A", "B", "C", "D"], "categories as read")
+check(doc["observed"] == [18, 25, 31, 26], "observed as read")
+check(close(doc["statistic"], R_STAT, 1e-13), f"statistic {doc['statistic']} vs R {R_STAT}")
+check(doc["df"] == 3, "df 3")
+check(close(doc["p_value"], R_P, 1e-13), f"p {doc['p_value']} vs R {R_P}")
+check(close(doc["critical_value"], R_CRIT, 1e-12), f"critical value {doc['critical_value']} vs R {R_CRIT}")
+check(doc["expected_counts"] == [25, 25, 25, 25], "expected counts")
+
+# Live cross-check with SciPy when present (Debian python3-scipy).
+try:
+    from scipy.stats import chisquare
+    sp = chisquare([18, 25, 31, 26])
+    check(close(doc["p_value"], float(sp.pvalue), 1e-12), "p agrees with scipy.stats.chisquare")
+except ImportError:
+    print("skip: scipy not installed, live SciPy cross-check not run")
+
+r = run([], stdin=paste)
+check(r.returncode == 0, "stdin text exits 0")
+check("χ² = 3.44, df = 3, p = 0.329" in r.stdout, f"text output states the result: {r.stdout!r}")
+check("No evidence against the stated mix at α = 0.05." in r.stdout, "text output states the decision")
+
+r = run(["--version"])
+check(r.returncode == 0 and r.stdout.startswith("tallyproof "), "--version")
+
+# Bad input: exit 1, message names the line (and column).
+bad = {
+    "": "Nothing to read: the pasted text is empty.",
+    "A\t4\nB\t-2\n": "Line 2, column 2: \"-2\" is negative; counts must be non-negative whole numbers.",
+    "A\t4\nB\tlots\n": "Line 2, column 2: \"lots\" is not a count; expected a non-negative whole number.",
+    "Only\t7\n": "Only one category (\"Only\"): a goodness-of-fit test needs at least two.",
+    "A\t0\nB\t0\n": "All counts are zero: there is nothing to test.",
+}
+for text, message in bad.items():
+    r = run(["--json"], stdin=text)
+    check(r.returncode == 1, f"bad input {text!r} exits 1 (got {r.returncode})")
+    got = json.loads(r.stdout).get("error")
+    check(got == message, f"bad input {text!r}: error {got!r}")
+    r = run([], stdin=text)
+    check(message in r.stderr, f"bad input {text!r}: message on stderr")
+
+r = run(["--alpha", "2"], stdin=paste)
+check(r.returncode == 2, "--alpha out of range is a usage error")
+r = run(["--bogus"])
+check(r.returncode == 2, "unknown option is a usage error")
+
+os.unlink(path)
+if failures:
+    print(f"{len(failures)} command-line check(s) failed")
+    sys.exit(1)
+print("command-line tests passed")
