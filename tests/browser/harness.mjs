@@ -1,0 +1,74 @@
+// Browser test harness: Debian's Chromium through playwright-core, software WebGL, and every
+// network request blocked and counted (a test fails on any). Pages open from file://.
+import { chromium } from 'playwright-core';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { decodePng, distinctColours } from './png.mjs';
+
+const here = dirname(fileURLToPath(import.meta.url));
+export const pageUrl = pathToFileURL(resolve(here, '../../dist/tallyproof.html')).href;
+export const screenshotDir = resolve(here, 'screenshots');
+
+const launchArgs = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
+  '--disable-background-networking', '--disable-component-update', '--disable-sync',
+  '--use-gl=angle', '--use-angle=swiftshader', '--enable-unsafe-swiftshader'];
+
+export async function withPage(options, body) {
+  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: launchArgs, headless: true });
+  const blocked = [];
+  const problems = [];
+  try {
+    const context = await browser.newContext({
+      viewport: options.viewport || { width: 1280, height: 800 },
+      deviceScaleFactor: options.deviceScaleFactor || 1,
+    });
+    await context.route('**/*', (route) => {
+      const url = route.request().url();
+      if (url.startsWith('file:') || url.startsWith('data:') || url.startsWith('blob:')) return route.continue();
+      blocked.push(url);
+      return route.abort();
+    });
+    context.on('request', (req) => {
+      const url = req.url();
+      if (!url.startsWith('file:') && !url.startsWith('data:') && !url.startsWith('blob:') && !blocked.includes(url)) blocked.push(url);
+    });
+    const page = await context.newPage();
+    page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
+    page.on('console', (m) => { if (m.type() === 'error') problems.push(`console error: ${m.text()}`); });
+    await page.goto(pageUrl);
+    await page.waitForFunction(() => document.getElementById('tp-results')?.dataset.state === 'result', null, { timeout: 20000 });
+    await body(page);
+    if (blocked.length) throw new Error(`the page attempted ${blocked.length} network request(s): ${blocked.join(', ')}`);
+    if (problems.length) throw new Error(problems.join('\n'));
+  } finally {
+    await browser.close();
+  }
+}
+
+// Dispatches a real paste event carrying `text` as text/plain, as the browser does on Ctrl+V.
+export async function pasteText(page, text) {
+  await page.evaluate((t) => {
+    const data = new DataTransfer();
+    data.setData('text/plain', t);
+    const ev = new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true });
+    document.activeElement.dispatchEvent(ev);
+  }, text);
+}
+
+export async function resultsText(page) {
+  return page.evaluate(() => document.getElementById('tp-results').textContent);
+}
+
+// Waits two animation frames so the canvas shows the latest state, then saves a screenshot and
+// returns the number of distinct colours in it.
+export async function screenshot(page, name) {
+  await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
+  await page.waitForTimeout(150);
+  mkdirSync(screenshotDir, { recursive: true });
+  const png = await page.screenshot();
+  writeFileSync(resolve(screenshotDir, `${name}.png`), png);
+  return distinctColours(decodePng(png));
+}
+
+export function assert(cond, message) { if (!cond) throw new Error(message); }

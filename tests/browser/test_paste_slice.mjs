@@ -1,0 +1,54 @@
+// The thin slice end to end: paste TSV counts, read the results region, look at the canvas.
+import { assert, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+
+export const tests = {
+  async 'paste of label<TAB>count lines gives the Pearson result'() {
+    await withPage({}, async (page) => {
+      const initial = await screenshot(page, 'slice-01-example');
+      assert(initial > 200, `the first frame looks blank (${initial} distinct colours)`);
+
+      // Invented counts: defect types found on one inspection shift.
+      await pasteText(page, 'Defect\tCount\r\nScratch\t30\r\nDent\t14\r\nCrack\t34\r\nStain\t45\r\nWarp\t57\r\nChip\t20\r\n');
+      await page.waitForFunction(() => document.getElementById('tp-results').textContent.includes('Scratch'));
+      const text = await resultsText(page);
+      // Reference: SciPy 1.10 scipy.stats.chisquare([30,14,34,45,57,20]) gives statistic 37.78 and
+      // p = 4.177325475265192e-07; R 4.2 qchisq(0.95, 5) = 11.070497693516351.
+      assert(text.includes('χ² = 37.78, df = 5, p = 4.18 × 10⁻⁷'), `statistic line missing in: ${text}`);
+      assert(text.includes('Critical value at α = 0.05: 11.070'), `critical value missing in: ${text}`);
+      assert(text.includes('not consistent with the stated mix'), 'decision missing');
+      const json = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
+      assert(Math.abs(json.p_value - 4.177325475265192e-07) <= 1e-12 * 4.177325475265192e-07, `p ${json.p_value}`);
+      assert(json.categories.length === 6 && json.observed[4] === 57, 'counts as read');
+      const colours = await screenshot(page, 'slice-02-pasted');
+      assert(colours > 200, `canvas after paste looks blank (${colours} distinct colours)`);
+    });
+  },
+
+  async 'bad paste names the line and keeps the previous analysis'() {
+    await withPage({}, async (page) => {
+      const before = await resultsText(page);
+      await pasteText(page, 'A\t12\nB\t-3\nC\t5\n');
+      await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'error');
+      const text = await resultsText(page);
+      assert(text.includes('Line 2, column 2: "-3" is negative'), `message: ${text}`);
+      const json = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
+      assert(before.includes(json.categories[0]), 'the previous analysis stays');
+      await screenshot(page, 'slice-03-refused');
+      for (const [paste, message] of [['', null], ['   \n\n', 'Nothing to read'], ['Only\t9\n', 'at least two'],
+        ['A\t0\nB\t0\n', 'All counts are zero'], ['A\t3\nB\tmany\n', 'Line 2, column 2: "many" is not a count']]) {
+        if (message === null) continue;  // an empty clipboard sends no paste text at all
+        await pasteText(page, paste);
+        await page.waitForFunction((m) => document.getElementById('tp-results').textContent.includes(m), message);
+      }
+    });
+  },
+
+  async 'crisp at device scale factor 2'() {
+    await withPage({ deviceScaleFactor: 2, viewport: { width: 900, height: 700 } }, async (page) => {
+      const size = await page.evaluate(() => [document.getElementById('canvas').width, window.devicePixelRatio]);
+      assert(size[1] === 2 && size[0] === 1800, `canvas backing store is ${size[0]} px for dpr ${size[1]}`);
+      const colours = await screenshot(page, 'slice-04-dpr2');
+      assert(colours > 200, 'blank at dpr 2');
+    });
+  },
+};
