@@ -1,56 +1,43 @@
-// Chi-square tails via Boost.Math's regularized incomplete gamma: Q(df/2, x/2) for the upper
-// tail and P(df/2, x/2) for the lower (DiDonato and Morris 1986, as implemented in Boost 1.74).
-// log10 of a tail that underflows a double falls back to the leading term of the asymptotic
-// expansion of the incomplete gamma function (Abramowitz and Stegun 6.5.32).
+// Chi-square tails as regularized incomplete gamma functions, Q(df/2, x/2) upper and
+// P(df/2, x/2) lower, each from core/log_incomplete_gamma (Boost.Math's DiDonato and Morris 1986
+// while normal, log-space series / continued fraction below). Critical values from Boost's
+// quantile, or for alpha given as log10 by safeguarded Newton steps on ln Q (Press et al. 2007, 9.4).
 #include "chi_square_tail.hpp"
 
 #include <cmath>
 #include <limits>
 
 #include <boost/math/distributions/chi_squared.hpp>
-#include <boost/math/special_functions/gamma.hpp>
 
+#include "log_incomplete_gamma.hpp"
 #include "math_policy.hpp"
 
 namespace tallyproof {
 namespace {
 
 constexpr double kLn10 = 2.302585092994045684;
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
-// log of the upper regularized incomplete gamma Q(a, z) for large z where Q underflows:
-// Q(a, z) ~ z^(a-1) e^(-z) / Gamma(a) * sum_k (a-1)(a-2)...(a-k) / z^k.
-double log_upper_gamma_asymptotic(double a, double z) {
-    double sum = 1.0, term = 1.0;
-    for (int k = 1; k < 60; ++k) {
-        term *= (a - k) / z;
-        if (std::fabs(term) < 1e-17 * std::fabs(sum)) break;
-        sum += term;
-    }
-    return (a - 1.0) * std::log(z) - z - std::lgamma(a) + std::log(sum);
-}
+bool bad_df(double df) { return !(df > 0) || std::isinf(df); }
 
 }  // namespace
 
 TailProbability chi_square_upper_tail(double x, double df) {
-    const double nan = std::numeric_limits<double>::quiet_NaN();
-    if (!(df > 0) || std::isnan(x)) return {nan, nan};
+    if (bad_df(df) || std::isnan(x)) return {kNaN, kNaN};
     if (x <= 0) return {1.0, 0.0};
-    const double a = df / 2, z = x / 2;
-    const double q = boost::math::gamma_q(a, z, quiet_policy());
-    if (q > 0 && std::isfinite(q)) return {q, std::log10(q)};
-    return {0.0, log_upper_gamma_asymptotic(a, z) / kLn10};
+    const GammaTail q = upper_incomplete_gamma_tail(df / 2, x / 2);
+    return {q.value, q.log_value / kLn10};
 }
 
 TailProbability chi_square_lower_tail(double x, double df) {
-    const double nan = std::numeric_limits<double>::quiet_NaN();
-    if (!(df > 0) || std::isnan(x)) return {nan, nan};
+    if (bad_df(df) || std::isnan(x)) return {kNaN, kNaN};
     if (x <= 0) return {0.0, -std::numeric_limits<double>::infinity()};
-    const double p = boost::math::gamma_p(df / 2, x / 2, quiet_policy());
-    return {p, p > 0 ? std::log10(p) : -std::numeric_limits<double>::infinity()};
+    const GammaTail p = lower_incomplete_gamma_tail(df / 2, x / 2);
+    return {p.value, p.log_value / kLn10};
 }
 
 double chi_square_density(double x, double df) {
-    if (!(df > 0) || std::isnan(x)) return std::numeric_limits<double>::quiet_NaN();
+    if (bad_df(df) || std::isnan(x)) return kNaN;
     if (x < 0) return 0.0;
     if (x == 0) return df < 2 ? std::numeric_limits<double>::infinity() : (df == 2 ? 0.5 : 0.0);
     boost::math::chi_squared_distribution<double, quiet_policy> dist(df);
@@ -58,9 +45,39 @@ double chi_square_density(double x, double df) {
 }
 
 double chi_square_critical_value(double alpha, double df) {
-    if (!(df > 0) || !(alpha > 0) || !(alpha < 1)) return std::numeric_limits<double>::quiet_NaN();
+    if (bad_df(df) || !(alpha > 0) || !(alpha < 1)) return kNaN;
     boost::math::chi_squared_distribution<double, quiet_policy> dist(df);
     return boost::math::quantile(boost::math::complement(dist, alpha));
+}
+
+double chi_square_critical_value_log10(double log10_alpha, double df) {
+    if (bad_df(df) || !(log10_alpha <= 0) || std::isinf(log10_alpha)) return kNaN;
+    if (log10_alpha == 0) return 0.0;
+    if (log10_alpha > -300) return chi_square_critical_value(std::pow(10.0, log10_alpha), df);
+    // Solve g(z) = ln Q(a, z) - target = 0 in z = x/2. g falls monotonically; its slope is
+    // -density/Q, i.e. -exp(ln prefix - ln z - ln Q). Start from the alpha = 1e-300 point, which
+    // lies below the root, and keep a bracket so a poor Newton step falls back to bisection.
+    const double a = df / 2, target = log10_alpha * kLn10;
+    double lo = chi_square_critical_value(1e-300, df) / 2;
+    if (!std::isfinite(lo) || !(lo > 0)) return kNaN;
+    double hi = lo;
+    for (int i = 0; i < 2000; ++i) {
+        hi *= 2;
+        if (!std::isfinite(hi)) return kNaN;
+        if (log_gamma_q(a, hi) < target) break;
+    }
+    double z = lo;
+    for (int i = 0; i < 200; ++i) {
+        const double log_q = log_gamma_q(a, z);
+        const double g = log_q - target;
+        if (g > 0) lo = z; else hi = z;
+        const double slope = -std::exp(log_gamma_prefix(a, z) - std::log(z) - log_q);
+        double next = z - g / slope;
+        if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+        if (std::fabs(next - z) <= 4e-16 * z || hi - lo <= 4e-16 * hi) { z = next; break; }
+        z = next;
+    }
+    return 2 * z;
 }
 
 }  // namespace tallyproof

@@ -1,5 +1,6 @@
 // Expected counts E_i = N * pi_i for the null shares pi_i (common practice). Stated counts whose
-// total differs from N by rounding (at most 0.5 per category) are rescaled to N and reported.
+// total differs from N by rounding (at most 0.5 per category), and shares whose total differs
+// from 1 or 100 by rounding, are rescaled and reported; larger differences are refused.
 #include "expected_counts.hpp"
 
 #include <cmath>
@@ -36,6 +37,22 @@ Status expected_counts(const Model& model, std::size_t k, double n, std::vector<
         std::snprintf(buf, sizeof buf,
                       "The expected counts total %.10g but the observed counts total %.10g; they must agree.", total, n);
         return Status::failure(buf);
+    }
+    if (model.kind == ModelKind::shares) {
+        // Shares total 1 (fractions) or 100 (percentages), give or take rounding of each share.
+        const double kd = static_cast<double>(k);
+        const bool fractions = std::fabs(total - 1) <= 0.005 * kd, percents = std::fabs(total - 100) <= 0.5 * kd;
+        if (!fractions && !percents) {
+            char buf[220];
+            std::snprintf(buf, sizeof buf,
+                          "The stated shares total %.10g; they must total 1 (fractions) or 100 (percentages).", total);
+            return Status::failure(buf);
+        }
+        if (total != 1 && total != 100) {
+            char buf[200];
+            std::snprintf(buf, sizeof buf, "The stated shares total %.10g, rescaled to %s.", total, fractions ? "1" : "100%");
+            warnings->push_back(buf);
+        }
     }
     if (model.kind == ModelKind::counts && total != n) {
         char buf[200];

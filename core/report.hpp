@@ -8,8 +8,9 @@
 
 namespace tallyproof {
 
-std::string verdict_sentence(const Result& r);                     // decision at alpha, in words
-std::string report_text(const Analysis& a, const Result& r);       // multi-line plain text
-std::string report_json(const Analysis& a, const Result& r);       // result document (one line)
+std::string verdict_sentence(const Result& r);                 // decision at alpha, in words
+std::string method_phrase(const Result& r);                    // "asymptotic", "exact", "Monte Carlo, B = ..."
+std::string report_text(const Analysis& a, const Result& r);   // multi-line plain text
+std::string report_json(const Analysis& a, const Result& r);   // result document (one line)
 
 }  // namespace tallyproof

@@ -1,16 +1,19 @@
-// tallyproof: command-line front end. Parses arguments, reads pasted text from a file or
-// stdin, and prints what core/ returns (plain text, or JSON with --json).
+// tallyproof: command-line front end. Parses arguments, reads pasted text or an analysis
+// document from a file or stdin, and prints what core/ returns (plain text, or JSON).
+#include <algorithm>
+#include <cmath>
 #include <cstdio>
 #include <cstdlib>
-#include <cstring>
 #include <fstream>
 #include <iostream>
 #include <iterator>
 #include <sstream>
 #include <string>
+#include <vector>
 
-#include "goodness_of_fit.hpp"
+#include "analysis_document.hpp"
 #include "paste_parser.hpp"
+#include "pvalue_job.hpp"
 #include "report.hpp"
 #include "tallyproof_version.hpp"
 
@@ -18,38 +21,90 @@ namespace {
 
 const char* kUsage =
     "usage: tallyproof [options] [FILE]\n"
-    "Chi-square goodness-of-fit test of counts read from FILE (or standard input):\n"
-    "lines of label<TAB>count as copied from a spreadsheet, or one count per line.\n"
+    "Chi-square goodness-of-fit test of counts read from FILE (or standard input): pasted\n"
+    "text (lines of label<TAB>count, or one count per line) or an analysis document (JSON).\n"
     "\n"
-    "options:\n"
-    "  --json        print the result document as JSON\n"
-    "  --alpha A     significance level of the decision (default 0.05)\n"
-    "  --version     print the version and exit\n"
-    "  --help        print this help and exit\n"
+    "output:\n"
+    "  --json                 print the result document as JSON\n"
+    "model (options override the document):\n"
+    "  --model KIND           equal, shares, ratio, counts, poisson, binomial, geometric,\n"
+    "                         negative-binomial, uniform, normal, lognormal, exponential,\n"
+    "                         benford-first, benford-second, benford-first-two, last-digit,\n"
+    "                         last-digit-even\n"
+    "  --values LIST          shares, ratio or expected counts: 9:3:3:1 or 0.5,0.3,0.2\n"
+    "  --param NAME=VALUE     a given parameter (mean, trials, p, size, sd, meanlog, sdlog, rate);\n"
+    "                         parameters not given are estimated from the counts\n"
+    "  --edges LIST           bin edges for normal, lognormal, exponential: -inf,10,20,inf\n"
+    "  --ordered              the categories have a natural order\n"
+    "  --extra-params M       parameters estimated elsewhere from raw data (each costs one df)\n"
+    "test:\n"
+    "  --alpha A              significance level of the decision (default 0.05)\n"
+    "  --lambda L             power-divergence lambda: 1 Pearson, 0 G2, 0.6667 Cressie-Read,\n"
+    "                         -0.5 Freeman-Tukey, -1 modified G2, -2 Neyman\n"
+    "  --williams             Williams' correction of G2 (with --lambda 0)\n"
+    "  --method M             asymptotic (default), exact or monte-carlo\n"
+    "  --ordering O           exact and Monte Carlo: statistic (default) or probability\n"
+    "  --replicates B         Monte Carlo replicates (default 100000)\n"
+    "  --seed S               Monte Carlo seed (default 1)\n"
+    "  --merge RULE           merge thin categories: none, all-5, cochran, minimum\n"
+    "  --min-expected X       the minimum for --merge minimum\n"
+    "planning:\n"
+    "  --plan-w W             effect size to detect (default: the observed w)\n"
+    "  --plan-n N             sample size for the power (default: the observed N)\n"
+    "  --target-power P       power wanted for the required N (default 0.8)\n"
+    "other:\n"
+    "  --version, --help\n"
     "\n"
     "exit status: 0 analysed, 1 input refused, 2 usage error\n";
 
 int usage_error(const std::string& msg) {
-    std::fprintf(stderr, "tallyproof: %s\n%s", msg.c_str(), kUsage);
+    std::fprintf(stderr, "tallyproof: %s\n(see tallyproof --help)\n", msg.c_str());
     return 2;
+}
+
+bool to_number(const std::string& s, double* v) {
+    if (s == "inf" || s == "+inf" || s == "Inf") { *v = HUGE_VAL; return true; }
+    if (s == "-inf" || s == "-Inf") { *v = -HUGE_VAL; return true; }
+    char* end = nullptr;
+    *v = std::strtod(s.c_str(), &end);
+    return !s.empty() && *end == '\0';
+}
+
+bool to_list(const std::string& s, std::vector<double>* out) {
+    out->clear();
+    std::string cell;
+    for (std::size_t i = 0; i <= s.size(); ++i) {
+        if (i == s.size() || s[i] == ',' || s[i] == ':' || s[i] == ';') {
+            double v = 0;
+            if (!to_number(cell, &v)) return false;
+            out->push_back(v);
+            cell.clear();
+        } else if (s[i] != ' ') {
+            cell += s[i];
+        }
+    }
+    return !out->empty();
 }
 
 }  // namespace
 
 int main(int argc, char** argv) {
+    using namespace tallyproof;
     bool json = false;
-    double alpha = 0.05;
     std::string path;
+    std::vector<std::pair<std::string, std::string>> opts;  // option, value
+    const std::vector<std::string> with_value = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
+                                                 "--lambda", "--method", "--ordering", "--replicates", "--seed", "--merge",
+                                                 "--min-expected", "--plan-w", "--plan-n", "--target-power"};
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (arg == "--json") json = true;
         else if (arg == "--version") { std::printf("tallyproof %s\n", TALLYPROOF_VERSION); return 0; }
         else if (arg == "--help" || arg == "-h") { std::fputs(kUsage, stdout); return 0; }
-        else if (arg == "--alpha") {
-            if (i + 1 >= argc) return usage_error("--alpha needs a value");
-            char* end = nullptr;
-            alpha = std::strtod(argv[++i], &end);
-            if (*end != '\0' || !(alpha > 0 && alpha < 1)) return usage_error("--alpha must be a number between 0 and 1");
+        else if (arg == "--ordered" || arg == "--williams") opts.emplace_back(arg, "");
+        else if (std::find(with_value.begin(), with_value.end(), arg) != with_value.end()) {
+            if (i + 1 >= argc) return usage_error(arg + " needs a value");
+            opts.emplace_back(arg, argv[++i]);
         } else if (arg.size() > 1 && arg[0] == '-') return usage_error("unknown option " + arg);
         else if (path.empty()) path = arg;
         else return usage_error("only one input file can be given");
@@ -66,19 +121,70 @@ int main(int argc, char** argv) {
         text = ss.str();
     }
 
-    const tallyproof::ParsedCounts parsed = tallyproof::parse_counts(text);
-    tallyproof::Analysis analysis;
-    analysis.alpha = alpha;
-    tallyproof::Result result;
-    if (!parsed.status.ok) {
-        result.status = parsed.status;
+    Analysis analysis;
+    Result result;
+    const std::size_t first = text.find_first_not_of(" \t\r\n\xEF\xBB\xBF");
+    Status read;
+    if (first != std::string::npos && text[first] == '{') {
+        read = read_analysis_document(text, &analysis);
     } else {
+        const ParsedCounts parsed = parse_counts(text);
+        read = parsed.status;
         analysis.categories = parsed.categories;
         analysis.observed = parsed.observed;
-        result = tallyproof::analyse(analysis);
     }
-    if (json) std::printf("%s\n", tallyproof::report_json(analysis, result).c_str());
-    else if (result.status.ok) std::fputs(tallyproof::report_text(analysis, result).c_str(), stdout);
+
+    for (const auto& [opt, val] : opts) {
+        double v = 0;
+        if (opt == "--ordered") analysis.ordered = true;
+        else if (opt == "--williams") analysis.statistic.williams = true;
+        else if (opt == "--model") {
+            if (!model_kind_from_name(val, &analysis.model.kind)) return usage_error("unknown model kind " + val);
+        } else if (opt == "--values") {
+            if (!to_list(val, &analysis.model.values)) return usage_error("--values needs numbers such as 9:3:3:1");
+        } else if (opt == "--edges") {
+            if (!to_list(val, &analysis.model.edges)) return usage_error("--edges needs numbers such as -inf,10,20,inf");
+        } else if (opt == "--param") {
+            const auto eq = val.find('=');
+            if (eq == std::string::npos || !to_number(val.substr(eq + 1), &v)) return usage_error("--param needs NAME=VALUE");
+            analysis.model.parameters.emplace_back(val.substr(0, eq), v);
+        } else if (opt == "--method") {
+            if (val == "asymptotic") analysis.pvalue.method = PValueMethod::asymptotic;
+            else if (val == "exact") analysis.pvalue.method = PValueMethod::exact;
+            else if (val == "monte-carlo") analysis.pvalue.method = PValueMethod::monte_carlo;
+            else return usage_error("--method must be asymptotic, exact or monte-carlo");
+        } else if (opt == "--ordering") {
+            if (val == "statistic") analysis.pvalue.ordering = ExactOrdering::statistic;
+            else if (val == "probability") analysis.pvalue.ordering = ExactOrdering::probability;
+            else return usage_error("--ordering must be statistic or probability");
+        } else if (opt == "--merge") {
+            if (!merge_rule_from_name(val, &analysis.merge.rule)) return usage_error("--merge must be none, all-5, cochran or minimum");
+        } else {
+            if (!to_number(val, &v)) return usage_error(opt + " needs a number");
+            if (opt == "--alpha") {
+                if (!(v > 0 && v < 1)) return usage_error("--alpha must be a number between 0 and 1");
+                analysis.alpha = v;
+            } else if (opt == "--lambda") analysis.statistic.lambda = v;
+            else if (opt == "--extra-params") {
+                if (!(v >= 0 && v <= 1000) || v != static_cast<int>(v)) return usage_error("--extra-params must be a whole number");
+                analysis.extra_estimated_parameters = static_cast<int>(v);
+            } else if (opt == "--replicates") {
+                if (!(v >= 1 && v <= 1e10) || v != static_cast<double>(static_cast<std::uint64_t>(v))) return usage_error("--replicates must be a whole number from 1");
+                analysis.pvalue.replicates = static_cast<std::uint64_t>(v);
+            } else if (opt == "--seed") {
+                if (!(v >= 0 && v <= 9007199254740991.0) || v != static_cast<double>(static_cast<std::uint64_t>(v))) return usage_error("--seed must be a whole number");
+                analysis.pvalue.seed = static_cast<std::uint64_t>(v);
+            } else if (opt == "--min-expected") analysis.merge.minimum = v;
+            else if (opt == "--plan-w") { analysis.plan.requested = true; analysis.plan.w = v; }
+            else if (opt == "--plan-n") { analysis.plan.requested = true; analysis.plan.n = v; }
+            else if (opt == "--target-power") { analysis.plan.requested = true; analysis.plan.target_power = v; }
+        }
+    }
+
+    if (!read.ok) result.status = read;
+    else result = analyse_completely(analysis);
+    if (json) std::printf("%s\n", report_json(analysis, result).c_str());
+    else if (result.status.ok) std::fputs(report_text(analysis, result).c_str(), stdout);
     else std::fprintf(stderr, "tallyproof: %s\n", result.status.message.c_str());
     return result.status.ok ? 0 : 1;
 }

@@ -41,7 +41,7 @@ TEST_CASE("six categories, a clear departure") {
     CHECK(r.upper.p == doctest::Approx(4.177325475265192e-07).epsilon(1e-12));
     CHECK(r.reject);
     // Pearson residual (O - E)/sqrt(E) with E = 200/6 (definition, Pearson 1900).
-    CHECK(r.pearson_residuals[4] == doctest::Approx((57 - 200.0 / 6) / std::sqrt(200.0 / 6)).epsilon(1e-14));
+    CHECK(r.diagnostics.categories[4].pearson_residual == doctest::Approx((57 - 200.0 / 6) / std::sqrt(200.0 / 6)).epsilon(1e-14));
 }
 
 TEST_CASE("refusals name the problem") {

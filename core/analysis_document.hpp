@@ -1,0 +1,20 @@
+// The analysis document (format "tallyproof/1", docs/analysis-document.md): reading one into an
+// Analysis, and writing an Analysis back out (for saving and share links).
+#pragma once
+#include <string>
+#include <string_view>
+
+#include "analysis.hpp"
+#include "status.hpp"
+
+namespace tallyproof {
+
+inline constexpr const char* kDocumentFormat = "tallyproof/1";
+
+// Reads the input side of a document. Unknown members are ignored (so a result document can be
+// read back); wrong types, bad values and newer formats are refused with a message naming the member.
+Status read_analysis_document(std::string_view json, Analysis* out);
+
+std::string write_analysis_document(const Analysis& a);  // one line of JSON
+
+}  // namespace tallyproof

@@ -1,0 +1,117 @@
+// Per-category diagnostics: Pearson residuals (O - E) / sqrt(E), adjusted residuals
+// (O - E) / sqrt(E (1 - p)) which are asymptotically standard normal (Haberman 1973, Biometrics
+// 29:205-220; as R's chisq.test()$stdres for a goodness-of-fit test), and exact binomial tests
+// of each count against its share, adjusted as R's p.adjust. Flags use the adjusted p-value.
+#include "category_diagnostics.hpp"
+
+#include <cmath>
+#include <cstdio>
+
+#include "binomial_test.hpp"
+#include "number_format.hpp"
+
+namespace tallyproof {
+namespace {
+
+std::string adjustment_phrase(MultiplicityMethod m) {
+    switch (m) {
+        case MultiplicityMethod::holm: return "Holm-adjusted";
+        case MultiplicityMethod::bonferroni: return "Bonferroni-adjusted";
+        case MultiplicityMethod::benjamini_hochberg: return "Benjamini-Hochberg-adjusted";
+        case MultiplicityMethod::none: return "unadjusted";
+    }
+    return "";
+}
+
+}  // namespace
+
+Status category_diagnostics(const std::vector<std::string>& labels, const std::vector<double>& observed,
+                            const std::vector<double>& expected, const CategoryDiagnosticsOptions& options,
+                            CategoryDiagnostics* result) {
+    *result = CategoryDiagnostics{};
+    const std::size_t k = observed.size();
+    if (k < 2) return Status::failure("Category diagnostics need at least two categories.");
+    if (expected.size() != k || labels.size() != k)
+        return Status::failure("There are " + std::to_string(k) + " observed counts, " +
+                               std::to_string(expected.size()) + " expected counts and " +
+                               std::to_string(labels.size()) + " labels; they must match.");
+    if (!(options.alpha > 0 && options.alpha < 1))
+        return Status::failure("The significance level alpha must lie between 0 and 1.");
+    double n = 0, e_total = 0;
+    for (std::size_t i = 0; i < k; ++i) {
+        const double o = observed[i], e = expected[i];
+        if (!std::isfinite(o) || o < 0 || o != std::floor(o))
+            return Status::failure("The count for \"" + labels[i] + "\" must be a non-negative whole number.");
+        if (!std::isfinite(e) || !(e > 0))
+            return Status::failure("The expected count for \"" + labels[i] +
+                                   "\" must be positive; merge or remove a category the model rules out.");
+        n += o;
+        e_total += e;
+    }
+    if (!(n > 0)) return Status::failure("All counts are zero: there is nothing to diagnose.");
+    if (std::fabs(e_total - n) > 1e-9 * n)
+        return Status::failure("The expected counts total " + format_significant(e_total, 10) +
+                               " but the observed counts total " + format_count(n) + "; they must agree.");
+
+    CategoryDiagnostics& r = *result;
+    r.alpha = options.alpha;
+    r.adjustment = options.adjustment;
+    r.categories.resize(k);
+    std::vector<double> p_values(k), log10_p(k);
+    for (std::size_t i = 0; i < k; ++i) {
+        CategoryDiagnostic& d = r.categories[i];
+        const double o = observed[i], e = expected[i], share = e / e_total;
+        d.label = labels[i];
+        d.observed = o;
+        d.expected = e;
+        d.difference = o - e;
+        d.observed_share = o / n;
+        d.expected_share = share;
+        d.contribution = d.difference * d.difference / e;
+        d.pearson_residual = d.difference / std::sqrt(e);
+        d.adjusted_residual = d.difference / std::sqrt(e * (1 - share));
+        d.binomial = binomial_test_two_sided(o, n, share);
+        if (std::isnan(d.binomial.p)) return Status::failure("The exact binomial test failed for \"" + labels[i] + "\".");
+        p_values[i] = d.binomial.p;
+        log10_p[i] = d.binomial.log10_p;
+        r.statistic += d.contribution;
+    }
+    std::vector<double> adjusted, adjusted_log10;
+    Status s = adjust_p_values(p_values, options.adjustment, &adjusted);
+    if (s.ok) s = adjust_log10_p_values(log10_p, options.adjustment, &adjusted_log10);
+    if (!s.ok) return s;
+
+    std::vector<ProportionInterval> goodman, sison;
+    s = goodman_intervals(observed, 1 - options.alpha, &goodman);
+    if (!s.ok) return s;
+    const Status sg = sison_glaz_intervals(observed, 1 - options.alpha, &sison, &r.sison_glaz);
+    if (!sg.ok) r.warnings.push_back("Sison-Glaz intervals are not available: " + sg.message);
+
+    std::string drivers;
+    for (std::size_t i = 0; i < k; ++i) {
+        CategoryDiagnostic& d = r.categories[i];
+        d.contribution_share = r.statistic > 0 ? d.contribution / r.statistic : 0.0;
+        d.adjusted = {adjusted[i], adjusted_log10[i]};
+        d.goodman = goodman[i];
+        d.sison_glaz = sg.ok ? sison[i] : ProportionInterval{NAN, NAN};
+        d.drives_result = adjusted[i] < options.alpha;
+        d.direction = d.difference > 0 ? "more than expected" : (d.difference < 0 ? "fewer than expected" : "as expected");
+        d.description = d.label + ": " + d.direction + " (" + format_count(d.observed) + " observed vs " +
+                        format_significant(d.expected, 3) + " expected; " + adjustment_phrase(options.adjustment) +
+                        " p = " + format_probability(d.adjusted) + ")";
+        if (d.drives_result) {
+            r.drivers.push_back(i);
+            drivers += (drivers.empty() ? "" : "; ") + d.description;
+        }
+    }
+    const std::string test = adjustment_phrase(options.adjustment) + " exact binomial p below " + format_plain(options.alpha);
+    if (r.drivers.empty())
+        r.summary = "No single category departs clearly from its expected share (" + test + " for none of the " +
+                    std::to_string(k) + " categories).";
+    else
+        r.summary = std::to_string(r.drivers.size()) + " of " + std::to_string(k) +
+                    " categories drive the result (" + test + "): " + drivers + ".";
+    return Status::success();
+}
+
+}  // namespace tallyproof

@@ -1,0 +1,33 @@
+// Effect sizes of a chi-square goodness-of-fit test: Cohen's w = sqrt(X2 / N) (Cohen 1988, ch. 7)
+// and Fei = sqrt(X2 / (N (1/p_min - 1))) (Ben-Shachar, Patil, Theriault, Wiernik and Luedecke 2023,
+// Mathematics 11(9):1982), with confidence intervals by inverting the noncentral chi-square in its
+// noncentrality (Steiger and Fouladi 1997). Interval ends are accurate to ~1e-10 relative.
+#pragma once
+
+#include "status.hpp"
+
+namespace tallyproof {
+
+double cohens_w(double chi_square, double n);  // sqrt(X2 / N); NaN if X2 < 0 or N <= 0
+// Cohen's (1988) labels: "very small" below .1, "small" from .1, "medium" from .3, "large" from .5.
+const char* cohens_w_label(double w);
+// Fei in [0, 1]; p_min is the smallest expected share, 0 < p_min < 1. NaN on a bad argument.
+double fei(double chi_square, double n, double p_min);
+
+// An effect size with a two-sided confidence interval at `level` (e.g. 0.95).
+struct EffectSizeInterval {
+    double estimate = 0;
+    double lower = 0;
+    double upper = 0;
+    double level = 0.95;
+};
+
+// Noncentrality interval: lambda_low with P(X >= X2; lambda_low) = (1-level)/2 and lambda_high
+// with P(X <= X2; lambda_high) = (1-level)/2, each 0 when even lambda = 0 is beyond it.
+Status noncentrality_interval(double chi_square, double df, double level, double* lambda_low, double* lambda_high);
+// w = sqrt(lambda / N) at both ends.
+Status cohens_w_interval(double chi_square, double n, double df, double level, EffectSizeInterval* out);
+// Fei = sqrt(lambda / (N (1/p_min - 1))) at both ends, capped at 1.
+Status fei_interval(double chi_square, double n, double df, double p_min, double level, EffectSizeInterval* out);
+
+}  // namespace tallyproof

@@ -1,0 +1,50 @@
+// Monte Carlo p-value of the multinomial goodness-of-fit test: B seeded replicates under the
+// null, p = (b + 1)/(B + 1) with b the replicates at least as extreme as the observed table
+// (Davison & Hinkley 1997, Bootstrap Methods, eq. 4.11; North, Curtis & Sham 2002, AJHG 71:439),
+// standard error sqrt(p(1-p)/B). Same seed, same spec: the same b, natively and in WebAssembly.
+#pragma once
+#include <cstdint>
+#include <vector>
+
+#include "exact_multinomial.hpp"
+#include "random.hpp"
+#include "status.hpp"
+#include "work_slice.hpp"
+
+namespace tallyproof {
+
+struct MonteCarloOptions {
+    std::uint64_t replicates = 100000;  // B, 1 .. 1e10
+    std::uint64_t seed = 20240101;      // any value; reported back so a run can be repeated
+};
+
+struct MonteCarloResult {
+    double p = 1;                  // (b + 1) / (B + 1)
+    double standard_error = 0;     // sqrt(p (1 - p) / B)
+    std::uint64_t extreme = 0;     // b: replicates with score >= threshold (ties included)
+    std::uint64_t replicates = 0;  // B
+    std::uint64_t seed = 0;
+    double observed_score = 0;     // T(observed), see OutcomeScores
+};
+
+// Resumable run; the work unit is one replicate.
+struct MonteCarloState {
+    OutcomeScores s;
+    MultinomialSampler sampler;
+    Xoshiro256 rng;
+    std::uint64_t seed = 0, target = 0, done = 0, extreme = 0;
+    std::vector<int> counts;
+    WorkProgress progress;
+    bool cancel_requested = false;
+};
+
+Status monte_carlo_start(const MultinomialTestSpec& spec, const MonteCarloOptions& options, MonteCarloState* state);
+WorkProgress monte_carlo_step(MonteCarloState* state, std::uint64_t budget);  // at most `budget` replicates
+void monte_carlo_cancel(MonteCarloState* state);  // the next step reports cancelled
+Status monte_carlo_result(const MonteCarloState& state, MonteCarloResult* result);  // once done
+
+// One-call form: start, then step until done.
+Status monte_carlo_p_value(const MultinomialTestSpec& spec, const MonteCarloOptions& options,
+                           MonteCarloResult* result);
+
+}  // namespace tallyproof

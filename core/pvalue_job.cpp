@@ -1,0 +1,120 @@
+// Runs exact_multinomial (branch and bound after Resin 2023) or monte_carlo (Davison and
+// Hinkley 1997, eq. 4.11) on the tested cells of a Result; the decision then uses that p-value.
+#include "pvalue_job.hpp"
+
+#include <cmath>
+
+#include "goodness_of_fit.hpp"
+#include "number_format.hpp"
+
+namespace tallyproof {
+namespace {
+
+MultinomialTestSpec spec_of(const Analysis& a, const Result& r) {
+    MultinomialTestSpec spec;
+    spec.observed = r.tested_observed;
+    spec.null_shares.resize(r.tested_expected.size());
+    for (std::size_t i = 0; i < r.tested_expected.size(); ++i) spec.null_shares[i] = r.tested_expected[i] / r.n;
+    spec.ordering = a.pvalue.ordering == ExactOrdering::probability ? ExtremeOrdering::probability : ExtremeOrdering::statistic;
+    spec.lambda = a.statistic.lambda;
+    return spec;
+}
+
+}  // namespace
+
+void start_pvalue_job(const Analysis& a, const Result& r, PValueJob* job) {
+    job->method = a.pvalue.method;
+    job->exact.reset();
+    job->monte_carlo.reset();
+    job->progress = WorkProgress{};
+    job->status = Status::success();
+    if (!r.status.ok || a.pvalue.method == PValueMethod::asymptotic) {
+        job->progress.done = true;
+        job->progress.fraction = 1;
+        return;
+    }
+    const MultinomialTestSpec spec = spec_of(a, r);
+    if (a.pvalue.method == PValueMethod::exact) {
+        job->exact = std::make_unique<ExactMultinomialState>();
+        job->status = exact_multinomial_start(spec, ExactMultinomialOptions{}, job->exact.get());
+    } else {
+        job->monte_carlo = std::make_unique<MonteCarloState>();
+        MonteCarloOptions mo;
+        mo.replicates = a.pvalue.replicates;
+        mo.seed = a.pvalue.seed;
+        job->status = monte_carlo_start(spec, mo, job->monte_carlo.get());
+    }
+    if (!job->status.ok) {
+        job->progress.done = true;
+        job->progress.fraction = 1;
+    }
+}
+
+WorkProgress step_pvalue_job(PValueJob* job, std::uint64_t budget) {
+    if (job->progress.done || job->progress.cancelled) return job->progress;
+    if (job->exact) job->progress = exact_multinomial_step(job->exact.get(), budget);
+    else if (job->monte_carlo) job->progress = monte_carlo_step(job->monte_carlo.get(), budget);
+    else { job->progress.done = true; job->progress.fraction = 1; }
+    return job->progress;
+}
+
+void cancel_pvalue_job(PValueJob* job) {
+    if (job->exact) exact_multinomial_cancel(job->exact.get());
+    if (job->monte_carlo) monte_carlo_cancel(job->monte_carlo.get());
+    step_pvalue_job(job, 0);
+    job->progress.cancelled = true;
+}
+
+void finish_pvalue_job(const PValueJob& job, Result* r) {
+    if (!r->status.ok) return;
+    if (job.method == PValueMethod::exact) {
+        r->exact.requested = true;
+        ExactMultinomialResult er;
+        const Status s = job.status.ok ? (job.exact ? exact_multinomial_result(*job.exact, &er) : Status::failure("not started"))
+                                       : job.status;
+        if (!s.ok || job.progress.cancelled) {
+            r->exact.refusal = job.progress.cancelled ? "The exact computation was cancelled." : s.message;
+            r->warnings.push_back("Exact p-value not available: " + r->exact.refusal + " The asymptotic p-value is shown.");
+            return;
+        }
+        r->exact.computed = true;
+        r->exact.p = er.p;
+        r->exact.error_bound = er.error_bound;
+        r->exact.work_units = static_cast<double>(er.work_units);
+        r->method = PValueMethod::exact;
+        r->p = er.p;
+    } else if (job.method == PValueMethod::monte_carlo) {
+        r->monte_carlo.requested = true;
+        MonteCarloResult mr;
+        const Status s = job.status.ok ? (job.monte_carlo ? monte_carlo_result(*job.monte_carlo, &mr) : Status::failure("not started"))
+                                       : job.status;
+        if (!s.ok || job.progress.cancelled) {
+            r->monte_carlo.refusal = job.progress.cancelled ? "The simulation was cancelled." : s.message;
+            r->warnings.push_back("Monte Carlo p-value not available: " + r->monte_carlo.refusal + " The asymptotic p-value is shown.");
+            return;
+        }
+        r->monte_carlo.computed = true;
+        r->monte_carlo.p = mr.p;
+        r->monte_carlo.standard_error = mr.standard_error;
+        r->monte_carlo.replicates = mr.replicates;
+        r->monte_carlo.hits = mr.extreme;
+        r->monte_carlo.seed = mr.seed;
+        r->method = PValueMethod::monte_carlo;
+        r->p = TailProbability{mr.p, std::log10(mr.p)};
+    } else {
+        return;
+    }
+    r->reject = r->p.p <= r->alpha;
+}
+
+Result analyse_completely(const Analysis& a) {
+    Result r = analyse(a);
+    if (!r.status.ok) return r;
+    PValueJob job;
+    start_pvalue_job(a, r, &job);
+    while (!job.progress.done && !job.progress.cancelled) step_pvalue_job(&job, 1u << 20);
+    finish_pvalue_job(job, &r);
+    return r;
+}
+
+}  // namespace tallyproof

@@ -1,0 +1,195 @@
+// Portable seeded random numbers: xoshiro256** with splitmix64 seeding (Blackman & Vigna 2021),
+// Lemire's (2019) unbiased bounded integers, and binomial/multinomial sampling by Walker alias
+// tables (Vose 1991 construction). Integer ops and IEEE +,-,*,/ only (no libm), so results do
+// not depend on the platform's math library; tails below 2^-64 of the mode weight are omitted.
+#include "random.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+
+namespace tallyproof {
+namespace {
+
+std::uint64_t splitmix64(std::uint64_t* x) {
+    std::uint64_t z = (*x += 0x9e3779b97f4a7c15ULL);
+    z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ULL;
+    z = (z ^ (z >> 27)) * 0x94d049bb133111ebULL;
+    return z ^ (z >> 31);
+}
+
+inline std::uint64_t rotl(std::uint64_t x, int k) { return (x << k) | (x >> (64 - k)); }
+
+constexpr double kTailCut = 5.421010862427522e-20;  // 2^-64: relative weight where tables stop
+
+AliasTable point_mass(int x) {
+    AliasTable t;
+    t.lo = x;
+    t.columns.assign(1, AliasColumn{1.0, 0});
+    return t;
+}
+
+}  // namespace
+
+Xoshiro256 seed_xoshiro256(std::uint64_t seed) {
+    Xoshiro256 g;
+    std::uint64_t x = seed;
+    for (auto& w : g.s) w = splitmix64(&x);
+    return g;
+}
+
+std::uint64_t next_u64(Xoshiro256* g) {
+    std::uint64_t* s = g->s;
+    const std::uint64_t result = rotl(s[1] * 5, 7) * 9;
+    const std::uint64_t t = s[1] << 17;
+    s[2] ^= s[0];
+    s[3] ^= s[1];
+    s[1] ^= s[2];
+    s[0] ^= s[3];
+    s[2] ^= t;
+    s[3] = rotl(s[3], 45);
+    return result;
+}
+
+double next_unit(Xoshiro256* g) { return static_cast<double>(next_u64(g) >> 11) * 0x1.0p-53; }
+
+std::uint32_t next_below(Xoshiro256* g, std::uint32_t n) {
+    // Lemire's multiply-and-reject on 32-bit words: exactly uniform for every n.
+    std::uint64_t m = (next_u64(g) >> 32) * n;
+    std::uint32_t low = static_cast<std::uint32_t>(m);
+    if (low < n) {
+        const std::uint32_t threshold = static_cast<std::uint32_t>(-n) % n;
+        while (low < threshold) {
+            m = (next_u64(g) >> 32) * n;
+            low = static_cast<std::uint32_t>(m);
+        }
+    }
+    return static_cast<std::uint32_t>(m >> 32);
+}
+
+AliasTable binomial_alias_table(int n, double q, double odds) {
+    if (n <= 0 || !(q > 0)) return point_mass(0);
+    if (!(q < 1) || !(odds < std::numeric_limits<double>::infinity())) return point_mass(n);
+    int mode = static_cast<int>(std::floor((n + 1.0) * q));
+    if (mode > n) mode = n;
+    // Weights relative to the mode by the ratio f(x+1)/f(x) = (n-x)/(x+1) * odds.
+    std::vector<double> up{1.0}, down;
+    for (int x = mode; x < n; ++x) {
+        const double w = up.back() * (static_cast<double>(n - x) / (x + 1.0)) * odds;
+        if (w < kTailCut) break;
+        up.push_back(w);
+    }
+    for (int x = mode; x > 0; --x) {
+        const double prev = down.empty() ? 1.0 : down.back();
+        const double w = prev * (x / ((n - x + 1.0) * odds));
+        if (w < kTailCut) break;
+        down.push_back(w);
+    }
+    AliasTable t;
+    t.lo = mode - static_cast<int>(down.size());
+    const std::size_t size = down.size() + up.size();
+    std::vector<double> w(size);
+    for (std::size_t i = 0; i < down.size(); ++i) w[i] = down[down.size() - 1 - i];
+    for (std::size_t i = 0; i < up.size(); ++i) w[down.size() + i] = up[i];
+    // Sum from the smallest weights up so the total carries no avoidable rounding.
+    double total = 0;
+    {
+        std::size_t lo = 0, hi = size;  // merge the two monotone halves from their small ends
+        const std::size_t m0 = down.size();
+        while (lo < m0 && hi > m0) total += (w[lo] <= w[hi - 1]) ? w[lo++] : w[--hi];
+        while (lo < m0) total += w[lo++];
+        while (hi > m0) total += w[--hi];
+    }
+    // Vose's stable alias construction.
+    t.columns.assign(size, AliasColumn{1.0, 0});
+    std::vector<double> scaled(size);
+    std::vector<std::uint32_t> small, large;
+    small.reserve(size);
+    large.reserve(size);
+    for (std::size_t i = 0; i < size; ++i) {
+        scaled[i] = w[i] * static_cast<double>(size) / total;
+        t.columns[i].alias = static_cast<std::uint32_t>(i);
+        (scaled[i] < 1.0 ? small : large).push_back(static_cast<std::uint32_t>(i));
+    }
+    while (!small.empty() && !large.empty()) {
+        const std::uint32_t l = small.back();
+        small.pop_back();
+        const std::uint32_t g = large.back();
+        large.pop_back();
+        t.columns[l].accept = scaled[l];
+        t.columns[l].alias = g;
+        scaled[g] = (scaled[g] + scaled[l]) - 1.0;
+        (scaled[g] < 1.0 ? small : large).push_back(g);
+    }
+    for (std::uint32_t i : small) t.columns[i].accept = 1.0;  // leftovers are 1 up to rounding
+    for (std::uint32_t i : large) t.columns[i].accept = 1.0;
+    return t;
+}
+
+int sample_alias(const AliasTable& t, Xoshiro256* g) {
+    const std::size_t size = t.columns.size();
+    if (size == 1) return t.lo;
+    const double x = next_unit(g) * static_cast<double>(size);  // exact: size < 2^31, u on 2^-53 grid
+    const std::uint32_t col = static_cast<std::uint32_t>(x);  // truncation = floor for x >= 0
+    const AliasColumn& c = t.columns[col];
+    return t.lo + static_cast<int>(x - col < c.accept ? col : c.alias);
+}
+
+bool make_multinomial_sampler(int n, const std::vector<double>& pi, MultinomialSampler* s) {
+    *s = MultinomialSampler{};
+    const std::size_t k = pi.size();
+    if (n < 0 || k == 0) return false;
+    for (double p : pi)
+        if (!std::isfinite(p) || p < 0) return false;
+    // Suffix sums so every conditional share is formed without subtracting from 1.
+    std::vector<double> rest(k + 1, 0.0);
+    for (std::size_t j = k; j-- > 0;) rest[j] = rest[j + 1] + pi[j];
+    if (!(rest[0] > 0)) return false;
+    s->n = n;
+    s->q.assign(k, 0.0);
+    s->odds.assign(k, 0.0);
+    for (std::size_t j = 0; j < k; ++j) {
+        s->q[j] = rest[j] > 0 ? pi[j] / rest[j] : 0.0;
+        s->odds[j] = rest[j + 1] > 0 ? pi[j] / rest[j + 1] : std::numeric_limits<double>::infinity();
+    }
+    s->slots.assign(k * (static_cast<std::size_t>(n) + 1), MultinomialSampler::Slot{});
+    return true;
+}
+
+void sample_multinomial(MultinomialSampler* s, Xoshiro256* g, int* counts) {
+    const std::size_t k = s->q.size();
+    const std::size_t stride = static_cast<std::size_t>(s->n) + 1;
+    int m = s->n;
+    for (std::size_t j = 0; j + 1 < k; ++j) {
+        if (m == 0) {
+            counts[j] = 0;
+            continue;
+        }
+        MultinomialSampler::Slot* slot = &s->slots[j * stride + static_cast<std::size_t>(m)];
+        if (!slot->columns) {
+            auto made = std::make_shared<const AliasTable>(binomial_alias_table(m, s->q[j], s->odds[j]));
+            if (s->cached_entries + made->columns.size() > s->max_cached_entries) {
+                std::fill(s->slots.begin(), s->slots.end(), MultinomialSampler::Slot{});
+                s->owned.clear();
+                s->cached_entries = 0;
+            }
+            s->cached_entries += made->columns.size();
+            slot->columns = made->columns.data();
+            slot->lo = made->lo;
+            slot->size = static_cast<std::uint32_t>(made->columns.size());
+            s->owned.push_back(std::move(made));
+        }
+        int x = slot->lo;
+        if (slot->size > 1) {  // same arithmetic as sample_alias
+            const double u = next_unit(g) * static_cast<double>(slot->size);
+            const std::uint32_t col = static_cast<std::uint32_t>(u);
+            const AliasColumn& c = slot->columns[col];
+            x += static_cast<int>(u - col < c.accept ? col : c.alias);
+        }
+        counts[j] = x;
+        m -= x;
+    }
+    counts[k - 1] = m;
+}
+
+}  // namespace tallyproof
