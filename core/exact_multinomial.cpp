@@ -1,11 +1,8 @@
-// Exact multinomial p-value by branch and bound over count prefixes (x_1..x_j). The score is
-// separable and discrete-convex in each count, so the least score over the completions of a
-// prefix is an infimal convolution computed once by merging sorted increments (Gross 1956;
-// Ibaraki & Katoh 1988, Resource Allocation Problems), and along each next count the
-// non-extreme children form one interval. Children outside it are wholly extreme: their total
-// mass is a binomial tail summed outward with a geometric remainder bound; the last category is
-// implied, so leaves are never visited. Compared with Resin (2023), who sums the acceptance
-// region and takes 1 - P, p here is a sum of positive terms with a stated rounding bound.
+// Exact multinomial p-value by branch and bound over count prefixes. Scores are separable and
+// discrete-convex, so the least score over a prefix's completions is an infimal convolution
+// (merge of sorted increments: Ibaraki & Katoh 1988, Resource Allocation Problems, MIT Press) and
+// the non-extreme children form one interval; wholly extreme children add a binomial tail summed
+// outward with a geometric remainder bound. p is a sum of positive terms; bound stated per run.
 #include "exact_multinomial.hpp"
 
 #include <algorithm>

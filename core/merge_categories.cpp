@@ -1,11 +1,7 @@
 // Merging of thin categories (common practice after Cochran 1954, Biometrics 10:417-451).
 // Ordered: the group with the smallest expected count joins its neighbour with the smaller
 // expected count, repeatedly, until the rule holds. Unordered: the thinnest cells are pooled
-// into one "Other" group, taking cells in ascending order of expected count until the rule holds.
-// Why expected counts only: a grouping chosen by looking at the observed counts depends on the
-// data, so X^2 no longer follows its chi-square reference distribution; pooling cells because
-// they look small (or large) in the sample hides or manufactures deviations and biases the test.
-// The expected counts are fixed by the hypothesis, so merging on them keeps the test honest.
+// into one "Other" group, in ascending order of expected count, until the rule holds.
 #include "merge_categories.hpp"
 
 #include <algorithm>
@@ -156,11 +152,15 @@ bool merge_rule_holds(const std::vector<double>& expected, MergeRule rule, doubl
     return false;
 }
 
+// Only expected counts steer the merging. A grouping chosen by looking at the observed counts
+// depends on the data, so X^2 no longer follows its chi-square reference distribution: pooling
+// cells because they look small (or large) in the sample hides or manufactures deviations and
+// biases the test. The expected counts are fixed by the hypothesis before the data are seen.
 Status merge_categories(const std::vector<std::string>& labels, const std::vector<double>& observed,
                         const std::vector<double>& expected, const MergeOptions& options, MergeResult* result) {
     *result = MergeResult{};
     const std::size_t k = observed.size();
-    if (k == 0) return Status::failure("There are no categories to merge.");
+    if (k < 2) return Status::failure("Merging needs at least two categories; there are " + std::to_string(k) + ".");
     if (expected.size() != k)
         return Status::failure("There are " + std::to_string(k) + " observed counts but " +
                                std::to_string(expected.size()) + " expected counts.");

@@ -132,7 +132,7 @@ Status fitted_model(const Analysis& a, NullModel* out) {
     out->warnings.insert(out->warnings.end(), fit.warnings.begin(), fit.warnings.end());
     std::string d = fit.model;
     for (const auto& p : fit.parameters)
-        d += ", " + p.name + " " + (p.estimated ? "estimated " : "given ") + format_significant(p.value, 4);
+        d += ", " + p.name + " " + (p.estimated ? "estimated " + format_significant(p.value, 4) : "given " + format_plain(p.value));
     out->description = d;
     return Status::success();
 }
@@ -151,14 +151,26 @@ Status null_model(const Analysis& a, double n, NullModel* out) {
     for (std::size_t i = 0; i < k; ++i) out->shares[i] = expected[i] / n;
     switch (a.model.kind) {
         case ModelKind::equal: out->description = "equal shares across " + std::to_string(k) + " categories"; break;
-        case ModelKind::shares: out->description = "stated shares"; break;
+        case ModelKind::shares: {
+            double total = 0;
+            for (double v : a.model.values) total += v;
+            std::string r;
+            for (double v : a.model.values) r += (r.empty() ? "" : ", ") + format_plain(v);
+            out->description = "stated shares " + r + (std::fabs(total - 100) < std::fabs(total - 1) ? " (%)" : "");
+            break;
+        }
         case ModelKind::ratio: {
             std::string r;
             for (double v : a.model.values) r += (r.empty() ? "" : ":") + format_plain(v);
             out->description = "ratio " + r;
             break;
         }
-        case ModelKind::counts: out->description = "stated expected counts"; break;
+        case ModelKind::counts: {
+            std::string r;
+            for (double v : a.model.values) r += (r.empty() ? "" : ", ") + format_plain(v);
+            out->description = "stated expected counts " + r;
+            break;
+        }
         default: break;
     }
     return Status::success();

@@ -1,142 +1,210 @@
-// Reads pasted counts. Cells are split on tabs (what spreadsheets put on the clipboard); text
-// without tabs is split on runs of spaces, the last cell being the count. A first row whose
-// count cell is not a number is a header row. Counts must be non-negative whole numbers.
+// Reads pasted text: picks the separator, samples the first rows to detect the shape, then
+// reads a table (table_shape) or streams raw observations into a tally (raw_observations,
+// binning). Sizes are guarded so that no paste can exhaust memory or time. Common practice
+// for spreadsheet clipboard and CSV text (RFC 4180), with every decision stated in a note.
 #include "paste_parser.hpp"
 
-#include <cerrno>
-#include <cmath>
-#include <cstdlib>
-#include <set>
+#include <algorithm>
+
+#include "binning.hpp"
+#include "raw_observations.hpp"
+#include "table_shape.hpp"
 
 namespace tallyproof {
 namespace {
 
-std::string_view trim(std::string_view s) {
-    const char* ws = " \t\r\n\f\v";
-    const auto b = s.find_first_not_of(ws);
-    if (b == std::string_view::npos) return {};
-    const auto e = s.find_last_not_of(ws);
-    return s.substr(b, e - b + 1);
+constexpr std::size_t kSampleRows = 2000;    // rows read before the shape is decided
+constexpr std::size_t kSampleCells = 10000;  // raw cells that decide the decimal mark
+
+struct ShapeName { InputShape shape; const char* name; const char* words; };
+constexpr ShapeName kShapes[] = {
+    {InputShape::label_count, "label-count", "label and count"},
+    {InputShape::label_observed_expected, "label-observed-expected", "label, observed and expected"},
+    {InputShape::counts_column, "counts-column", "a single column of counts"},
+    {InputShape::counts_row, "counts-row", "a single row of counts"},
+    {InputShape::raw_text, "raw-text", "raw text values"},
+    {InputShape::raw_whole_numbers, "raw-whole-numbers", "raw whole numbers"},
+    {InputShape::raw_digits, "raw-digits", "raw numbers for a digit test"},
+    {InputShape::raw_bins, "raw-bins", "raw numbers counted into bins"},
+};
+
+const char* shape_words(InputShape s) {
+    for (const auto& n : kShapes)
+        if (n.shape == s) return n.words;
+    return "";
 }
 
-std::vector<std::string_view> split_lines(std::string_view text) {
-    std::vector<std::string_view> lines;
-    std::size_t start = 0;
-    for (std::size_t i = 0; i < text.size(); ++i) {
-        if (text[i] == '\n' || text[i] == '\r') {
-            lines.push_back(text.substr(start, i - start));
-            if (text[i] == '\r' && i + 1 < text.size() && text[i + 1] == '\n') ++i;
-            start = i + 1;
-        }
-    }
-    if (start < text.size()) lines.push_back(text.substr(start));
-    return lines;
+bool is_raw(InputShape s) {
+    return s == InputShape::raw_text || s == InputShape::raw_whole_numbers || s == InputShape::raw_digits ||
+           s == InputShape::raw_bins;
 }
 
-std::vector<std::string_view> split_cells(std::string_view line, bool tabs) {
-    std::vector<std::string_view> cells;
-    if (tabs) {
-        std::size_t start = 0;
-        for (std::size_t i = 0; i <= line.size(); ++i) {
-            if (i == line.size() || line[i] == '\t') {
-                cells.push_back(trim(line.substr(start, i - start)));
-                start = i + 1;
-            }
-        }
-        while (!cells.empty() && cells.back().empty()) cells.pop_back();
-        return cells;
-    }
-    // No tabs: the count is the last space-separated word, the label everything before it.
-    line = trim(line);
-    const auto cut = line.find_last_of(" \t");
-    if (cut == std::string_view::npos) return {line};
-    return {trim(line.substr(0, cut)), trim(line.substr(cut + 1))};
-}
-
-bool parse_number(std::string_view cell, double* value) {
-    if (cell.empty() || cell.size() > 64) return false;
-    std::string s(cell);
-    char* end = nullptr;
-    errno = 0;
-    const double v = std::strtod(s.c_str(), &end);
-    if (end != s.c_str() + s.size() || errno == ERANGE || !std::isfinite(v)) return false;
-    *value = v;
-    return true;
-}
-
-std::string where(int line, int column) {
-    return "Line " + std::to_string(line) + ", column " + std::to_string(column) + ": ";
-}
-
-std::string quoted(std::string_view cell) {
-    std::string q(cell.substr(0, 40));
-    if (cell.size() > 40) q += "...";
-    return "\"" + q + "\"";
+TableRow to_row(const Record& rec) {
+    TableRow row;
+    row.line = rec.line;
+    row.cells.reserve(rec.cells.size());
+    for (auto c : rec.cells) row.cells.emplace_back(c);
+    return row;
 }
 
 }  // namespace
 
-ParsedCounts parse_counts(std::string_view text) {
-    ParsedCounts out;
-    if (text.size() >= 3 && text.substr(0, 3) == "\xEF\xBB\xBF") text.remove_prefix(3);  // byte-order mark
-    const bool tabs = text.find('\t') != std::string_view::npos;
-    const auto lines = split_lines(text);
-    std::set<std::string> seen;
-    bool first_row = true;
-    for (std::size_t li = 0; li < lines.size(); ++li) {
-        const int line_no = static_cast<int>(li) + 1;
-        if (trim(lines[li]).empty()) continue;
-        const auto cells = split_cells(lines[li], tabs);
-        if (cells.size() > 2) {
-            out.status = Status::failure(where(line_no, 3) + "found " + std::to_string(cells.size()) +
-                                             " cells; expected a label and a count.", line_no, 3);
-            return out;
-        }
-        const bool has_label = cells.size() == 2;
-        const std::string_view count_cell = cells.back();
-        const int count_col = has_label ? 2 : 1;
-        double v = 0;
-        if (!parse_number(count_cell, &v)) {
-            if (first_row && has_label) {  // a header row such as "Grade<TAB>Count"
-                out.notes.push_back("Line " + std::to_string(line_no) + " read as a header row.");
-                first_row = false;
-                continue;
-            }
-            out.status = Status::failure(where(line_no, count_col) + quoted(count_cell) +
-                                             " is not a count; expected a non-negative whole number.",
-                                         line_no, count_col);
-            return out;
-        }
-        first_row = false;
-        if (v < 0) {
-            out.status = Status::failure(where(line_no, count_col) + quoted(count_cell) +
-                                             " is negative; counts must be non-negative whole numbers.",
-                                         line_no, count_col);
-            return out;
-        }
-        if (v != std::floor(v)) {
-            out.status = Status::failure(where(line_no, count_col) + quoted(count_cell) +
-                                             " is not a whole number; counts must be whole numbers.",
-                                         line_no, count_col);
-            return out;
-        }
-        std::string label = has_label ? std::string(cells[0]) : "Category " + std::to_string(out.observed.size() + 1);
-        if (label.empty()) label = "Category " + std::to_string(out.observed.size() + 1);
-        if (!seen.insert(label).second) {
-            out.status = Status::failure(where(line_no, 1) + "the label " + quoted(label) +
-                                             " appears twice; each category needs its own label.",
-                                         line_no, 1);
-            return out;
-        }
-        out.categories.push_back(std::move(label));
-        out.observed.push_back(v);
+const char* input_shape_name(InputShape shape) {
+    for (const auto& n : kShapes)
+        if (n.shape == shape) return n.name;
+    return "label-count";
+}
+
+bool input_shape_from_name(const std::string& name, InputShape* shape) {
+    for (const auto& n : kShapes)
+        if (name == n.name) { *shape = n.shape; return true; }
+    return false;
+}
+
+const char* expected_kind_name(ExpectedKind kind) {
+    switch (kind) {
+        case ExpectedKind::none: return "none";
+        case ExpectedKind::shares: return "shares";
+        case ExpectedKind::percentages: return "percentages";
+        case ExpectedKind::ratios: return "ratios";
+        case ExpectedKind::counts: return "counts";
     }
-    if (out.observed.empty()) {
-        out.status = Status::failure(text.find_first_not_of(" \t\r\n") == std::string_view::npos
-                                         ? "Nothing to read: the pasted text is empty."
-                                         : "No counts found: paste lines of label and count.");
+    return "none";
+}
+
+ParsedInput parse_input(std::string_view text, const ParseOptions& options) {
+    ParsedInput out;
+    if (text.size() > kMaxInputBytes) {
+        out.status = Status::failure("The pasted text has " + std::to_string(text.size() >> 20) +
+                                     " MB; at most " + std::to_string(kMaxInputBytes >> 20) + " MB can be read.");
         return out;
     }
+    text = skip_byte_order_mark(text);
+    if (trim_cell(text).empty() && text.find_first_not_of(" \t\r\n\v\f") == std::string_view::npos) {
+        out.status = Status::failure("Nothing to read: the pasted text is empty.");
+        return out;
+    }
+    const bool numbers_expected = options.digits || options.bins.kind != BinChoice::Kind::none ||
+                                  (options.decimal && *options.decimal == DecimalMark::comma);
+    const Separator sep = options.separator ? *options.separator : detect_separator(text, numbers_expected);
+    out.separator = sep;
+
+    // Sample the leading rows; the shape is decided from them.
+    DelimitedReader reader(text, sep);
+    Record rec;
+    std::vector<TableRow> rows;
+    bool more = false;
+    while (reader.next(&rec)) {
+        if (rec.blank()) continue;
+        if (rows.size() == kSampleRows) { more = true; break; }
+        rows.push_back(to_row(rec));
+    }
+    if (!more && !reader.status().ok) {
+        add_problem(&out, reader.status().line, reader.status().column, reader.status().message);
+        return out;
+    }
+    if (rows.empty()) {
+        out.status = Status::failure("No counts found: paste lines of label and count.");
+        return out;
+    }
+    const bool words = sep == Separator::spaces;
+    std::vector<TableRow> grouped;
+    if (words) {
+        grouped = rows;
+        regroup_space_words(&grouped);
+    }
+    std::string why;
+    const InputShape shape = options.shape ? *options.shape : detect_shape(words ? grouped : rows, more, options, &why);
+    out.shape = shape;
+    if (!why.empty()) {
+        out.notes.push_back(why);
+        out.alternatives.push_back("Read as a single column of counts instead, with the counts-column shape.");
+    }
+
+    if (!is_raw(shape)) {
+        if (more) {  // the rest of a table: bounded by the category limit
+            rows.push_back(to_row(rec));
+            while (reader.next(&rec)) {
+                if (rec.blank()) continue;
+                if (rows.size() > kMaxCategories + 1) {
+                    out.status = Status::failure(cell_location(rec.line, 0) + "more than " + std::to_string(kMaxCategories) +
+                                                     " rows; expected a table of at most that many categories.",
+                                                 rec.line, 0);
+                    return out;
+                }
+                rows.push_back(to_row(rec));
+            }
+            if (!reader.status().ok) {
+                add_problem(&out, reader.status().line, reader.status().column, reader.status().message);
+                return out;
+            }
+            if (words) {
+                grouped = rows;
+                regroup_space_words(&grouped);
+            }
+        }
+        read_table(words ? grouped : rows, options, &out);
+        if (out.status.ok)
+            out.notes.insert(out.notes.begin(), "Read " + std::to_string(out.categories.size()) + " categories as " +
+                                                    shape_words(shape) + " (" + separator_name(sep) + "-separated, " +
+                                                    decimal_mark_name(out.decimal) + ").");
+        return out;
+    }
+
+    // Raw observations: stream the whole text into a tally.
+    RawSource src;
+    src.text = text;
+    src.separator = sep;
+    src.whole_lines = words && shape == InputShape::raw_text;
+    src.numbers = shape != InputShape::raw_text;
+    const std::vector<TableRow>& sample = src.whole_lines ? grouped : rows;
+    const bool header = shape == InputShape::raw_text ? false : first_row_is_header(sample) ||
+                        (sample.size() >= 2 && !looks_numeric(sample[0].cells[0]) && looks_numeric(sample[1].cells[0]));
+    if (header) {
+        src.header_line = sample[0].line;
+        out.column_names = sample[0].cells;
+        out.notes.push_back("Line " + std::to_string(src.header_line) + " read as a header row.");
+    }
+    if (shape != InputShape::raw_text) {
+        const DecimalMark fallback = sep == Separator::semicolon ? DecimalMark::comma : DecimalMark::point;
+        if (options.decimal) out.decimal = *options.decimal;
+        else {
+            MarkVotes votes;
+            std::size_t cells = 0;
+            for (std::size_t r = header ? 1 : 0; r < rows.size() && cells < kSampleCells; ++r)
+                for (std::size_t i = 0; i < rows[r].cells.size() && cells < kSampleCells; ++i, ++cells)
+                    votes.add(rows[r].cells[i], rows[r].line, static_cast<int>(i) + 1);
+            std::string note, alternative;
+            out.decimal = decide_decimal_mark(votes, shape == InputShape::raw_whole_numbers, fallback, &note, &alternative);
+            if (!note.empty()) out.notes.push_back(note);
+            if (!alternative.empty()) out.alternatives.push_back(alternative);
+        }
+    }
+    switch (shape) {
+        case InputShape::raw_text: tally_raw_text(src, options, &out); break;
+        case InputShape::raw_whole_numbers: tally_raw_whole_numbers(src, options, &out); break;
+        case InputShape::raw_digits: tally_raw_digits(src, options.digits.value_or(DigitTest::first), &out); break;
+        default: count_into_bins(src, options.bins, &out); break;
+    }
+    if (!out.status.ok) return out;
+    out.notes.insert(out.notes.begin(), std::string("Read as ") + shape_words(shape) + " (" + separator_name(sep) +
+                                            "-separated" +
+                                            (shape == InputShape::raw_text ? "" : std::string(", ") + decimal_mark_name(out.decimal)) +
+                                            ").");
+    if (out.categories.empty()) out.status = Status::failure("No values found: paste one value per line or per cell.");
+    else if (out.categories.size() == 1 && shape != InputShape::raw_digits && shape != InputShape::raw_bins)
+        out.status = Status::failure("Only one category (\"" + out.categories[0] +
+                                     "\"): a goodness-of-fit test needs at least two.");
+    return out;
+}
+
+ParsedCounts parse_counts(std::string_view text) {
+    ParsedInput in = parse_input(text, ParseOptions{});
+    ParsedCounts out;
+    out.status = std::move(in.status);
+    out.categories = std::move(in.categories);
+    out.observed = std::move(in.observed);
+    out.notes = std::move(in.notes);
     return out;
 }
 

@@ -1,13 +1,83 @@
-// Paste parser: turns text copied from a spreadsheet (lines of `label<TAB>count`, or a single
-// column of counts) into categories and observed counts, or a refusal naming line and column.
+// Paste parser: turns text copied from a spreadsheet or exported as CSV into categories and
+// observed counts (and optionally an expected column), or a refusal naming line and column.
+// Shapes, separators and number formats are detected and stated in plain sentences; the
+// conventions are common practice for clipboard and CSV text (RFC 4180; CLDR number formats).
 #pragma once
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
 
+#include "delimited_text.hpp"
+#include "digit_laws.hpp"
+#include "number_reading.hpp"
 #include "status.hpp"
 
 namespace tallyproof {
+
+enum class InputShape {
+    label_count,              // label<TAB>count per line
+    label_observed_expected,  // label, observed, expected per line
+    counts_column,            // one count per line, labels Category 1..k
+    counts_row,               // one row of counts across cells (optionally under a row of labels)
+    raw_text,                 // raw observations: text values, tallied
+    raw_whole_numbers,        // raw observations: whole numbers, ordered categories min..max
+    raw_digits,               // raw numbers tallied by a digit (first, second, first two, last)
+    raw_bins,                 // raw numbers counted into bins
+};
+const char* input_shape_name(InputShape shape);                           // "label-count", ...
+bool input_shape_from_name(const std::string& name, InputShape* shape);  // false if unknown
+
+enum class ExpectedKind { none, shares, percentages, ratios, counts };
+const char* expected_kind_name(ExpectedKind kind);  // "shares", "percentages", ...
+
+struct BinChoice {
+    enum class Kind { none, edges, equal_width, equal_probability } kind = Kind::none;
+    std::vector<double> edges;  // Kind::edges: strictly increasing, may start at -inf / end at +inf
+    int bins = 0;               // equal_width / equal_probability: the number of bins K
+};
+
+struct ParseOptions {
+    std::optional<InputShape> shape;       // override the detected shape
+    bool raw = false;                      // the cells are raw observations, one per cell
+    std::optional<DigitTest> digits;       // tally this digit of raw numbers
+    BinChoice bins;                        // count raw numbers into bins
+    bool case_fold = false;                // raw text: "Red" and "red" are one category
+    bool sorted = false;                   // raw text: categories in sorted, not first-seen, order
+    std::optional<DecimalMark> decimal;    // override the detected decimal mark
+    std::optional<Separator> separator;    // override the detected separator
+};
+
+struct CellProblem {
+    int line = 0;    // 1-based
+    int column = 0;  // 1-based cell index
+    std::string message;
+};
+
+struct ParsedInput {
+    Status status;                          // !ok: the first problem, naming line and column
+    std::vector<std::string> categories;
+    std::vector<double> observed;           // non-negative whole counts
+    std::vector<double> expected;           // empty unless an expected column was read
+    ExpectedKind expected_kind = ExpectedKind::none;
+    std::vector<std::string> column_names;  // from a header row, when there is one
+    InputShape shape = InputShape::label_count;
+    Separator separator = Separator::tab;
+    DecimalMark decimal = DecimalMark::point;
+    bool ordered = false;                   // whole-number and digit categories, bins
+    std::optional<DigitTest> digit_test;    // raw_digits: the digit tallied
+    std::vector<double> edges;              // raw_bins: the k + 1 bin edges
+    std::vector<std::string> notes;         // plain sentences: what was detected, dropped, left out
+    std::vector<std::string> alternatives;  // other readings of ambiguous input
+    std::vector<CellProblem> problems;      // offending cells (at most kMaxProblems)
+};
+
+constexpr std::size_t kMaxInputBytes = 256u << 20;  // larger pastes are refused at once
+constexpr std::size_t kMaxCategories = 100000;      // more categories are refused
+constexpr std::size_t kMaxProblems = 100;           // offending cells listed
+
+// Reads pasted text in any recognised shape; never throws, refuses with a located message.
+ParsedInput parse_input(std::string_view text, const ParseOptions& options = {});
 
 struct ParsedCounts {
     Status status;                        // !ok: message names the line (and column) at fault
@@ -16,6 +86,7 @@ struct ParsedCounts {
     std::vector<std::string> notes;       // what was detected (header row kept, etc.)
 };
 
+// The simple entry point of the page and the tool: parse_input with default options.
 ParsedCounts parse_counts(std::string_view text);
 
 }  // namespace tallyproof

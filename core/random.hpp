@@ -1,10 +1,8 @@
-// Portable seeded random numbers and exact-by-table binomial/multinomial sampling.
-// Generator: xoshiro256** (Blackman & Vigna 2021, ACM TOMS 47(4):36) seeded by splitmix64
-// (Steele, Lea & Flood 2014, OOPSLA); bounded integers by Lemire (2019, ACM TOMACS 29(1):3);
-// binomial draws by Walker's alias method (Walker 1977, ACM TOMS 3:253; Vose 1991, IEEE TSE
-// 17:972) on tables built from the pmf ratio recurrence. Only integer ops and IEEE +,-,*,/ are
-// used, so a seed gives bit-identical draws natively and in WebAssembly; the tables omit only
-// tail weights below 2^-64 of the mode's (total omitted probability < 1e-15 for n <= 1e7).
+// Portable seeded random numbers: xoshiro256** (Blackman & Vigna 2021, ACM TOMS 47(4):36) seeded
+// by splitmix64 (Steele, Lea & Flood 2014, OOPSLA); Lemire (2019, ACM TOMACS 29:3) bounded integers;
+// binomial and multinomial draws by Walker (1977, ACM TOMS 3:253) alias tables, Vose (1991) build.
+// Integer ops and IEEE +,-,*,/ only, so a seed gives bit-identical draws natively and in
+// WebAssembly; tables omit only tail weights below 2^-64 of the mode's (< 1e-15 in total).
 #pragma once
 #include <cstddef>
 #include <cstdint>
@@ -53,7 +51,7 @@ struct MultinomialSampler {
     std::vector<Slot> slots;                               // [j * (n + 1) + remaining]
     std::vector<std::shared_ptr<const AliasTable>> owned;  // keeps the cached tables alive
     std::size_t cached_entries = 0;
-    std::size_t max_cached_entries = std::size_t(1) << 22;  // ~48 MB; cleared when exceeded
+    std::size_t max_cached_entries = std::size_t(1) << 22;  // 16 B each: 64 MB; cleared when exceeded
 };
 
 // Sampler for n trials over shares `pi` (non-negative, positive sum; need not sum to 1).

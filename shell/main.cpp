@@ -24,6 +24,19 @@ const char* kUsage =
     "Chi-square goodness-of-fit test of counts read from FILE (or standard input): pasted\n"
     "text (lines of label<TAB>count, or one count per line) or an analysis document (JSON).\n"
     "\n"
+    "input (pasted text; the shape, separator and number format are detected):\n"
+    "  --digits D             tally a digit of raw numbers: first, second, first-two, last\n"
+    "                         (the model defaults to the matching digit law)\n"
+    "  --bins B               count raw numbers into bins: edges such as 0,10,20,inf, or\n"
+    "                         equal:K (K equal-width bins), equal-probability:K (not yet)\n"
+    "  --raw                  the cells are raw observations, one per cell or line\n"
+    "  --case-fold            raw text: upper and lower case are one category\n"
+    "  --sorted               raw text: categories in sorted order (default: first seen)\n"
+    "  --decimal-comma        numbers use a decimal comma (1.234,5)\n"
+    "  --decimal-point        numbers use a decimal point (1,234.5)\n"
+    "  --shape S              override the detected shape: label-count, label-observed-expected,\n"
+    "                         counts-column, counts-row, raw-text, raw-whole-numbers,\n"
+    "                         raw-digits, raw-bins\n"
     "output:\n"
     "  --json                 print the result document as JSON\n"
     "model (options override the document):\n"
@@ -96,15 +109,55 @@ int main(int argc, char** argv) {
     const std::vector<std::string> with_value = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
                                                  "--lambda", "--method", "--ordering", "--replicates", "--seed", "--merge",
                                                  "--min-expected", "--plan-w", "--plan-n", "--target-power"};
+    ParseOptions input;  // input options, used when the text is pasted text rather than a document
+    bool model_given = false, edges_given = false;
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (arg == "--json") json = true;
         else if (arg == "--version") { std::printf("tallyproof %s\n", TALLYPROOF_VERSION); return 0; }
         else if (arg == "--help" || arg == "-h") { std::fputs(kUsage, stdout); return 0; }
         else if (arg == "--ordered" || arg == "--williams") opts.emplace_back(arg, "");
+        else if (arg == "--raw") input.raw = true;
+        else if (arg == "--case-fold") input.case_fold = true;
+        else if (arg == "--sorted") input.sorted = true;
+        else if (arg == "--decimal-comma") input.decimal = DecimalMark::comma;
+        else if (arg == "--decimal-point") input.decimal = DecimalMark::point;
+        else if (arg == "--digits" || arg == "--bins" || arg == "--shape") {
+            if (i + 1 >= argc) return usage_error(arg + " needs a value");
+            const std::string val = argv[++i];
+            if (arg == "--digits") {
+                if (val == "first") input.digits = DigitTest::first;
+                else if (val == "second") input.digits = DigitTest::second;
+                else if (val == "first-two") input.digits = DigitTest::first_two;
+                else if (val == "last") input.digits = DigitTest::last;
+                else return usage_error("--digits must be first, second, first-two or last");
+            } else if (arg == "--shape") {
+                InputShape shape;
+                if (!input_shape_from_name(val, &shape)) return usage_error("unknown shape " + val);
+                input.shape = shape;
+            } else {
+                const auto colon = val.find(':');
+                const std::string kind = colon == std::string::npos ? "" : val.substr(0, colon);
+                if (kind == "equal" || kind == "equal-probability") {
+                    double k = 0;
+                    if (!to_number(val.substr(colon + 1), &k) || !(k >= 1 && k <= 10000) || k != std::floor(k))
+                        return usage_error("--bins " + kind + ":K needs a whole number of bins K from 1 to 10000");
+                    input.bins.kind = kind == "equal" ? BinChoice::Kind::equal_width : BinChoice::Kind::equal_probability;
+                    input.bins.bins = static_cast<int>(k);
+                } else {
+                    std::vector<double> edges;
+                    if (!to_list(val, &edges) || edges.size() < 2)
+                        return usage_error("--bins needs edges such as 0,10,20,inf, or equal:K");
+                    input.bins.kind = BinChoice::Kind::edges;
+                    input.bins.edges = edges;
+                }
+            }
+        }
         else if (std::find(with_value.begin(), with_value.end(), arg) != with_value.end()) {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             opts.emplace_back(arg, argv[++i]);
+            if (arg == "--model") model_given = true;
+            if (arg == "--edges") edges_given = true;
         } else if (arg.size() > 1 && arg[0] == '-') return usage_error("unknown option " + arg);
         else if (path.empty()) path = arg;
         else return usage_error("only one input file can be given");
@@ -128,10 +181,31 @@ int main(int argc, char** argv) {
     if (first != std::string::npos && text[first] == '{') {
         read = read_analysis_document(text, &analysis);
     } else {
-        const ParsedCounts parsed = parse_counts(text);
+        const ParsedInput parsed = parse_input(text, input);
         read = parsed.status;
         analysis.categories = parsed.categories;
         analysis.observed = parsed.observed;
+        analysis.ordered = parsed.ordered;
+        if (!parsed.expected.empty()) {  // an expected column states the model
+            analysis.model.values = parsed.expected;
+            analysis.model.kind = parsed.expected_kind == ExpectedKind::ratios   ? ModelKind::ratio
+                                  : parsed.expected_kind == ExpectedKind::counts ? ModelKind::counts
+                                                                                 : ModelKind::shares;
+        }
+        if (parsed.digit_test && !model_given) {
+            switch (*parsed.digit_test) {
+                case DigitTest::first: analysis.model.kind = ModelKind::benford_first; break;
+                case DigitTest::second: analysis.model.kind = ModelKind::benford_second; break;
+                case DigitTest::first_two: analysis.model.kind = ModelKind::benford_first_two; break;
+                case DigitTest::last: analysis.model.kind = ModelKind::last_digit; break;
+                case DigitTest::last_even: analysis.model.kind = ModelKind::last_digit_even; break;
+            }
+        }
+        if (!parsed.edges.empty() && !edges_given) analysis.model.edges = parsed.edges;
+        if (!json && read.ok) {
+            for (const auto& note : parsed.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
+            for (const auto& alt : parsed.alternatives) std::fprintf(stderr, "alternative: %s\n", alt.c_str());
+        }
     }
 
     for (const auto& [opt, val] : opts) {

@@ -1,63 +1,310 @@
 // AppState transitions. Nothing here draws; the page bridge is told about each new result.
 #include "app_state.hpp"
 
+#include <emscripten.h>
+
+#include <cmath>
+#include <cstdlib>
+
+#include "analysis_document.hpp"
+#include "demo_library.hpp"
 #include "goodness_of_fit.hpp"
+#include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "paste_parser.hpp"
 #include "report.hpp"
 
 namespace tallyproof::web {
+namespace {
 
-void load_example(AppState& s) {
-    // Invented example: help-desk tickets opened on each weekday of one month.
-    s.analysis = Analysis{};
-    s.analysis.categories = {"Monday", "Tuesday", "Wednesday", "Thursday", "Friday"};
-    s.analysis.observed = {58, 44, 47, 39, 52};
-    s.source_name = "example: help-desk tickets by weekday";
+std::string list_text(const std::vector<double>& v, const char* sep) {
+    std::string s;
+    for (double d : v) s += (s.empty() ? "" : sep) + (std::isinf(d) ? std::string(d < 0 ? "-inf" : "inf") : format_plain(d));
+    return s;
+}
+
+bool read_list(const std::string& text, std::vector<double>* out, std::string* error) {
+    out->clear();
+    std::string cell;
+    auto flush = [&]() -> bool {
+        std::size_t b = cell.find_first_not_of(" \t"), e = cell.find_last_not_of(" \t%");
+        if (b == std::string::npos) { cell.clear(); return true; }
+        const std::string c = cell.substr(b, e - b + 1);
+        cell.clear();
+        if (c == "inf" || c == "+inf" || c == "∞") { out->push_back(HUGE_VAL); return true; }
+        if (c == "-inf" || c == "-∞" || c == "−inf") { out->push_back(-HUGE_VAL); return true; }
+        char* end = nullptr;
+        const double v = std::strtod(c.c_str(), &end);
+        if (end != c.c_str() + c.size()) { *error = "\"" + c.substr(0, 20) + "\" is not a number."; return false; }
+        out->push_back(v);
+        return true;
+    };
+    for (char ch : text) {
+        if (ch == ':' || ch == ',' || ch == ';' || ch == '\n' || ch == '\t') { if (!flush()) return false; }
+        else cell += ch;
+    }
+    return flush();
+}
+
+std::vector<ModelEditor::Parameter> parameters_of(ModelKind kind) {
+    switch (kind) {
+        case ModelKind::poisson: return {{"mean", true, 1, false}};
+        case ModelKind::binomial: return {{"trials", false, 10, true}, {"p", true, 0.5, false}};
+        case ModelKind::geometric: return {{"p", true, 0.5, false}};
+        case ModelKind::negative_binomial: return {{"size", true, 1, false}, {"p", true, 0.5, false}};
+        case ModelKind::normal: return {{"mean", true, 0, false}, {"sd", true, 1, false}};
+        case ModelKind::lognormal: return {{"meanlog", true, 0, false}, {"sdlog", true, 1, false}};
+        case ModelKind::exponential: return {{"rate", true, 1, false}};
+        default: return {};
+    }
+}
+
+void sync_editor_from_model(AppState& s) {
+    ModelEditor& e = s.model_editor;
+    const Model& m = s.analysis.model;
+    e.values = list_text(m.values, m.kind == ModelKind::ratio ? ":" : ", ");
+    e.edges = list_text(m.edges, ", ");
+    e.parameters = parameters_of(m.kind);
+    for (auto& p : e.parameters)
+        for (const auto& [name, value] : m.parameters)
+            if (name == p.name) { p.estimate = false; p.value = value; }
+}
+
+void publish(AppState& s) {
+    s.report = report_text(s.analysis, s.result);
+    publish_result(s.report, report_json(s.analysis, s.result), write_analysis_document(s.analysis));
+}
+
+}  // namespace
+
+bool recompute(AppState& s) {
+    if (s.job_running) cancel_job(s);
+    Result next = analyse(s.analysis);
+    s.frames_to_draw = 3;
+    if (!next.status.ok) {
+        s.input_error = next.status.message;
+        publish_error(s.input_error);
+        return false;
+    }
+    s.input_error.clear();
+    s.result = std::move(next);
+    s.curve = density_curve(s.result.df, s.result.critical_value, s.result.statistic);
+    if (s.analysis.pvalue.method != PValueMethod::asymptotic) {
+        start_pvalue_job(s.analysis, s.result, &s.job);
+        s.job_running = !s.job.progress.done;
+        s.job_started_ms = emscripten_get_now();
+        if (!s.job_running) finish_pvalue_job(s.job, &s.result);
+    }
+    publish(s);
+    return true;
+}
+
+void step_job(AppState& s, double budget_ms) {
+    if (!s.job_running) return;
+    const double until = emscripten_get_now() + budget_ms;
+    std::uint64_t slice = 2000;
+    while (emscripten_get_now() < until) {
+        const WorkProgress p = step_pvalue_job(&s.job, slice);
+        if (p.done || p.cancelled) break;
+        slice = std::min<std::uint64_t>(slice * 2, 1u << 22);
+    }
+    s.frames_to_draw = 2;
+    if (s.job.progress.done || s.job.progress.cancelled) {
+        s.job_running = false;
+        finish_pvalue_job(s.job, &s.result);
+        publish(s);
+    }
+    set_progress(job_fraction(s), s.job_running);
+}
+
+void cancel_job(AppState& s) {
+    if (!s.job_running) return;
+    cancel_pvalue_job(&s.job);
+    s.job_running = false;
+    finish_pvalue_job(s.job, &s.result);  // records the cancellation; the asymptotic p stays
+    publish(s);
+    set_progress(job_fraction(s), false);
+}
+
+double job_fraction(const AppState& s) { return s.job.progress.fraction; }
+
+void load_demo(AppState& s, int index) {
+    if (index < 0 || index >= kDemoScenarioCount) return;
+    if (open_document(s, kDemoScenarios[index].document)) {
+        s.demo_index = index;
+        s.source_name = std::string("example: ") + kDemoScenarios[index].title;
+    }
+}
+
+bool open_document(AppState& s, std::string_view json) {
+    Analysis a;
+    const Status st = read_analysis_document(json, &a);
+    if (!st.ok) {
+        s.rejected_text = std::string(json.substr(0, 4000));
+        s.rejected_message = st.message;
+        publish_error(st.message);
+        s.frames_to_draw = 3;
+        return false;
+    }
+    const Analysis previous = s.analysis;
+    s.analysis = a;
+    if (!recompute(s)) {
+        s.rejected_text = std::string(json.substr(0, 4000));
+        s.rejected_message = s.input_error;
+        s.input_error.clear();
+        s.analysis = previous;
+        return false;
+    }
     s.rejected_text.clear();
     s.rejected_message.clear();
-    recompute(s);
+    s.merge_undo.clear();
+    s.source_name = "opened document";
+    s.demo_index = -1;
+    sync_editor_from_model(s);
+    return true;
 }
 
 void apply_paste(AppState& s, std::string_view text) {
+    const std::size_t first = text.find_first_not_of(" \t\r\n");
+    if (first != std::string_view::npos && text[first] == '{') { open_document(s, text); return; }
     const ParsedCounts parsed = parse_counts(text);
-    if (!parsed.status.ok) {
+    Status problem = parsed.status;
+    const Analysis previous = s.analysis;
+    if (problem.ok) {
+        s.analysis.categories = parsed.categories;
+        s.analysis.observed = parsed.observed;
+        // A stated mix of another length cannot apply to the new counts: fall back to equal shares.
+        if ((s.analysis.model.kind == ModelKind::shares || s.analysis.model.kind == ModelKind::ratio ||
+             s.analysis.model.kind == ModelKind::counts) && s.analysis.model.values.size() != parsed.observed.size()) {
+            s.analysis.model = Model{};
+            sync_editor_from_model(s);
+        }
+        if (!recompute(s)) {
+            problem = Status::failure(s.input_error);
+            s.input_error.clear();
+            s.analysis = previous;
+            sync_editor_from_model(s);
+        }
+    }
+    if (!problem.ok) {
         s.rejected_text = std::string(text.substr(0, 4000));
-        s.rejected_message = parsed.status.message;
-        s.rejected_line = parsed.status.line;
+        s.rejected_message = problem.message;
+        s.rejected_line = problem.line;
         publish_error(s.rejected_message);
         s.frames_to_draw = 3;
         return;
     }
-    Analysis next = s.analysis;
-    next.categories = parsed.categories;
-    next.observed = parsed.observed;
-    const Result trial = analyse(next);
-    if (!trial.status.ok) {
-        s.rejected_text = std::string(text.substr(0, 4000));
-        s.rejected_message = trial.status.message;
-        s.rejected_line = trial.status.line;
-        publish_error(s.rejected_message);
-        s.frames_to_draw = 3;
-        return;
-    }
-    s.analysis = std::move(next);
     s.source_name = "pasted text";
+    s.demo_index = -1;
+    s.merge_undo.clear();
     s.rejected_text.clear();
     s.rejected_message.clear();
     s.rejected_line = 0;
+}
+
+void set_model_kind(AppState& s, ModelKind kind) {
+    s.analysis.model = Model{};
+    s.analysis.model.kind = kind;
+    const std::size_t k = s.analysis.observed.size();
+    if (kind == ModelKind::shares || kind == ModelKind::counts) {
+        // Start from the current expected shares so the user edits rather than types everything.
+        for (std::size_t i = 0; i < k; ++i)
+            s.analysis.model.values.push_back(kind == ModelKind::shares ? std::round(1000 * (i < s.result.expected_shares.size() ? s.result.expected_shares[i] : 1.0 / k)) / 10
+                                                                        : (i < s.result.expected_counts.size() ? s.result.expected_counts[i] : 1));
+    } else if (kind == ModelKind::ratio) {
+        s.analysis.model.values.assign(k, 1);
+    } else if (kind == ModelKind::normal || kind == ModelKind::lognormal || kind == ModelKind::exponential) {
+        for (std::size_t i = 0; i <= k; ++i) s.analysis.model.edges.push_back(i == 0 ? -HUGE_VAL : i == k ? HUGE_VAL : static_cast<double>(i));
+        if (kind != ModelKind::normal) s.analysis.model.edges.front() = 0;
+    }
+    if (model_is_fitted(kind) || model_is_digit_law(kind)) s.analysis.ordered = true;
+    sync_editor_from_model(s);
+    apply_model_editor(s);
+}
+
+void apply_model_editor(AppState& s) {
+    Model m;
+    m.kind = s.analysis.model.kind;
+    std::string error;
+    if (m.kind == ModelKind::shares || m.kind == ModelKind::ratio || m.kind == ModelKind::counts) {
+        if (!read_list(s.model_editor.values, &m.values, &error)) { s.input_error = error; return; }
+        if (m.values.size() != s.analysis.observed.size()) {
+            s.input_error = std::to_string(m.values.size()) + " values for " + std::to_string(s.analysis.observed.size()) +
+                            " categories: give one per category.";
+            s.frames_to_draw = 3;
+            return;
+        }
+    }
+    if (m.kind == ModelKind::normal || m.kind == ModelKind::lognormal || m.kind == ModelKind::exponential) {
+        if (!read_list(s.model_editor.edges, &m.edges, &error)) { s.input_error = error; return; }
+    }
+    for (const auto& p : s.model_editor.parameters)
+        if (!p.estimate) m.parameters.emplace_back(p.name, p.value);
+    const Model previous = s.analysis.model;
+    s.analysis.model = m;
+    if (!recompute(s)) s.analysis.model = previous;
+}
+
+void set_count(AppState& s, int row, double value) {
+    if (row < 0 || row >= static_cast<int>(s.analysis.observed.size())) return;
+    const double old = s.analysis.observed[row];
+    s.analysis.observed[row] = value;
+    if (!recompute(s)) s.analysis.observed[row] = old;
+}
+
+void set_label(AppState& s, int row, const std::string& label) {
+    if (row < 0 || row >= static_cast<int>(s.analysis.categories.size())) return;
+    const std::string old = s.analysis.categories[row];
+    s.analysis.categories[row] = label;
+    if (!recompute(s)) s.analysis.categories[row] = old;
+}
+
+void add_row(AppState& s) {
+    s.analysis.categories.push_back("Category " + std::to_string(s.analysis.categories.size() + 1));
+    s.analysis.observed.push_back(0);
+    if (!s.analysis.model.values.empty()) s.analysis.model.values.push_back(s.analysis.model.kind == ModelKind::ratio ? 1 : 0);
+    sync_editor_from_model(s);
     recompute(s);
 }
 
-void recompute(AppState& s) {
-    s.result = analyse(s.analysis);
-    if (s.result.status.ok)
-        s.curve = density_curve(s.result.df, s.result.critical_value, s.result.statistic);
-    else
-        s.curve = DensityCurve{};
-    s.report = report_text(s.analysis, s.result);
-    publish_result(s.report, report_json(s.analysis, s.result));
-    s.frames_to_draw = 3;
+void remove_row(AppState& s, int row) {
+    if (row < 0 || row >= static_cast<int>(s.analysis.observed.size()) || s.analysis.observed.size() <= 2) return;
+    s.analysis.categories.erase(s.analysis.categories.begin() + row);
+    s.analysis.observed.erase(s.analysis.observed.begin() + row);
+    if (row < static_cast<int>(s.analysis.model.values.size())) s.analysis.model.values.erase(s.analysis.model.values.begin() + row);
+    sync_editor_from_model(s);
+    recompute(s);
+}
+
+void move_row(AppState& s, int row, int delta) {
+    const int to = row + delta, k = static_cast<int>(s.analysis.observed.size());
+    if (row < 0 || row >= k || to < 0 || to >= k) return;
+    std::swap(s.analysis.categories[row], s.analysis.categories[to]);
+    std::swap(s.analysis.observed[row], s.analysis.observed[to]);
+    if (static_cast<int>(s.analysis.model.values.size()) == k) std::swap(s.analysis.model.values[row], s.analysis.model.values[to]);
+    sync_editor_from_model(s);
+    recompute(s);
+}
+
+void merge_thin_cells(AppState& s, MergeRule rule) {
+    s.merge_undo.push_back(s.analysis.merge);
+    s.analysis.merge.rule = rule;
+    if (!recompute(s)) {
+        s.analysis.merge = s.merge_undo.back();
+        s.merge_undo.pop_back();
+    }
+}
+
+void undo_merge(AppState& s) {
+    if (s.merge_undo.empty()) return;
+    s.analysis.merge = s.merge_undo.back();
+    s.merge_undo.pop_back();
+    recompute(s);
+}
+
+void set_pvalue_method(AppState& s, PValueMethod method) {
+    s.analysis.pvalue.method = method;
+    recompute(s);
 }
 
 }  // namespace tallyproof::web

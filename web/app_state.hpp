@@ -1,35 +1,85 @@
-// AppState: everything the page knows, apart from how it is drawn. Inputs change through the
-// functions below; results are recomputed in one place (recompute) and only read by drawing.
+// AppState: everything the page knows, apart from how it is drawn. Inputs change only through
+// the functions below; results are recomputed in one place (recompute) and only read by drawing.
+//
+// Index: ModelEditor · AppState · transitions (input, model, test, merge, jobs, theme)
 #pragma once
 #include <string>
 #include <string_view>
+#include <vector>
 
 #include "analysis.hpp"
 #include "density_curve.hpp"
+#include "pvalue_job.hpp"
 #include "result.hpp"
 
 namespace tallyproof::web {
 
+// What the user is typing for the model, kept apart from the Analysis it becomes.
+struct ModelEditor {
+    struct Parameter {
+        std::string name;
+        bool estimate = true;  // false: `value` is given
+        double value = 0;
+        bool required = false; // must be given (binomial trials)
+    };
+    std::string values;  // shares / ratio / counts, e.g. "9:3:3:1" or "20, 50, 25, 5"
+    std::string edges;   // bin edges for binned measurements, e.g. "-inf, 10, 20, inf"
+    std::vector<Parameter> parameters;
+};
+
+enum class ResultTab { curve, bars, categories, planning, writeup };
+
 struct AppState {
     // Inputs
-    Analysis analysis;             // the analysis on screen (last valid input)
-    std::string source_name;       // where the counts came from ("example", "pasted text")
+    Analysis analysis;               // the analysis on screen (its last valid form)
+    std::string source_name;         // where the counts came from
+    ModelEditor model_editor;
+    std::string input_error;         // why the latest edit was not applied (the previous result stays)
 
     // Outputs, recomputed by recompute()
     Result result;
     DensityCurve curve;
-    std::string report;            // plain-text results block (also mirrored into the page)
+    std::string report;              // plain-text results block (also mirrored into the page)
 
-    // The last input that was refused: shown with its message while the previous analysis stays
+    // Exact / Monte Carlo work, run a slice per frame
+    PValueJob job;
+    bool job_running = false;
+    double job_started_ms = 0;
+
+    // The last paste that was refused: shown with its message while the previous analysis stays
     std::string rejected_text;
     std::string rejected_message;
     int rejected_line = 0;
 
-    int frames_to_draw = 2;        // redraw budget: the page draws only on input or work
+    // Merge undo: the rules in force before each one-click merge
+    std::vector<MergeChoice> merge_undo;
+
+    // View
+    ResultTab tab = ResultTab::curve;
+    bool dark = false;               // dark theme
+    bool theme_from_system = true;   // follow the system setting until the user picks
+    bool theme_changed = true;       // the theme must be rebuilt before the next frame
+    int demo_index = -1;             // demo on screen, or -1
+    double plan_w = 0.3, plan_target = 0.8, plan_n = 0;  // planning panel inputs
+    int frames_to_draw = 2;          // redraw budget: the page draws only on input or work
 };
 
-void load_example(AppState& s);                          // an invented starting example
-void apply_paste(AppState& s, std::string_view text);    // parse; keep the old data if refused
-void recompute(AppState& s);                             // result, curve and report from inputs
+void load_demo(AppState& s, int index);                      // one of kDemoScenarios
+bool open_document(AppState& s, std::string_view json);      // an analysis document; false if refused
+void apply_paste(AppState& s, std::string_view text);        // counts, or a document; keeps the old data if refused
+void set_model_kind(AppState& s, ModelKind kind);            // resets the editor for that kind
+void apply_model_editor(AppState& s);                        // editor text -> analysis.model, recompute
+void set_count(AppState& s, int row, double value);          // an edited table cell
+void set_label(AppState& s, int row, const std::string& label);
+void add_row(AppState& s);
+void remove_row(AppState& s, int row);
+void move_row(AppState& s, int row, int delta);
+void merge_thin_cells(AppState& s, MergeRule rule);          // one-click remedy, undoable
+void undo_merge(AppState& s);
+void set_pvalue_method(AppState& s, PValueMethod method);
+bool recompute(AppState& s);                                 // false: input_error set, old result kept
+void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work
+void cancel_job(AppState& s);
+double job_fraction(const AppState& s);
 
 }  // namespace tallyproof::web

@@ -1,7 +1,9 @@
 // Maps the points core/ computed (density_curve) to pixels; axes get "nice" ticks (steps of
-// 1, 2 or 5 times a power of ten, common practice for chart axes).
+// 1, 2 or 5 times a power of ten, common practice for chart axes). A statistic far beyond the
+// curve is drawn past a break in the axis, with its own label, so the curve keeps its shape.
 #include "density_plot.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <string>
@@ -23,7 +25,8 @@ std::vector<double> nice_ticks(double lo, double hi, int max_ticks) {
         step = m * mag;
         if (step >= raw) break;
     }
-    for (double v = std::ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) ticks.push_back(std::fabs(v) < step * 1e-9 ? 0 : v);
+    for (double v = std::ceil(lo / step) * step; v <= hi + step * 1e-9; v += step)
+        ticks.push_back(std::fabs(v) < step * 1e-9 ? 0 : v);
     return ticks;
 }
 
@@ -42,21 +45,21 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     const bool hovered = ImGui::IsItemHovered();
     if (curve.x.size() < 2 || size.x < 80 || size.y < 60) return;
 
-    const float left = 52, right = 14, top = 28, bottom = 40;
+    const bool broken = curve.statistic_beyond;
+    const float left = 56, right = broken ? 150 : 16, top = 30, bottom = 44;
     const ImVec2 p0(origin.x + left, origin.y + top);
     const ImVec2 p1(origin.x + size.x - right, origin.y + size.y - bottom);
-    const double xmax = curve.x_max, ymax = curve.y_max;
-    auto px = [&](double x) { return static_cast<float>(p0.x + (p1.x - p0.x) * (x / xmax)); };
+    const double xmin = curve.x_min, xmax = curve.x_max, ymax = curve.y_max;
+    auto px = [&](double x) { return static_cast<float>(p0.x + (p1.x - p0.x) * ((x - xmin) / (xmax - xmin))); };
     auto py = [&](double y) { return static_cast<float>(p1.y - (p1.y - p0.y) * (y / ymax)); };
 
     dl->AddRectFilled(origin, ImVec2(origin.x + size.x, origin.y + size.y), theme.paper, 6.0f);
     ImGui::PushFont(theme.strong);
-    dl->AddText(ImVec2(origin.x + 12, origin.y + 6), theme.ink, ("Chi-square density, df = " + format_count(result.df)).c_str());
+    dl->AddText(ImVec2(origin.x + 12, origin.y + 7), theme.ink, ("Chi-square density, df = " + format_count(result.df)).c_str());
     ImGui::PopFont();
 
-    // Grid and ticks
     const float th = ImGui::GetTextLineHeight();
-    for (double t : nice_ticks(0, xmax, std::max(2, static_cast<int>((p1.x - p0.x) / 70)))) {
+    for (double t : nice_ticks(xmin, xmax, std::max(2, static_cast<int>((p1.x - p0.x) / 70)))) {
         const float x = px(t);
         dl->AddLine(ImVec2(x, p1.y), ImVec2(x, p1.y + 5), theme.rule);
         const std::string s = tick_label(t);
@@ -65,7 +68,7 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     }
     for (double t : nice_ticks(0, ymax, std::max(2, static_cast<int>((p1.y - p0.y) / 50)))) {
         const float y = py(t);
-        dl->AddLine(ImVec2(p0.x, y), ImVec2(p1.x, y), IM_COL32(0, 0, 0, 18));
+        dl->AddLine(ImVec2(p0.x, y), ImVec2(p1.x, y), theme.grid);
         const std::string s = tick_label(t);
         const float w = ImGui::CalcTextSize(s.c_str()).x;
         dl->AddText(ImVec2(p0.x - w - 6, y - th / 2), theme.muted, s.c_str());
@@ -88,7 +91,7 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
         dl->Flags = saved;
     };
     if (std::isfinite(result.critical_value)) shade_from(result.critical_value, theme.reject_fill);
-    shade_from(result.statistic, theme.tail_fill);
+    if (!broken) shade_from(result.statistic, theme.tail_fill);
 
     std::vector<ImVec2> pts;
     pts.reserve(curve.x.size());
@@ -97,29 +100,47 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     dl->AddLine(ImVec2(p0.x, p1.y), ImVec2(p1.x, p1.y), theme.ink, 1.0f);
     dl->AddLine(ImVec2(p0.x, p0.y), ImVec2(p0.x, p1.y), theme.ink, 1.0f);
 
-    // Critical value: dashed line with its label.
     if (std::isfinite(result.critical_value) && result.critical_value <= xmax) {
         const float x = px(result.critical_value);
         for (float y = p0.y; y < p1.y; y += 8) dl->AddLine(ImVec2(x, y), ImVec2(x, std::min(y + 4, p1.y)), theme.warn_ink, 1.5f);
         const std::string s = "critical " + format_fixed(result.critical_value, 2);
         dl->AddText(ImVec2(x + 4, p0.y), theme.warn_ink, s.c_str());
     }
-    // Observed statistic: solid marker with its value.
-    if (result.statistic <= xmax) {
+
+    ImGui::PushFont(theme.strong);
+    const std::string stat_label = "observed χ² = " + (result.statistic < 1e5 ? format_fixed(result.statistic, 2) : format_significant(result.statistic, 4));
+    if (!broken) {
         const float x = px(result.statistic);
         dl->AddLine(ImVec2(x, p0.y + th + 4), ImVec2(x, p1.y), theme.marker, 2.5f);
         dl->AddTriangleFilled(ImVec2(x - 6, p0.y + th + 2), ImVec2(x + 6, p0.y + th + 2), ImVec2(x, p0.y + th + 11), theme.marker);
-        const std::string s = "observed χ² = " + format_fixed(result.statistic, 2);
-        ImGui::PushFont(theme.strong);
-        const float w = ImGui::CalcTextSize(s.c_str()).x;
+        const float w = ImGui::CalcTextSize(stat_label.c_str()).x;
         const float tx = x + 8 + w > p1.x ? x - 8 - w : x + 8;
-        dl->AddText(ImVec2(tx, p0.y + th + 8), theme.marker, s.c_str());
+        dl->AddText(ImVec2(tx, p0.y + th + 8), theme.marker, stat_label.c_str());
+    } else {
+        // Axis break: two slanted strokes, then the statistic on its own short stretch of axis.
+        const float bx = p1.x + 14;
+        dl->AddLine(ImVec2(p1.x, p1.y), ImVec2(bx - 4, p1.y), theme.ink);
+        for (float d : {0.0f, 6.0f}) dl->AddLine(ImVec2(bx - 4 + d, p1.y + 6), ImVec2(bx + 2 + d, p1.y - 6), theme.ink, 1.5f);
+        const float ex = origin.x + size.x - 16;
+        dl->AddLine(ImVec2(bx + 10, p1.y), ImVec2(ex, p1.y), theme.ink);
+        const float sx = (bx + 10 + ex) / 2;
+        dl->AddLine(ImVec2(sx, p0.y + 2 * th + 16), ImVec2(sx, p1.y), theme.marker, 2.5f);
+        dl->AddTriangleFilled(ImVec2(sx - 6, p0.y + 2 * th + 14), ImVec2(sx + 6, p0.y + 2 * th + 14),
+                              ImVec2(sx, p0.y + 2 * th + 23), theme.marker);
+        const std::string v = format_significant(result.statistic, 4);
+        dl->AddText(ImVec2(sx - ImGui::CalcTextSize(v.c_str()).x / 2, p1.y + 7), theme.marker, v.c_str());
         ImGui::PopFont();
+        const char* l1 = "observed χ²,";
+        const char* l2 = "far beyond the curve";
+        dl->AddText(ImVec2(ex - ImGui::CalcTextSize(l1).x, p0.y), theme.marker, l1);
+        dl->AddText(ImVec2(ex - ImGui::CalcTextSize(l2).x, p0.y + th), theme.marker, l2);
+        ImGui::PushFont(theme.strong);
     }
+    ImGui::PopFont();
 
     if (hovered) {
-        const double x = (ImGui::GetIO().MousePos.x - p0.x) / (p1.x - p0.x) * xmax;
-        if (x >= 0 && x <= xmax) {
+        const double x = xmin + (ImGui::GetIO().MousePos.x - p0.x) / (p1.x - p0.x) * (xmax - xmin);
+        if (x >= xmin && x <= xmax) {
             ImGui::BeginTooltip();
             ImGui::Text("χ² = %s", format_significant(x, 4).c_str());
             ImGui::Text("density %s", format_significant(chi_square_density(x, result.df), 3).c_str());

@@ -1,14 +1,14 @@
 // The page's entry point: SDL2 window with a WebGL2 context, Dear ImGui, and a frame loop that
-// draws only while there is input or pending work (an idle page does no drawing).
+// draws only while there is input or work: when idle the loop is paused (no CPU) until the
+// page glue reports input (tp_wake).
 #include <SDL.h>
 #include <SDL_opengles2.h>
 #include <emscripten.h>
-#include <emscripten/html5.h>
 #include <imgui.h>
 #include <imgui_impl_opengl3.h>
 #include <imgui_impl_sdl.h>
 
-#include <cmath>
+#include <algorithm>
 #include <string_view>
 
 #include "app_state.hpp"
@@ -24,9 +24,18 @@ struct Page {
     tallyproof::web::AppState state;
     tallyproof::web::Theme theme;
     int width = 0, height = 0;
+    bool paused = false;
 };
 
 Page* g_page = nullptr;  // the one page; owned by main, reached from the browser's callbacks
+
+void want_frames(Page& p, int n) {
+    p.state.frames_to_draw = std::max(p.state.frames_to_draw, n);
+    if (p.paused) {
+        p.paused = false;
+        emscripten_resume_main_loop();
+    }
+}
 
 void fit_to_stage(Page& p) {
     int w = 0, h = 0;
@@ -39,6 +48,14 @@ void fit_to_stage(Page& p) {
     }
 }
 
+void handle_shortcuts(Page& p) {
+    const ImGuiIO& io = ImGui::GetIO();
+    const bool mod = io.KeyCtrl || io.KeySuper;
+    if (mod && io.KeyShift && ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_C), false))
+        tallyproof::web::copy_text(p.state.report);
+    if (mod && ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_Enter), false)) tallyproof::web::recompute(p.state);
+}
+
 void frame() {
     Page& p = *g_page;
     SDL_Event ev;
@@ -47,18 +64,31 @@ void frame() {
         p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);  // ImGui settles within a few frames
     }
     fit_to_stage(p);
-    if (p.state.frames_to_draw <= 0) return;
+    if (p.state.job_running) {
+        tallyproof::web::step_job(p.state, 12.0);  // a slice of work, then draw: the page stays responsive
+    }
+    if (p.state.theme_changed) {
+        tallyproof::web::apply_palette(&p.theme, p.state.dark);
+        p.state.theme_changed = false;
+    }
+    if (p.state.frames_to_draw <= 0) {
+        p.paused = true;
+        emscripten_pause_main_loop();
+        return;
+    }
     --p.state.frames_to_draw;
 
     ImGui_ImplOpenGL3_NewFrame();
     ImGui_ImplSDL2_NewFrame();
     ImGui::NewFrame();
+    handle_shortcuts(p);
     tallyproof::web::draw_screen(p.state, p.theme);
     ImGui::Render();
     int fw = 0, fh = 0;
     SDL_GL_GetDrawableSize(p.window, &fw, &fh);
     glViewport(0, 0, fw, fh);
-    glClearColor(246 / 255.f, 244 / 255.f, 239 / 255.f, 1.f);
+    const ImVec4 c = p.theme.clear;
+    glClearColor(c.x, c.y, c.z, 1.f);
     glClear(GL_COLOR_BUFFER_BIT);
     ImGui_ImplOpenGL3_RenderDrawData(ImGui::GetDrawData());
 }
@@ -66,14 +96,34 @@ void frame() {
 }  // namespace
 
 extern "C" {
-// Called by the page glue with UTF-8 text from a paste event.
+// Called by the page glue with UTF-8 text from a paste event or a dropped file.
 EMSCRIPTEN_KEEPALIVE void tp_paste(const char* text, int length) {
     if (!g_page || !text || length < 0) return;
     tallyproof::web::apply_paste(g_page->state, std::string_view(text, static_cast<std::size_t>(length)));
+    want_frames(*g_page, 3);
 }
 // Called by the page glue on any browser input so the next frames are drawn.
 EMSCRIPTEN_KEEPALIVE void tp_wake() {
-    if (g_page) g_page->state.frames_to_draw = std::max(g_page->state.frames_to_draw, 3);
+    if (g_page) want_frames(*g_page, 3);
+}
+// Loads demo scenario `index` (the Examples menu does the same).
+EMSCRIPTEN_KEEPALIVE void tp_load_demo(int index) {
+    if (!g_page) return;
+    tallyproof::web::load_demo(g_page->state, index);
+    want_frames(*g_page, 3);
+}
+// The system colour scheme changed; followed until the user picks a theme.
+EMSCRIPTEN_KEEPALIVE void tp_system_theme(int dark) {
+    if (!g_page || !g_page->state.theme_from_system) return;
+    g_page->state.dark = dark != 0;
+    g_page->state.theme_changed = true;
+    want_frames(*g_page, 3);
+}
+// Cancels running exact or Monte Carlo work (the page's Escape key).
+EMSCRIPTEN_KEEPALIVE void tp_cancel() {
+    if (!g_page) return;
+    tallyproof::web::cancel_job(g_page->state);
+    want_frames(*g_page, 3);
 }
 }
 
@@ -101,9 +151,12 @@ int main() {
     io.ConfigFlags |= ImGuiConfigFlags_NavEnableKeyboard;
     ImGui_ImplSDL2_InitForOpenGL(page.window, page.gl);
     ImGui_ImplOpenGL3_Init("#version 300 es");
-    page.theme = tallyproof::web::make_theme(static_cast<float>(std::max(1.0, tallyproof::web::device_pixel_ratio())));
+    tallyproof::web::load_fonts(&page.theme, static_cast<float>(std::max(1.0, tallyproof::web::device_pixel_ratio())));
+    page.state.dark = tallyproof::web::system_prefers_dark();
+    tallyproof::web::apply_palette(&page.theme, page.state.dark);
+    page.state.theme_changed = false;
 
-    tallyproof::web::load_example(page.state);
+    tallyproof::web::load_demo(page.state, 0);
     EM_ASM({ if (globalThis.tallyproofPage) globalThis.tallyproofPage.ready(); });
     emscripten_set_main_loop(frame, 0, 1);
     return 0;

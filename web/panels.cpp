@@ -1,115 +1,155 @@
-// Layout: a title line, a notice band for refused input, then the counts beside the verdict
-// and the density plot (stacked on narrow screens).
+// Layout: a title bar (examples, theme, copy), a notice band for refused input, then the inputs
+// (counts, expected mix, test) beside the verdict, validity and the result views; narrow screens
+// stack the columns.
 #include "panels.hpp"
 
 #include <algorithm>
 #include <string>
 
+#include "demo_library.hpp"
 #include "density_plot.hpp"
+#include "bar_chart.hpp"
 #include "number_format.hpp"
-#include "report.hpp"
+#include "page_bridge.hpp"
 #include "tallyproof_version.hpp"
 
 namespace tallyproof::web {
 namespace {
 
-void draw_title(const AppState& s, const Theme& t) {
+void draw_title(AppState& s, const Theme& t) {
     ImGui::PushFont(t.heading);
     ImGui::TextUnformatted("Tallyproof");
     ImGui::PopFont();
     ImGui::SameLine();
-    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
     ImGui::SetCursorPosY(ImGui::GetCursorPosY() + 4);
-    ImGui::Text("chi-square goodness of fit · v%s · %s", TALLYPROOF_VERSION, s.source_name.c_str());
-    ImGui::PopStyleColor();
+    ImGui::TextDisabled("chi-square goodness of fit · v%s · %s", TALLYPROOF_VERSION, s.source_name.c_str());
+
+    const float w_examples = ImGui::CalcTextSize("Examples ▾").x + 16, w_theme = ImGui::CalcTextSize("Dark theme").x + 16;
+    const float w_copy = ImGui::CalcTextSize("Copy results").x + 16;
+    const float right = ImGui::GetWindowContentRegionMax().x;
+    const float x = right - (w_examples + w_theme + w_copy + 2 * ImGui::GetStyle().ItemSpacing.x);
+    ImGui::SameLine(std::max(ImGui::GetCursorPosX() + 10, x));
+    ImGui::SetCursorPosY(ImGui::GetCursorPosY() - 4);
+    if (ImGui::Button("Examples ▾")) ImGui::OpenPopup("examples");
+    mark_widget("Examples");
+    if (ImGui::BeginPopup("examples")) {
+        for (int i = 0; i < kDemoScenarioCount; ++i) {
+            ImGui::PushID(i);
+            if (ImGui::Selectable(kDemoScenarios[i].title, s.demo_index == i)) load_demo(s, i);
+            mark_widget(kDemoScenarios[i].title);
+            ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
+            ImGui::Indent(12);
+            ImGui::PushTextWrapPos(ImGui::GetCursorPosX() + 420);
+            ImGui::TextUnformatted(kDemoScenarios[i].story);
+            ImGui::PopTextWrapPos();
+            ImGui::Unindent(12);
+            ImGui::PopStyleColor();
+            ImGui::PopID();
+        }
+        ImGui::EndPopup();
+    }
+    ImGui::SameLine();
+    if (ImGui::Button(s.dark ? "Light theme" : "Dark theme")) {
+        s.dark = !s.dark;
+        s.theme_from_system = false;
+        s.theme_changed = true;
+    }
+    mark_widget("Theme");
+    ImGui::SameLine();
+    if (ImGui::Button("Copy results")) copy_text(s.report);
+    mark_widget("Copy results");
 }
 
 void draw_rejection_notice(const AppState& s, const Theme& t) {
     if (s.rejected_message.empty()) return;
     ImGui::PushStyleColor(ImGuiCol_ChildBg, ImGui::ColorConvertU32ToFloat4(t.warn_bg));
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
-    const float h = ImGui::GetTextLineHeightWithSpacing() * 2 + ImGui::GetStyle().WindowPadding.y * 2;
+    std::string excerpt;
+    if (s.rejected_line > 0) {  // quote the offending line of the paste
+        int line = 1;
+        std::size_t start = 0;
+        for (std::size_t i = 0; i < s.rejected_text.size() && line < s.rejected_line; ++i)
+            if (s.rejected_text[i] == '\n') { ++line; start = i + 1; }
+        const std::size_t end = s.rejected_text.find_first_of("\r\n", start);
+        excerpt = s.rejected_text.substr(start, std::min<std::size_t>(80, (end == std::string::npos ? s.rejected_text.size() : end) - start));
+        for (auto& c : excerpt) if (c == '\t') c = ' ';
+    }
+    const float lines = excerpt.empty() ? 2.0f : 3.0f;
+    const float h = ImGui::GetTextLineHeightWithSpacing() * lines + ImGui::GetStyle().WindowPadding.y * 2;
     ImGui::BeginChild("rejected", ImVec2(0, h), true, ImGuiWindowFlags_NoScrollbar);
     ImGui::PushFont(t.strong);
     ImGui::TextWrapped("Paste not used: %s", s.rejected_message.c_str());
     ImGui::PopFont();
+    if (!excerpt.empty()) ImGui::Text("Line %d reads:  %s", s.rejected_line, excerpt.c_str());
     ImGui::TextUnformatted("The analysis below is still the previous one. Fix the line and paste again.");
     ImGui::EndChild();
     ImGui::PopStyleColor(2);
 }
 
-void draw_counts(const AppState& s, const Theme& t) {
-    const Result& r = s.result;
-    ImGui::PushFont(t.strong);
-    ImGui::TextUnformatted("Counts");
-    ImGui::PopFont();
-    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
-    ImGui::TextWrapped("Paste lines of label ⇥ count from a spreadsheet (Ctrl+V / ⌘V) anywhere on the page.");
-    ImGui::PopStyleColor();
-    if (!r.status.ok) return;
-    const ImGuiTableFlags flags = ImGuiTableFlags_RowBg | ImGuiTableFlags_BordersInnerH | ImGuiTableFlags_BordersOuter |
-                                  ImGuiTableFlags_ScrollY | ImGuiTableFlags_SizingStretchProp;
-    if (ImGui::BeginTable("counts", 4, flags, ImVec2(0, ImGui::GetContentRegionAvail().y))) {
-        ImGui::TableSetupScrollFreeze(0, 1);
-        ImGui::TableSetupColumn("Category", ImGuiTableColumnFlags_WidthStretch, 2.2f);
-        ImGui::TableSetupColumn("Observed", ImGuiTableColumnFlags_WidthStretch, 1.0f);
-        ImGui::TableSetupColumn("Expected", ImGuiTableColumnFlags_WidthStretch, 1.0f);
-        ImGui::TableSetupColumn("(O−E)²/E", ImGuiTableColumnFlags_WidthStretch, 1.0f);
-        ImGui::TableHeadersRow();
-        ImGuiListClipper clipper;
-        clipper.Begin(static_cast<int>(r.observed.size()));
-        while (clipper.Step()) {
-            for (int i = clipper.DisplayStart; i < clipper.DisplayEnd; ++i) {
-                ImGui::TableNextRow();
-                ImGui::TableNextColumn();
-                ImGui::TextUnformatted(r.categories[i].c_str());
-                ImGui::TableNextColumn();
-                ImGui::TextUnformatted(format_count(r.observed[i]).c_str());
-                ImGui::TableNextColumn();
-                ImGui::TextUnformatted(format_fixed(r.expected_counts[i], 2).c_str());
-                ImGui::TableNextColumn();
-                ImGui::TextUnformatted(format_fixed(r.contributions[i], 3).c_str());
-            }
-        }
-        ImGui::TableNextRow();
-        ImGui::TableNextColumn();
-        ImGui::PushFont(t.strong);
-        ImGui::TextUnformatted("Total");
-        ImGui::TableNextColumn();
-        ImGui::TextUnformatted(format_count(r.n).c_str());
-        ImGui::TableNextColumn();
-        ImGui::TextUnformatted(format_count(r.n).c_str());
-        ImGui::TableNextColumn();
-        ImGui::TextUnformatted(format_fixed(r.statistic, 3).c_str());
-        ImGui::PopFont();
-        ImGui::EndTable();
-    }
+void draw_inputs(AppState& s, const Theme& t, float height) {
+    ImGui::BeginChild("inputs", ImVec2(0, height), true);
+    const float row_h = ImGui::GetFrameHeight() + ImGui::GetStyle().CellPadding.y * 2;
+    const float needed = row_h * static_cast<float>(s.analysis.observed.size() + 2) + ImGui::GetTextLineHeightWithSpacing() * 4 +
+                         ImGui::GetFrameHeightWithSpacing() + 24;
+    const float counts_h = std::max(160.0f, std::min(needed, ImGui::GetContentRegionAvail().y - 360));
+    ImGui::BeginChild("counts-area", ImVec2(0, counts_h), false);
+    draw_counts_panel(s, t);
+    ImGui::EndChild();
+    ImGui::Separator();
+    draw_model_panel(s, t);
+    ImGui::Separator();
+    draw_test_panel(s, t);
+    ImGui::EndChild();
 }
 
-void draw_verdict(const AppState& s, const Theme& t) {
-    const Result& r = s.result;
-    if (!r.status.ok) {
-        ImGui::TextWrapped("%s", r.status.message.c_str());
-        return;
+void draw_results(AppState& s, const Theme& t, float height) {
+    ImGui::BeginChild("results", ImVec2(0, height), true);
+    draw_verdict_panel(s, t);
+    ImGui::Spacing();
+    draw_validity_panel(s, t);
+    if (ImGui::BeginTabBar("views")) {
+        struct Tab { const char* name; ResultTab tab; };
+        const Tab tabs[] = {{"Curve", ResultTab::curve}, {"Bars", ResultTab::bars}, {"Where it differs", ResultTab::categories},
+                            {"Planning", ResultTab::planning}, {"Write-up", ResultTab::writeup}};
+        for (const auto& tab : tabs) {
+            const bool open = ImGui::BeginTabItem(tab.name);
+            mark_widget(tab.name);
+            if (open) {
+                s.tab = tab.tab;
+                const ImVec2 avail = ImGui::GetContentRegionAvail();
+                float cautions_h = 0;  // room for the notes and cautions under the view
+                for (const auto* list : {&s.result.warnings, &s.result.cautions})
+                    for (const auto& w : *list)
+                        cautions_h += ImGui::CalcTextSize(("Caution: " + w).c_str(), nullptr, false, avail.x).y +
+                                      ImGui::GetStyle().ItemSpacing.y;
+                const ImVec2 area(avail.x, std::max(200.0f, avail.y - cautions_h));
+                switch (tab.tab) {
+                    case ResultTab::curve: draw_density_plot(s.curve, s.result, area, t); break;
+                    case ResultTab::bars: draw_bar_chart(s.result, area, t); break;
+                    case ResultTab::categories:
+                        ImGui::BeginChild("cat-area", area);
+                        draw_categories_table(s, t);
+                        ImGui::EndChild();
+                        break;
+                    case ResultTab::planning:
+                        ImGui::BeginChild("plan-area", area);
+                        draw_planning_panel(s, t);
+                        ImGui::EndChild();
+                        break;
+                    case ResultTab::writeup:
+                        ImGui::BeginChild("writeup-area", area);
+                        draw_writeup_panel(s, t);
+                        ImGui::EndChild();
+                        break;
+                }
+                ImGui::EndTabItem();
+            }
+        }
+        ImGui::EndTabBar();
     }
-    ImGui::PushFont(t.heading);
-    ImGui::Text("χ² = %s", format_fixed(r.statistic, 2).c_str());
-    ImGui::PopFont();
-    ImGui::SameLine(0, 24);
-    ImGui::SetCursorPosY(ImGui::GetCursorPosY() + 4);
-    ImGui::Text("df = %s     p = %s     N = %s", format_count(r.df).c_str(), format_probability(r.upper).c_str(),
-                format_count(r.n).c_str());
-    ImGui::Text("Critical value at α = %s: %s", format_plain(r.alpha).c_str(), format_fixed(r.critical_value, 3).c_str());
-    ImGui::PushFont(t.strong);
-    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(r.reject ? t.warn_ink : t.accent));
-    ImGui::TextWrapped("%s", verdict_sentence(r).c_str());
-    ImGui::PopStyleColor();
-    ImGui::PopFont();
-    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
-    ImGui::TextWrapped("Expected mix: equal shares across %zu categories (Pearson's X², df = k − 1).",
-                       r.observed.size());
-    for (const auto& w : r.warnings) ImGui::TextWrapped("Note: %s", w.c_str());
-    ImGui::PopStyleColor();
+    for (const auto& w : s.result.warnings) muted_wrapped(t, "Note: %s", w.c_str());
+    for (const auto& c : s.result.cautions) muted_wrapped(t, "Caution: %s", c.c_str());
+    ImGui::EndChild();
 }
 
 }  // namespace
@@ -118,29 +158,27 @@ void draw_screen(AppState& s, const Theme& t) {
     const ImGuiViewport* vp = ImGui::GetMainViewport();
     ImGui::SetNextWindowPos(vp->Pos);
     ImGui::SetNextWindowSize(vp->Size);
+    const bool wide = vp->Size.x >= 900;
     ImGui::Begin("Tallyproof", nullptr,
                  ImGuiWindowFlags_NoDecoration | ImGuiWindowFlags_NoMove | ImGuiWindowFlags_NoSavedSettings |
-                     ImGuiWindowFlags_NoBringToFrontOnFocus);
+                     ImGuiWindowFlags_NoBringToFrontOnFocus | (wide ? ImGuiWindowFlags_NoScrollbar : 0));
     draw_title(s, t);
     draw_rejection_notice(s, t);
-
     const ImVec2 avail = ImGui::GetContentRegionAvail();
-    const bool wide = avail.x >= 760;
-    const float gap = ImGui::GetStyle().ItemSpacing.x;
-    const float counts_w = wide ? std::clamp(avail.x * 0.36f, 300.0f, 520.0f) : avail.x;
-    const float counts_h = wide ? avail.y : std::max(200.0f, avail.y * 0.38f);
-
-    ImGui::BeginChild("counts-panel", ImVec2(counts_w, counts_h), true);
-    draw_counts(s, t);
-    ImGui::EndChild();
-    if (wide) ImGui::SameLine(0, gap);
-
-    ImGui::BeginChild("result-panel", ImVec2(0, wide ? avail.y : 0), true);
-    draw_verdict(s, t);
-    ImGui::Spacing();
-    const ImVec2 plot = ImGui::GetContentRegionAvail();
-    if (s.result.status.ok) draw_density_plot(s.curve, s.result, ImVec2(plot.x, std::max(180.0f, plot.y)), t);
-    ImGui::EndChild();
+    if (wide) {
+        const float inputs_w = std::clamp(avail.x * 0.36f, 340.0f, 520.0f);
+        ImGui::BeginChild("left", ImVec2(inputs_w, avail.y), false);
+        draw_inputs(s, t, avail.y);
+        ImGui::EndChild();
+        ImGui::SameLine();
+        ImGui::BeginChild("right", ImVec2(0, avail.y), false);
+        draw_results(s, t, avail.y);
+        ImGui::EndChild();
+    } else {
+        // Narrow screens: the verdict first, then the inputs; the page scrolls.
+        draw_results(s, t, std::max(560.0f, vp->Size.y * 0.9f));
+        draw_inputs(s, t, 760.0f);
+    }
     ImGui::End();
 }
 

@@ -1,4 +1,7 @@
 // Panels of the calculator screen. Each takes the state it shows; none owns data.
+//
+// Index: draw_screen (layout) · inputs (counts, model, test) · results (verdict, validity,
+//        categories table, planning, write-up)
 #pragma once
 #include "app_state.hpp"
 #include "theme.hpp"
@@ -6,5 +9,21 @@
 namespace tallyproof::web {
 
 void draw_screen(AppState& state, const Theme& theme);  // the whole page, one ImGui window
+
+// panel_inputs.cpp
+void draw_counts_panel(AppState& state, const Theme& theme);
+void draw_model_panel(AppState& state, const Theme& theme);
+void draw_test_panel(AppState& state, const Theme& theme);
+
+// panel_results.cpp
+void draw_verdict_panel(AppState& state, const Theme& theme);
+void draw_validity_panel(AppState& state, const Theme& theme);
+void draw_categories_table(AppState& state, const Theme& theme);
+void draw_planning_panel(AppState& state, const Theme& theme);
+void draw_writeup_panel(AppState& state, const Theme& theme);
+
+// Helpers shared by the panels
+void section_title(const char* title, const Theme& theme);
+void muted_wrapped(const Theme& theme, const char* fmt, ...);
 
 }  // namespace tallyproof::web

@@ -1,18 +1,27 @@
-// Theme: every colour, font and spacing of the page, set once here.
+// Theme: every colour, font and spacing of the page, set once here (light and dark palettes).
 #pragma once
 #include <imgui.h>
 
 namespace tallyproof::web {
 
 struct Theme {
-    ImU32 paper, ink, muted, rule, accent, accent_soft, reject_fill, tail_fill, marker, curve, warn_bg, warn_ink;
-    ImFont* body = nullptr;     // regular text
-    ImFont* strong = nullptr;   // bold text
-    ImFont* heading = nullptr;  // bold, larger: panel titles and the statistic
+    bool dark = false;
+    ImU32 paper, ink, muted, rule, grid, accent, reject_fill, tail_fill, marker, curve, warn_bg, warn_ink,
+        ok_bg, ok_ink, more, fewer, neutral, expected_mark, progress;
+    ImVec4 clear;                // canvas background
+    ImFont* body = nullptr;      // regular text
+    ImFont* strong = nullptr;    // bold text
+    ImFont* heading = nullptr;   // bold, larger: the statistic
 };
 
 // Loads the embedded DejaVu faces at `pixel_ratio` times their size (crisp on high-DPI
-// screens) and sets ImGui's style and colours.
-Theme make_theme(float pixel_ratio);
+// screens); call once, before the first frame.
+void load_fonts(Theme* theme, float pixel_ratio);
+
+// Sets ImGui's style and the theme's colours for the light or dark palette.
+void apply_palette(Theme* theme, bool dark);
+
+// Colour of a bar by its adjusted residual: deepening towards `more` or `fewer` as |r| grows.
+ImU32 residual_colour(const Theme& theme, double adjusted_residual);
 
 }  // namespace tallyproof::web

@@ -33,6 +33,7 @@ export async function withPage(options, body) {
       const url = req.url();
       if (!url.startsWith('file:') && !url.startsWith('data:') && !url.startsWith('blob:') && !blocked.includes(url)) blocked.push(url);
     });
+    if (options.initScript) await context.addInitScript(options.initScript);
     const page = await context.newPage();
     page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
     page.on('console', (m) => { if (m.type() === 'error') problems.push(`console error: ${m.text()}`); });
@@ -72,3 +73,19 @@ export async function screenshot(page, name) {
 }
 
 export function assert(cond, message) { if (!cond) throw new Error(message); }
+
+// Clicks the canvas control the page recorded under `name` (tallyproofPage.widgets).
+export async function clickWidget(page, name) {
+  await page.waitForFunction((n) => !!globalThis.tallyproofPage.widgets[n], name, { timeout: 5000 });
+  const r = await page.evaluate((n) => globalThis.tallyproofPage.widgets[n], name);
+  await page.mouse.move(r.x + r.w / 2, r.y + r.h / 2);
+  await page.waitForTimeout(60);
+  await page.mouse.down();
+  await page.waitForTimeout(40);
+  await page.mouse.up();
+  await page.waitForTimeout(120);
+}
+
+export async function lastResult(page) {
+  return JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
+}

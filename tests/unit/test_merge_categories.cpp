@@ -84,6 +84,14 @@ TEST_CASE("ordered, custom minimum") {
     CHECK(r.observed == std::vector<double>{6, 6});
 }
 
+TEST_CASE("ordered: a tie between neighbours goes left") {
+    // By hand, E = 6 2 6 9, all-5: 2 has neighbours 6 and 6, the tie goes left -> 8 6 9.
+    MergeResult r;
+    REQUIRE(merge_categories({}, {5, 3, 6, 9}, {6, 2, 6, 9}, options(MergeRule::all_at_least_5, true), &r).ok);
+    CHECK(r.groups == Groups{{0, 1}, {2}, {3}});
+    CHECK(r.observed == std::vector<double>{8, 6, 9});
+}
+
 TEST_CASE("ordered: when the greedy join ends in one group, a left-to-right split is used") {
     // By hand, E = 4 1 1 4, all-5: 1 (leftmost) joins the smaller neighbour 1 -> 4 2 4; 2 has
     // neighbours 4 and 4, a tie goes left -> 6 4 -> 10: one group. But 4+1 | 1+4 = 5 | 5 works,
@@ -258,6 +266,7 @@ TEST_CASE("bad arguments are refused") {
     MergeResult r;
     const MergeOptions opt = options(MergeRule::cochran, true);
     CHECK_FALSE(merge_categories({}, {}, {}, opt, &r).ok);
+    CHECK_FALSE(merge_categories({}, {3}, {3}, options(MergeRule::none, true), &r).ok);  // one category
     CHECK_FALSE(merge_categories({}, {1, 2}, {1, 2, 3}, opt, &r).ok);
     CHECK_FALSE(merge_categories({"a"}, {1, 2}, {1, 2}, opt, &r).ok);
     Status s = merge_categories({"a", "b"}, {1, -2}, {1, 2}, opt, &r);

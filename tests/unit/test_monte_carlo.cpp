@@ -37,20 +37,20 @@ MonteCarloResult mc(const MultinomialTestSpec& spec, std::uint64_t replicates, s
 
 TEST_CASE("splitmix64 seeding and xoshiro256** outputs match the reference algorithm") {
     // splitmix64 from state 0: first outputs 0xe220a8397b1dcdaf, 0x6e789e6aa1b965f4, ... (widely
-    // quoted; confirmed by a Python transcription of Vigna's reference C code run here).
+    // quoted; confirmed by a Python re-implementation of Vigna's reference C code run here).
     const Xoshiro256 g0 = seed_xoshiro256(0);
     CHECK(g0.s[0] == 0xe220a8397b1dcdafULL);
     CHECK(g0.s[1] == 0x6e789e6aa1b965f4ULL);
     CHECK(g0.s[2] == 0x06c45d188009454fULL);
     CHECK(g0.s[3] == 0xf88bb8a8724c81ecULL);
-    // xoshiro256** outputs from that state: Python transcription of xoshiro256starstar.c, run here.
+    // xoshiro256** outputs from that state: Python re-implementation of xoshiro256starstar.c, run here.
     Xoshiro256 g = g0;
     CHECK(next_u64(&g) == 0x99ec5f36cb75f2b4ULL);
     CHECK(next_u64(&g) == 0xbf6e1f784956452aULL);
     CHECK(next_u64(&g) == 0x1a5f849d4933e6e0ULL);
     Xoshiro256 h = seed_xoshiro256(12345);
     for (int i = 0; i < 999; ++i) next_u64(&h);
-    CHECK(next_u64(&h) == 0x3cbb8486529694b8ULL);  // 1000th output, same Python transcription
+    CHECK(next_u64(&h) == 0x3cbb8486529694b8ULL);  // 1000th output, same Python re-implementation
 }
 
 TEST_CASE("uniforms and bounded integers") {

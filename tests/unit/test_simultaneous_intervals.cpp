@@ -1,5 +1,5 @@
 // Simultaneous intervals for multinomial proportions. Goodman (1965) against SciPy 1.10;
-// Sison-Glaz (1995) against OUR OWN independent Python transcription of the paper (mpmath,
+// Sison-Glaz (1995) against OUR OWN independent Python re-implementation of the paper (mpmath,
 // factorial-moment form; tests/reference/generate_simultaneous_intervals.py), not a published
 // library. Closed forms and bad arguments below.
 #include <doctest/doctest.h>
@@ -73,7 +73,7 @@ TEST_CASE("Goodman and Sison-Glaz against the Python reference") {
             CAPTURE(i);
             CHECK(good[i].lower == doctest::Approx(g[i].g_lo).epsilon(1e-12));  // SciPy 1.10
             CHECK(good[i].upper == doctest::Approx(g[i].g_hi).epsilon(1e-12));
-            CHECK(std::fabs(sg[i].lower - g[i].sg_lo) < 1e-12);  // own Python transcription
+            CHECK(std::fabs(sg[i].lower - g[i].sg_lo) < 1e-12);  // own Python re-implementation
             CHECK(std::fabs(sg[i].upper - g[i].sg_hi) < 1e-11);
         }
         // Not a check of our code but of the expansion it transcribes: the Edgeworth nu(c) is

@@ -1,0 +1,119 @@
+// Counts raw numbers into bins. Equal widths take two passes over the text (minimum and
+// maximum first), keeping memory independent of the number of values; a value on an inner
+// edge goes to the bin above, the maximum into the last bin. Exact counts.
+#include "binning.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+
+#include "table_shape.hpp"
+
+namespace tallyproof {
+namespace {
+
+std::string plain(double x) {
+    if (std::isinf(x)) return x < 0 ? "-inf" : "inf";
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "%.6g", x);
+    return buf;
+}
+
+constexpr int kMaxBins = 10000;
+
+}  // namespace
+
+std::string bin_label(double lo, double hi, bool closed_right) {
+    return "[" + plain(lo) + ", " + plain(hi) + (closed_right ? "]" : ")");
+}
+
+void count_into_bins(const RawSource& src, const BinChoice& bins, ParsedInput* out) {
+    if (bins.kind == BinChoice::Kind::equal_probability) {
+        out->status = Status::failure("Equal-probability bins need a fitted model, which is not available yet; "
+                                      "expected bin edges (such as 0,10,20,inf) or equal widths (equal:K).");
+        return;
+    }
+    std::vector<double> edges = bins.edges;
+    auto read_value = [&](std::string_view cell, int line, int column, double* v) {
+        const NumberReading n = read_number(cell, out->decimal);
+        if (!n.ok) {
+            add_problem(out, line, column,
+                        cell_location(line, column) + quote_cell(cell) + " is not a number; expected a measurement.");
+            return false;
+        }
+        *v = n.value;
+        return true;
+    };
+    if (bins.kind == BinChoice::Kind::equal_width) {
+        if (bins.bins < 1 || bins.bins > kMaxBins) {
+            out->status = Status::failure("Equal-width bins: expected a number of bins from 1 to " +
+                                          std::to_string(kMaxBins) + ", got " + std::to_string(bins.bins) + ".");
+            return;
+        }
+        double lo = HUGE_VAL, hi = -HUGE_VAL;
+        const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
+            double v = 0;
+            if (!read_value(cell, line, column, &v)) return out->problems.size() < kMaxProblems;
+            lo = std::min(lo, v);
+            hi = std::max(hi, v);
+            return true;
+        });
+        if (!read.ok) add_problem(out, read.line, read.column, read.message);
+        if (!out->status.ok) return;
+        if (!(lo < hi)) {
+            out->status = Status::failure(lo == hi ? "All values are " + plain(lo) + ": equal-width bins need a spread of values."
+                                                   : "No values to count into bins.");
+            return;
+        }
+        edges.clear();
+        for (int i = 0; i <= bins.bins; ++i) edges.push_back(lo + (hi - lo) * i / bins.bins);
+        edges.back() = hi;
+        out->notes.push_back(std::to_string(bins.bins) + " bins of equal width " + plain((hi - lo) / bins.bins) +
+                             " from the smallest value " + plain(lo) + " to the largest " + plain(hi) + ".");
+    }
+    if (edges.size() < 2 || edges.size() > static_cast<std::size_t>(kMaxBins) + 1) {
+        out->status = Status::failure("Bins: expected from 2 to " + std::to_string(kMaxBins + 1) + " edges, got " +
+                                      std::to_string(edges.size()) + ".");
+        return;
+    }
+    for (std::size_t i = 0; i + 1 < edges.size(); ++i)
+        if (!(edges[i] < edges[i + 1])) {
+            out->status = Status::failure("Bin edges must increase strictly: edge " + std::to_string(i + 2) + " (" +
+                                          plain(edges[i + 1]) + ") does not exceed edge " + std::to_string(i + 1) +
+                                          " (" + plain(edges[i]) + ").");
+            return;
+        }
+    std::vector<double> counts(edges.size() - 1, 0.0);
+    std::size_t values = 0;
+    const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
+        double v = 0;
+        if (!read_value(cell, line, column, &v)) return out->problems.size() < kMaxProblems;
+        std::size_t b;
+        if (v == edges.back()) b = counts.size() - 1;
+        else {
+            const auto it = std::upper_bound(edges.begin(), edges.end(), v);
+            if (it == edges.begin() || it == edges.end()) {
+                add_problem(out, line, column,
+                            cell_location(line, column) + quote_cell(cell) + " is outside the bins (" + plain(edges.front()) +
+                                " to " + plain(edges.back()) + "); expected a value inside, or open end edges -inf and inf.");
+                return out->problems.size() < kMaxProblems;
+            }
+            b = static_cast<std::size_t>(it - edges.begin()) - 1;
+        }
+        counts[b] += 1;
+        ++values;
+        return true;
+    });
+    if (!read.ok) add_problem(out, read.line, read.column, read.message);
+    if (!out->status.ok) return;
+    out->edges = edges;
+    out->ordered = true;
+    for (std::size_t i = 0; i < counts.size(); ++i) {
+        out->categories.push_back(bin_label(edges[i], edges[i + 1], i + 1 == counts.size() && std::isfinite(edges[i + 1])));
+        out->observed.push_back(counts[i]);
+    }
+    out->notes.push_back("Counted " + std::to_string(values) + " raw numbers into " + std::to_string(counts.size()) +
+                         " bins (each includes its lower edge; the last also its upper edge).");
+}
+
+}  // namespace tallyproof

@@ -1,0 +1,198 @@
+// Splits text into records and cells. Quoting follows RFC 4180 (Shafranovich 2005, IETF),
+// leniently: text after a closing quote joins the cell, and spaces around a quoted field are
+// ignored as spreadsheets do when they read CSV. Linear time; no backtracking.
+#include "delimited_text.hpp"
+
+#include <algorithm>
+
+#include "number_reading.hpp"
+
+namespace tallyproof {
+namespace {
+
+char separator_char(Separator sep) {
+    switch (sep) {
+        case Separator::tab: return '\t';
+        case Separator::comma: return ',';
+        case Separator::semicolon: return ';';
+        case Separator::spaces: return ' ';
+    }
+    return '\t';
+}
+
+bool is_line_end(char c) { return c == '\n' || c == '\r'; }
+
+}  // namespace
+
+const char* separator_name(Separator sep) {
+    switch (sep) {
+        case Separator::tab: return "tab";
+        case Separator::comma: return "comma";
+        case Separator::semicolon: return "semicolon";
+        case Separator::spaces: return "spaces";
+    }
+    return "tab";
+}
+
+std::string cell_location(int line, int column) {
+    std::string s = "Line " + std::to_string(line);
+    if (column > 0) s += ", column " + std::to_string(column);
+    return s + ": ";
+}
+
+std::string quote_cell(std::string_view cell) {
+    std::size_t n = std::min<std::size_t>(cell.size(), 40);
+    while (n < cell.size() && n > 0 && (static_cast<unsigned char>(cell[n]) & 0xC0) == 0x80) --n;
+    std::string q = "\"" + std::string(cell.substr(0, n));
+    if (n < cell.size()) q += "...";
+    return q + "\"";
+}
+
+std::string_view skip_byte_order_mark(std::string_view text) {
+    if (text.size() >= 3 && text.compare(0, 3, "\xEF\xBB\xBF") == 0) text.remove_prefix(3);
+    return text;
+}
+
+DelimitedReader::DelimitedReader(std::string_view text, Separator sep) : text_(text), sep_(sep) {}
+
+bool DelimitedReader::next(Record* r) {
+    r->cells.clear();
+    r->quoted.clear();
+    if (!unescaped_.empty()) unescaped_.clear();
+    const std::size_t n = text_.size();
+    if (pos_ >= n) return false;
+    r->line = line_;
+    auto end_line = [&] {
+        if (pos_ < n && text_[pos_] == '\r') ++pos_;
+        else if (pos_ < n && text_[pos_] == '\n') { ++pos_; ++line_; return; }
+        if (pos_ < n && text_[pos_] == '\n') ++pos_;
+        ++line_;
+    };
+    if (sep_ == Separator::spaces) {
+        std::size_t i = pos_;
+        while (i < n) {
+            const char c = text_[i];
+            if (static_cast<unsigned char>(c) > ' ') {
+                const std::size_t b = i;
+                while (i < n && static_cast<unsigned char>(text_[i]) > ' ') ++i;
+                const std::string_view word = trim_cell(text_.substr(b, i - b));  // no-break spaces at the ends
+                if (!word.empty()) {
+                    r->cells.push_back(word);
+                    r->quoted.push_back(false);
+                }
+                continue;
+            }
+            if (c == '\n' || c == '\r') break;
+            ++i;
+        }
+        pos_ = i;
+        end_line();
+        return true;
+    }
+    const char sep = separator_char(sep_);
+    for (;;) {
+        std::size_t i = pos_;
+        while (i < n && text_[i] == ' ' && sep != ' ') ++i;
+        if (i < n && text_[i] == '"') {
+            const int open_line = line_;
+            const int open_column = static_cast<int>(r->cells.size()) + 1;
+            std::string& cell = unescaped_.emplace_back();
+            ++i;
+            bool closed = false;
+            while (i < n) {
+                const std::size_t q = text_.find('"', i);
+                const std::size_t stop = q == std::string_view::npos ? n : q;
+                for (std::size_t j = i; j < stop; ++j)  // count line breaks inside the quotes
+                    if (text_[j] == '\n' || (text_[j] == '\r' && (j + 1 >= n || text_[j + 1] != '\n'))) ++line_;
+                cell.append(text_.data() + i, stop - i);
+                if (q == std::string_view::npos) { i = n; break; }
+                if (q + 1 < n && text_[q + 1] == '"') { cell.push_back('"'); i = q + 2; continue; }
+                i = q + 1;
+                closed = true;
+                break;
+            }
+            if (!closed && status_.ok)
+                status_ = Status::failure("Line " + std::to_string(open_line) + ", column " + std::to_string(open_column) +
+                                              ": the quote opened here is never closed; expected a closing \".",
+                                          open_line, open_column);
+            const std::size_t b = i;  // lenient: text after the closing quote joins the cell
+            while (i < n && text_[i] != sep && !is_line_end(text_[i])) ++i;
+            const std::string_view rest = trim_cell(text_.substr(b, i - b));
+            cell.append(rest.data(), rest.size());
+            r->cells.push_back(cell);
+            r->quoted.push_back(true);
+        } else {
+            const std::size_t b = pos_;
+            while (i < n && text_[i] != sep && !is_line_end(text_[i])) ++i;
+            r->cells.push_back(trim_cell(text_.substr(b, i - b)));
+            r->quoted.push_back(false);
+        }
+        pos_ = i;
+        if (pos_ < n && text_[pos_] == sep) { ++pos_; continue; }
+        break;
+    }
+    end_line();
+    while (!r->cells.empty() && r->cells.back().empty()) { r->cells.pop_back(); r->quoted.pop_back(); }
+    return true;
+}
+
+namespace {
+
+Separator detect(std::string_view text, bool lines_may_be_numbers, bool honour_quotes, bool* open_quote) {
+    int lines = 0, lines_semicolon = 0, lines_comma = 0, lines_number = 0, lines_grouped = 0;
+    int comma_count = -1;
+    bool comma_consistent = true;
+    bool in_quotes = false;
+    int tabs = 0, semis = 0, commas = 0;
+    std::size_t line_start = 0;
+    auto finish_line = [&](std::size_t end) {
+        const std::string_view line = trim_cell(text.substr(line_start, end - line_start));
+        if (!line.empty()) {
+            ++lines;
+            if (semis > 0) ++lines_semicolon;
+            if (commas > 0) ++lines_comma;
+            if (comma_count < 0) comma_count = commas;
+            else if (commas != comma_count) comma_consistent = false;
+            const NumberReading p = read_number(line, DecimalMark::point);
+            if (read_number(line, DecimalMark::comma).ok || p.ok) ++lines_number;
+            if (p.ok && p.grouped && line.find(',') != std::string_view::npos) ++lines_grouped;
+        }
+        semis = commas = 0;
+    };
+    for (std::size_t i = 0; i < text.size() && lines < 200; ++i) {
+        const char c = text[i];
+        if (c == '"' && honour_quotes) in_quotes = !in_quotes;
+        if (in_quotes) continue;
+        if (c == '\t') ++tabs;
+        else if (c == ';') ++semis;
+        else if (c == ',') ++commas;
+        else if (c == '\n' || c == '\r') {
+            finish_line(i);
+            line_start = i + 1;
+        }
+        if (tabs > 0) return Separator::tab;
+    }
+    if (in_quotes) *open_quote = true;
+    if (lines < 200) finish_line(text.size());
+    if (lines == 0) return Separator::tab;
+    if (lines_semicolon == lines) return Separator::semicolon;
+    if (lines_comma == lines && comma_consistent) {
+        if (lines_grouped == lines) return Separator::spaces;  // a column of "1,234": grouped numbers
+        if (lines_may_be_numbers && lines_number == lines) return Separator::spaces;
+        return Separator::comma;
+    }
+    return Separator::spaces;
+}
+
+}  // namespace
+
+Separator detect_separator(std::string_view text, bool lines_may_be_numbers) {
+    text = skip_byte_order_mark(text);
+    bool open_quote = false;
+    const Separator sep = detect(text, lines_may_be_numbers, true, &open_quote);
+    if (!open_quote) return sep;
+    // A quote never closed: judge the lines as written, so the reader can report the quote.
+    return detect(text, lines_may_be_numbers, false, &open_quote);
+}
+
+}  // namespace tallyproof

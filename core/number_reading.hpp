@@ -1,0 +1,60 @@
+// Number reading: one spreadsheet cell read as a number the way people write them in the
+// common locales (decimal point or comma; thousands grouped by , . space ' or no-break spaces;
+// currency signs, percent signs, accounting parentheses, Unicode minus, exponents). Conventions
+// are common practice (CLDR number patterns, from memory); the value is correctly rounded.
+#pragma once
+#include <cstddef>
+#include <string>
+#include <string_view>
+
+namespace tallyproof {
+
+enum class DecimalMark { point, comma };
+const char* decimal_mark_name(DecimalMark mark);  // "decimal point", "decimal comma"
+
+struct NumberReading {
+    bool ok = false;
+    double value = 0;
+    bool negative = false;
+    bool percent = false;        // written with a % sign (value is as written: "12%" -> 12)
+    bool currency = false;       // written with $ € £ ¥
+    bool grouped = false;        // thousands separators were used
+    bool exponent = false;
+    int decimals = 0;            // digits written after the decimal mark
+};
+
+// Reads `cell` with the given decimal mark; the other of . and , may only group thousands.
+// When `canonical` is given it receives the written digits as "-1234.50e3" (no grouping,
+// decimal point), the form digit tallies need. Never allocates when canonical is null.
+NumberReading read_number(std::string_view cell, DecimalMark mark, std::string* canonical = nullptr);
+
+// What one cell says about the decimal mark of its column.
+enum class MarkEvidence {
+    not_a_number,  // neither reading works
+    neutral,       // both readings give the same value ("12", "7%")
+    point,         // only the decimal-point reading works ("12.5", "1,234,567")
+    comma,         // only the decimal-comma reading works ("12,5", "1.234.567")
+    ambiguous,     // both work with different values ("1,234", "1.234")
+};
+MarkEvidence decimal_mark_evidence(std::string_view cell);
+
+// Tally of the evidence a column's cells give, and the decision it supports.
+struct MarkVotes {
+    std::size_t point = 0, comma = 0, ambiguous = 0;
+    bool whole_if_point = true;  // every ambiguous cell is a whole number read with a decimal point
+    bool whole_if_comma = true;  // ... read with a decimal comma
+    std::string first_ambiguous;  // the first ambiguous cell as written
+    int line = 0, column = 0;     // where it is
+    void add(std::string_view cell, int line, int column);
+};
+
+// Decides a column's decimal mark: the only mark any cell supports; else, for count columns
+// (`want_whole`), the reading that makes every ambiguous cell whole; else `fallback`. When an
+// ambiguous cell decided nothing by itself, `note` and `alternative` say what was chosen.
+DecimalMark decide_decimal_mark(const MarkVotes& votes, bool want_whole, DecimalMark fallback,
+                                std::string* note, std::string* alternative);
+
+// Trims ASCII white space and the no-break spaces U+00A0 and U+202F at both ends.
+std::string_view trim_cell(std::string_view cell);
+
+}  // namespace tallyproof

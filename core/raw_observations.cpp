@@ -1,0 +1,175 @@
+// Tallies raw observations as the text streams past. Digit tallies reuse tally_digits
+// (Nigrini 2012 conventions, digit_extraction.hpp) on each number rewritten in the plain
+// "-1234.50" form, so that digits stay as written in every locale. Exact counting.
+#include "raw_observations.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <numeric>
+#include <unordered_map>
+
+#include "digit_extraction.hpp"
+#include "table_shape.hpp"
+
+namespace tallyproof {
+namespace {
+
+std::string plain(double x) {
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "%.15g", x);
+    return buf;
+}
+
+std::string fold_ascii(std::string_view s) {
+    std::string f(s);
+    for (char& c : f)
+        if (c >= 'A' && c <= 'Z') c = static_cast<char>(c - 'A' + 'a');
+    return f;
+}
+
+constexpr double kMaxWholeRange = 1000;  // whole-number categories min..max at most this many
+
+}  // namespace
+
+void tally_raw_text(const RawSource& src, const ParseOptions& options, ParsedInput* out) {
+    std::unordered_map<std::string, std::size_t> index;
+    std::size_t values = 0;
+    std::string key;
+    const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
+        key = options.case_fold ? fold_ascii(cell) : std::string(cell);
+        auto it = index.find(key);
+        if (it == index.end()) {
+            if (out->categories.size() >= kMaxCategories) {
+                add_problem(out, line, column,
+                            cell_location(line, column) + quote_cell(cell) + " would be category " +
+                                std::to_string(kMaxCategories + 1) + "; expected at most " +
+                                std::to_string(kMaxCategories) + " different values.");
+                return false;
+            }
+            index.emplace(key, out->categories.size());
+            out->categories.emplace_back(cell);
+            out->observed.push_back(1);
+        } else {
+            out->observed[it->second] += 1;
+        }
+        ++values;
+        return true;
+    });
+    if (!read.ok) add_problem(out, read.line, read.column, read.message);
+    if (!out->status.ok) return;
+    if (options.sorted) {
+        std::vector<std::size_t> order(out->categories.size());
+        std::iota(order.begin(), order.end(), 0);
+        std::sort(order.begin(), order.end(),
+                  [&](std::size_t a, std::size_t b) { return out->categories[a] < out->categories[b]; });
+        std::vector<std::string> c;
+        std::vector<double> o;
+        for (std::size_t i : order) { c.push_back(std::move(out->categories[i])); o.push_back(out->observed[i]); }
+        out->categories = std::move(c);
+        out->observed = std::move(o);
+    }
+    out->notes.push_back("Read " + std::to_string(values) + " raw text values and tallied them into " +
+                         std::to_string(out->categories.size()) + " categories" +
+                         (options.case_fold ? " (upper and lower case counted together)" : "") +
+                         (options.sorted ? ", in sorted order." : ", in order of first appearance."));
+}
+
+void tally_raw_whole_numbers(const RawSource& src, const ParseOptions&, ParsedInput* out) {
+    std::unordered_map<long long, double> tally;
+    std::size_t values = 0;
+    const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
+        const NumberReading n = read_number(cell, out->decimal);
+        if (!n.ok || n.percent || n.value != std::floor(n.value) || std::fabs(n.value) > 1e15) {
+            add_problem(out, line, column,
+                        cell_location(line, column) + quote_cell(cell) +
+                            " is not a whole number; raw observations here must all be whole numbers.");
+            return out->problems.size() < kMaxProblems;
+        }
+        tally[static_cast<long long>(n.value)] += 1;
+        ++values;
+        return true;
+    });
+    if (!read.ok) add_problem(out, read.line, read.column, read.message);
+    if (!out->status.ok) return;
+    if (tally.empty()) return;
+    long long lo = tally.begin()->first, hi = lo;
+    for (const auto& [v, c] : tally) { lo = std::min(lo, v); hi = std::max(hi, v); }
+    const double span = static_cast<double>(hi) - static_cast<double>(lo) + 1;
+    if (span > kMaxWholeRange) {
+        out->status = Status::failure("The whole numbers run from " + std::to_string(lo) + " to " + std::to_string(hi) +
+                                      ", which would make " + plain(span) + " categories; expected at most " +
+                                      plain(kMaxWholeRange) + ": count them into bins instead.");
+        return;
+    }
+    std::size_t filled = 0;
+    for (long long v = lo; v <= hi; ++v) {
+        const auto it = tally.find(v);
+        out->categories.push_back(std::to_string(v));
+        out->observed.push_back(it == tally.end() ? 0 : it->second);
+        if (it == tally.end()) ++filled;
+    }
+    out->ordered = true;
+    out->notes.push_back("Read " + std::to_string(values) + " raw whole numbers as ordered categories " +
+                         std::to_string(lo) + " to " + std::to_string(hi) +
+                         (filled ? " (" + std::to_string(filled) + " value" + (filled == 1 ? "" : "s") +
+                                       " in between never occur" + (filled == 1 ? "s and has" : " and have") + " count 0)."
+                                 : "."));
+}
+
+void tally_raw_digits(const RawSource& src, DigitTest test, ParsedInput* out) {
+    constexpr std::size_t kBatch = 4096;
+    std::vector<std::string> batch(kBatch);
+    std::vector<std::pair<int, int>> where(kBatch);
+    std::size_t used_in_batch = 0;
+    DigitTally total;
+    total.digits = digit_values(test);
+    total.counts.assign(total.digits.size(), 0.0);
+    std::vector<std::pair<int, int>> first_where;
+    auto flush = [&] {
+        if (used_in_batch == 0) return;
+        if (used_in_batch < kBatch) batch.resize(used_in_batch);
+        const DigitTally t = tally_digits(batch, test);
+        if (total.excluded.empty()) {
+            total.excluded.assign(t.excluded.size(), 0);
+            first_where.assign(t.excluded.size(), {0, 0});
+        }
+        for (std::size_t i = 0; i < t.counts.size(); ++i) total.counts[i] += t.counts[i];
+        for (std::size_t w = 0; w < t.excluded.size(); ++w) {
+            if (t.excluded[w] > 0 && total.excluded[w] == 0) first_where[w] = where[t.first_excluded[w] - 1];
+            total.excluded[w] += t.excluded[w];
+        }
+        total.values += t.values;
+        total.used += t.used;
+        used_in_batch = 0;
+    };
+    const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
+        std::string& slot = batch[used_in_batch];
+        if (!read_number(cell, out->decimal, &slot).ok) slot.assign("x");  // counted as not a number
+        where[used_in_batch++] = {line, column};
+        if (used_in_batch == kBatch) flush();
+        return true;
+    });
+    flush();
+    if (!read.ok) { add_problem(out, read.line, read.column, read.message); return; }
+    out->digit_test = test;
+    out->ordered = true;
+    for (std::size_t i = 0; i < total.digits.size(); ++i) {
+        out->categories.push_back(std::to_string(total.digits[i]));
+        out->observed.push_back(total.counts[i]);
+    }
+    out->notes.push_back("Read " + std::to_string(total.values) + " raw numbers for the " + digit_test_name(test) +
+                         " test; " + std::to_string(total.used) + " are counted.");
+    for (std::size_t w = 0; w < total.excluded.size(); ++w) {
+        if (total.excluded[w] == 0) continue;
+        out->notes.push_back(std::to_string(total.excluded[w]) + " value" + (total.excluded[w] == 1 ? "" : "s") +
+                             " left out: " + digit_exclusion_name(static_cast<DigitExclusion>(w)) + " (first at line " +
+                             std::to_string(first_where[w].first) + ", column " + std::to_string(first_where[w].second) +
+                             ").");
+    }
+    if (total.used == 0)
+        out->status = Status::failure("None of the " + std::to_string(total.values) + " values can be used for the " +
+                                      digit_test_name(test) + " test.");
+}
+
+}  // namespace tallyproof

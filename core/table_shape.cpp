@@ -1,0 +1,397 @@
+// Reads tables of counts. A header row is a first row whose count cell is not a number; a
+// totals row is a last row labelled Total (or Sum, ...) equal to the sum above it; expected
+// values are shares when they add to 1, percentages when written with % or adding to 100,
+// counts when they add to the observed total, ratio terms otherwise. Common practice.
+#include "table_shape.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <unordered_map>
+
+namespace tallyproof {
+namespace {
+
+std::string plain(double x) {
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "%.15g", x);
+    return buf;
+}
+
+std::string lower_ascii(std::string s) {
+    for (char& c : s)
+        if (c >= 'A' && c <= 'Z') c = static_cast<char>(c - 'A' + 'a');
+    return s;
+}
+
+bool is_totals_label(const std::string& label) {
+    std::string s = lower_ascii(label);
+    while (!s.empty() && (s.back() == ':' || s.back() == ' ')) s.pop_back();
+    static const char* const names[] = {"total", "totals", "sum", "grand total", "all", "overall", "gesamt",
+                                        "summe", "insgesamt", "totaal", "totale", "suma", "somme", "n"};
+    for (const char* n : names)
+        if (s == n) return true;
+    return false;
+}
+
+struct Entry {
+    int line = 0;
+    std::string label;         // empty: numbered
+    int label_column = 0;      // 0 when there is no label cell
+    std::string count;
+    int count_column = 0;
+    std::string expected;      // empty when absent
+    int expected_column = 0;
+};
+
+constexpr double kMaxCount = 9007199254740992.0;  // 2^53: larger counts are not exact in a double
+
+}  // namespace
+
+bool looks_numeric(const std::string& cell) { return decimal_mark_evidence(cell) != MarkEvidence::not_a_number; }
+
+void add_problem(ParsedInput* out, int line, int column, const std::string& message) {
+    if (out->status.ok) out->status = Status::failure(message, line, column);
+    if (out->problems.size() < kMaxProblems) out->problems.push_back(CellProblem{line, column, message});
+}
+
+void regroup_space_words(std::vector<TableRow>* rows) {
+    bool two = !rows->empty(), fractions = false;
+    std::size_t data_rows = 0;
+    for (std::size_t r = 0; r < rows->size(); ++r) {
+        const auto& c = (*rows)[r].cells;
+        if (c.empty() || !looks_numeric(c.back())) { if (r == 0) continue; two = false; break; }
+        ++data_rows;
+        if (c.size() < 3 || !looks_numeric(c[c.size() - 2])) { two = false; break; }
+        const NumberReading last = read_number(c.back(), DecimalMark::point);
+        if (!last.ok || last.percent || last.value != std::floor(last.value)) fractions = true;
+    }
+    const std::size_t values = two && fractions && data_rows > 0 ? 2 : 1;
+    for (auto& row : *rows) {
+        auto& c = row.cells;
+        if (c.size() < 2) continue;
+        const std::size_t v = looks_numeric(c.back()) ? std::min(values, c.size() - 1) : 0;
+        std::string label;
+        for (std::size_t i = 0; i + v < c.size(); ++i) label += (i ? " " : "") + c[i];
+        std::vector<std::string> regrouped{label};
+        for (std::size_t i = c.size() - v; i < c.size(); ++i) regrouped.push_back(c[i]);
+        c = std::move(regrouped);
+    }
+}
+
+bool first_row_is_header(const std::vector<TableRow>& rows) {
+    if (rows.size() < 2) return false;
+    for (const auto& cell : rows[0].cells)
+        if (looks_numeric(cell)) return false;
+    std::size_t numeric = 0, cells = 0;
+    for (std::size_t r = 1; r < rows.size(); ++r)
+        for (const auto& cell : rows[r].cells) { ++cells; if (looks_numeric(cell)) ++numeric; }
+    return numeric * 2 > cells;
+}
+
+InputShape detect_shape(const std::vector<TableRow>& rows, bool more_rows, const ParseOptions& options,
+                        std::string* why) {
+    if (options.digits) return InputShape::raw_digits;
+    if (options.bins.kind != BinChoice::Kind::none) return InputShape::raw_bins;
+    std::size_t maxc = 0;
+    for (const auto& r : rows) maxc = std::max(maxc, r.cells.size());
+    const bool header = first_row_is_header(rows);
+    auto all_whole_numbers = [&] {
+        for (std::size_t r = header ? 1 : 0; r < rows.size(); ++r)
+            for (const auto& c : rows[r].cells) {
+                const NumberReading n = read_number(c, DecimalMark::point);
+                if (!n.ok || n.value != std::floor(n.value) || n.percent) return false;
+            }
+        return true;
+    };
+    if (options.raw) return all_whole_numbers() ? InputShape::raw_whole_numbers : InputShape::raw_text;
+    if (rows.empty()) return InputShape::label_count;
+    if (rows.size() == 1) {
+        const auto& c = rows[0].cells;
+        if (c.size() == 1) return InputShape::counts_column;
+        if (c.size() == 2 && !looks_numeric(c[0]) && looks_numeric(c[1])) return InputShape::label_count;
+        std::size_t numeric = 0;
+        for (const auto& cell : c) numeric += looks_numeric(cell);
+        return numeric == 0 ? InputShape::raw_text : InputShape::counts_row;
+    }
+    if (rows.size() == 2 && rows[0].cells.size() == rows[1].cells.size() && maxc >= 2) {
+        bool top_text = true, bottom_numbers = true, bottom_rest_numbers = true;
+        for (const auto& cell : rows[0].cells) top_text = top_text && !looks_numeric(cell);
+        for (std::size_t i = 0; i < rows[1].cells.size(); ++i) {
+            const bool n = looks_numeric(rows[1].cells[i]);
+            bottom_numbers = bottom_numbers && n;
+            if (i > 0) bottom_rest_numbers = bottom_rest_numbers && n;
+        }
+        if (top_text && (bottom_numbers || (maxc >= 3 && bottom_rest_numbers))) return InputShape::counts_row;
+    }
+    if (maxc == 1) {
+        std::size_t numeric = 0, data = 0;
+        double lo = HUGE_VAL, hi = -HUGE_VAL;
+        for (std::size_t r = header || !looks_numeric(rows[0].cells[0]) ? 1 : 0; r < rows.size(); ++r) {
+            ++data;
+            const NumberReading n = read_number(rows[r].cells[0], DecimalMark::point);
+            if (looks_numeric(rows[r].cells[0])) ++numeric;
+            if (n.ok) { lo = std::min(lo, n.value); hi = std::max(hi, n.value); }
+        }
+        if (numeric * 2 <= data) return InputShape::raw_text;
+        if (numeric == data && all_whole_numbers() && lo <= hi) {
+            const double range = hi - lo + 1;
+            if (more_rows || (data >= 20 && static_cast<double>(data) > 2 * range)) {
+                if (why)
+                    *why = std::to_string(data) + (more_rows ? "+" : "") + " whole numbers between " + plain(lo) + " and " +
+                           plain(hi) + " repeat too often to be counts of categories: read as raw observations.";
+                return InputShape::raw_whole_numbers;
+            }
+        }
+        return InputShape::counts_column;
+    }
+    std::size_t numeric_values = 0;
+    for (std::size_t r = 0; r < rows.size(); ++r)
+        for (std::size_t i = 1; i < rows[r].cells.size(); ++i) numeric_values += looks_numeric(rows[r].cells[i]);
+    if (numeric_values == 0) return InputShape::raw_text;
+    return maxc == 2 ? InputShape::label_count : InputShape::label_observed_expected;
+}
+
+void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, ParsedInput* out) {
+    const InputShape shape = out->shape;
+    std::vector<Entry> entries;
+    std::size_t first = 0;
+    // Header rows and the cells that hold numbers, per shape.
+    if (shape == InputShape::counts_row) {
+        std::size_t value_row = 0;
+        std::vector<std::string> labels;
+        if (rows.size() >= 2) {
+            value_row = 1;
+            labels = rows[0].cells;
+            out->column_names = rows[0].cells;
+            out->notes.push_back("Line " + std::to_string(rows[0].line) + " read as the category labels.");
+        }
+        if (rows.size() > 2)
+            add_problem(out, rows[2].line, 1,
+                        cell_location(rows[2].line, 1) + "a third row; expected one row of counts, optionally under a row of labels.");
+        const auto& c = rows[value_row].cells;
+        std::size_t start = 0;
+        if (!looks_numeric(c[0]) && c.size() >= 2) {  // a row heading such as "Count"
+            start = 1;
+            out->column_names.insert(out->column_names.begin(), c[0]);
+            if (!labels.empty()) labels.erase(labels.begin());
+        }
+        for (std::size_t i = start; i < c.size(); ++i) {
+            Entry e;
+            e.line = rows[value_row].line;
+            e.count = c[i];
+            e.count_column = static_cast<int>(i) + 1;
+            if (i - start < labels.size()) { e.label = labels[i - start]; e.label_column = e.count_column; }
+            entries.push_back(e);
+        }
+        out->notes.push_back("Read one row of " + std::to_string(entries.size()) + " counts across cells, one category per cell.");
+    } else if (shape == InputShape::counts_column) {
+        if (!rows.empty() && !looks_numeric(rows[0].cells[0]) && rows.size() >= 2) {
+            out->column_names = {rows[0].cells[0]};
+            out->notes.push_back("Line " + std::to_string(rows[0].line) + " read as a header row.");
+            first = 1;
+        }
+        for (std::size_t r = first; r < rows.size(); ++r) {
+            Entry e;
+            e.line = rows[r].line;
+            e.count = rows[r].cells[0];
+            e.count_column = 1;
+            if (rows[r].cells.size() > 1)
+                add_problem(out, rows[r].line, 2,
+                            cell_location(rows[r].line, 2) + "found " + std::to_string(rows[r].cells.size()) +
+                                " cells; expected one count per line.");
+            entries.push_back(e);
+        }
+    } else {
+        const std::size_t want = shape == InputShape::label_observed_expected ? 3 : 2;
+        if (!rows.empty()) {
+            const auto& c = rows[0].cells;
+            const bool more_below = rows.size() >= 2;
+            bool header = false;
+            if (more_below && c.size() >= 2 && !looks_numeric(c[1])) header = true;
+            if (more_below && c.size() >= 3 && want == 3 && !looks_numeric(c[2]) && !looks_numeric(c[0])) header = true;
+            if (more_below && c.size() == 1 && !looks_numeric(c[0]) && rows[1].cells.size() >= 2) header = true;
+            if (header) {
+                out->column_names = c;
+                out->notes.push_back("Line " + std::to_string(rows[0].line) + " read as a header row.");
+                first = 1;
+            }
+        }
+        const char* expected_shape = want == 3 ? "a label, a count and an expected value" : "a label and a count";
+        for (std::size_t r = first; r < rows.size(); ++r) {
+            const auto& c = rows[r].cells;
+            const int line = rows[r].line;
+            if (c.size() > want) {
+                add_problem(out, line, static_cast<int>(want) + 1,
+                            cell_location(line, static_cast<int>(want) + 1) + "found " + std::to_string(c.size()) +
+                                " cells; expected " + expected_shape + ".");
+                continue;
+            }
+            if (c.size() < want) {
+                const int col = static_cast<int>(c.size()) + 1;
+                add_problem(out, line, col,
+                            cell_location(line, col) + "nothing after " + quote_cell(c.back()) + "; expected " +
+                                expected_shape + " on every line.");
+                continue;
+            }
+            Entry e;
+            e.line = line;
+            e.label = c[0];
+            e.label_column = 1;
+            e.count = c[1];
+            e.count_column = 2;
+            if (want == 3) { e.expected = c[2]; e.expected_column = 3; }
+            entries.push_back(e);
+        }
+    }
+    if (entries.size() > kMaxCategories) {
+        add_problem(out, entries[kMaxCategories].line, 0,
+                    cell_location(entries[kMaxCategories].line, 0) + "more than " + std::to_string(kMaxCategories) +
+                        " categories; expected a table of at most that many.");
+        return;
+    }
+    // Decimal mark, decided from the whole count (and expected) column.
+    MarkVotes counts, expected;
+    for (const auto& e : entries) {
+        counts.add(e.count, e.line, e.count_column);
+        if (e.expected_column) expected.add(e.expected, e.line, e.expected_column);
+    }
+    const DecimalMark fallback = out->separator == Separator::semicolon ? DecimalMark::comma : DecimalMark::point;
+    std::string note, alternative;
+    DecimalMark mark = fallback;
+    if (options.decimal) mark = *options.decimal;
+    else if (counts.point + counts.comma + expected.point + expected.comma > 0)
+        mark = counts.point + expected.point >= counts.comma + expected.comma ? DecimalMark::point : DecimalMark::comma;
+    else if (counts.ambiguous > 0) mark = decide_decimal_mark(counts, true, fallback, &note, &alternative);
+    else if (expected.ambiguous > 0) mark = decide_decimal_mark(expected, false, fallback, &note, &alternative);
+    out->decimal = mark;
+    if (!note.empty()) out->notes.push_back(note);
+    if (!alternative.empty()) out->alternatives.push_back(alternative);
+
+    std::unordered_map<std::string, int> seen;  // label -> line
+    bool any_percent = false;
+    for (std::size_t k = 0; k < entries.size(); ++k) {
+        const Entry& e = entries[k];
+        const std::string where = cell_location(e.line, e.count_column);
+        const NumberReading n = read_number(e.count, mark);
+        if (!n.ok) {
+            add_problem(out, e.line, e.count_column,
+                        where + quote_cell(e.count) + " is not a count; expected a non-negative whole number.");
+            continue;
+        }
+        if (n.percent) {
+            add_problem(out, e.line, e.count_column,
+                        where + quote_cell(e.count) + " is a percentage; counts must be non-negative whole numbers.");
+            continue;
+        }
+        if (n.negative && n.value != 0) {
+            add_problem(out, e.line, e.count_column,
+                        where + quote_cell(e.count) + " is negative; counts must be non-negative whole numbers.");
+            continue;
+        }
+        if (n.value != std::floor(n.value)) {
+            add_problem(out, e.line, e.count_column,
+                        where + quote_cell(e.count) + " is not a whole number; counts must be whole numbers.");
+            continue;
+        }
+        if (n.value > kMaxCount) {
+            add_problem(out, e.line, e.count_column,
+                        where + quote_cell(e.count) + " is too large; expected a count below 2^53.");
+            continue;
+        }
+        std::string label = e.label.empty() ? "Category " + std::to_string(out->observed.size() + 1) : e.label;
+        const auto [it, fresh] = seen.emplace(label, e.line);
+        if (!fresh) {
+            add_problem(out, e.line, e.label_column ? e.label_column : 1,
+                        cell_location(e.line, e.label_column ? e.label_column : 1) + "the label " + quote_cell(label) +
+                            " appears twice (first on line " + std::to_string(it->second) +
+                            "); each category needs its own label.");
+            continue;
+        }
+        double x = 0;
+        if (e.expected_column) {
+            const NumberReading m = read_number(e.expected, mark);
+            const std::string ewhere = cell_location(e.line, e.expected_column);
+            if (!m.ok) {
+                add_problem(out, e.line, e.expected_column,
+                            ewhere + quote_cell(e.expected) +
+                                " is not an expected value; expected a share, percentage, ratio term or expected count.");
+                continue;
+            }
+            if (m.value < 0) {
+                add_problem(out, e.line, e.expected_column,
+                            ewhere + quote_cell(e.expected) + " is negative; expected values must be zero or more.");
+                continue;
+            }
+            any_percent = any_percent || m.percent;
+            x = m.value;
+        }
+        out->categories.push_back(std::move(label));
+        out->observed.push_back(n.value);
+        if (e.expected_column) out->expected.push_back(x);
+    }
+    if (!out->status.ok) return;
+
+    // A trailing totals row: dropped when it equals the sum above, refused when it does not.
+    const std::size_t k = out->observed.size();
+    if (k >= 3) {
+        const Entry& last = entries.back();
+        double above = 0;
+        for (std::size_t i = 0; i + 1 < k; ++i) above += out->observed[i];
+        const bool labelled_total = !last.label.empty() && is_totals_label(last.label);
+        const bool unlabelled_sum = last.label.empty() && k >= 4 && above > 0 && out->observed.back() == above;
+        if (labelled_total && out->observed.back() != above) {
+            add_problem(out, last.line, last.count_column,
+                        cell_location(last.line, last.count_column) + "the totals row " + quote_cell(last.label) +
+                            " gives " + plain(out->observed.back()) + ", but the counts above add up to " + plain(above) +
+                            "; expected their sum, or no totals row.");
+            return;
+        }
+        if (labelled_total || unlabelled_sum) {
+            out->categories.pop_back();
+            out->observed.pop_back();
+            if (!out->expected.empty()) out->expected.pop_back();
+            out->notes.push_back("Line " + std::to_string(last.line) + " (" + plain(above) +
+                                 ") equals the sum of the counts above it: dropped as a totals row.");
+            if (unlabelled_sum)
+                out->alternatives.push_back("If line " + std::to_string(last.line) +
+                                            " is a category rather than a total, give the categories labels.");
+        }
+    }
+    if (out->observed.empty()) {
+        out->status = Status::failure("No counts found: paste lines of label and count.");
+        return;
+    }
+    if (out->observed.size() == 1) {
+        const Entry& e = entries.front();
+        out->status = Status::failure("Only one category (\"" + out->categories[0] +
+                                          "\"): a goodness-of-fit test needs at least two.",
+                                      e.line, e.count_column);
+        return;
+    }
+    // What the expected column holds.
+    if (!out->expected.empty()) {
+        double sum = 0, total = 0;
+        for (double v : out->expected) sum += v;
+        for (double v : out->observed) total += v;
+        if (!(sum > 0)) {
+            const Entry& e = entries.front();
+            add_problem(out, e.line, e.expected_column,
+                        cell_location(e.line, e.expected_column) + "the expected values are all zero; expected shares, percentages, ratio terms or counts.");
+            return;
+        }
+        ExpectedKind kind;
+        std::string why;
+        if (any_percent) { kind = ExpectedKind::percentages; why = "written with % signs"; }
+        else if (std::fabs(sum - 1) <= 0.02) { kind = ExpectedKind::shares; why = "they add up to " + plain(sum); }
+        else if (std::fabs(sum - total) <= std::max(0.5 * static_cast<double>(k), 1e-9 * total) && total > 0 &&
+                 std::fabs(total - 100) > 1e-9) {
+            kind = ExpectedKind::counts; why = "they add up to the observed total " + plain(total);
+        } else if (std::fabs(sum - 100) <= 2) { kind = ExpectedKind::percentages; why = "they add up to " + plain(sum); }
+        else { kind = ExpectedKind::ratios; why = "they add up to " + plain(sum) + ", neither 1, 100 nor the observed total"; }
+        out->expected_kind = kind;
+        out->notes.push_back(std::string("The expected column was read as ") + expected_kind_name(kind) + " (" + why + ").");
+    }
+}
+
+}  // namespace tallyproof

@@ -1,0 +1,27 @@
+#!/bin/sh
+# Builds a libFuzzer target with AddressSanitizer and UndefinedBehaviorSanitizer and runs it.
+# Usage: tests/fuzz/run_fuzzer.sh TARGET SECONDS   (TARGET: paste_parser)
+# Needs clang-14 and libclang-rt-14-dev (Debian). Findings land in $OUT (crash-*, timeout-*).
+set -eu
+TARGET=${1:?usage: run_fuzzer.sh TARGET SECONDS}
+SECONDS_TO_RUN=${2:?usage: run_fuzzer.sh TARGET SECONDS}
+HERE=$(cd "$(dirname "$0")" && pwd)
+ROOT=$(cd "$HERE/../.." && pwd)
+OUT=${OUT:-${TMPDIR:-/tmp}/tallyproof_fuzz_$TARGET}
+CXX=${CXX:-clang++-14}
+mkdir -p "$OUT/corpus"
+case "$TARGET" in
+  paste_parser)
+    SOURCES="paste_parser number_reading delimited_text table_shape raw_observations binning digit_extraction digit_laws"
+    SEEDS="$HERE/corpus_paste" ;;
+  *) echo "unknown target $TARGET" >&2; exit 2 ;;
+esac
+FILES=""
+for s in $SOURCES; do FILES="$FILES $ROOT/core/$s.cpp"; done
+# shellcheck disable=SC2086
+"$CXX" -std=c++17 -O1 -g -fsanitize=fuzzer,address,undefined -fno-sanitize-recover=undefined \
+  -I "$ROOT/core" "$HERE/fuzz_$TARGET.cpp" $FILES -o "$OUT/fuzz_$TARGET"
+cd "$OUT"
+# The working corpus grows in $OUT/corpus; the starting corpus in the repository is only read.
+exec ./"fuzz_$TARGET" -max_total_time="$SECONDS_TO_RUN" -timeout=10 -rss_limit_mb=2048 -max_len=65536 \
+  -print_final_stats=1 corpus "$SEEDS"

@@ -1,0 +1,124 @@
+// Bars are observed counts; the expected count is a dark bar-wide tick, so both read against one
+// axis. Colour follows the adjusted residual (Haberman 1973): neutral near 0, deepening to clay
+// (more than expected) or blue (fewer) as |r| grows towards 3.
+#include "bar_chart.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <string>
+
+#include "number_format.hpp"
+
+namespace tallyproof::web {
+namespace {
+
+double nice_top(double v) {
+    if (!(v > 0)) return 1;
+    const double mag = std::pow(10.0, std::floor(std::log10(v)));
+    for (double m : {1.0, 1.5, 2.0, 2.5, 3.0, 4.0, 5.0, 6.0, 8.0, 10.0})
+        if (m * mag >= v) return m * mag;
+    return 10 * mag;
+}
+
+std::string fit_label(const std::string& s, float width) {
+    if (ImGui::CalcTextSize(s.c_str()).x <= width) return s;
+    std::string t = s;
+    while (!t.empty() && ImGui::CalcTextSize((t + "…").c_str()).x > width) {
+        t.pop_back();
+        while (!t.empty() && (static_cast<unsigned char>(t.back()) & 0xC0) == 0x80) t.pop_back();  // whole code points
+        if (!t.empty() && (static_cast<unsigned char>(t.back()) & 0xC0) == 0xC0) t.pop_back();
+    }
+    return t.empty() ? "" : t + "…";
+}
+
+}  // namespace
+
+void draw_bar_chart(const Result& r, ImVec2 size, const Theme& theme) {
+    ImDrawList* dl = ImGui::GetWindowDrawList();
+    const ImVec2 origin = ImGui::GetCursorScreenPos();
+    ImGui::InvisibleButton("bar-chart", size);
+    const bool hovered = ImGui::IsItemHovered();
+    const std::size_t k = r.tested_observed.size();
+    if (k == 0 || size.x < 80 || size.y < 60) return;
+    dl->AddRectFilled(origin, ImVec2(origin.x + size.x, origin.y + size.y), theme.paper, 6.0f);
+    ImGui::PushFont(theme.strong);
+    dl->AddText(ImVec2(origin.x + 12, origin.y + 7), theme.ink, "Observed counts against expected");
+    ImGui::PopFont();
+
+    const float th = ImGui::GetTextLineHeight();
+    const float left = 56, right = 16, top = 34 + th, bottom = 30;
+    const ImVec2 p0(origin.x + left, origin.y + top), p1(origin.x + size.x - right, origin.y + size.y - bottom);
+    double vmax = 0;
+    for (std::size_t i = 0; i < k; ++i) vmax = std::max({vmax, r.tested_observed[i], r.tested_expected[i]});
+    const double ytop = nice_top(vmax * 1.05);
+    auto py = [&](double v) { return static_cast<float>(p1.y - (p1.y - p0.y) * (v / ytop)); };
+    for (int i = 0; i <= 4; ++i) {
+        const double v = ytop * i / 4;
+        const float y = py(v);
+        dl->AddLine(ImVec2(p0.x, y), ImVec2(p1.x, y), theme.grid);
+        const std::string s = format_significant(v, 3);
+        dl->AddText(ImVec2(p0.x - ImGui::CalcTextSize(s.c_str()).x - 6, y - th / 2), theme.muted, s.c_str());
+    }
+
+    // Legend
+    const float lx = origin.x + size.x - 16;
+    const char* legend[] = {"fewer than expected", "more than expected", "expected"};
+    const ImU32 legend_col[] = {theme.fewer, theme.more, theme.expected_mark};
+    float x = lx;
+    for (int i = 2; i >= 0; --i) {
+        x -= ImGui::CalcTextSize(legend[i]).x;
+        dl->AddText(ImVec2(x, origin.y + 8), theme.muted, legend[i]);
+        x -= 16;
+        if (i == 2) dl->AddRectFilled(ImVec2(x, origin.y + 8 + th / 2 - 1), ImVec2(x + 12, origin.y + 8 + th / 2 + 2), legend_col[i]);
+        else dl->AddRectFilled(ImVec2(x, origin.y + 10), ImVec2(x + 12, origin.y + 8 + th - 2), legend_col[i], 2);
+        x -= 14;
+    }
+
+    const float slot = (p1.x - p0.x) / static_cast<float>(k);
+    const float bar = std::max(2.0f, std::min(slot * 0.66f, 64.0f));
+    const int label_every = std::max(1, static_cast<int>(std::ceil(42.0f / slot)));
+    int hover_index = -1;
+    for (std::size_t i = 0; i < k; ++i) {
+        const float cx = p0.x + slot * (static_cast<float>(i) + 0.5f);
+        const double adj = i < r.diagnostics.categories.size() ? r.diagnostics.categories[i].adjusted_residual : 0;
+        const bool driver = i < r.diagnostics.categories.size() && r.diagnostics.categories[i].drives_result;
+        dl->AddRectFilled(ImVec2(cx - bar / 2, py(r.tested_observed[i])), ImVec2(cx + bar / 2, p1.y), residual_colour(theme, adj), 2.0f);
+        const float ey = py(r.tested_expected[i]);
+        dl->AddRectFilled(ImVec2(cx - bar / 2 - 3, ey - 1.5f), ImVec2(cx + bar / 2 + 3, ey + 1.5f), theme.expected_mark);
+        if (driver) {
+            const char* mark = adj > 0 ? "▲" : "▼";
+            const float my = std::min(py(r.tested_observed[i]), ey) - th - 4;
+            ImGui::PushFont(theme.strong);
+            dl->AddText(ImVec2(cx - ImGui::CalcTextSize(mark).x / 2, my), adj > 0 ? theme.more : theme.fewer, mark);
+            ImGui::PopFont();
+        }
+        if (static_cast<int>(i) % label_every == 0) {
+            const std::string lab = fit_label(r.tested_categories[i], slot * label_every - 4);
+            const float w = ImGui::CalcTextSize(lab.c_str()).x;
+            ImGui::PushFont(driver ? theme.strong : theme.body);
+            dl->AddText(ImVec2(cx - w / 2, p1.y + 6), driver ? theme.ink : theme.muted, lab.c_str());
+            ImGui::PopFont();
+        }
+        const ImVec2 m = ImGui::GetIO().MousePos;
+        if (hovered && m.x >= cx - slot / 2 && m.x < cx + slot / 2) hover_index = static_cast<int>(i);
+    }
+    dl->AddLine(ImVec2(p0.x, p1.y), ImVec2(p1.x, p1.y), theme.ink);
+
+    if (hover_index >= 0) {
+        const std::size_t i = static_cast<std::size_t>(hover_index);
+        ImGui::BeginTooltip();
+        ImGui::PushFont(theme.strong);
+        ImGui::TextUnformatted(r.tested_categories[i].c_str());
+        ImGui::PopFont();
+        ImGui::Text("observed %s, expected %s", format_count(r.tested_observed[i]).c_str(), format_fixed(r.tested_expected[i], 2).c_str());
+        if (i < r.diagnostics.categories.size()) {
+            const auto& d = r.diagnostics.categories[i];
+            ImGui::Text("adjusted residual %s", format_fixed(d.adjusted_residual, 2).c_str());
+            ImGui::Text("adjusted p %s", format_probability(d.adjusted).c_str());
+        }
+        ImGui::EndTooltip();
+    }
+}
+
+}  // namespace tallyproof::web

@@ -1,0 +1,291 @@
+// Input panels: the counts table (editable, rows added, removed and reordered), the expected
+// mix (model kind, values, parameters given or estimated) and the test settings.
+#include <imgui.h>
+#include <imgui_stdlib.h>
+
+#include <cmath>
+#include <cstdio>
+#include <string>
+
+#include "number_format.hpp"
+#include "page_bridge.hpp"
+#include "panels.hpp"
+#include "power_divergence.hpp"
+
+namespace tallyproof::web {
+namespace {
+
+struct KindChoice { ModelKind kind; const char* label; };
+constexpr KindChoice kKinds[] = {
+    {ModelKind::equal, "Equal shares"},
+    {ModelKind::shares, "Stated shares (fractions or %)"},
+    {ModelKind::ratio, "Ratio, such as 9:3:3:1"},
+    {ModelKind::counts, "Expected counts"},
+    {ModelKind::poisson, "Poisson (counts per unit)"},
+    {ModelKind::binomial, "Binomial (successes of n trials)"},
+    {ModelKind::geometric, "Geometric"},
+    {ModelKind::negative_binomial, "Negative binomial"},
+    {ModelKind::uniform, "Uniform over whole numbers"},
+    {ModelKind::normal, "Normal (binned measurements)"},
+    {ModelKind::lognormal, "Lognormal (binned measurements)"},
+    {ModelKind::exponential, "Exponential (binned measurements)"},
+    {ModelKind::benford_first, "Benford: first digit"},
+    {ModelKind::benford_second, "Benford: second digit"},
+    {ModelKind::benford_first_two, "Benford: first two digits"},
+    {ModelKind::last_digit, "Last digit uniform (0-9)"},
+    {ModelKind::last_digit_even, "Last digit uniform (even only)"},
+};
+
+const char* kind_label(ModelKind k) {
+    for (const auto& c : kKinds) if (c.kind == k) return c.label;
+    return "?";
+}
+
+struct LambdaChoice { double lambda; const char* label; };
+constexpr LambdaChoice kLambdas[] = {
+    {1.0, "Pearson X² (λ = 1)"},
+    {0.0, "Likelihood ratio G² (λ = 0)"},
+    {2.0 / 3.0, "Cressie-Read (λ = 2/3)"},
+    {-0.5, "Freeman-Tukey (λ = −1/2)"},
+    {-1.0, "Modified G² (λ = −1)"},
+    {-2.0, "Neyman (λ = −2)"},
+};
+
+bool parse_count_cell(const std::string& text, double* v) {
+    char* end = nullptr;
+    *v = std::strtod(text.c_str(), &end);
+    return !text.empty() && end == text.c_str() + text.size() && std::isfinite(*v);
+}
+
+}  // namespace
+
+void section_title(const char* title, const Theme& theme) {
+    ImGui::PushFont(theme.strong);
+    ImGui::TextUnformatted(title);
+    ImGui::PopFont();
+}
+
+void muted_wrapped(const Theme& theme, const char* fmt, ...) {
+    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(theme.muted));
+    va_list args;
+    va_start(args, fmt);
+    ImGui::TextWrappedV(fmt, args);
+    va_end(args);
+    ImGui::PopStyleColor();
+}
+
+void draw_counts_panel(AppState& s, const Theme& t) {
+    section_title("Counts", t);
+    muted_wrapped(t, "Paste label ⇥ count lines from a spreadsheet (Ctrl+V / ⌘V) anywhere on the page, or edit the table.");
+    const Result& r = s.result;
+    const int k = static_cast<int>(s.analysis.observed.size());
+    const ImGuiTableFlags flags = ImGuiTableFlags_RowBg | ImGuiTableFlags_BordersInnerH | ImGuiTableFlags_BordersOuter |
+                                  ImGuiTableFlags_ScrollY | ImGuiTableFlags_SizingStretchProp;
+    const float row_h = ImGui::GetFrameHeight() + ImGui::GetStyle().CellPadding.y * 2;
+    const float want = row_h * static_cast<float>(k + 2) + 8;
+    const float avail = ImGui::GetContentRegionAvail().y - ImGui::GetFrameHeightWithSpacing() * 1.2f;
+    const float height = std::max(row_h * 4, std::min(want, std::max(avail, row_h * 4)));
+    if (ImGui::BeginTable("counts", 5, flags, ImVec2(0, height))) {
+        ImGui::TableSetupScrollFreeze(0, 1);
+        ImGui::TableSetupColumn("Category", ImGuiTableColumnFlags_WidthStretch, 2.3f);
+        ImGui::TableSetupColumn("Observed", ImGuiTableColumnFlags_WidthStretch, 1.1f);
+        ImGui::TableSetupColumn("Expected", ImGuiTableColumnFlags_WidthStretch, 1.0f);
+        ImGui::TableSetupColumn("Share", ImGuiTableColumnFlags_WidthStretch, 0.9f);
+        ImGui::TableSetupColumn("", ImGuiTableColumnFlags_WidthFixed, ImGui::GetFrameHeight() * 3 + 8);
+        ImGui::TableHeadersRow();
+        ImGuiListClipper clipper;
+        clipper.Begin(k, row_h);
+        while (clipper.Step()) {
+            for (int i = clipper.DisplayStart; i < clipper.DisplayEnd; ++i) {
+                ImGui::PushID(i);
+                ImGui::TableNextRow();
+                ImGui::TableNextColumn();
+                std::string label = s.analysis.categories[i];
+                ImGui::SetNextItemWidth(-1);
+                if (ImGui::InputText("##label", &label, ImGuiInputTextFlags_EnterReturnsTrue) ||
+                    (ImGui::IsItemDeactivatedAfterEdit() && label != s.analysis.categories[i]))
+                    set_label(s, i, label);
+                ImGui::TableNextColumn();
+                std::string count = format_count(s.analysis.observed[i]);
+                ImGui::SetNextItemWidth(-1);
+                if (ImGui::InputText("##count", &count, ImGuiInputTextFlags_CharsScientific | ImGuiInputTextFlags_EnterReturnsTrue) ||
+                    ImGui::IsItemDeactivatedAfterEdit()) {
+                    double v = 0;
+                    if (parse_count_cell(count, &v)) { if (v != s.analysis.observed[i]) set_count(s, i, v); }
+                    else s.input_error = "\"" + count.substr(0, 20) + "\" is not a count.";
+                }
+                ImGui::TableNextColumn();
+                if (i < static_cast<int>(r.expected_counts.size())) ImGui::TextUnformatted(format_fixed(r.expected_counts[i], 2).c_str());
+                ImGui::TableNextColumn();
+                if (i < static_cast<int>(r.expected_shares.size())) ImGui::TextUnformatted(format_significant(r.expected_shares[i], 3).c_str());
+                ImGui::TableNextColumn();
+                if (ImGui::SmallButton("↑")) move_row(s, i, -1);
+                if (ImGui::IsItemHovered()) ImGui::SetTooltip("Move up");
+                ImGui::SameLine(0, 2);
+                if (ImGui::SmallButton("↓")) move_row(s, i, +1);
+                if (ImGui::IsItemHovered()) ImGui::SetTooltip("Move down");
+                ImGui::SameLine(0, 2);
+                if (ImGui::SmallButton("×")) remove_row(s, i);
+                if (ImGui::IsItemHovered()) ImGui::SetTooltip("Remove this category");
+                ImGui::PopID();
+            }
+        }
+        ImGui::TableNextRow();
+        ImGui::TableNextColumn();
+        ImGui::PushFont(t.strong);
+        ImGui::TextUnformatted("Total");
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(format_count(r.n).c_str());
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(format_count(r.n).c_str());
+        ImGui::PopFont();
+        ImGui::EndTable();
+    }
+    if (ImGui::Button("+ Add category")) add_row(s);
+    ImGui::SameLine();
+    bool ordered = s.analysis.ordered;
+    if (ImGui::Checkbox("Categories are in order", &ordered)) {
+        s.analysis.ordered = ordered;
+        recompute(s);
+    }
+}
+
+void draw_model_panel(AppState& s, const Theme& t) {
+    section_title("Expected mix", t);
+    ImGui::SetNextItemWidth(-1);
+    const bool model_open = ImGui::BeginCombo("##model", kind_label(s.analysis.model.kind));
+    mark_widget("Expected mix");
+    if (model_open) {
+        for (const auto& c : kKinds) {
+            const bool selected = c.kind == s.analysis.model.kind;
+            if (ImGui::Selectable(c.label, selected) && !selected) set_model_kind(s, c.kind);
+            mark_widget(c.label);
+            if (selected) ImGui::SetItemDefaultFocus();
+        }
+        ImGui::EndCombo();
+    }
+    const ModelKind kind = s.analysis.model.kind;
+    if (kind == ModelKind::shares || kind == ModelKind::ratio || kind == ModelKind::counts) {
+        const char* hint = kind == ModelKind::ratio ? "9:3:3:1" : kind == ModelKind::shares ? "40, 35, 25 (one per category)" : "one expected count per category";
+        ImGui::SetNextItemWidth(-1);
+        if (ImGui::InputTextWithHint("##values", hint, &s.model_editor.values)) apply_model_editor(s);
+    }
+    if (kind == ModelKind::normal || kind == ModelKind::lognormal || kind == ModelKind::exponential) {
+        ImGui::TextUnformatted("Bin edges (k + 1):");
+        ImGui::SetNextItemWidth(-1);
+        if (ImGui::InputTextWithHint("##edges", "-inf, 10, 20, 30, inf", &s.model_editor.edges)) apply_model_editor(s);
+    }
+    for (std::size_t i = 0; i < s.model_editor.parameters.size(); ++i) {
+        auto& p = s.model_editor.parameters[i];
+        ImGui::PushID(static_cast<int>(i));
+        ImGui::AlignTextToFramePadding();
+        ImGui::Text("%s", p.name.c_str());
+        ImGui::SameLine(90);
+        bool changed = false;
+        if (!p.required) {
+            changed |= ImGui::Checkbox("estimate", &p.estimate);
+            ImGui::SameLine();
+        }
+        if (!p.estimate) {
+            ImGui::SetNextItemWidth(120);
+            changed |= ImGui::InputDouble("##value", &p.value, 0, 0, "%.6g");
+        } else {
+            // Show the estimate in its place
+            for (const auto& e : s.result.estimates)
+                if (e.name == p.name) { ImGui::TextDisabled("= %s", format_significant(e.value, 4).c_str()); break; }
+        }
+        if (changed) apply_model_editor(s);
+        ImGui::PopID();
+    }
+    if (!s.input_error.empty()) {
+        ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
+        ImGui::TextWrapped("Not applied: %s", s.input_error.c_str());
+        ImGui::PopStyleColor();
+    } else if (s.result.status.ok) {
+        muted_wrapped(t, "%s.", s.result.model_description.c_str());
+    }
+}
+
+void draw_test_panel(AppState& s, const Theme& t) {
+    section_title("Test", t);
+    Analysis& a = s.analysis;
+    const char* current = nullptr;
+    for (const auto& c : kLambdas) if (c.lambda == a.statistic.lambda) current = c.label;
+    std::string custom = "Power divergence, λ = " + format_significant(a.statistic.lambda, 3);
+    ImGui::SetNextItemWidth(-1);
+    if (ImGui::BeginCombo("##statistic", current ? current : custom.c_str())) {
+        for (const auto& c : kLambdas) {
+            if (ImGui::Selectable(c.label, c.lambda == a.statistic.lambda)) {
+                a.statistic.lambda = c.lambda;
+                if (c.lambda != 0) a.statistic.williams = false;
+                recompute(s);
+            }
+        }
+        ImGui::EndCombo();
+    }
+    if (a.statistic.lambda == 0) {
+        if (ImGui::Checkbox("Williams' correction", &a.statistic.williams)) recompute(s);
+    }
+    ImGui::AlignTextToFramePadding();
+    ImGui::TextUnformatted("α");
+    ImGui::SameLine(90);
+    double alpha = a.alpha;
+    ImGui::SetNextItemWidth(100);
+    if (ImGui::InputDouble("##alpha", &alpha, 0, 0, "%.4g", ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {
+        if (alpha > 0 && alpha < 1 && alpha != a.alpha) { a.alpha = alpha; recompute(s); }
+        else if (!(alpha > 0 && alpha < 1)) s.input_error = "α must lie between 0 and 1.";
+    }
+    ImGui::AlignTextToFramePadding();
+    ImGui::TextUnformatted("p-value");
+    ImGui::SameLine(90);
+    int m = static_cast<int>(a.pvalue.method);
+    bool method_changed = ImGui::RadioButton("asymptotic", &m, 0);
+    mark_widget("asymptotic");
+    ImGui::SameLine();
+    method_changed |= ImGui::RadioButton("exact", &m, 1);
+    mark_widget("exact");
+    ImGui::SameLine();
+    method_changed |= ImGui::RadioButton("Monte Carlo", &m, 2);
+    mark_widget("Monte Carlo");
+    if (method_changed) set_pvalue_method(s, static_cast<PValueMethod>(m));
+    if (a.pvalue.method == PValueMethod::monte_carlo) {
+        ImGui::SetCursorPosX(90 + ImGui::GetStyle().WindowPadding.x);
+        int reps = static_cast<int>(a.pvalue.replicates), seed = static_cast<int>(a.pvalue.seed);
+        ImGui::SetNextItemWidth(110);
+        if (ImGui::InputInt("replicates", &reps, 0, 0, ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {
+            if (reps >= 100 && reps <= 100000000) { a.pvalue.replicates = static_cast<std::uint64_t>(reps); recompute(s); }
+        }
+        ImGui::SameLine();
+        ImGui::SetNextItemWidth(80);
+        if (ImGui::InputInt("seed", &seed, 0, 0, ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {
+            if (seed >= 0) { a.pvalue.seed = static_cast<std::uint64_t>(seed); recompute(s); }
+        }
+    }
+    if (a.pvalue.method != PValueMethod::asymptotic) {
+        ImGui::SetCursorPosX(90 + ImGui::GetStyle().WindowPadding.x);
+        int ord = a.pvalue.ordering == ExactOrdering::statistic ? 0 : 1;
+        bool ch = ImGui::RadioButton("by statistic", &ord, 0);
+        ImGui::SameLine();
+        ch |= ImGui::RadioButton("by probability", &ord, 1);
+        if (ch) { a.pvalue.ordering = ord == 0 ? ExactOrdering::statistic : ExactOrdering::probability; recompute(s); }
+    }
+    ImGui::AlignTextToFramePadding();
+    ImGui::TextUnformatted("Merge");
+    ImGui::SameLine(90);
+    const char* rules[] = {"no merging", "until all expected ≥ 5", "until Cochran's rule holds", "until all expected ≥ minimum"};
+    int rule = static_cast<int>(a.merge.rule);
+    ImGui::SetNextItemWidth(-1);
+    if (ImGui::Combo("##merge", &rule, rules, 4)) {
+        if (rule != static_cast<int>(a.merge.rule)) merge_thin_cells(s, static_cast<MergeRule>(rule));
+    }
+    if (a.merge.rule == MergeRule::custom_minimum) {
+        ImGui::SetCursorPosX(90 + ImGui::GetStyle().WindowPadding.x);
+        double mn = a.merge.minimum;
+        ImGui::SetNextItemWidth(100);
+        if (ImGui::InputDouble("minimum", &mn, 0, 0, "%.3g", ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {
+            if (mn > 0 && mn != a.merge.minimum) { a.merge.minimum = mn; recompute(s); }
+        }
+    }
+}
+
+}  // namespace tallyproof::web

@@ -1,0 +1,218 @@
+// Result panels: the verdict (statistic, df, p written sensibly at every size, decision in
+// plain words, effect size, method, progress of long work), validity with one-click remedies,
+// the per-category table, planning and the write-up to paste.
+#include <imgui.h>
+#include <imgui_stdlib.h>
+
+#include <algorithm>
+#include <cmath>
+#include <string>
+#include <vector>
+
+#include "number_format.hpp"
+#include "page_bridge.hpp"
+#include "panels.hpp"
+#include "power_analysis.hpp"
+#include "report.hpp"
+
+namespace tallyproof::web {
+namespace {
+
+void coloured_wrapped(ImU32 colour, const char* text) {
+    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(colour));
+    ImGui::TextWrapped("%s", text);
+    ImGui::PopStyleColor();
+}
+
+const double kWMin = 0.02, kWMax = 1.0, kPowerMin = 0.5, kPowerMax = 0.99;
+
+std::string p_line(const Result& r) {
+    std::string s = "p " + format_p_report(r.p);
+    if (r.p.p < 0.001) s += "  (" + format_probability(r.p) + ")";
+    return s;
+}
+
+}  // namespace
+
+void draw_verdict_panel(AppState& s, const Theme& t) {
+    const Result& r = s.result;
+    if (!r.status.ok) {
+        ImGui::TextWrapped("%s", r.status.message.c_str());
+        return;
+    }
+    ImGui::PushFont(t.heading);
+    ImGui::Text("χ² = %s", format_fixed(r.statistic, 2).c_str());
+    ImGui::SameLine(0, 18);
+    ImGui::Text("%s", p_line(r).c_str());
+    ImGui::PopFont();
+    ImGui::Text("df = %s   ·   N = %s   ·   %s   ·   p-value: %s", format_count(r.df).c_str(), format_count(r.n).c_str(),
+                r.statistic_name.c_str(), method_phrase(r).c_str());
+    ImGui::Text("Critical value at α = %s: %s", format_plain(r.alpha).c_str(), format_fixed(r.critical_value, 3).c_str());
+    if (r.method != PValueMethod::asymptotic) {
+        ImGui::SameLine(0, 18);
+        ImGui::TextDisabled("asymptotic p = %s", format_probability(r.upper).c_str());
+    }
+    ImGui::PushFont(t.strong);
+    coloured_wrapped(r.reject ? t.warn_ink : t.accent, verdict_sentence(r).c_str());
+    ImGui::PopFont();
+    std::string effect = "Effect size w = " + format_fixed(r.effect.w, 3) + " (" + r.effect.w_label + ")";
+    if (std::isfinite(r.effect.w_interval.lower))
+        effect += ", 95% CI " + format_fixed(r.effect.w_interval.lower, 3) + " to " + format_fixed(r.effect.w_interval.upper, 3);
+    if (r.effect.fei_defined) effect += ";  Fei = " + format_fixed(r.effect.fei, 3);
+    ImGui::TextWrapped("%s", effect.c_str());
+    if (r.df_range.shown && r.estimated_parameters > 0) muted_wrapped(t, "%s", r.df_range.note.c_str());
+    if (r.exact.computed) muted_wrapped(t, "Exact p-value, error bound %s.", format_significant(r.exact.error_bound, 2).c_str());
+    if (r.monte_carlo.computed)
+        muted_wrapped(t, "Monte Carlo: %llu of %llu replicates at least as extreme; standard error %s.",
+                      static_cast<unsigned long long>(r.monte_carlo.hits), static_cast<unsigned long long>(r.monte_carlo.replicates),
+                      format_significant(r.monte_carlo.standard_error, 2).c_str());
+
+    if (s.job_running) {
+        const char* what = s.analysis.pvalue.method == PValueMethod::exact ? "Exact p-value" : "Monte Carlo p-value";
+        char label[96];
+        std::snprintf(label, sizeof label, "%s: %.0f%%", what, 100 * job_fraction(s));
+        ImGui::PushStyleColor(ImGuiCol_PlotHistogram, ImGui::ColorConvertU32ToFloat4(t.progress));
+        ImGui::ProgressBar(static_cast<float>(job_fraction(s)), ImVec2(std::min(360.0f, ImGui::GetContentRegionAvail().x - 90), 0), label);
+        ImGui::PopStyleColor();
+        ImGui::SameLine();
+        if (ImGui::Button("Cancel")) cancel_job(s); mark_widget("Cancel");
+    }
+}
+
+void draw_validity_panel(AppState& s, const Theme& t) {
+    const Result& r = s.result;
+    if (!r.status.ok) return;
+    const bool ok = r.validity.all_at_least_5;
+    const bool exact_or_mc = r.method != PValueMethod::asymptotic;
+    ImGui::PushStyleColor(ImGuiCol_ChildBg, ImGui::ColorConvertU32ToFloat4(ok || exact_or_mc ? t.ok_bg : t.warn_bg));
+    const float lines = (ok && !r.merged) ? 1.0f : 3.0f;
+    ImGui::BeginChild("validity", ImVec2(0, ImGui::GetTextLineHeightWithSpacing() * lines + ImGui::GetFrameHeight() * (lines > 1 ? 1 : 0) + 22), true,
+                      ImGuiWindowFlags_NoScrollbar);
+    const ImU32 ink = ok || exact_or_mc ? t.ok_ink : t.warn_ink;
+    std::string head = (ok ? "✓ " : "⚠ ") + r.validity.summary;
+    if (!ok && exact_or_mc) head = "✓ " + std::string(r.method == PValueMethod::exact ? "Exact" : "Monte Carlo") +
+                                   " p-value: it does not rely on the large-sample approximation. " + r.validity.summary;
+    coloured_wrapped(ink, head.c_str());
+    if (r.merged) {
+        coloured_wrapped(ink, r.merge_note.c_str());
+    }
+    if (!ok || r.merged) {
+        if (!ok && s.analysis.merge.rule == MergeRule::none) {
+            if (ImGui::Button("Merge thin categories")) merge_thin_cells(s, r.validity.cochran_holds ? MergeRule::all_at_least_5 : MergeRule::cochran); mark_widget("Merge thin categories");
+            if (ImGui::IsItemHovered()) ImGui::SetTooltip("Joins categories with small expected counts (decided on expected counts only)");
+            ImGui::SameLine();
+        }
+        if (!s.merge_undo.empty()) {
+            if (ImGui::Button("Undo merge")) undo_merge(s); mark_widget("Undo merge");
+            ImGui::SameLine();
+        }
+        if (!ok && r.method == PValueMethod::asymptotic) {
+            if (ImGui::Button("Use the exact p-value")) set_pvalue_method(s, PValueMethod::exact); mark_widget("Use the exact p-value");
+            ImGui::SameLine();
+            if (ImGui::Button("Use a Monte Carlo p-value")) set_pvalue_method(s, PValueMethod::monte_carlo); mark_widget("Use a Monte Carlo p-value");
+        }
+    }
+    ImGui::EndChild();
+    ImGui::PopStyleColor();
+}
+
+void draw_categories_table(AppState& s, const Theme& t) {
+    const Result& r = s.result;
+    const auto& cats = r.diagnostics.categories;
+    if (cats.empty()) { muted_wrapped(t, "No per-category diagnostics for this analysis."); return; }
+    coloured_wrapped(r.diagnostics.drivers.empty() ? t.muted : t.ink, r.diagnostics.summary.c_str());
+    const ImGuiTableFlags flags = ImGuiTableFlags_RowBg | ImGuiTableFlags_BordersInnerH | ImGuiTableFlags_BordersOuter |
+                                  ImGuiTableFlags_ScrollY | ImGuiTableFlags_Sortable | ImGuiTableFlags_SizingStretchProp |
+                                  ImGuiTableFlags_Resizable;
+    if (!ImGui::BeginTable("diagnostics", 8, flags, ImVec2(0, ImGui::GetContentRegionAvail().y))) return;
+    ImGui::TableSetupScrollFreeze(1, 1);
+    ImGui::TableSetupColumn("Category", ImGuiTableColumnFlags_DefaultSort, 2.0f);
+    ImGui::TableSetupColumn("O", 0, 0.8f);
+    ImGui::TableSetupColumn("E", 0, 0.9f);
+    ImGui::TableSetupColumn("O − E", 0, 0.9f);
+    ImGui::TableSetupColumn("Share of χ²", 0, 1.0f);
+    ImGui::TableSetupColumn("Adj. residual", 0, 1.0f);
+    ImGui::TableSetupColumn("Holm p", 0, 1.0f);
+    ImGui::TableSetupColumn("Direction", 0, 2.2f);
+    ImGui::TableHeadersRow();
+    std::vector<int> order(cats.size());
+    for (std::size_t i = 0; i < order.size(); ++i) order[i] = static_cast<int>(i);
+    if (ImGuiTableSortSpecs* spec = ImGui::TableGetSortSpecs(); spec && spec->SpecsCount > 0) {
+        const int col = spec->Specs[0].ColumnIndex;
+        const bool asc = spec->Specs[0].SortDirection == ImGuiSortDirection_Ascending;
+        auto key = [&](int i) -> double {
+            const auto& d = cats[i];
+            switch (col) {
+                case 1: return d.observed;
+                case 2: return d.expected;
+                case 3: return d.difference;
+                case 4: return d.contribution_share;
+                case 5: return d.adjusted_residual;
+                case 6: return d.adjusted.log10_p;
+                default: return i;
+            }
+        };
+        std::stable_sort(order.begin(), order.end(), [&](int a, int b) {
+            if (col == 7) return asc ? cats[a].direction < cats[b].direction : cats[a].direction > cats[b].direction;
+            return asc ? key(a) < key(b) : key(a) > key(b);
+        });
+    }
+    for (int i : order) {
+        const auto& d = cats[i];
+        ImGui::TableNextRow();
+        ImGui::TableNextColumn();
+        if (d.drives_result) ImGui::PushFont(t.strong);
+        ImGui::TextUnformatted(d.label.c_str());
+        if (d.drives_result) ImGui::PopFont();
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(format_count(d.observed).c_str());
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(format_fixed(d.expected, 2).c_str());
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(format_fixed(d.difference, 2).c_str());
+        ImGui::TableNextColumn();
+        ImGui::Text("%s%%", format_fixed(100 * d.contribution_share, 1).c_str());
+        ImGui::TableNextColumn();
+        ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(residual_colour(t, d.adjusted_residual)));
+        ImGui::TextUnformatted(format_fixed(d.adjusted_residual, 2).c_str());
+        ImGui::PopStyleColor();
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted(format_probability(d.adjusted).c_str());
+        ImGui::TableNextColumn();
+        ImGui::TextUnformatted((d.drives_result ? "◆ " + d.direction : d.direction).c_str());
+    }
+    ImGui::EndTable();
+}
+
+void draw_planning_panel(AppState& s, const Theme& t) {
+    const Result& r = s.result;
+    section_title("How many items must I inspect?", t);
+    muted_wrapped(t, "Power is the chance the test detects a departure of size w (Cohen's w: 0.1 small, 0.3 medium, 0.5 large) "
+                     "at α = %s with df = %s.", format_plain(r.alpha).c_str(), format_count(r.df).c_str());
+    if (s.plan_n <= 0) s.plan_n = r.n;
+    ImGui::SetNextItemWidth(140);
+    ImGui::SliderScalar("effect size w", ImGuiDataType_Double, &s.plan_w, &kWMin, &kWMax, "%.3f");
+    ImGui::SetNextItemWidth(140);
+    ImGui::InputDouble("sample size N", &s.plan_n, 0, 0, "%.0f");
+    ImGui::SetNextItemWidth(140);
+    ImGui::SliderScalar("target power", ImGuiDataType_Double, &s.plan_target, &kPowerMin, &kPowerMax, "%.2f");
+    const double power = gof_power(s.plan_w, std::max(1.0, s.plan_n), r.alpha, r.df);
+    double need = NAN;
+    const Status st = gof_sample_size(s.plan_w, s.plan_target, r.alpha, r.df, &need);
+    ImGui::Spacing();
+    ImGui::PushFont(t.strong);
+    ImGui::Text("Power at N = %s: %s", format_count(std::max(1.0, s.plan_n)).c_str(), format_fixed(power, 3).c_str());
+    if (st.ok) ImGui::Text("N needed for power %s: %s", format_fixed(s.plan_target, 2).c_str(), format_count(need).c_str());
+    else ImGui::TextWrapped("%s", st.message.c_str());
+    ImGui::PopFont();
+    muted_wrapped(t, "This analysis observed w = %s with N = %s.", format_fixed(r.effect.w, 3).c_str(), format_count(r.n).c_str());
+    if (ImGui::Button("Use the observed N")) s.plan_n = r.n;
+}
+
+void draw_writeup_panel(AppState& s, const Theme& t) {
+    muted_wrapped(t, "The results block, ready to paste into a report or an email.");
+    if (ImGui::Button("Copy results  (Ctrl+Shift+C)")) copy_text(s.report);
+    ImGui::InputTextMultiline("##report", &s.report, ImGui::GetContentRegionAvail(), ImGuiInputTextFlags_ReadOnly);
+}
+
+}  // namespace tallyproof::web
