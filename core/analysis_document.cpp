@@ -32,13 +32,21 @@ Status read_enum_string(const JsonValue& parent, const char* name, const std::st
     return Status::success();
 }
 
-Status read_numbers(const JsonValue& v, const std::string& path, std::vector<double>* out) {
+// Lists of numbers; with `infinities`, the strings "inf", "+inf" and "-inf" stand for open bin
+// ends (JSON has no infinity).
+Status read_numbers(const JsonValue& v, const std::string& path, std::vector<double>* out, bool infinities = false) {
     if (!v.is(Type::array)) return wrong(path, "a list of numbers");
     out->clear();
     out->reserve(v.array.size());
     for (std::size_t i = 0; i < v.array.size(); ++i) {
-        if (!v.array[i].is(Type::number)) return wrong(path + "[" + std::to_string(i) + "]", "a number");
-        out->push_back(v.array[i].number);
+        const JsonValue& e = v.array[i];
+        if (infinities && e.is(Type::string) && (e.string == "inf" || e.string == "+inf" || e.string == "-inf")) {
+            out->push_back(e.string == "-inf" ? -HUGE_VAL : HUGE_VAL);
+            continue;
+        }
+        if (!e.is(Type::number))
+            return wrong(path + "[" + std::to_string(i) + "]", infinities ? "a number, \"-inf\" or \"inf\"" : "a number");
+        out->push_back(e.number);
     }
     return Status::success();
 }
@@ -52,7 +60,7 @@ Status read_model(const JsonValue& m, Model* model) {
     if (!model_kind_from_name(kind, &model->kind))
         return Status::failure("In the document, model.kind \"" + kind.substr(0, 40) + "\" is not a known model kind.");
     if (const JsonValue* v = m.find("values"); v && !v->is(Type::null)) TP_TRY(read_numbers(*v, "model.values", &model->values));
-    if (const JsonValue* v = m.find("edges"); v && !v->is(Type::null)) TP_TRY(read_numbers(*v, "model.edges", &model->edges));
+    if (const JsonValue* v = m.find("edges"); v && !v->is(Type::null)) TP_TRY(read_numbers(*v, "model.edges", &model->edges, true));
     if (const JsonValue* p = m.find("parameters"); p && !p->is(Type::null)) {
         if (!p->is(Type::object)) return wrong("model.parameters", "an object of named numbers");
         for (const auto& [name, value] : p->object) {
@@ -74,10 +82,16 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
     if (const JsonValue* f = doc.find("format"); f && !f->is(Type::null)) {
         if (!f->is(Type::string)) return wrong("format", "a string such as \"tallyproof/1\"");
         if (f->string != kDocumentFormat) {
-            if (f->string.rfind("tallyproof/", 0) == 0)
-                return Status::failure("This document has format \"" + f->string.substr(0, 30) +
-                                       "\", written by a newer version of Tallyproof; this version reads \"tallyproof/1\".");
-            return Status::failure("This is not a Tallyproof document (format \"" + f->string.substr(0, 30) + "\").");
+            const std::string shown = f->string.substr(0, 30);
+            if (f->string.rfind("tallyproof/", 0) == 0) {
+                const std::string v = f->string.substr(11);
+                const bool number = !v.empty() && v.size() < 9 && v.find_first_not_of("0123456789") == std::string::npos;
+                if (number && std::stol(v) > 1)
+                    return Status::failure("This document has format \"" + shown +
+                                           "\", written by a newer version of Tallyproof; this version reads \"tallyproof/1\".");
+                return Status::failure("This document has an unknown format \"" + shown + "\"; this version reads \"tallyproof/1\".");
+            }
+            return Status::failure("This is not a Tallyproof document (format \"" + shown + "\").");
         }
     }
     if (const JsonValue* c = doc.find("categories"); c && !c->is(Type::null)) {
@@ -103,7 +117,7 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
             if (!w->is(Type::boolean)) return wrong("statistic.williams", "true or false");
             a.statistic.williams = w->boolean;
         }
-    } else if (s && !s->is(Type::null) && !s->is(Type::number)) {
+    } else if (s && !s->is(Type::null)) {
         return wrong("statistic", "an object such as {\"lambda\": 1}");
     }
     TP_TRY(read_number(doc, "alpha", "", &a.alpha));
@@ -168,7 +182,14 @@ std::string write_analysis_document(const Analysis& a) {
         for (const auto& [name, value] : a.model.parameters) j.key(name).value(value);
         j.end_object();
     }
-    if (!a.model.edges.empty()) j.key("edges").numbers(a.model.edges);
+    if (!a.model.edges.empty()) {
+        j.key("edges").begin_array();
+        for (double e : a.model.edges) {
+            if (std::isinf(e)) j.value(e < 0 ? "-inf" : "inf");
+            else j.value(e);
+        }
+        j.end_array();
+    }
     j.end_object();
     j.key("statistic").begin_object().key("lambda").value(a.statistic.lambda).key("williams").value(a.statistic.williams).end_object();
     j.key("alpha").value(a.alpha);

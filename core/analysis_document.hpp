@@ -11,8 +11,9 @@ namespace tallyproof {
 
 inline constexpr const char* kDocumentFormat = "tallyproof/1";
 
-// Reads the input side of a document. Unknown members are ignored (so a result document can be
-// read back); wrong types, bad values and newer formats are refused with a message naming the member.
+// Reads the input side of a document. Unknown members are ignored (so documents carrying extra
+// members, such as a demo's title, still open); wrong types, bad values and newer formats are
+// refused with a message naming the member. Open bin edges are written "-inf" / "inf".
 Status read_analysis_document(std::string_view json, Analysis* out);
 
 std::string write_analysis_document(const Analysis& a);  // one line of JSON

@@ -43,9 +43,55 @@ std::string cell_location(int line, int column) {
 std::string quote_cell(std::string_view cell) {
     std::size_t n = std::min<std::size_t>(cell.size(), 40);
     while (n < cell.size() && n > 0 && (static_cast<unsigned char>(cell[n]) & 0xC0) == 0x80) --n;
-    std::string q = "\"" + std::string(cell.substr(0, n));
+    std::string q = "\"" + utf8_or_replacement(cell.substr(0, n));
     if (n < cell.size()) q += "...";
     return q + "\"";
+}
+
+namespace {
+
+// Length of the well-formed UTF-8 sequence at s[i] (Unicode table 3-7), or 0.
+std::size_t utf8_length(std::string_view s, std::size_t i) {
+    const auto b = [&](std::size_t k) { return static_cast<unsigned char>(s[i + k]); };
+    const unsigned char c = b(0);
+    if (c < 0x80) return 1;
+    const std::size_t left = s.size() - i;
+    auto cont = [&](std::size_t k) { return k < left && (b(k) & 0xC0) == 0x80; };
+    if (c >= 0xC2 && c <= 0xDF) return cont(1) ? 2 : 0;
+    if (c >= 0xE0 && c <= 0xEF) {
+        if (!cont(1) || !cont(2)) return 0;
+        if (c == 0xE0 && b(1) < 0xA0) return 0;  // overlong
+        if (c == 0xED && b(1) > 0x9F) return 0;  // surrogates
+        return 3;
+    }
+    if (c >= 0xF0 && c <= 0xF4) {
+        if (!cont(1) || !cont(2) || !cont(3)) return 0;
+        if (c == 0xF0 && b(1) < 0x90) return 0;
+        if (c == 0xF4 && b(1) > 0x8F) return 0;
+        return 4;
+    }
+    return 0;
+}
+
+}  // namespace
+
+bool valid_utf8(std::string_view s) {
+    for (std::size_t i = 0; i < s.size();) {
+        const std::size_t n = utf8_length(s, i);
+        if (n == 0) return false;
+        i += n;
+    }
+    return true;
+}
+
+std::string utf8_or_replacement(std::string_view s) {
+    std::string out;
+    for (std::size_t i = 0; i < s.size();) {
+        const std::size_t n = utf8_length(s, i);
+        if (n == 0) { out += "\xEF\xBF\xBD"; ++i; }
+        else { out.append(s.data() + i, n); i += n; }
+    }
+    return out;
 }
 
 std::string_view skip_byte_order_mark(std::string_view text) {

@@ -51,6 +51,11 @@ std::string cell_location(int line, int column);
 // The cell as quoted in messages: "\"many\"", shortened to 40 bytes (whole UTF-8 characters).
 std::string quote_cell(std::string_view cell);
 
+// UTF-8 well-formedness (Unicode 15, table 3-7): labels must be valid text for display and JSON.
+bool valid_utf8(std::string_view s);
+// The text with each ill-formed byte replaced by U+FFFD.
+std::string utf8_or_replacement(std::string_view s);
+
 std::string_view skip_byte_order_mark(std::string_view text);
 
 }  // namespace tallyproof

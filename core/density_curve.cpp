@@ -34,7 +34,8 @@ DensityCurve density_curve(double df, double critical_value, double statistic, i
     }
     if (df < 2) top = std::min(top, chi_square_density(x_min + 0.02 * (x_max - x_min), df));
     c.y_max = top > 0 ? top * 1.08 : 1.0;
-    for (auto& y : c.y) y = std::isfinite(y) ? std::min(y, c.y_max) : c.y_max;
+    // Values above the plotted top (df < 2 near 0) are kept finite; the chart clips them.
+    for (auto& y : c.y) y = std::isfinite(y) ? std::min(y, 4 * c.y_max) : 4 * c.y_max;
     return c;
 }
 

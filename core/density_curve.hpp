@@ -10,7 +10,7 @@ struct DensityCurve {
     std::vector<double> x, y;        // sample points, x ascending from x_min
     double x_min = 0;                // left end of the plotted range (0, or the body's start for large df)
     double x_max = 0;                // right end of the plotted range
-    double y_max = 0;                // top of the plotted range (finite even where the density is not)
+    double y_max = 0;                // top of the plotted range; samples are at most 4 y_max (clip when drawing)
     bool statistic_beyond = false;   // the statistic lies far right of x_max (draw a broken axis)
 };
 

@@ -7,6 +7,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "category_values.hpp"
 #include "digit_laws.hpp"
 #include "mean_absolute_deviation.hpp"
 #include "merge_categories.hpp"
@@ -30,6 +31,27 @@ std::string statistic_name(double lambda, bool williams) {
     if (lambda == 0) return williams ? "G² (likelihood ratio, Williams-corrected)" : "G² (likelihood ratio)";
     if (!named.empty()) return named + " (power divergence, λ = " + format_significant(lambda, 3) + ")";
     return "power divergence, λ = " + format_significant(lambda, 4);
+}
+
+std::string statistic_symbol(double lambda) {
+    if (lambda == 1) return "χ²";
+    if (lambda == 0) return "G²";
+    if (lambda == -0.5) return "T²";
+    return "CR(λ = " + format_significant(lambda, 3) + ")";
+}
+
+// Labels of merged whole-number cells from their integer ranges ("2 or more", "3–4").
+void relabel_integer_groups(const std::vector<std::string>& original, const std::vector<std::vector<std::size_t>>& groups,
+                            std::vector<std::string>* labels) {
+    std::vector<IntegerBin> bins;
+    if (!integer_bins_from_labels(original, &bins).ok) return;
+    for (std::size_t g = 0; g < groups.size() && g < labels->size(); ++g) {
+        if (groups[g].size() < 2) continue;
+        const double lo = bins[groups[g].front()].lo, hi = bins[groups[g].back()].hi;
+        if (std::isinf(hi)) (*labels)[g] = format_plain(lo) + " or more";
+        else if (std::isinf(lo)) (*labels)[g] = format_plain(hi) + " or fewer";
+        else (*labels)[g] = format_plain(lo) + "–" + format_plain(hi);
+    }
 }
 
 bool digit_test_of(ModelKind kind, DigitTest* t) {
@@ -131,6 +153,9 @@ Result analyse(const Analysis& a) {
             r.merge_map.push_back(orig);
         }
         labels = mr.labels;
+        const bool whole_numbers = model_is_fitted(a.model.kind) && a.model.kind != ModelKind::normal &&
+                                   a.model.kind != ModelKind::lognormal && a.model.kind != ModelKind::exponential;
+        if (whole_numbers) relabel_integer_groups(a.categories, r.merge_map, &labels);
         obs = mr.observed;
         exp = mr.expected;
     } else {
@@ -160,6 +185,7 @@ Result analyse(const Analysis& a) {
     r.statistic = pd.statistic;
     r.contributions = pd.contributions;
     r.statistic_name = statistic_name(a.statistic.lambda, a.statistic.williams);
+    r.statistic_symbol = statistic_symbol(a.statistic.lambda);
     r.upper = chi_square_upper_tail(r.statistic, r.df);
     r.lower = chi_square_lower_tail(r.statistic, r.df);
     r.critical_value = chi_square_critical_value(a.alpha, r.df);

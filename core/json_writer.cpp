@@ -3,6 +3,7 @@
 
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
 
 namespace tallyproof {
 
@@ -31,7 +32,13 @@ JsonWriter& JsonWriter::value(double v) {
     if (!std::isfinite(v)) { out_ += "null"; return *this; }
     char buf[40];
     if (v == std::floor(v) && std::fabs(v) < 1e15) std::snprintf(buf, sizeof buf, "%.0f", v);
-    else std::snprintf(buf, sizeof buf, "%.17g", v);
+    else {
+        // The shortest form that reads back as the same double (0.05, not 0.050000000000000003).
+        for (int digits = 15; digits <= 17; ++digits) {
+            std::snprintf(buf, sizeof buf, "%.*g", digits, v);
+            if (std::strtod(buf, nullptr) == v) break;
+        }
+    }
     out_ += buf;
     return *this;
 }

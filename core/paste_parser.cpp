@@ -126,7 +126,7 @@ ParsedInput parse_input(std::string_view text, const ParseOptions& options) {
             rows.push_back(to_row(rec));
             while (reader.next(&rec)) {
                 if (rec.blank()) continue;
-                if (rows.size() > kMaxCategories + 1) {
+                if (rows.size() >= kMaxCategories + 1) {  // room for a header row
                     out.status = Status::failure(cell_location(rec.line, 0) + "more than " + std::to_string(kMaxCategories) +
                                                      " rows; expected a table of at most that many categories.",
                                                  rec.line, 0);

@@ -78,6 +78,9 @@ void finish_pvalue_job(const PValueJob& job, Result* r) {
             return;
         }
         r->exact.computed = true;
+        if (r->estimated_parameters > 0)
+            r->warnings.push_back("The exact p-value treats the fitted shares as known; with estimated parameters it is "
+                                  "conservative (closer to the p at df " + std::to_string(static_cast<long long>(r->df_range.upper_df)) + ").");
         r->exact.p = er.p;
         r->exact.error_bound = er.error_bound;
         r->exact.work_units = static_cast<double>(er.work_units);
@@ -94,6 +97,9 @@ void finish_pvalue_job(const PValueJob& job, Result* r) {
             return;
         }
         r->monte_carlo.computed = true;
+        if (r->estimated_parameters > 0)
+            r->warnings.push_back("The Monte Carlo p-value treats the fitted shares as known; with estimated parameters it is "
+                                  "conservative (closer to the p at df " + std::to_string(static_cast<long long>(r->df_range.upper_df)) + ").");
         r->monte_carlo.p = mr.p;
         r->monte_carlo.standard_error = mr.standard_error;
         r->monte_carlo.replicates = mr.replicates;

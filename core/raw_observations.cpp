@@ -48,7 +48,7 @@ void tally_raw_text(const RawSource& src, const ParseOptions& options, ParsedInp
                 return false;
             }
             index.emplace(key, out->categories.size());
-            out->categories.emplace_back(cell);
+            out->categories.emplace_back(valid_utf8(cell) ? std::string(cell) : utf8_or_replacement(cell));
             out->observed.push_back(1);
         } else {
             out->observed[it->second] += 1;

@@ -58,7 +58,7 @@ std::string report_text(const Analysis& a, const Result& r) {
     s += "N = " + format_count(r.n) + ", k = " + std::to_string(r.observed.size());
     if (r.merged) s += " (" + std::to_string(r.tested_categories.size()) + " after merging)";
     s += "\n";
-    s += "χ² = " + format_fixed(r.statistic, 2) + ", df = " + format_count(r.df) + ", p = " + format_probability(r.p) +
+    s += r.statistic_symbol + " = " + format_fixed(r.statistic, 2) + ", df = " + format_count(r.df) + ", p = " + format_probability(r.p) +
          " (" + method_phrase(r) + ")\n";
     if (r.method != PValueMethod::asymptotic) s += "Asymptotic p = " + format_probability(r.upper) + "\n";
     if (r.exact.computed) s += "Exact p error bound: " + format_significant(r.exact.error_bound, 2) + "\n";

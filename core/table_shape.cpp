@@ -294,12 +294,16 @@ void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, 
                         where + quote_cell(e.count) + " is not a whole number; counts must be whole numbers.");
             continue;
         }
-        if (n.value > kMaxCount) {
+        if (n.value >= kMaxCount) {
             add_problem(out, e.line, e.count_column,
                         where + quote_cell(e.count) + " is too large; expected a count below 2^53.");
             continue;
         }
         std::string label = e.label.empty() ? "Category " + std::to_string(out->observed.size() + 1) : e.label;
+        if (!valid_utf8(label)) {
+            label = utf8_or_replacement(label);
+            out->notes.push_back(cell_location(e.line, e.label_column) + "the label is not valid UTF-8 text; unreadable bytes are shown as \xEF\xBF\xBD.");
+        }
         const auto [it, fresh] = seen.emplace(label, e.line);
         if (!fresh) {
             add_problem(out, e.line, e.label_column ? e.label_column : 1,

@@ -243,7 +243,7 @@ int main(int argc, char** argv) {
                 if (!(v >= 0 && v <= 1000) || v != static_cast<int>(v)) return usage_error("--extra-params must be a whole number");
                 analysis.extra_estimated_parameters = static_cast<int>(v);
             } else if (opt == "--replicates") {
-                if (!(v >= 1 && v <= 1e10) || v != static_cast<double>(static_cast<std::uint64_t>(v))) return usage_error("--replicates must be a whole number from 1");
+                if (!(v >= 1 && v <= 1e9) || v != static_cast<double>(static_cast<std::uint64_t>(v))) return usage_error("--replicates must be a whole number from 1 to 1000000000");
                 analysis.pvalue.replicates = static_cast<std::uint64_t>(v);
             } else if (opt == "--seed") {
                 if (!(v >= 0 && v <= 9007199254740991.0) || v != static_cast<double>(static_cast<std::uint64_t>(v))) return usage_error("--seed must be a whole number");

@@ -7,6 +7,10 @@
 #include <cstdlib>
 
 #include "analysis_document.hpp"
+#include "json_reader.hpp"
+#include "json_writer.hpp"
+#include "share_link.hpp"
+#include "table_export.hpp"
 #include "demo_library.hpp"
 #include "goodness_of_fit.hpp"
 #include "number_format.hpp"
@@ -70,9 +74,41 @@ void sync_editor_from_model(AppState& s) {
             if (name == p.name) { p.estimate = false; p.value = value; }
 }
 
+constexpr std::size_t kRecentLimit = 8;
+
+std::string saved_title(const AppState& s) {
+    std::string t = s.source_name;
+    std::string cats;
+    for (std::size_t i = 0; i < s.analysis.categories.size() && i < 3; ++i) cats += (i ? ", " : "") + s.analysis.categories[i];
+    if (s.analysis.categories.size() > 3) cats += ", …";
+    return t + " (" + cats + ")";
+}
+
+void persist_recent(const AppState& s) {
+    JsonWriter j;
+    j.begin_array();
+    for (const auto& r : s.recent) j.begin_object().key("title").value(r.title).key("when").value(r.when).key("document").value(r.document).end_object();
+    j.end_array();
+    storage_set("tallyproof.recent", j.str());
+}
+
+// Autosave: the analysis on screen is kept in the browser's storage after every change.
+void remember(AppState& s, const std::string& document) {
+    storage_set("tallyproof.current", document);
+    const std::string when = local_time_text();
+    if (!s.recent.empty() && s.recent.front().document == document) return;
+    // The same analysis edited again replaces its entry rather than filling the list.
+    if (!s.recent.empty() && s.recent.front().title == saved_title(s)) s.recent.erase(s.recent.begin());
+    s.recent.insert(s.recent.begin(), SavedAnalysis{saved_title(s), when, document});
+    if (s.recent.size() > kRecentLimit) s.recent.resize(kRecentLimit);
+    persist_recent(s);
+}
+
 void publish(AppState& s) {
     s.report = report_text(s.analysis, s.result);
-    publish_result(s.report, report_json(s.analysis, s.result), write_analysis_document(s.analysis));
+    const std::string document = write_analysis_document(s.analysis);
+    publish_result(s.report, report_json(s.analysis, s.result), document);
+    remember(s, document);
 }
 
 }  // namespace
@@ -305,6 +341,84 @@ void undo_merge(AppState& s) {
 void set_pvalue_method(AppState& s, PValueMethod method) {
     s.analysis.pvalue.method = method;
     recompute(s);
+}
+
+void restore_session(AppState& s) {
+    JsonValue list;
+    if (parse_json(storage_get("tallyproof.recent"), &list).ok && list.is(JsonValue::Type::array)) {
+        for (const auto& e : list.array) {
+            const JsonValue *t = e.find("title"), *w = e.find("when"), *d = e.find("document");
+            if (t && w && d && t->is(JsonValue::Type::string) && w->is(JsonValue::Type::string) && d->is(JsonValue::Type::string))
+                s.recent.push_back(SavedAnalysis{t->string, w->string, d->string});
+            if (s.recent.size() >= kRecentLimit) break;
+        }
+    }
+    const std::string fragment = location_fragment();
+    if (!fragment.empty()) {
+        std::string document;
+        const Status st = decode_share_fragment(fragment, &document);
+        if (st.ok && open_document(s, document)) {
+            s.source_name = "share link";
+            return;
+        }
+        load_demo(s, 0);
+        s.rejected_message = st.ok ? s.rejected_message : st.message;
+        s.rejected_text = fragment.substr(0, 200);
+        publish_error(s.rejected_message);
+        return;
+    }
+    const std::string saved = storage_get("tallyproof.current");
+    if (!saved.empty() && open_document(s, saved)) {
+        s.source_name = "restored from the last session";
+        return;
+    }
+    s.rejected_message.clear();
+    s.rejected_text.clear();
+    load_demo(s, 0);
+}
+
+void start_fresh(AppState& s) {
+    storage_remove("tallyproof.current");
+    s.merge_undo.clear();
+    load_demo(s, 0);
+    s.notice = "Started fresh: paste your counts, or pick an example.";
+}
+
+void open_recent(AppState& s, int index) {
+    if (index < 0 || index >= static_cast<int>(s.recent.size())) return;
+    const SavedAnalysis chosen = s.recent[index];
+    if (open_document(s, chosen.document)) s.source_name = "recent: " + chosen.title;
+}
+
+void copy_share_link(AppState& s) {
+    const std::string fragment = encode_share_fragment(write_analysis_document(s.analysis));
+    if (fragment.empty() || fragment.size() > 8000) {
+        s.notice = "This analysis is too large for a share link; download the analysis file (JSON) instead.";
+        return;
+    }
+    copy_text(page_address() + "#" + fragment);
+    s.notice = "Share link copied: it carries the whole analysis in the link itself; nothing is sent to any server.";
+}
+
+void download_document(AppState& s) {
+    download_text("tallyproof-analysis.json", "application/json", write_analysis_document(s.analysis));
+    s.notice = "Analysis file downloaded.";
+}
+
+void download_table(AppState& s) {
+    download_text("tallyproof-categories.csv", "text/csv", category_table(s.result, TableExportOptions{TableFormat::csv, s.decimal_comma, true}));
+    s.notice = "Per-category table downloaded (CSV).";
+}
+
+void queue_chart_export(AppState& s, ResultTab chart, int purpose) {
+    s.exports.push_back(ChartExport{chart, purpose});
+    s.frames_to_draw = std::max(s.frames_to_draw, 3);
+}
+
+void request_print(AppState& s) {
+    queue_chart_export(s, ResultTab::curve, static_cast<int>(ImagePurpose::print));
+    queue_chart_export(s, ResultTab::bars, static_cast<int>(ImagePurpose::print));
+    s.print_pending = true;
 }
 
 }  // namespace tallyproof::web

@@ -29,6 +29,19 @@ struct ModelEditor {
 
 enum class ResultTab { curve, bars, categories, planning, writeup };
 
+// An analysis kept in the browser's storage (autosave and the recent list).
+struct SavedAnalysis {
+    std::string title;     // what it was (example title, "pasted text", ...) and its first categories
+    std::string when;      // local time it was last changed
+    std::string document;  // the analysis document
+};
+
+// A chart image to render off screen at 2x: saved as PNG, copied, or kept for printing.
+struct ChartExport {
+    ResultTab chart = ResultTab::curve;  // curve or bars
+    int purpose = 0;                     // ImagePurpose
+};
+
 struct AppState {
     // Inputs
     Analysis analysis;               // the analysis on screen (its last valid form)
@@ -62,6 +75,14 @@ struct AppState {
     int demo_index = -1;             // demo on screen, or -1
     double plan_w = 0.3, plan_target = 0.8, plan_n = 0;  // planning panel inputs
     int frames_to_draw = 2;          // redraw budget: the page draws only on input or work
+
+    // Leaving the page
+    std::vector<SavedAnalysis> recent;   // most recent first, at most 8
+    std::vector<ChartExport> exports;    // rendered one per frame by main
+    bool print_pending = false;          // print once the queued chart images are delivered
+    std::string notice;                  // a short confirmation ("Share link copied")
+    int writeup_style = 0;               // 0 plain, 1 Markdown, 2 TSV
+    bool decimal_comma = false;
 };
 
 void load_demo(AppState& s, int index);                      // one of kDemoScenarios
@@ -81,5 +102,14 @@ bool recompute(AppState& s);                                 // false: input_err
 void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work
 void cancel_job(AppState& s);
 double job_fraction(const AppState& s);
+
+void restore_session(AppState& s);        // share link in the URL, else the autosaved analysis, else an example
+void start_fresh(AppState& s);            // forget the autosaved analysis; back to the first example
+void open_recent(AppState& s, int index);
+void copy_share_link(AppState& s);
+void download_document(AppState& s);      // the analysis document (JSON)
+void download_table(AppState& s);         // the per-category table (CSV)
+void queue_chart_export(AppState& s, ResultTab chart, int purpose);
+void request_print(AppState& s);          // chart images first, then the print layout
 
 }  // namespace tallyproof::web

@@ -90,13 +90,17 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
         }
         dl->Flags = saved;
     };
+    dl->PushClipRect(ImVec2(p0.x, p0.y - 2), ImVec2(p1.x + 2, p1.y + 1), true);
     if (std::isfinite(result.critical_value)) shade_from(result.critical_value, theme.reject_fill);
     if (!broken) shade_from(result.statistic, theme.tail_fill);
+    dl->PopClipRect();
 
+    dl->PushClipRect(ImVec2(p0.x, p0.y - 2), ImVec2(p1.x + 2, p1.y + 1), true);  // df < 2 rises past the top
     std::vector<ImVec2> pts;
     pts.reserve(curve.x.size());
     for (std::size_t i = 0; i < curve.x.size(); ++i) pts.emplace_back(px(curve.x[i]), py(curve.y[i]));
     dl->AddPolyline(pts.data(), static_cast<int>(pts.size()), theme.curve, 0, 2.25f);
+    dl->PopClipRect();
     dl->AddLine(ImVec2(p0.x, p1.y), ImVec2(p1.x, p1.y), theme.ink, 1.0f);
     dl->AddLine(ImVec2(p0.x, p0.y), ImVec2(p0.x, p1.y), theme.ink, 1.0f);
 

@@ -4,6 +4,7 @@
 #include <SDL.h>
 #include <SDL_opengles2.h>
 #include <emscripten.h>
+#include <emscripten/html5.h>
 #include <imgui.h>
 #include <imgui_impl_opengl3.h>
 #include <imgui_impl_sdl.h>
@@ -11,9 +12,15 @@
 #include <algorithm>
 #include <string_view>
 
+#include <cfloat>
+#include <vector>
+
 #include "app_state.hpp"
+#include "bar_chart.hpp"
+#include "density_plot.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
+#include "tallyproof_version.hpp"
 #include "theme.hpp"
 
 namespace {
@@ -56,6 +63,49 @@ void handle_shortcuts(Page& p) {
     if (mod && ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_Enter), false)) tallyproof::web::recompute(p.state);
 }
 
+// Renders one chart alone, 960 x 540 CSS pixels at 2x, reads it back and hands it to the page;
+// then restores the canvas. Runs inside the same animation frame as a normal frame drawn after
+// it, so the export never shows on screen.
+void render_chart_export(Page& p, const tallyproof::web::ChartExport& e) {
+    using namespace tallyproof::web;
+    const int cw = 960, ch = 540, scale = 2, pw = cw * scale, ph = ch * scale;
+    int fw = 0, fh = 0;
+    SDL_GL_GetDrawableSize(p.window, &fw, &fh);
+    emscripten_set_canvas_element_size("#canvas", pw, ph);
+    const Theme theme = export_theme(p.theme);
+    ImGuiIO& io = ImGui::GetIO();
+    ImGui_ImplOpenGL3_NewFrame();
+    ImGui_ImplSDL2_NewFrame();
+    const ImVec2 mouse = io.MousePos;
+    io.DisplaySize = ImVec2(cw, ch);
+    io.DisplayFramebufferScale = ImVec2(scale, scale);
+    io.FontGlobalScale = theme.font_scale;
+    io.MousePos = ImVec2(-FLT_MAX, -FLT_MAX);  // no hover tooltips in the image
+    ImGui::NewFrame();
+    ImGui::SetNextWindowPos(ImVec2(0, 0));
+    ImGui::SetNextWindowSize(ImVec2(cw, ch));
+    ImGui::Begin("chart-export", nullptr, ImGuiWindowFlags_NoDecoration | ImGuiWindowFlags_NoSavedSettings | ImGuiWindowFlags_NoInputs);
+    ImGui::PushFont(theme.body);
+    const ImVec2 area = ImGui::GetContentRegionAvail();
+    if (e.chart == ResultTab::bars) draw_bar_chart(p.state.result, area, theme);
+    else draw_density_plot(p.state.curve, p.state.result, area, theme);
+    ImGui::PopFont();
+    ImGui::End();
+    ImGui::Render();
+    glViewport(0, 0, pw, ph);
+    glClearColor(theme.clear.x, theme.clear.y, theme.clear.z, 1.f);
+    glClear(GL_COLOR_BUFFER_BIT);
+    ImGui_ImplOpenGL3_RenderDrawData(ImGui::GetDrawData());
+    std::vector<unsigned char> pixels(static_cast<std::size_t>(pw) * ph * 4);
+    glPixelStorei(GL_PACK_ALIGNMENT, 1);
+    glReadPixels(0, 0, pw, ph, GL_RGBA, GL_UNSIGNED_BYTE, pixels.data());
+    deliver_image(pixels.data(), pw, ph, e.chart == ResultTab::bars ? "tallyproof-bars.png" : "tallyproof-curve.png",
+                  static_cast<ImagePurpose>(e.purpose));
+    io.MousePos = mouse;
+    io.FontGlobalScale = p.theme.font_scale;
+    emscripten_set_canvas_element_size("#canvas", fw, fh);
+}
+
 void frame() {
     Page& p = *g_page;
     SDL_Event ev;
@@ -70,6 +120,16 @@ void frame() {
     if (p.state.theme_changed) {
         tallyproof::web::apply_palette(&p.theme, p.state.dark);
         p.state.theme_changed = false;
+    }
+    if (!p.state.exports.empty()) {
+        const tallyproof::web::ChartExport e = p.state.exports.front();
+        p.state.exports.erase(p.state.exports.begin());
+        render_chart_export(p, e);
+        if (p.state.exports.empty() && p.state.print_pending) {
+            p.state.print_pending = false;
+            tallyproof::web::print_report(p.state.report, p.state.source_name + " · Tallyproof " TALLYPROOF_VERSION);
+        }
+        p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
     }
     if (p.state.frames_to_draw <= 0) {
         p.paused = true;
@@ -156,7 +216,7 @@ int main() {
     tallyproof::web::apply_palette(&page.theme, page.state.dark);
     page.state.theme_changed = false;
 
-    tallyproof::web::load_demo(page.state, 0);
+    tallyproof::web::restore_session(page.state);
     EM_ASM({ if (globalThis.tallyproofPage) globalThis.tallyproofPage.ready(); });
     emscripten_set_main_loop(frame, 0, 1);
     return 0;

@@ -4,6 +4,8 @@
 #include <emscripten.h>
 #include <imgui.h>
 
+#include <cstdlib>
+
 EM_JS(void, tp_js_publish_result, (const char* text, const char* json, const char* doc), {
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.showResult(UTF8ToString(text), UTF8ToString(json), UTF8ToString(doc));
 });
@@ -27,7 +29,57 @@ EM_JS(void, tp_js_mark, (const char* name, float x, float y, float w, float h), 
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.widgets[UTF8ToString(name)] = { x: x, y: y, w: w, h: h };
 });
 
+EM_JS(char*, tp_js_storage_get, (const char* key), {
+    var v = null;
+    try { v = window.localStorage.getItem(UTF8ToString(key)); } catch (e) { v = null; }
+    v = v || '';
+    var n = lengthBytesUTF8(v) + 1, p = _malloc(n);
+    stringToUTF8(v, p, n);
+    return p;
+});
+EM_JS(void, tp_js_storage_set, (const char* key, const char* value), {
+    try { window.localStorage.setItem(UTF8ToString(key), UTF8ToString(value)); } catch (e) { /* storage refused or full */ }
+});
+EM_JS(void, tp_js_storage_remove, (const char* key), {
+    try { window.localStorage.removeItem(UTF8ToString(key)); } catch (e) { }
+});
+EM_JS(char*, tp_js_fragment, (), {
+    var v = (location.hash || '').replace(/^#/, '');
+    var n = lengthBytesUTF8(v) + 1, p = _malloc(n);
+    stringToUTF8(v, p, n);
+    return p;
+});
+EM_JS(char*, tp_js_address, (), {
+    var v = location.href.split('#')[0];
+    var n = lengthBytesUTF8(v) + 1, p = _malloc(n);
+    stringToUTF8(v, p, n);
+    return p;
+});
+EM_JS(char*, tp_js_time, (), {
+    var d = new Date(), z = function (x) { return (x < 10 ? '0' : '') + x; };
+    var v = d.getFullYear() + '-' + z(d.getMonth() + 1) + '-' + z(d.getDate()) + ' ' + z(d.getHours()) + ':' + z(d.getMinutes());
+    var n = lengthBytesUTF8(v) + 1, p = _malloc(n);
+    stringToUTF8(v, p, n);
+    return p;
+});
+EM_JS(void, tp_js_download, (const char* name, const char* mime, const char* text), {
+    if (globalThis.tallyproofPage) globalThis.tallyproofPage.download(UTF8ToString(name), UTF8ToString(mime), UTF8ToString(text));
+});
+EM_JS(void, tp_js_image, (const unsigned char* rgba, int w, int h, const char* name, int purpose), {
+    if (globalThis.tallyproofPage) globalThis.tallyproofPage.image(HEAPU8.slice(rgba, rgba + w * h * 4), w, h, UTF8ToString(name), purpose);
+});
+EM_JS(void, tp_js_print, (const char* text, const char* title), {
+    if (globalThis.tallyproofPage) globalThis.tallyproofPage.printReport(UTF8ToString(text), UTF8ToString(title));
+});
+
 namespace tallyproof::web {
+namespace {
+std::string take(char* p) {
+    std::string s = p ? p : "";
+    free(p);
+    return s;
+}
+}  // namespace
 
 void publish_result(const std::string& text, const std::string& json, const std::string& document) {
     tp_js_publish_result(text.c_str(), json.c_str(), document.c_str());
@@ -45,5 +97,17 @@ void mark_widget(const char* name) {
     const ImVec2 a = ImGui::GetItemRectMin(), b = ImGui::GetItemRectMax();
     tp_js_mark(name, a.x, a.y, b.x - a.x, b.y - a.y);
 }
+
+std::string storage_get(const char* key) { return take(tp_js_storage_get(key)); }
+void storage_set(const char* key, const std::string& value) { tp_js_storage_set(key, value.c_str()); }
+void storage_remove(const char* key) { tp_js_storage_remove(key); }
+std::string location_fragment() { return take(tp_js_fragment()); }
+std::string page_address() { return take(tp_js_address()); }
+std::string local_time_text() { return take(tp_js_time()); }
+void download_text(const char* filename, const char* mime, const std::string& text) { tp_js_download(filename, mime, text.c_str()); }
+void deliver_image(const unsigned char* rgba, int width, int height, const char* name, ImagePurpose purpose) {
+    tp_js_image(rgba, width, height, name, static_cast<int>(purpose));
+}
+void print_report(const std::string& text, const std::string& title) { tp_js_print(text.c_str(), title.c_str()); }
 
 }  // namespace tallyproof::web

@@ -16,4 +16,19 @@ void set_progress(double fraction, bool running);   // mirrors long work into th
 // assistive tools can find controls on the canvas (tallyproofPage.widgets).
 void mark_widget(const char* name);
 
+// Browser storage (localStorage; empty string when absent or refused) and the URL fragment.
+std::string storage_get(const char* key);
+void storage_set(const char* key, const std::string& value);
+void storage_remove(const char* key);
+std::string location_fragment();                    // without '#'
+std::string page_address();                         // the page's address without its fragment
+std::string local_time_text();                      // e.g. "2026-12-01 22:40" in the user's time zone
+
+// Files leaving the page (never uploaded): a text download, and a chart image (RGBA rows
+// bottom-up, as glReadPixels gives them) saved, copied or kept for printing.
+void download_text(const char* filename, const char* mime, const std::string& text);
+enum class ImagePurpose { download = 0, copy = 1, print = 2 };
+void deliver_image(const unsigned char* rgba, int width, int height, const char* name, ImagePurpose purpose);
+void print_report(const std::string& text, const std::string& title);  // print layout, then print()
+
 }  // namespace tallyproof::web

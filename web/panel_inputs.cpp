@@ -87,11 +87,11 @@ void draw_counts_panel(AppState& s, const Theme& t) {
     const float height = std::max(row_h * 4, std::min(want, std::max(avail, row_h * 4)));
     if (ImGui::BeginTable("counts", 5, flags, ImVec2(0, height))) {
         ImGui::TableSetupScrollFreeze(0, 1);
-        ImGui::TableSetupColumn("Category", ImGuiTableColumnFlags_WidthStretch, 2.3f);
-        ImGui::TableSetupColumn("Observed", ImGuiTableColumnFlags_WidthStretch, 1.1f);
+        ImGui::TableSetupColumn("Category", ImGuiTableColumnFlags_WidthStretch, 2.0f);
+        ImGui::TableSetupColumn("Observed", ImGuiTableColumnFlags_WidthStretch, 1.3f);
         ImGui::TableSetupColumn("Expected", ImGuiTableColumnFlags_WidthStretch, 1.0f);
         ImGui::TableSetupColumn("Share", ImGuiTableColumnFlags_WidthStretch, 0.9f);
-        ImGui::TableSetupColumn("", ImGuiTableColumnFlags_WidthFixed, ImGui::GetFrameHeight() * 3 + 8);
+        ImGui::TableSetupColumn("", ImGuiTableColumnFlags_WidthFixed, ImGui::CalcTextSize("↑↓×").x + 6 * ImGui::GetStyle().FramePadding.x + 6);
         ImGui::TableHeadersRow();
         ImGuiListClipper clipper;
         clipper.Begin(k, row_h);
@@ -180,7 +180,7 @@ void draw_model_panel(AppState& s, const Theme& t) {
         ImGui::PushID(static_cast<int>(i));
         ImGui::AlignTextToFramePadding();
         ImGui::Text("%s", p.name.c_str());
-        ImGui::SameLine(90);
+        ImGui::SameLine(74);
         bool changed = false;
         if (!p.required) {
             changed |= ImGui::Checkbox("estimate", &p.estimate);
@@ -228,7 +228,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
     }
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("α");
-    ImGui::SameLine(90);
+    ImGui::SameLine(74);
     double alpha = a.alpha;
     ImGui::SetNextItemWidth(100);
     if (ImGui::InputDouble("##alpha", &alpha, 0, 0, "%.4g", ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {
@@ -237,7 +237,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
     }
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("p-value");
-    ImGui::SameLine(90);
+    ImGui::SameLine(74);
     int m = static_cast<int>(a.pvalue.method);
     bool method_changed = ImGui::RadioButton("asymptotic", &m, 0);
     mark_widget("asymptotic");
@@ -249,7 +249,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
     mark_widget("Monte Carlo");
     if (method_changed) set_pvalue_method(s, static_cast<PValueMethod>(m));
     if (a.pvalue.method == PValueMethod::monte_carlo) {
-        ImGui::SetCursorPosX(90 + ImGui::GetStyle().WindowPadding.x);
+        ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
         int reps = static_cast<int>(a.pvalue.replicates), seed = static_cast<int>(a.pvalue.seed);
         ImGui::SetNextItemWidth(110);
         if (ImGui::InputInt("replicates", &reps, 0, 0, ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {
@@ -262,7 +262,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
         }
     }
     if (a.pvalue.method != PValueMethod::asymptotic) {
-        ImGui::SetCursorPosX(90 + ImGui::GetStyle().WindowPadding.x);
+        ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
         int ord = a.pvalue.ordering == ExactOrdering::statistic ? 0 : 1;
         bool ch = ImGui::RadioButton("by statistic", &ord, 0);
         ImGui::SameLine();
@@ -271,7 +271,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
     }
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("Merge");
-    ImGui::SameLine(90);
+    ImGui::SameLine(74);
     const char* rules[] = {"no merging", "until all expected ≥ 5", "until Cochran's rule holds", "until all expected ≥ minimum"};
     int rule = static_cast<int>(a.merge.rule);
     ImGui::SetNextItemWidth(-1);
@@ -279,7 +279,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
         if (rule != static_cast<int>(a.merge.rule)) merge_thin_cells(s, static_cast<MergeRule>(rule));
     }
     if (a.merge.rule == MergeRule::custom_minimum) {
-        ImGui::SetCursorPosX(90 + ImGui::GetStyle().WindowPadding.x);
+        ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
         double mn = a.merge.minimum;
         ImGui::SetNextItemWidth(100);
         if (ImGui::InputDouble("minimum", &mn, 0, 0, "%.3g", ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {

@@ -14,6 +14,8 @@
 #include "panels.hpp"
 #include "power_analysis.hpp"
 #include "report.hpp"
+#include "table_export.hpp"
+#include "writeup.hpp"
 
 namespace tallyproof::web {
 namespace {
@@ -41,7 +43,7 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
         return;
     }
     ImGui::PushFont(t.heading);
-    ImGui::Text("χ² = %s", format_fixed(r.statistic, 2).c_str());
+    ImGui::Text("%s = %s", r.statistic_symbol.c_str(), format_fixed(r.statistic, 2).c_str());
     ImGui::SameLine(0, 18);
     ImGui::Text("%s", p_line(r).c_str());
     ImGui::PopFont();
@@ -85,18 +87,21 @@ void draw_validity_panel(AppState& s, const Theme& t) {
     const bool ok = r.validity.all_at_least_5;
     const bool exact_or_mc = r.method != PValueMethod::asymptotic;
     ImGui::PushStyleColor(ImGuiCol_ChildBg, ImGui::ColorConvertU32ToFloat4(ok || exact_or_mc ? t.ok_bg : t.warn_bg));
-    const float lines = (ok && !r.merged) ? 1.0f : 3.0f;
-    ImGui::BeginChild("validity", ImVec2(0, ImGui::GetTextLineHeightWithSpacing() * lines + ImGui::GetFrameHeight() * (lines > 1 ? 1 : 0) + 22), true,
-                      ImGuiWindowFlags_NoScrollbar);
     const ImU32 ink = ok || exact_or_mc ? t.ok_ink : t.warn_ink;
     std::string head = (ok ? "✓ " : "⚠ ") + r.validity.summary;
     if (!ok && exact_or_mc) head = "✓ " + std::string(r.method == PValueMethod::exact ? "Exact" : "Monte Carlo") +
                                    " p-value: it does not rely on the large-sample approximation. " + r.validity.summary;
+    const bool buttons = !ok || r.merged;
+    const float wrap = ImGui::GetContentRegionAvail().x - 2 * ImGui::GetStyle().WindowPadding.x;
+    float h = ImGui::CalcTextSize(head.c_str(), nullptr, false, wrap).y + 2 * ImGui::GetStyle().WindowPadding.y + 4;
+    if (r.merged) h += ImGui::CalcTextSize(r.merge_note.c_str(), nullptr, false, wrap).y + ImGui::GetStyle().ItemSpacing.y;
+    if (buttons) h += ImGui::GetFrameHeightWithSpacing();
+    ImGui::BeginChild("validity", ImVec2(0, h), true, ImGuiWindowFlags_NoScrollbar);
     coloured_wrapped(ink, head.c_str());
     if (r.merged) {
         coloured_wrapped(ink, r.merge_note.c_str());
     }
-    if (!ok || r.merged) {
+    if (buttons) {
         if (!ok && s.analysis.merge.rule == MergeRule::none) {
             if (ImGui::Button("Merge thin categories")) merge_thin_cells(s, r.validity.cochran_holds ? MergeRule::all_at_least_5 : MergeRule::cochran); mark_widget("Merge thin categories");
             if (ImGui::IsItemHovered()) ImGui::SetTooltip("Joins categories with small expected counts (decided on expected counts only)");
@@ -130,10 +135,10 @@ void draw_categories_table(AppState& s, const Theme& t) {
     ImGui::TableSetupColumn("O", 0, 0.8f);
     ImGui::TableSetupColumn("E", 0, 0.9f);
     ImGui::TableSetupColumn("O − E", 0, 0.9f);
-    ImGui::TableSetupColumn("Share of χ²", 0, 1.0f);
-    ImGui::TableSetupColumn("Adj. residual", 0, 1.0f);
-    ImGui::TableSetupColumn("Holm p", 0, 1.0f);
-    ImGui::TableSetupColumn("Direction", 0, 2.2f);
+    ImGui::TableSetupColumn("χ² share", 0, 0.9f);
+    ImGui::TableSetupColumn("Adj. res.", 0, 0.9f);
+    ImGui::TableSetupColumn("Holm p", 0, 1.3f);
+    ImGui::TableSetupColumn("Direction", 0, 1.9f);
     ImGui::TableHeadersRow();
     std::vector<int> order(cats.size());
     for (std::size_t i = 0; i < order.size(); ++i) order[i] = static_cast<int>(i);
@@ -210,9 +215,35 @@ void draw_planning_panel(AppState& s, const Theme& t) {
 }
 
 void draw_writeup_panel(AppState& s, const Theme& t) {
-    muted_wrapped(t, "The results block, ready to paste into a report or an email.");
-    if (ImGui::Button("Copy results  (Ctrl+Shift+C)")) copy_text(s.report);
-    ImGui::InputTextMultiline("##report", &s.report, ImGui::GetContentRegionAvail(), ImGuiInputTextFlags_ReadOnly);
+    muted_wrapped(t, "Ready to paste into a report, an email or a spreadsheet.");
+    ImGui::RadioButton("Plain text", &s.writeup_style, 0);
+    mark_widget("Plain text");
+    ImGui::SameLine();
+    ImGui::RadioButton("Markdown", &s.writeup_style, 1);
+    mark_widget("Markdown");
+    ImGui::SameLine();
+    ImGui::RadioButton("Spreadsheet (TSV)", &s.writeup_style, 2);
+    mark_widget("Spreadsheet (TSV)");
+    ImGui::SameLine();
+    ImGui::Checkbox("decimal comma", &s.decimal_comma);
+    mark_widget("decimal comma");
+    WriteupOptions o;
+    o.style = static_cast<WriteupStyle>(s.writeup_style);
+    o.decimal_comma = s.decimal_comma;
+    const std::string sentence = writeup_sentence(s.analysis, s.result, o);
+    std::string block = writeup(s.analysis, s.result, o);
+    if (ImGui::Button("Copy sentence")) copy_text(sentence);
+    mark_widget("Copy sentence");
+    ImGui::SameLine();
+    if (ImGui::Button("Copy block")) copy_text(block);
+    mark_widget("Copy block");
+    ImGui::SameLine();
+    if (ImGui::Button("Copy table (TSV)")) copy_text(category_table(s.result, TableExportOptions{TableFormat::tsv, s.decimal_comma, false}));
+    mark_widget("Copy table");
+    ImGui::SameLine();
+    if (ImGui::Button("Copy full report")) copy_text(s.report);
+    mark_widget("Copy full report");
+    ImGui::InputTextMultiline("##writeup", &block, ImGui::GetContentRegionAvail(), ImGuiInputTextFlags_ReadOnly);
 }
 
 }  // namespace tallyproof::web

@@ -20,16 +20,59 @@ void draw_title(AppState& s, const Theme& t) {
     ImGui::PushFont(t.heading);
     ImGui::TextUnformatted("Tallyproof");
     ImGui::PopFont();
-    ImGui::SameLine();
-    ImGui::SetCursorPosY(ImGui::GetCursorPosY() + 4);
-    ImGui::TextDisabled("chi-square goodness of fit · v%s · %s", TALLYPROOF_VERSION, s.source_name.c_str());
-
-    const float w_examples = ImGui::CalcTextSize("Examples ▾").x + 16, w_theme = ImGui::CalcTextSize("Dark theme").x + 16;
-    const float w_copy = ImGui::CalcTextSize("Copy results").x + 16;
+    const float w_examples = ImGui::CalcTextSize("Examples ▾").x + 16, w_theme = ImGui::CalcTextSize("Light theme").x + 16;
+    const float w_copy = ImGui::CalcTextSize("Copy results").x + 16, w_save = ImGui::CalcTextSize("Save & share ▾").x + 16;
+    const float buttons = w_save + w_examples + w_theme + w_copy + 3 * ImGui::GetStyle().ItemSpacing.x;
     const float right = ImGui::GetWindowContentRegionMax().x;
-    const float x = right - (w_examples + w_theme + w_copy + 2 * ImGui::GetStyle().ItemSpacing.x);
-    ImGui::SameLine(std::max(ImGui::GetCursorPosX() + 10, x));
-    ImGui::SetCursorPosY(ImGui::GetCursorPosY() - 4);
+    std::string subtitle = "chi-square goodness of fit · v" + std::string(TALLYPROOF_VERSION) + " · " + s.source_name;
+    ImGui::SameLine();
+    const float room = right - ImGui::GetCursorPosX() - buttons - 16;
+    if (ImGui::CalcTextSize(subtitle.c_str()).x > room) subtitle = "v" + std::string(TALLYPROOF_VERSION);
+    const bool one_line = ImGui::CalcTextSize(subtitle.c_str()).x <= room;
+    if (one_line) {
+        ImGui::SetCursorPosY(ImGui::GetCursorPosY() + 4);
+        ImGui::TextDisabled("%s", subtitle.c_str());
+        ImGui::SameLine(right - buttons);
+        ImGui::SetCursorPosY(ImGui::GetCursorPosY() - 4);
+    } else {
+        ImGui::NewLine();  // narrow screens: the buttons go on their own line
+    }
+    if (ImGui::Button("Save & share ▾")) ImGui::OpenPopup("save");
+    mark_widget("Save & share");
+    if (ImGui::BeginPopup("save")) {
+        struct Item { const char* label; int action; };
+        const Item items[] = {{"Copy share link", 0}, {"Download analysis (JSON)", 1}, {"Download table (CSV)", 2},
+                              {"Save curve as PNG", 3}, {"Save bars as PNG", 4}, {"Copy chart image", 5}, {"Print or save as PDF", 6}};
+        for (const auto& it : items) {
+            const bool chosen = ImGui::Selectable(it.label);
+            mark_widget(it.label);
+            if (!chosen) continue;
+            switch (it.action) {
+                case 0: copy_share_link(s); break;
+                case 1: download_document(s); break;
+                case 2: download_table(s); break;
+                case 3: queue_chart_export(s, ResultTab::curve, static_cast<int>(ImagePurpose::download)); break;
+                case 4: queue_chart_export(s, ResultTab::bars, static_cast<int>(ImagePurpose::download)); break;
+                case 5: queue_chart_export(s, s.tab == ResultTab::bars ? ResultTab::bars : ResultTab::curve, static_cast<int>(ImagePurpose::copy)); break;
+                case 6: request_print(s); break;
+            }
+        }
+        ImGui::Separator();
+        ImGui::TextDisabled("Recent analyses (kept in this browser)");
+        for (int i = 0; i < static_cast<int>(s.recent.size()); ++i) {
+            ImGui::PushID(i);
+            const std::string label = s.recent[i].when + "  " + s.recent[i].title;
+            if (ImGui::Selectable(label.c_str())) open_recent(s, i);
+            mark_widget(("recent-" + std::to_string(i)).c_str());
+            ImGui::PopID();
+        }
+        if (s.recent.empty()) ImGui::TextDisabled("none yet");
+        ImGui::Separator();
+        if (ImGui::Selectable("Start fresh")) start_fresh(s);
+        mark_widget("Start fresh");
+        ImGui::EndPopup();
+    }
+    ImGui::SameLine();
     if (ImGui::Button("Examples ▾")) ImGui::OpenPopup("examples");
     mark_widget("Examples");
     if (ImGui::BeginPopup("examples")) {
@@ -58,6 +101,15 @@ void draw_title(AppState& s, const Theme& t) {
     ImGui::SameLine();
     if (ImGui::Button("Copy results")) copy_text(s.report);
     mark_widget("Copy results");
+}
+
+void draw_notice(AppState& s, const Theme& t) {
+    if (s.notice.empty()) return;
+    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.accent));
+    ImGui::TextWrapped("%s", s.notice.c_str());
+    ImGui::PopStyleColor();
+    ImGui::SameLine();
+    if (ImGui::SmallButton("OK")) s.notice.clear();
 }
 
 void draw_rejection_notice(const AppState& s, const Theme& t) {
@@ -163,6 +215,7 @@ void draw_screen(AppState& s, const Theme& t) {
                  ImGuiWindowFlags_NoDecoration | ImGuiWindowFlags_NoMove | ImGuiWindowFlags_NoSavedSettings |
                      ImGuiWindowFlags_NoBringToFrontOnFocus | (wide ? ImGuiWindowFlags_NoScrollbar : 0));
     draw_title(s, t);
+    draw_notice(s, t);
     draw_rejection_notice(s, t);
     const ImVec2 avail = ImGui::GetContentRegionAvail();
     if (wide) {

@@ -41,7 +41,26 @@ void load_fonts(Theme* t, float pixel_ratio) {
     t->strong = add_face(tallyproof_font_bold, tallyproof_font_bold_size, 15.0f * pixel_ratio);
     t->heading = add_face(tallyproof_font_bold, tallyproof_font_bold_size, 21.0f * pixel_ratio);
     io.FontDefault = t->body;
-    io.FontGlobalScale = 1.0f / pixel_ratio;
+    t->font_scale = 1.0f / pixel_ratio;
+    io.FontGlobalScale = t->font_scale;
+    if (pixel_ratio >= 2.0f) {
+        t->export_body = t->body;
+        t->export_strong = t->strong;
+        t->export_heading = t->heading;
+    } else {
+        t->export_body = add_face(tallyproof_font_regular, tallyproof_font_regular_size, 30.0f);
+        t->export_strong = add_face(tallyproof_font_bold, tallyproof_font_bold_size, 30.0f);
+        t->export_heading = add_face(tallyproof_font_bold, tallyproof_font_bold_size, 42.0f);
+    }
+}
+
+Theme export_theme(const Theme& theme) {
+    Theme e = theme;
+    e.body = theme.export_body;
+    e.strong = theme.export_strong;
+    e.heading = theme.export_heading;
+    e.font_scale = theme.export_body == theme.body ? theme.font_scale : 0.5f;
+    return e;
 }
 
 void apply_palette(Theme* t, bool dark) {

@@ -12,10 +12,16 @@ struct Theme {
     ImFont* body = nullptr;      // regular text
     ImFont* strong = nullptr;    // bold text
     ImFont* heading = nullptr;   // bold, larger: the statistic
+    float font_scale = 1.0f;     // io.FontGlobalScale for these faces (1 / their pixel ratio)
+    // The same faces rasterised at 2x for chart images (PNG export and print), when the screen is below 2x.
+    ImFont *export_body = nullptr, *export_strong = nullptr, *export_heading = nullptr;
 };
 
+// The theme with its export faces in place of the screen faces, and font_scale 1/2.
+Theme export_theme(const Theme& theme);
+
 // Loads the embedded DejaVu faces at `pixel_ratio` times their size (crisp on high-DPI
-// screens); call once, before the first frame.
+// screens), and at 2x for chart images; call once, before the first frame.
 void load_fonts(Theme* theme, float pixel_ratio);
 
 // Sets ImGui's style and the theme's colours for the light or dark palette.

@@ -1,0 +1,31 @@
+#!/usr/bin/env bash
+# Builds the benchmark programs (Release, build/bench), runs them and the same workloads through
+# R 4.2 (Rscript) and SciPy 1.10 (/usr/bin/python3), and writes docs/benchmarks.md. Not a test.
+# Usage: tests/bench/run_benchmarks.sh [--quick]   (JOBS=N for the build, default 1; --quick runs
+# the R and NumPy Monte Carlo at a tenth of the replicates, for trying the script out)
+set -euo pipefail
+top=$(cd "$(dirname "$0")/../.." && pwd)
+dir="$top/build/bench"
+out="$dir/results"
+jobs=${JOBS:-1}
+quick=${1:-}
+mkdir -p "$out"
+[ -f "$dir/CMakeCache.txt" ] || cmake -S "$top" -B "$dir" -DCMAKE_BUILD_TYPE=Release >/dev/null
+targets="bench_tails bench_pvalues bench_tail_grid"
+grep -q "bench_parse" <(cmake --build "$dir" --target help) && targets="$targets bench_parse"
+# shellcheck disable=SC2086
+for t in $targets; do cmake --build "$dir" -j"$jobs" --target "$t" >/dev/null; done
+bin="$dir/tests"
+echo "== bench_tails";   "$bin/bench_tails"   | tee "$out/bench_tails.txt"
+echo "== bench_pvalues"; "$bin/bench_pvalues" | tee "$out/bench_pvalues.txt"
+if [ -x "$bin/bench_parse" ]; then
+    echo "== bench_parse"; "$bin/bench_parse" | tee "$out/bench_parse.txt"
+else
+    rm -f "$out/bench_parse.txt"
+fi
+echo "== tail accuracy (mpmath 50 digits, R, SciPy)"
+/usr/bin/python3 "$top/tests/bench/tail_accuracy.py" "$bin/bench_tail_grid" "$out" | tee "$out/tail_accuracy.json"
+echo "== Monte Carlo and exact workloads in R and NumPy"
+/usr/bin/python3 "$top/tests/bench/reference_pvalues.py" $quick | tee "$out/reference_pvalues.json"
+/usr/bin/python3 "$top/tests/bench/write_benchmarks_md.py" "$out" "$top/docs/benchmarks.md"
+echo "wrote $top/docs/benchmarks.md"

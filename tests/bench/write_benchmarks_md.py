@@ -1,0 +1,177 @@
+#!/usr/bin/python3
+"""Writes docs/benchmarks.md from the outputs run_benchmarks.sh leaves in build/bench/results.
+Usage: write_benchmarks_md.py RESULTS_FOLDER OUT.md"""
+import datetime
+import json
+import os
+import platform
+import re
+import subprocess
+import sys
+
+res, out_md = sys.argv[1], sys.argv[2]
+
+
+def read(name):
+    p = os.path.join(res, name)
+    return open(p).read() if os.path.exists(p) else None
+
+
+def cpu_model():
+    for line in open("/proc/cpuinfo"):
+        if line.startswith("model name"):
+            return line.split(":", 1)[1].strip()
+    return "unknown"
+
+
+def fmt(x, digits=3):
+    if x is None:
+        return "—"
+    if x == float("inf"):
+        return "∞ (not finite)"
+    if x == 0:
+        return "0"
+    return "%.*g" % (digits, x)
+
+
+def ratio(a, b):
+    if a is None or b is None or b == 0:
+        return "—"
+    if a == float("inf"):
+        return "∞"
+    return "%.3g×" % (a / b)
+
+
+tails_txt, pv_txt, parse_txt = read("bench_tails.txt"), read("bench_pvalues.txt"), read("bench_parse.txt")
+tail = json.loads(read("tail_accuracy.json"))
+ref = json.loads(read("reference_pvalues.json"))
+
+mc = [tuple(map(float, m)) for m in re.findall(r"Monte Carlo B=1e6.*?: ([\d.]+) s wall, ([\d.]+) s CPU.*?p=([\d.]+)", pv_txt)]
+ex = [(m[0], float(m[1]), float(m[2]), float(m[3])) for m in
+      re.findall(r"exact N=100, k=6, (Pearson|probability ordering): ([\d.]+) s wall, ([\d.]+) s CPU.*?p=([\d.eE+-]+)", pv_txt)]
+mc_wall, mc_cpu, mc_p = min(m[0] for m in mc), min(m[1] for m in mc), mc[0][2]
+ex_pearson = [e for e in ex if e[0] == "Pearson"]
+ex_wall, ex_cpu, ex_p = min(e[1] for e in ex_pearson), min(e[2] for e in ex_pearson), ex_pearson[0][3]
+nmc, rmc, nex = ref["monte_carlo_numpy"], ref["monte_carlo_r"], ref["exact_numpy_dp"]
+
+nproc = os.cpu_count()
+load = open("/proc/loadavg").read().split()[:3]
+L = []
+w = L.append
+w("# Benchmarks")
+w("")
+w("Figures printed by `tests/bench/run_benchmarks.sh` (a program run by hand, not part of the test")
+w("suite). Regenerate with `tests/bench/run_benchmarks.sh`; every number below comes from that run.")
+w("")
+w("## Machine")
+w("")
+w("| | |")
+w("|---|---|")
+w("| Date | %s |" % datetime.datetime.now(datetime.timezone.utc).strftime("%Y-%m-%d %H:%M UTC"))
+w("| CPU | %s (/proc/cpuinfo) |" % cpu_model())
+w("| Cores | %d (os.cpu_count) |" % nproc)
+w("| Load average at the end of the run | %s (a shared machine: wall times include waiting for a core) |" % " ".join(load))
+w("| OS | %s |" % platform.platform())
+w("| Compiler | %s, `-O2`, CMake Release (build/bench) |" %
+  subprocess.run(["g++", "--version"], capture_output=True, text=True).stdout.splitlines()[0])
+w("| References | %s; SciPy %s, NumPy %s (/usr/bin/python3); mpmath %s |" % (ref["r"], ref["scipy"], ref["numpy"], tail["mpmath"]))
+w("")
+w("## Chi-square tail accuracy")
+w("")
+w("Upper tail P(χ²(df) ≥ x) on a grid of %d points: df from %g to %g, x from 0.001·df to %g, reaching"
+  % (tail["rows"], tail["df_range"][0], tail["df_range"][1], tail["x_max"]))
+w("log10 p = %.6g. Reference: mpmath %s `gammainc(df/2, x/2, inf, regularized=True)` at 50 significant digits, "
+  "at the exact double df and x (`tests/bench/tail_accuracy.py`). %d points have p below the smallest normal "
+  "double (2.2e-308); there only log10 p can be compared." % (tail["most_negative_log10_p"], tail["mpmath"], tail["rows_beyond_double"]))
+w("Tallyproof through `tests/bench/bench_tail_grid.cpp` (`chi_square_upper_tail`, its `p` and `log10_p`); "
+  "R `pchisq(x, df, lower.tail = FALSE)` and `log.p = TRUE`; SciPy `chi2.sf` and `chi2.logsf`.")
+w("")
+w("| | Tallyproof | R pchisq | ratio R / Tallyproof | SciPy | ratio SciPy / Tallyproof |")
+w("|---|---|---|---|---|---|")
+T = tail["tools"]
+t, r, s = T["tallyproof"], T["R pchisq"], T["SciPy chi2.sf"]
+w("| Worst relative error of p where a double holds it | %s | %s | %s | %s | %s |" % (
+    fmt(t["worst_relative_error_p"]), fmt(r["worst_relative_error_p"]), ratio(r["worst_relative_error_p"], t["worst_relative_error_p"]),
+    fmt(s["worst_relative_error_p"]), ratio(s["worst_relative_error_p"], t["worst_relative_error_p"])))
+w("| … at (df, x) | (%g, %.6g) | (%g, %.6g) | | (%g, %.6g) | |" % (
+    t["where_rel"]["df"], t["where_rel"]["x"], r["where_rel"]["df"], r["where_rel"]["x"], s["where_rel"]["df"], s["where_rel"]["x"]))
+w("| Worst absolute error of log10 p beyond the double range | %s | %s | %s | %s | %s |" % (
+    fmt(t["worst_abs_error_log10_beyond"]), fmt(r["worst_abs_error_log10_beyond"]),
+    ratio(r["worst_abs_error_log10_beyond"], t["worst_abs_error_log10_beyond"]),
+    fmt(s["worst_abs_error_log10_beyond"]), ratio(s["worst_abs_error_log10_beyond"], t["worst_abs_error_log10_beyond"])))
+w("| Worst relative error of log10 p beyond the double range | %s | %s | %s | %s | %s |" % (
+    fmt(t["worst_rel_error_log10_beyond"]), fmt(r["worst_rel_error_log10_beyond"]),
+    ratio(r["worst_rel_error_log10_beyond"], t["worst_rel_error_log10_beyond"]),
+    fmt(s["worst_rel_error_log10_beyond"]), ratio(s["worst_rel_error_log10_beyond"], t["worst_rel_error_log10_beyond"])))
+w("| Values of p returned as 0 (of %d) | %d | %d | | %d | |" % (tail["rows"], t["returned_zero"], r["returned_zero"], s["returned_zero"]))
+w("| … of them where a normal double holds p | %d | %d | | %d | |" % (
+    t["zero_where_double_holds_p"], r["zero_where_double_holds_p"], s["zero_where_double_holds_p"]))
+w("| log10 p not finite beyond the double range (of %d) | %d | %d | | %d | |" % (
+    tail["rows_beyond_double"], t["log10_not_finite_beyond"], r["log10_not_finite_beyond"], s["log10_not_finite_beyond"]))
+w("")
+w("The log10 errors beyond the double range are at |log10 p| ≈ 2e8, where one unit in the last place of a")
+w("double is 3e-8: all three are within an ulp or two where they give a value at all. SciPy's `logsf`")
+w("returns −∞ wherever `sf` underflows.")
+w("")
+w("Tallyproof's own benchmark against its committed grid (`bench_tails`, tests/reference/chi_square_tails.csv):")
+w("")
+w("```")
+w(tails_txt.rstrip())
+w("```")
+w("")
+w("## Monte Carlo p-value: one million replicates, N = 1000, k = 10")
+w("")
+w("Pearson X² = %.4g against equal shares (observed as in `tests/bench/bench_pvalues.cpp`). Best of three runs "
+  "for Tallyproof (`bench_pvalues`); one run each for the references (`tests/bench/reference_pvalues.py`)." % nmc["x2"])
+w("")
+w("| | Replicates | CPU s | wall s | CPU ratio to Tallyproof | p |")
+w("|---|---|---|---|---|---|")
+w("| Tallyproof `monte_carlo_p_value` | 1e6 | %.3f | %.3f | 1× | %.6f |" % (mc_cpu, mc_wall, mc_p))
+w("| NumPy `Generator.multinomial`, vectorised (blocks of 1e5) | %.0e | %.3f | %.3f | %s | %.6f |" % (
+    nmc["replicates"], nmc["cpu_s"], nmc["wall_s"], ratio(nmc["cpu_s"] * 1e6 / nmc["replicates"], mc_cpu), nmc["p"]))
+w("| R `chisq.test(simulate.p.value = TRUE, B = %g)`, times scaled to 1e6 | %g (scaled ×%g) | %.1f | %.1f | %s | %.6f |" % (
+    rmc["replicates_run"], rmc["replicates_run"], 1e6 / rmc["replicates_run"], rmc["cpu_s_scaled_to_1e6"], rmc["wall_s_scaled_to_1e6"],
+    ratio(rmc["cpu_s_scaled_to_1e6"], mc_cpu), rmc["p"]))
+w("")
+w("Asymptotic p for the same counts (SciPy `chisquare`): %.6f. Seeds differ between tools, so the" % nmc["asymptotic_p"])
+w("p-values agree only within their Monte Carlo error (se ≈ 0.0002 at B = 1e6).")
+w("")
+w("## Exact multinomial p-value: N = 100, k = 6")
+w("")
+w("Observed {20, 15, 12, 18, 25, 10} against equal shares, Pearson ordering (outcomes with X² at least")
+w("the observed %.4g). Neither base R 4.2 nor SciPy 1.10 has an exact multinomial goodness-of-fit test;" % nex["x2"])
+w("the reference is an independent exact computation in NumPy: dynamic programming over (count so far,")
+w("sum of squares so far), valid because with equal shares X² = (k/N)Σx² − N.")
+w("")
+w("| | wall s | CPU s | ratio (wall) to Tallyproof | p |")
+w("|---|---|---|---|---|")
+w("| Tallyproof `exact_multinomial_p_value` (best of 3) | %.4f | %.4f | 1× | %.17g |" % (ex_wall, ex_cpu, ex_p))
+w("| NumPy dynamic programming | %.3f | — | %s | %.17g |" % (nex["wall_s"], ratio(nex["wall_s"], ex_wall), nex["p"]))
+w("")
+w("Relative difference of the two p-values: %.2g (total probability of the NumPy table: 1 %+.2g)." % (
+    (ex_p - nex["p"]) / nex["p"], nex["total_probability"] - 1))
+w("Asymptotic p (SciPy `chisquare`): %.6f." % nex["asymptotic_p"])
+w("")
+w("`bench_pvalues` output:")
+w("")
+w("```")
+w(pv_txt.rstrip())
+w("```")
+w("")
+w("## Reading and tallying one million raw values")
+w("")
+if parse_txt:
+    w("`bench_parse` output (another engineer's benchmark; `tests/bench/parse_reference.py` times the same job")
+    w("in R and NumPy):")
+    w("")
+    w("```")
+    w(parse_txt.rstrip())
+    w("```")
+else:
+    w("`bench_parse` was not built in this run, so there is no figure here.")
+w("")
+w("## In the browser")
+w("")
+w("Page load time and CPU time per frame of the single-file page: to be added by the lead engineer.")
+w("")
+open(out_md, "w").write("\n".join(L))
