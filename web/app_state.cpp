@@ -17,6 +17,7 @@
 #include "page_bridge.hpp"
 #include "paste_parser.hpp"
 #include "report.hpp"
+#include "digit_laws.hpp"
 
 namespace tallyproof::web {
 namespace {
@@ -203,20 +204,38 @@ bool open_document(AppState& s, std::string_view json) {
 void apply_paste(AppState& s, std::string_view text) {
     const std::size_t first = text.find_first_not_of(" \t\r\n");
     if (first != std::string_view::npos && text[first] == '{') { open_document(s, text); return; }
-    const ParsedCounts parsed = parse_counts(text);
+    const ParsedInput parsed = parse_input(text);
     Status problem = parsed.status;
     const Analysis previous = s.analysis;
     if (problem.ok) {
         s.analysis.categories = parsed.categories;
         s.analysis.observed = parsed.observed;
-        // A stated mix of another length cannot apply to the new counts: fall back to equal shares.
-        if ((s.analysis.model.kind == ModelKind::shares || s.analysis.model.kind == ModelKind::ratio ||
-             s.analysis.model.kind == ModelKind::counts) && s.analysis.model.values.size() != parsed.observed.size()) {
+        s.analysis.ordered = parsed.ordered;
+        s.analysis.merge = MergeChoice{};
+        if (parsed.expected_kind != ExpectedKind::none) {
+            // An expected column sets the stated mix.
             s.analysis.model = Model{};
-            sync_editor_from_model(s);
+            s.analysis.model.kind = parsed.expected_kind == ExpectedKind::ratios ? ModelKind::ratio
+                                    : parsed.expected_kind == ExpectedKind::counts ? ModelKind::counts : ModelKind::shares;
+            s.analysis.model.values = parsed.expected;
+        } else if (parsed.digit_test) {
+            s.analysis.model = Model{};
+            switch (*parsed.digit_test) {
+                case DigitTest::first: s.analysis.model.kind = ModelKind::benford_first; break;
+                case DigitTest::second: s.analysis.model.kind = ModelKind::benford_second; break;
+                case DigitTest::first_two: s.analysis.model.kind = ModelKind::benford_first_two; break;
+                case DigitTest::last: s.analysis.model.kind = ModelKind::last_digit; break;
+                case DigitTest::last_even: s.analysis.model.kind = ModelKind::last_digit_even; break;
+            }
+        } else if (((s.analysis.model.kind == ModelKind::shares || s.analysis.model.kind == ModelKind::ratio ||
+                     s.analysis.model.kind == ModelKind::counts) && s.analysis.model.values.size() != parsed.observed.size()) ||
+                   model_is_digit_law(s.analysis.model.kind) || model_is_fitted(s.analysis.model.kind)) {
+            // The previous mix cannot apply to new counts: start from equal shares.
+            s.analysis.model = Model{};
         }
+        sync_editor_from_model(s);
         if (!recompute(s)) {
-            problem = Status::failure(s.input_error);
+            problem = Status::failure(s.input_error, 0, 0);
             s.input_error.clear();
             s.analysis = previous;
             sync_editor_from_model(s);
@@ -236,6 +255,10 @@ void apply_paste(AppState& s, std::string_view text) {
     s.rejected_text.clear();
     s.rejected_message.clear();
     s.rejected_line = 0;
+    std::string notes;
+    for (const auto& n : parsed.notes) notes += (notes.empty() ? "" : " ") + n;
+    for (const auto& n : parsed.alternatives) notes += (notes.empty() ? "" : " ") + n;
+    s.notice = notes;
 }
 
 void set_model_kind(AppState& s, ModelKind kind) {
@@ -355,16 +378,12 @@ void restore_session(AppState& s) {
     }
     const std::string fragment = location_fragment();
     if (!fragment.empty()) {
-        std::string document;
-        const Status st = decode_share_fragment(fragment, &document);
-        if (st.ok && open_document(s, document)) {
-            s.source_name = "share link";
-            return;
-        }
-        load_demo(s, 0);
-        s.rejected_message = st.ok ? s.rejected_message : st.message;
+        if (open_share_fragment(s, fragment)) return;
+        const std::string message = s.rejected_message;
+        load_demo(s, 0);  // something to look at, with the refusal above it
+        s.rejected_message = message;
         s.rejected_text = fragment.substr(0, 200);
-        publish_error(s.rejected_message);
+        publish_error(message);
         return;
     }
     const std::string saved = storage_get("tallyproof.current");
@@ -375,6 +394,22 @@ void restore_session(AppState& s) {
     s.rejected_message.clear();
     s.rejected_text.clear();
     load_demo(s, 0);
+}
+
+bool open_share_fragment(AppState& s, const std::string& fragment) {
+    std::string document;
+    const Status st = decode_share_fragment(fragment, &document);
+    if (!st.ok) {
+        s.rejected_message = st.message;
+        s.rejected_text = fragment.substr(0, 200);
+        s.rejected_line = 0;
+        publish_error(st.message);
+        s.frames_to_draw = 3;
+        return false;
+    }
+    if (!open_document(s, document)) return false;
+    s.source_name = "share link";
+    return true;
 }
 
 void start_fresh(AppState& s) {

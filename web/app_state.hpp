@@ -103,7 +103,8 @@ void step_job(AppState& s, double budget_ms);                // a slice of exact
 void cancel_job(AppState& s);
 double job_fraction(const AppState& s);
 
-void restore_session(AppState& s);        // share link in the URL, else the autosaved analysis, else an example
+void restore_session(AppState& s);
+bool open_share_fragment(AppState& s, const std::string& fragment);  // false: refused, message shown        // share link in the URL, else the autosaved analysis, else an example
 void start_fresh(AppState& s);            // forget the autosaved analysis; back to the first example
 void open_recent(AppState& s, int index);
 void copy_share_link(AppState& s);

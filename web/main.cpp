@@ -179,6 +179,13 @@ EMSCRIPTEN_KEEPALIVE void tp_system_theme(int dark) {
     g_page->state.theme_changed = true;
     want_frames(*g_page, 3);
 }
+// The address's fragment changed (a share link opened in this tab).
+EMSCRIPTEN_KEEPALIVE void tp_open_fragment() {
+    if (!g_page) return;
+    const std::string fragment = tallyproof::web::location_fragment();
+    if (!fragment.empty()) tallyproof::web::open_share_fragment(g_page->state, fragment);
+    want_frames(*g_page, 3);
+}
 // Cancels running exact or Monte Carlo work (the page's Escape key).
 EMSCRIPTEN_KEEPALIVE void tp_cancel() {
     if (!g_page) return;

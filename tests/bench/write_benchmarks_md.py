@@ -134,7 +134,7 @@ w("| R `chisq.test(simulate.p.value = TRUE, B = %g)`, times scaled to 1e6 | %g (
     ratio(rmc["cpu_s_scaled_to_1e6"], mc_cpu), rmc["p"]))
 w("")
 w("Asymptotic p for the same counts (SciPy `chisquare`): %.6f. Seeds differ between tools, so the" % nmc["asymptotic_p"])
-w("p-values agree only within their Monte Carlo error (se ≈ 0.0002 at B = 1e6).")
+w("p-values agree only within their Monte Carlo error (se ≈ 0.0002 at B = 1e6, 0.0007 at B = 1e5).")
 w("")
 w("## Exact multinomial p-value: N = 100, k = 6")
 w("")

@@ -22,24 +22,29 @@ export async function withPage(options, body) {
     const context = await browser.newContext({
       viewport: options.viewport || { width: 1280, height: 800 },
       deviceScaleFactor: options.deviceScaleFactor || 1,
+      permissions: options.permissions || [],
+      acceptDownloads: true,
+      serviceWorkers: options.allowOrigin ? 'allow' : 'block',
     });
+    const allowed = (url) => url.startsWith('file:') || url.startsWith('data:') || url.startsWith('blob:') ||
+      (options.allowOrigin && url.startsWith(options.allowOrigin + '/'));
     await context.route('**/*', (route) => {
       const url = route.request().url();
-      if (url.startsWith('file:') || url.startsWith('data:') || url.startsWith('blob:')) return route.continue();
+      if (allowed(url)) return route.continue();
       blocked.push(url);
       return route.abort();
     });
     context.on('request', (req) => {
       const url = req.url();
-      if (!url.startsWith('file:') && !url.startsWith('data:') && !url.startsWith('blob:') && !blocked.includes(url)) blocked.push(url);
+      if (!allowed(url) && !blocked.includes(url)) blocked.push(url);
     });
     if (options.initScript) await context.addInitScript(options.initScript);
     const page = await context.newPage();
     page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
     page.on('console', (m) => { if (m.type() === 'error') problems.push(`console error: ${m.text()}`); });
-    await page.goto(pageUrl);
+    await page.goto(options.url || pageUrl);
     await page.waitForFunction(() => document.getElementById('tp-results')?.dataset.state === 'result', null, { timeout: 20000 });
-    await body(page);
+    await body(page, context);
     if (blocked.length) throw new Error(`the page attempted ${blocked.length} network request(s): ${blocked.join(', ')}`);
     if (problems.length) throw new Error(problems.join('\n'));
   } finally {

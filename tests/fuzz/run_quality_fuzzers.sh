@@ -4,7 +4,7 @@
 # Usage: tests/fuzz/run_quality_fuzzers.sh TARGET SECONDS   (TARGET: engine | analysis_document)
 # Needs clang-14 and libclang-rt-14-dev (Debian). Findings (crash-*, timeout-*, oom-*) land in $OUT;
 # the working corpus grows in $OUT/corpus, the starting corpus in the repository is only read.
-# Replay a finding: $OUT/fuzz_TARGET $OUT/crash-...
+# Replay a finding: $OUT/fuzz_TARGET $OUT/crash-...   (KNOWN=stop|skip: see below)
 set -eu
 TARGET=${1:?usage: run_quality_fuzzers.sh TARGET SECONDS}
 SECONDS_TO_RUN=${2:?usage: run_quality_fuzzers.sh TARGET SECONDS}
@@ -12,6 +12,12 @@ HERE=$(cd "$(dirname "$0")" && pwd)
 ROOT=$(cd "$HERE/../.." && pwd)
 OUT=${OUT:-${TMPDIR:-/tmp}/tallyproof_fuzz_$TARGET}
 CXX=${CXX:-clang++-14}
+# KNOWN=skip (default) lets a run go past the two known defects of docs/robustness.md, so that it can
+# find others: Boost's signed overflow in non_central_chi_squared.hpp (core/noncentral_chi_square.cpp
+# alone is compiled without the signed-overflow check; every other UB still halts) and the slow
+# effect-size interval at huge statistics (timeouts are counted, not fatal, through -fork=1).
+# KNOWN=stop: the first finding of any kind ends the run.
+KNOWN=${KNOWN:-skip}
 FLAGS="-std=c++17 -O1 -g -fsanitize=fuzzer-no-link,address,undefined -fno-sanitize-recover=undefined"
 case "$TARGET" in
   engine) SEEDS="" ;;
@@ -27,15 +33,27 @@ for src in "$ROOT"/core/*.cpp; do
   name=$(basename "$src" .cpp)
   [ "$name" = report ] && continue
   obj="$OUT/obj/$name.o"
+  extra=""
+  if [ "$KNOWN" = skip ] && [ "$name" = noncentral_chi_square ]; then
+    obj="$OUT/obj/$name.known-skip.o"
+    extra="-fno-sanitize=signed-integer-overflow"
+  fi
   if [ ! -f "$obj" ] || [ "$src" -nt "$obj" ]; then
     # shellcheck disable=SC2086
-    "$CXX" $FLAGS -I "$ROOT/core" -c "$src" -o "$obj"
+    "$CXX" $FLAGS $extra -I "$ROOT/core" -c "$src" -o "$obj"
   fi
   OBJS="$OBJS $obj"
 done
 # shellcheck disable=SC2086
 "$CXX" $FLAGS -fsanitize=fuzzer -I "$ROOT/core" "$HERE/fuzz_$TARGET.cpp" $OBJS -o "$OUT/fuzz_$TARGET"
 cd "$OUT"
+if [ "$KNOWN" = skip ]; then
+  export UBSAN_OPTIONS="halt_on_error=1:print_stacktrace=1"
+  # shellcheck disable=SC2086
+  exec ./"fuzz_$TARGET" -fork=1 -ignore_timeouts=1 -ignore_ooms=0 -ignore_crashes=0 -max_total_time="$SECONDS_TO_RUN" \
+    -timeout=5 -rss_limit_mb=2048 -max_len=65536 -print_final_stats=1 corpus $SEEDS
+fi
+export UBSAN_OPTIONS="halt_on_error=1:print_stacktrace=1"
 # shellcheck disable=SC2086
 exec ./"fuzz_$TARGET" -max_total_time="$SECONDS_TO_RUN" -timeout=10 -rss_limit_mb=2048 -max_len=65536 \
   -print_final_stats=1 corpus $SEEDS
