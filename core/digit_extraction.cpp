@@ -21,7 +21,7 @@ int default_minimum_digits(DigitTest test) {
 
 }  // namespace
 
-NumberToken read_number_token(std::string_view s) {
+NumberToken read_number_token(std::string_view s, bool with_magnitude) {
     NumberToken t;
     std::size_t b = 0, e = s.size();
     while (b < e && is_space(s[b])) ++b;
@@ -66,6 +66,7 @@ NumberToken read_number_token(std::string_view s) {
     const std::size_t nz = digits.find_first_not_of('0');
     t.is_zero = nz == std::string::npos;
     if (!t.is_zero) t.significant = digits.substr(nz);
+    if (!with_magnitude) return t;
     for (char c : s) if (c != ',') plain += c;
     t.magnitude = std::fabs(std::strtod(plain.c_str(), nullptr));  // strtod never throws; overflow gives inf
     return t;
@@ -97,7 +98,7 @@ DigitTally tally_digits(const std::vector<std::string>& tokens, DigitTest test, 
     const bool last = test == DigitTest::last || test == DigitTest::last_even;
     r.values = tokens.size();
     for (std::size_t k = 0; k < tokens.size(); ++k) {
-        const NumberToken t = read_number_token(tokens[k]);
+        const NumberToken t = read_number_token(tokens[k], floor > 0);
         auto exclude = [&](DigitExclusion why) {
             const int w = static_cast<int>(why);
             if (r.excluded[w]++ == 0) r.first_excluded[w] = k + 1;

@@ -26,7 +26,8 @@ struct NumberToken {
     bool has_exponent = false;
     double magnitude = 0;         // |value| as a double (rounded), for the optional floor
 };
-NumberToken read_number_token(std::string_view token);
+// `with_magnitude`: also convert to a double (slower; only the magnitude floor needs it).
+NumberToken read_number_token(std::string_view token, bool with_magnitude = true);
 
 enum class DigitExclusion {
     not_a_number,       // not readable as a number

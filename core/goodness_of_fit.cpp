@@ -33,13 +33,6 @@ std::string statistic_name(double lambda, bool williams) {
     return "power divergence, λ = " + format_significant(lambda, 4);
 }
 
-std::string statistic_symbol(double lambda) {
-    if (lambda == 1) return "χ²";
-    if (lambda == 0) return "G²";
-    if (lambda == -0.5) return "T²";
-    return "CR(λ = " + format_significant(lambda, 3) + ")";
-}
-
 // Labels of merged whole-number cells from their integer ranges ("2 or more", "3–4").
 void relabel_integer_groups(const std::vector<std::string>& original, const std::vector<std::vector<std::size_t>>& groups,
                             std::vector<std::string>* labels) {

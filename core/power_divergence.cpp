@@ -131,4 +131,13 @@ Status power_divergence(const std::vector<double>& observed, const std::vector<d
     return Status::success();
 }
 
+std::string statistic_symbol(double lambda) {
+    if (lambda == power_lambda::pearson) return "χ²";
+    if (lambda == power_lambda::log_likelihood) return "G²";
+    if (lambda == power_lambda::freeman_tukey) return "T²";
+    if (lambda == power_lambda::mod_log_likelihood) return "GM²";
+    if (lambda == power_lambda::neyman) return "NM²";
+    return "CR";
+}
+
 }  // namespace tallyproof

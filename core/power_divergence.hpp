@@ -21,7 +21,10 @@ constexpr double neyman = -2.0;                // Neyman's modified X^2 = sum (O
 constexpr double cressie_read = 2.0 / 3.0;     // Cressie & Read's recommended compromise
 }  // namespace power_lambda
 
-const char* power_lambda_name(double lambda);  // "Pearson", ..., or "" for an unnamed lambda
+const char* power_lambda_name(double lambda);
+// The statistic's own symbol: "χ²" (Pearson), "G²" (likelihood ratio), "T²" (Freeman-Tukey),
+// "GM²" (modified likelihood ratio), "NM²" (Neyman), "CR" (any other power-divergence lambda).
+std::string statistic_symbol(double lambda);  // "Pearson", ..., or "" for an unnamed lambda
 
 struct PowerDivergenceOptions {
     double lambda = power_lambda::pearson;

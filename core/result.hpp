@@ -93,7 +93,7 @@ struct Result {
 
     // Statistic and p-values
     std::string statistic_name;             // "Pearson X²", "G² (likelihood ratio)", ...
-    std::string statistic_symbol;           // "χ²" (Pearson), "G²", "T²" (Freeman-Tukey), "CR(λ = 0.667)"
+    std::string statistic_symbol;           // statistic_symbol(lambda): "χ²", "G²", "T²", "GM²", "NM²", "CR"
     double lambda = 1;
     double williams_q = 1;
     double statistic = 0;

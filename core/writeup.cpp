@@ -238,15 +238,6 @@ std::string tsv_block(const Analysis& a, const Result& r, const WriteupOptions& 
 
 }  // namespace
 
-std::string statistic_symbol(double lambda) {
-    if (lambda == power_lambda::pearson) return "χ²";
-    if (lambda == power_lambda::log_likelihood) return "G²";
-    if (lambda == power_lambda::freeman_tukey) return "T²";
-    if (lambda == power_lambda::mod_log_likelihood) return "GM²";
-    if (lambda == power_lambda::neyman) return "NM²";
-    return "CR";
-}
-
 std::string writeup_sentence(const Analysis& a, const Result& r, const WriteupOptions& o) {
     Style st;
     st.comma = o.decimal_comma;

@@ -4,6 +4,7 @@
 // plain text, Markdown or spreadsheet-ready TSV. Wording: "not consistent with" / "no evidence
 // against" the stated mix; a test never proves a mix. Numbers are the Result's, rounded for print.
 #pragma once
+#include "power_divergence.hpp"  // statistic_symbol
 #include <string>
 
 #include "analysis.hpp"
@@ -19,9 +20,6 @@ struct WriteupOptions {
     std::string subject = "the counts";  // what was tested, as in "found that the grades were ..."
 };
 
-// The statistic's own symbol: "χ²" (Pearson), "G²" (likelihood ratio), "T²" (Freeman-Tukey),
-// "GM²" (modified likelihood ratio), "NM²" (Neyman), "CR" (any other power-divergence lambda).
-std::string statistic_symbol(double lambda);
 // The one sentence, e.g. "A chi-square goodness-of-fit test found that the grades were not
 // consistent with the stated mix, χ²(3, N = 400) = 12.84, p = .005, w = 0.18, 95% CI [0.08, 0.26] (exact)."
 std::string writeup_sentence(const Analysis& a, const Result& r, const WriteupOptions& o);

@@ -7,19 +7,13 @@
 #include <cmath>
 #include <cstdio>
 #include <string>
+#include <vector>
 
+#include "axis_ticks.hpp"
 #include "number_format.hpp"
 
 namespace tallyproof::web {
 namespace {
-
-double nice_top(double v) {
-    if (!(v > 0)) return 1;
-    const double mag = std::pow(10.0, std::floor(std::log10(v)));
-    for (double m : {1.0, 1.5, 2.0, 2.5, 3.0, 4.0, 5.0, 6.0, 8.0, 10.0})
-        if (m * mag >= v) return m * mag;
-    return 10 * mag;
-}
 
 std::string fit_label(const std::string& s, float width) {
     if (ImGui::CalcTextSize(s.c_str()).x <= width) return s;
@@ -51,13 +45,13 @@ void draw_bar_chart(const Result& r, ImVec2 size, const Theme& theme) {
     const ImVec2 p0(origin.x + left, origin.y + top), p1(origin.x + size.x - right, origin.y + size.y - bottom);
     double vmax = 0;
     for (std::size_t i = 0; i < k; ++i) vmax = std::max({vmax, r.tested_observed[i], r.tested_expected[i]});
-    const double ytop = nice_top(vmax * 1.05);
+    const std::vector<double> ticks = nice_ticks(0, vmax * 1.05, std::max(2, static_cast<int>((p1.y - p0.y) / 60)));
+    const double ytop = ticks.size() >= 2 && ticks.back() >= vmax ? ticks.back() : nice_ceiling(vmax * 1.05);
     auto py = [&](double v) { return static_cast<float>(p1.y - (p1.y - p0.y) * (v / ytop)); };
-    for (int i = 0; i <= 4; ++i) {
-        const double v = ytop * i / 4;
+    for (double v : nice_ticks(0, ytop, std::max(2, static_cast<int>((p1.y - p0.y) / 60)))) {
         const float y = py(v);
         dl->AddLine(ImVec2(p0.x, y), ImVec2(p1.x, y), theme.grid);
-        const std::string s = format_significant(v, 3);
+        const std::string s = tick_label(v);
         dl->AddText(ImVec2(p0.x - ImGui::CalcTextSize(s.c_str()).x - 6, y - th / 2), theme.muted, s.c_str());
     }
 

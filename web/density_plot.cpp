@@ -9,34 +9,11 @@
 #include <string>
 #include <vector>
 
+#include "axis_ticks.hpp"
 #include "chi_square_tail.hpp"
 #include "number_format.hpp"
 
 namespace tallyproof::web {
-namespace {
-
-std::vector<double> nice_ticks(double lo, double hi, int max_ticks) {
-    std::vector<double> ticks;
-    if (!(hi > lo) || max_ticks < 2) return ticks;
-    const double raw = (hi - lo) / max_ticks;
-    const double mag = std::pow(10.0, std::floor(std::log10(raw)));
-    double step = mag;
-    for (double m : {1.0, 2.0, 5.0, 10.0}) {
-        step = m * mag;
-        if (step >= raw) break;
-    }
-    for (double v = std::ceil(lo / step) * step; v <= hi + step * 1e-9; v += step)
-        ticks.push_back(std::fabs(v) < step * 1e-9 ? 0 : v);
-    return ticks;
-}
-
-std::string tick_label(double v) {
-    char buf[32];
-    std::snprintf(buf, sizeof buf, "%g", v);
-    return buf;
-}
-
-}  // namespace
 
 void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 size, const Theme& theme) {
     ImDrawList* dl = ImGui::GetWindowDrawList();

@@ -22,6 +22,7 @@
 #include "panels.hpp"
 #include "tallyproof_version.hpp"
 #include "theme.hpp"
+#include "writeup.hpp"
 
 namespace {
 
@@ -127,7 +128,9 @@ void frame() {
         render_chart_export(p, e);
         if (p.state.exports.empty() && p.state.print_pending) {
             p.state.print_pending = false;
-            tallyproof::web::print_report(p.state.report, p.state.source_name + " · Tallyproof " TALLYPROOF_VERSION);
+            tallyproof::WriteupOptions o;
+            const std::string sentence = tallyproof::writeup_sentence(p.state.analysis, p.state.result, o);
+            tallyproof::web::print_report(sentence + "\n\n" + p.state.report, p.state.source_name + " · Tallyproof " TALLYPROOF_VERSION);
         }
         p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
     }
