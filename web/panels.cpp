@@ -105,11 +105,12 @@ void draw_title(AppState& s, const Theme& t) {
 
 void draw_notice(AppState& s, const Theme& t) {
     if (s.notice.empty()) return;
+    if (ImGui::SmallButton("OK")) s.notice.clear();
+    mark_widget("notice-ok");
+    ImGui::SameLine();
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.accent));
     ImGui::TextWrapped("%s", s.notice.c_str());
     ImGui::PopStyleColor();
-    ImGui::SameLine();
-    if (ImGui::SmallButton("OK")) s.notice.clear();
 }
 
 void draw_rejection_notice(const AppState& s, const Theme& t) {

@@ -51,4 +51,26 @@ export const tests = {
       assert(colours > 200, 'blank at dpr 2');
     });
   },
+
+  async 'a file dropped on the page is read there, never uploaded'() {
+    await withPage({}, async (page) => {
+      // Invented: a semicolon-separated export from a decimal-comma locale, with a header row.
+      const text = 'Klasse;Anzahl;Anteil\r\nA;120;40,0 %\r\nB;95;35,0 %\r\nC;85;25,0 %\r\n';
+      await page.evaluate((t) => {
+        const data = new DataTransfer();
+        data.items.add(new File([t], 'zaehlung.csv', { type: 'text/csv' }));
+        window.dispatchEvent(new DragEvent('dragover', { dataTransfer: data, bubbles: true, cancelable: true }));
+        window.dispatchEvent(new DragEvent('drop', { dataTransfer: data, bubbles: true, cancelable: true }));
+      }, text);
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[0] === 'A');
+      const r = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
+      assert(r.observed.join(',') === '120,95,85', `observed ${r.observed}`);
+      // The percentage column became the stated mix: expected 120, 105, 75 (40/35/25 % of 300).
+      assert(r.model.kind === 'shares', `model ${r.model.kind}`);
+      assert(Math.abs(r.expected_counts[1] - 105) < 1e-9, `expected ${r.expected_counts}`);
+      // Reference: SciPy 1.10 chisquare([120,95,85], [120,105,75]) -> statistic 2.2857142857, p = 0.31890.
+      assert(Math.abs(r.statistic - 2.2857142857142856) < 1e-9, `statistic ${r.statistic}`);
+      await screenshot(page, 'slice-05-dropped-file');
+    });
+  },
 };
