@@ -75,6 +75,7 @@ struct AppState {
     int demo_index = -1;             // demo on screen, or -1
     double plan_w = 0.3, plan_target = 0.8, plan_n = 0;  // planning panel inputs
     int frames_to_draw = 2;          // redraw budget: the page draws only on input or work
+    bool focus_screen = true;        // give the screen keyboard focus on the first frame
 
     // Leaving the page
     std::vector<SavedAnalysis> recent;   // most recent first, at most 8

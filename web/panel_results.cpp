@@ -243,7 +243,13 @@ void draw_writeup_panel(AppState& s, const Theme& t) {
     ImGui::SameLine();
     if (ImGui::Button("Copy full report")) copy_text(s.report);
     mark_widget("Copy full report");
-    ImGui::InputTextMultiline("##writeup", &block, ImGui::GetContentRegionAvail(), ImGuiInputTextFlags_ReadOnly);
+    if (o.style == WriteupStyle::tsv) {
+        ImGui::InputTextMultiline("##writeup", &block, ImGui::GetContentRegionAvail(), ImGuiInputTextFlags_ReadOnly);
+    } else {
+        ImGui::BeginChild("writeup-text", ImGui::GetContentRegionAvail(), true);
+        ImGui::TextWrapped("%s", block.c_str());
+        ImGui::EndChild();
+    }
 }
 
 }  // namespace tallyproof::web

@@ -140,12 +140,12 @@ void draw_rejection_notice(const AppState& s, const Theme& t) {
 }
 
 void draw_inputs(AppState& s, const Theme& t, float height) {
-    ImGui::BeginChild("inputs", ImVec2(0, height), true);
+    ImGui::BeginChild("inputs", ImVec2(0, height), true, ImGuiWindowFlags_NavFlattened);
     const float row_h = ImGui::GetFrameHeight() + ImGui::GetStyle().CellPadding.y * 2;
     const float needed = row_h * static_cast<float>(s.analysis.observed.size() + 2) + ImGui::GetTextLineHeightWithSpacing() * 4 +
                          ImGui::GetFrameHeightWithSpacing() + 24;
     const float counts_h = std::max(160.0f, std::min(needed, ImGui::GetContentRegionAvail().y - 360));
-    ImGui::BeginChild("counts-area", ImVec2(0, counts_h), false);
+    ImGui::BeginChild("counts-area", ImVec2(0, counts_h), false, ImGuiWindowFlags_NavFlattened);
     draw_counts_panel(s, t);
     ImGui::EndChild();
     ImGui::Separator();
@@ -156,7 +156,7 @@ void draw_inputs(AppState& s, const Theme& t, float height) {
 }
 
 void draw_results(AppState& s, const Theme& t, float height) {
-    ImGui::BeginChild("results", ImVec2(0, height), true);
+    ImGui::BeginChild("results", ImVec2(0, height), true, ImGuiWindowFlags_NavFlattened);
     draw_verdict_panel(s, t);
     ImGui::Spacing();
     draw_validity_panel(s, t);
@@ -212,6 +212,10 @@ void draw_screen(AppState& s, const Theme& t) {
     ImGui::SetNextWindowPos(vp->Pos);
     ImGui::SetNextWindowSize(vp->Size);
     const bool wide = vp->Size.x >= 900;
+    if (s.focus_screen) {  // keyboard users start on the page, without a click first
+        ImGui::SetNextWindowFocus();
+        s.focus_screen = false;
+    }
     ImGui::Begin("Tallyproof", nullptr,
                  ImGuiWindowFlags_NoDecoration | ImGuiWindowFlags_NoMove | ImGuiWindowFlags_NoSavedSettings |
                      ImGuiWindowFlags_NoBringToFrontOnFocus | (wide ? ImGuiWindowFlags_NoScrollbar : 0));
@@ -221,11 +225,11 @@ void draw_screen(AppState& s, const Theme& t) {
     const ImVec2 avail = ImGui::GetContentRegionAvail();
     if (wide) {
         const float inputs_w = std::clamp(avail.x * 0.36f, 340.0f, 520.0f);
-        ImGui::BeginChild("left", ImVec2(inputs_w, avail.y), false);
+        ImGui::BeginChild("left", ImVec2(inputs_w, avail.y), false, ImGuiWindowFlags_NavFlattened);
         draw_inputs(s, t, avail.y);
         ImGui::EndChild();
         ImGui::SameLine();
-        ImGui::BeginChild("right", ImVec2(0, avail.y), false);
+        ImGui::BeginChild("right", ImVec2(0, avail.y), false, ImGuiWindowFlags_NavFlattened);
         draw_results(s, t, avail.y);
         ImGui::EndChild();
     } else {

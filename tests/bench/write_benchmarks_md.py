@@ -55,7 +55,9 @@ ex_wall, ex_cpu, ex_p = min(e[1] for e in ex_pearson), min(e[2] for e in ex_pear
 nmc, rmc, nex = ref["monte_carlo_numpy"], ref["monte_carlo_r"], ref["exact_numpy_dp"]
 
 nproc = os.cpu_count()
-load = open("/proc/loadavg").read().split()[:3]
+load_file = os.path.join(res, "loadavg.txt")  # saved by run_benchmarks.sh when the runs end
+load = (open(load_file) if os.path.exists(load_file) else open("/proc/loadavg")).read().split()[:3]
+run_date = datetime.datetime.fromtimestamp(os.path.getmtime(os.path.join(res, "reference_pvalues.json")), datetime.timezone.utc)
 L = []
 w = L.append
 w("# Benchmarks")
@@ -67,7 +69,7 @@ w("## Machine")
 w("")
 w("| | |")
 w("|---|---|")
-w("| Date | %s |" % datetime.datetime.now(datetime.timezone.utc).strftime("%Y-%m-%d %H:%M UTC"))
+w("| Date | %s |" % run_date.strftime("%Y-%m-%d %H:%M UTC"))
 w("| CPU | %s (/proc/cpuinfo) |" % cpu_model())
 w("| Cores | %d (os.cpu_count) |" % nproc)
 w("| Load average at the end of the run | %s (a shared machine: wall times include waiting for a core) |" % " ".join(load))

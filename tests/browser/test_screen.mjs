@@ -117,11 +117,26 @@ export const tests = {
     });
     await withPage({}, async (page) => {
       await page.focus('#canvas');
-      // Keyboard only: ImGui's keyboard navigation moves focus and activates with Space/Enter.
-      for (let i = 0; i < 6; i++) await page.keyboard.press('Tab');
+      // Keyboard only: the copy shortcut, then arrow-key navigation with Space to activate.
       await page.keyboard.press('Control+Shift+C');
-      await page.waitForTimeout(200);
+      await page.waitForFunction(() => globalThis.tallyproofPage.lastCopy !== null, null, { timeout: 5000 });
+      const copied = await page.evaluate(() => globalThis.tallyproofPage.lastCopy.text);
+      assert(copied.includes('χ² = 5.78'), `Ctrl+Shift+C copied: ${copied.slice(0, 80)}`);
+      const before = await page.evaluate(() => globalThis.tallyproofPage.lastDocument);
+      for (let i = 0; i < 3; i++) { await page.keyboard.press('ArrowDown'); await page.waitForTimeout(60); }
       await notBlank(page, 'screen-keyboard');
+      // Walk down the controls with the arrow key, pressing Space on each (Escape leaves a text
+      // field or a list again), until one changes the analysis: a checkbox or radio button.
+      let switched = false;
+      for (let i = 0; i < 60 && !switched; i++) {
+        await page.keyboard.press('ArrowDown');
+        await page.keyboard.press('Space');
+        await page.waitForTimeout(60);
+        switched = (await page.evaluate(() => globalThis.tallyproofPage.lastDocument)) !== before;
+        if (!switched) await page.keyboard.press('Escape');
+      }
+      await notBlank(page, 'screen-keyboard-changed');
+      assert(switched, 'keyboard navigation never changed a setting');
     });
   },
 
