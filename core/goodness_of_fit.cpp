@@ -228,6 +228,10 @@ Result analyse(const Analysis& a) {
         if (!fei_interval(r.statistic, n, r.df, p_min, 0.95, &r.effect.fei_interval).ok)
             r.effect.fei_interval = {r.effect.fei, NAN, NAN, 0.95};
     }
+    // A fit closer than chance allows (lower tail; Fisher's remark on Mendel's data is the classic case).
+    if (r.lower.p < 0.001 && r.df >= 2)
+        r.warnings.push_back("The counts sit closer to the stated mix than chance usually allows (lower-tail p = " +
+                             format_probability(r.lower) + "): check how the counts were recorded before relying on them.");
     if (r.reject && r.effect.w < 0.1)
         r.warnings.push_back("The departure is statistically significant but very small (w = " + format_fixed(r.effect.w, 3) +
                              "): with N = " + format_count(n) + ", even a negligible difference is detected.");

@@ -70,3 +70,18 @@ TEST_CASE("stated counts that differ from N by rounding are rescaled, larger gap
     CHECK(r.status.message.find("90") != std::string::npos);
     CHECK(r.status.message.find("60") != std::string::npos);
 }
+
+TEST_CASE("a fit closer than chance allows is pointed out") {
+    // Source: SciPy 1.10, chisquare([100,100,100,101]) -> statistic 0.0074812967581047385, and
+    // chi2.cdf(0.0074812967581047385, 3) = 0.00017171554497201163 (the lower tail).
+    const Result r = analyse(equal_shares({100, 100, 100, 101}));
+    REQUIRE(r.status.ok);
+    CHECK(r.statistic == doctest::Approx(0.0074812967581047385).epsilon(1e-13));
+    CHECK(r.lower.p == doctest::Approx(0.00017171554497201163).epsilon(1e-10));
+    bool warned = false;
+    for (const auto& w : r.warnings) warned = warned || w.find("closer to the stated mix than chance") != std::string::npos;
+    CHECK(warned);
+    // An ordinary fit gets no such note (R 4.2: chisq.test(c(18,25,31,26)) lower tail 0.67).
+    const Result ordinary = analyse(equal_shares({18, 25, 31, 26}));
+    for (const auto& w : ordinary.warnings) CHECK(w.find("closer to the stated mix") == std::string::npos);
+}
