@@ -262,8 +262,6 @@ Result analyse(const Analysis& a) {
         }
     }
 
-    if (r.validity.summary.size() && !(r.validity.cochran_holds && r.validity.all_at_least_5))
-        r.warnings.push_back(r.validity.summary);
     add_cautions(a, &r);
     return r;
 }

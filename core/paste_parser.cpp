@@ -13,6 +13,13 @@
 namespace tallyproof {
 namespace {
 
+// "tab-separated", "space-separated", ... for the notes on what was detected.
+std::string separated(Separator sep) {
+    const std::string name = separator_name(sep);
+    return (name == "spaces" ? std::string("space") : name) + "-separated";
+}
+
+
 constexpr std::size_t kSampleRows = 2000;    // rows read before the shape is decided
 constexpr std::size_t kSampleCells = 10000;  // raw cells that decide the decimal mark
 
@@ -146,7 +153,7 @@ ParsedInput parse_input(std::string_view text, const ParseOptions& options) {
         read_table(words ? grouped : rows, options, &out);
         if (out.status.ok)
             out.notes.insert(out.notes.begin(), "Read " + std::to_string(out.categories.size()) + " categories as " +
-                                                    shape_words(shape) + " (" + separator_name(sep) + "-separated, " +
+                                                    shape_words(shape) + " (" + separated(sep) + ", " +
                                                     decimal_mark_name(out.decimal) + ").");
         return out;
     }
@@ -187,8 +194,7 @@ ParsedInput parse_input(std::string_view text, const ParseOptions& options) {
         default: count_into_bins(src, options.bins, &out); break;
     }
     if (!out.status.ok) return out;
-    out.notes.insert(out.notes.begin(), std::string("Read as ") + shape_words(shape) + " (" + separator_name(sep) +
-                                            "-separated" +
+    out.notes.insert(out.notes.begin(), std::string("Read as ") + shape_words(shape) + " (" + separated(sep) +
                                             (shape == InputShape::raw_text ? "" : std::string(", ") + decimal_mark_name(out.decimal)) +
                                             ").");
     if (out.categories.empty()) out.status = Status::failure("No values found: paste one value per line or per cell.");

@@ -195,16 +195,35 @@ bool open_document(AppState& s, std::string_view json) {
     s.rejected_text.clear();
     s.rejected_message.clear();
     s.merge_undo.clear();
+    s.pasted_text.clear();
+    s.pasted_shape = -1;
     s.source_name = "opened document";
     s.demo_index = -1;
     sync_editor_from_model(s);
     return true;
 }
 
+namespace {
+void read_paste(AppState& s, std::string_view text, const ParseOptions& options);
+}  // namespace
+
 void apply_paste(AppState& s, std::string_view text) {
     const std::size_t first = text.find_first_not_of(" \t\r\n");
     if (first != std::string_view::npos && text[first] == '{') { open_document(s, text); return; }
-    const ParsedInput parsed = parse_input(text);
+    read_paste(s, text, ParseOptions{});
+}
+
+void reread_paste(AppState& s, int shape) {
+    if (s.pasted_text.empty()) return;
+    ParseOptions o;
+    o.shape = static_cast<InputShape>(shape);
+    const std::string text = s.pasted_text;
+    read_paste(s, text, o);
+}
+
+namespace {
+void read_paste(AppState& s, std::string_view text, const ParseOptions& options) {
+    const ParsedInput parsed = parse_input(text, options);
     Status problem = parsed.status;
     const Analysis previous = s.analysis;
     if (problem.ok) {
@@ -259,7 +278,15 @@ void apply_paste(AppState& s, std::string_view text) {
     for (const auto& n : parsed.notes) notes += (notes.empty() ? "" : " ") + n;
     for (const auto& n : parsed.alternatives) notes += (notes.empty() ? "" : " ") + n;
     s.notice = notes;
+    if (text.size() <= (8u << 20)) {  // kept for "Read as"; larger pastes are not kept twice
+        s.pasted_text = std::string(text);
+        s.pasted_shape = static_cast<int>(parsed.shape);
+    } else {
+        s.pasted_text.clear();
+        s.pasted_shape = -1;
+    }
 }
+}  // namespace
 
 void set_model_kind(AppState& s, ModelKind kind) {
     s.analysis.model = Model{};

@@ -64,6 +64,10 @@ struct AppState {
     std::string rejected_message;
     int rejected_line = 0;
 
+    // The last paste that was read, so the user can have it read as another shape
+    std::string pasted_text;
+    int pasted_shape = -1;           // InputShape as detected (or chosen), -1 when nothing pasted
+
     // Merge undo: the rules in force before each one-click merge
     std::vector<MergeChoice> merge_undo;
 
@@ -89,6 +93,7 @@ struct AppState {
 void load_demo(AppState& s, int index);                      // one of kDemoScenarios
 bool open_document(AppState& s, std::string_view json);      // an analysis document; false if refused
 void apply_paste(AppState& s, std::string_view text);        // counts, or a document; keeps the old data if refused
+void reread_paste(AppState& s, int shape);                   // the last paste again, read as InputShape `shape`
 void set_model_kind(AppState& s, ModelKind kind);            // resets the editor for that kind
 void apply_model_editor(AppState& s);                        // editor text -> analysis.model, recompute
 void set_count(AppState& s, int row, double value);          // an edited table cell

@@ -10,6 +10,7 @@
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
+#include "paste_parser.hpp"
 #include "power_divergence.hpp"
 
 namespace tallyproof::web {
@@ -140,6 +141,28 @@ void draw_counts_panel(AppState& s, const Theme& t) {
         ImGui::TextUnformatted(format_count(r.n).c_str());
         ImGui::PopFont();
         ImGui::EndTable();
+    }
+    if (s.pasted_shape >= 0 && !s.pasted_text.empty()) {
+        // What the last paste was read as, and the other readings on offer.
+        const InputShape shapes[] = {InputShape::label_count, InputShape::label_observed_expected, InputShape::counts_column,
+                                     InputShape::counts_row, InputShape::raw_text, InputShape::raw_whole_numbers};
+        const char* names[] = {"label and count", "label, observed, expected", "one column of counts",
+                               "one row of counts", "raw values to tally", "raw whole numbers"};
+        int current = -1;
+        for (int i = 0; i < 6; ++i) if (static_cast<int>(shapes[i]) == s.pasted_shape) current = i;
+        ImGui::AlignTextToFramePadding();
+        ImGui::TextUnformatted("Read as");
+        ImGui::SameLine();
+        ImGui::SetNextItemWidth(-1);
+        if (ImGui::BeginCombo("##shape", current >= 0 ? names[current] : input_shape_name(static_cast<InputShape>(s.pasted_shape)))) {
+            for (int i = 0; i < 6; ++i)
+            {
+                if (ImGui::Selectable(names[i], i == current) && i != current) reread_paste(s, static_cast<int>(shapes[i]));
+                mark_widget(names[i]);
+            }
+            ImGui::EndCombo();
+        }
+        mark_widget("Read as");
     }
     if (ImGui::Button("+ Add category")) add_row(s);
     ImGui::SameLine();

@@ -1,5 +1,5 @@
 // The thin slice end to end: paste TSV counts, read the results region, look at the canvas.
-import { assert, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+import { assert, clickWidget, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
 
 export const tests = {
   async 'paste of label<TAB>count lines gives the Pearson result'() {
@@ -71,6 +71,27 @@ export const tests = {
       // Reference: SciPy 1.10 chisquare([120,95,85], [120,105,75]) -> statistic 2.2857142857, p = 0.31890.
       assert(Math.abs(r.statistic - 2.2857142857142856) < 1e-9, `statistic ${r.statistic}`);
       await screenshot(page, 'slice-05-dropped-file');
+    });
+  },
+
+  async 'the detected shape is shown and can be changed'() {
+    await withPage({}, async (page) => {
+      // Invented: defects found on each of 30 units, one value per line (raw observations).
+      const values = [0, 1, 0, 2, 1, 0, 0, 3, 1, 1, 0, 2, 0, 1, 0, 0, 1, 2, 0, 1, 0, 0, 1, 1, 0, 2, 0, 1, 0, 0];
+      await pasteText(page, values.join('\n') + '\n');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.join(',') === '0,1,2,3');
+      let r = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
+      assert(r.observed.join(',') === '15,10,4,1', `tallied ${r.observed}`);
+      await clickWidget(page, 'Read as');
+      await clickWidget(page, 'one column of counts');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.length === 30, null, { timeout: 5000 })
+        .catch(() => null);
+      r = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
+      const refusal = await page.evaluate(() => globalThis.tallyproofPage.lastRefusal);
+      // Read as 30 counts, the zeros make some categories empty; either it analyses 30
+      // categories or it refuses with a located message; it must not keep the tally silently.
+      assert(r.categories.length === 30 || refusal.length > 0, `still ${r.categories.length} categories`);
+      await screenshot(page, 'slice-06-read-as');
     });
   },
 };
