@@ -9,6 +9,7 @@ import { decodePng, distinctColours } from './png.mjs';
 const here = dirname(fileURLToPath(import.meta.url));
 export const pageUrl = pathToFileURL(resolve(here, '../../dist/tallyproof.html')).href;
 export const screenshotDir = resolve(here, 'screenshots');
+mkdirSync(screenshotDir, { recursive: true });  // a clean checkout has none
 
 const launchArgs = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
   '--disable-background-networking', '--disable-component-update', '--disable-sync',
