@@ -3,7 +3,10 @@
 
 #include <cmath>
 
+#include <set>
+
 #include "json_reader.hpp"
+#include "paste_parser.hpp"  // kMaxCategories
 #include "json_writer.hpp"
 
 namespace tallyproof {
@@ -104,6 +107,15 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
     const JsonValue* obs = doc.find("observed");
     if (!obs) return Status::failure("The document has no \"observed\" counts.");
     TP_TRY(read_numbers(*obs, "observed", &a.observed));
+    if (a.observed.size() > kMaxCategories)
+        return Status::failure("The document has " + std::to_string(a.observed.size()) + " categories; at most " +
+                               std::to_string(kMaxCategories) + " can be analysed.");
+    {
+        std::set<std::string> seen;  // each category needs its own label, as in a paste
+        for (const auto& c : a.categories)
+            if (!seen.insert(c).second)
+                return Status::failure("In the document, the label \"" + c.substr(0, 40) + "\" appears twice; each category needs its own label.");
+    }
     if (a.categories.empty())
         for (std::size_t i = 0; i < a.observed.size(); ++i) a.categories.push_back("Category " + std::to_string(i + 1));
     if (const JsonValue* o = doc.find("ordered"); o && !o->is(Type::null)) {

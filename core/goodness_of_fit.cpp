@@ -47,17 +47,6 @@ void relabel_integer_groups(const std::vector<std::string>& original, const std:
     }
 }
 
-bool digit_test_of(ModelKind kind, DigitTest* t) {
-    switch (kind) {
-        case ModelKind::benford_first: *t = DigitTest::first; return true;
-        case ModelKind::benford_second: *t = DigitTest::second; return true;
-        case ModelKind::benford_first_two: *t = DigitTest::first_two; return true;
-        case ModelKind::last_digit: *t = DigitTest::last; return true;
-        case ModelKind::last_digit_even: *t = DigitTest::last_even; return true;
-        default: return false;
-    }
-}
-
 void add_cautions(const Analysis& a, Result* r) {
     r->cautions.push_back("The test assumes independent observations from a random sample, and counts, not percentages or rates.");
     if (model_is_digit_law(a.model.kind))
@@ -85,7 +74,7 @@ Result analyse(const Analysis& a) {
     double n = 0;
     for (std::size_t i = 0; i < k; ++i) {
         const double o = a.observed[i];
-        if (!std::isfinite(o) || o < 0 || o != std::floor(o) || o > 9007199254740992.0)
+        if (!std::isfinite(o) || o < 0 || o != std::floor(o) || o >= 9007199254740992.0)
             return refuse("The count for \"" + a.categories[i] + "\" must be a non-negative whole number.");
         n += o;
     }

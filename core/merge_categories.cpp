@@ -172,7 +172,7 @@ Status merge_categories(const std::vector<std::string>& labels, const std::vecto
     double expected_total = 0;
     for (std::size_t i = 0; i < k; ++i) {
         const double o = observed[i], e = expected[i];
-        if (!std::isfinite(o) || o < 0 || o != std::floor(o) || o > 9007199254740992.0)
+        if (!std::isfinite(o) || o < 0 || o != std::floor(o) || o >= 9007199254740992.0)
             return Status::failure("The count for \"" + names[i] + "\" must be a non-negative whole number.");
         if (!std::isfinite(e) || e < 0)
             return Status::failure("The expected count for \"" + names[i] + "\" must be a non-negative number.");

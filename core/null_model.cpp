@@ -36,17 +36,6 @@ Status unknown_parameters(const Model& m, std::initializer_list<const char*> all
     return Status::success();
 }
 
-bool digit_test_of(ModelKind kind, DigitTest* t) {
-    switch (kind) {
-        case ModelKind::benford_first: *t = DigitTest::first; return true;
-        case ModelKind::benford_second: *t = DigitTest::second; return true;
-        case ModelKind::benford_first_two: *t = DigitTest::first_two; return true;
-        case ModelKind::last_digit: *t = DigitTest::last; return true;
-        case ModelKind::last_digit_even: *t = DigitTest::last_even; return true;
-        default: return false;
-    }
-}
-
 Status digit_model(const Analysis& a, NullModel* out) {
     DigitTest test = DigitTest::first;
     digit_test_of(a.model.kind, &test);
@@ -138,6 +127,28 @@ Status fitted_model(const Analysis& a, NullModel* out) {
 }
 
 }  // namespace
+
+bool digit_test_of(ModelKind kind, DigitTest* t) {
+    switch (kind) {
+        case ModelKind::benford_first: *t = DigitTest::first; return true;
+        case ModelKind::benford_second: *t = DigitTest::second; return true;
+        case ModelKind::benford_first_two: *t = DigitTest::first_two; return true;
+        case ModelKind::last_digit: *t = DigitTest::last; return true;
+        case ModelKind::last_digit_even: *t = DigitTest::last_even; return true;
+        default: return false;
+    }
+}
+
+ModelKind model_kind_of(DigitTest test) {
+    switch (test) {
+        case DigitTest::first: return ModelKind::benford_first;
+        case DigitTest::second: return ModelKind::benford_second;
+        case DigitTest::first_two: return ModelKind::benford_first_two;
+        case DigitTest::last: return ModelKind::last_digit;
+        case DigitTest::last_even: return ModelKind::last_digit_even;
+    }
+    return ModelKind::benford_first;
+}
 
 Status null_model(const Analysis& a, double n, NullModel* out) {
     *out = NullModel{};

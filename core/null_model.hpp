@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "analysis.hpp"
+#include "digit_laws.hpp"
 #include "fitted_distribution.hpp"
 #include "status.hpp"
 
@@ -17,6 +18,10 @@ struct NullModel {
     std::string description;                 // e.g. "Poisson, mean estimated (0.610)"
     std::vector<std::string> warnings;
 };
+
+// The digit test behind a digit-law model kind (false for other kinds), and back.
+bool digit_test_of(ModelKind kind, DigitTest* test);
+ModelKind model_kind_of(DigitTest test);
 
 // Builds the null model for `a` (observed counts already validated, total n > 0).
 Status null_model(const Analysis& a, double n, NullModel* out);

@@ -13,6 +13,7 @@
 
 #include "analysis_document.hpp"
 #include "paste_parser.hpp"
+#include "pasted_analysis.hpp"
 #include "pvalue_job.hpp"
 #include "report.hpp"
 #include "tallyproof_version.hpp"
@@ -110,7 +111,6 @@ int main(int argc, char** argv) {
                                                  "--lambda", "--method", "--ordering", "--replicates", "--seed", "--merge",
                                                  "--min-expected", "--plan-w", "--plan-n", "--target-power"};
     ParseOptions input;  // input options, used when the text is pasted text rather than a document
-    bool model_given = false, edges_given = false;
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (arg == "--json") json = true;
@@ -156,8 +156,6 @@ int main(int argc, char** argv) {
         else if (std::find(with_value.begin(), with_value.end(), arg) != with_value.end()) {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             opts.emplace_back(arg, argv[++i]);
-            if (arg == "--model") model_given = true;
-            if (arg == "--edges") edges_given = true;
         } else if (arg.size() > 1 && arg[0] == '-') return usage_error("unknown option " + arg);
         else if (path.empty()) path = arg;
         else return usage_error("only one input file can be given");
@@ -183,25 +181,7 @@ int main(int argc, char** argv) {
     } else {
         const ParsedInput parsed = parse_input(text, input);
         read = parsed.status;
-        analysis.categories = parsed.categories;
-        analysis.observed = parsed.observed;
-        analysis.ordered = parsed.ordered;
-        if (!parsed.expected.empty()) {  // an expected column states the model
-            analysis.model.values = parsed.expected;
-            analysis.model.kind = parsed.expected_kind == ExpectedKind::ratios   ? ModelKind::ratio
-                                  : parsed.expected_kind == ExpectedKind::counts ? ModelKind::counts
-                                                                                 : ModelKind::shares;
-        }
-        if (parsed.digit_test && !model_given) {
-            switch (*parsed.digit_test) {
-                case DigitTest::first: analysis.model.kind = ModelKind::benford_first; break;
-                case DigitTest::second: analysis.model.kind = ModelKind::benford_second; break;
-                case DigitTest::first_two: analysis.model.kind = ModelKind::benford_first_two; break;
-                case DigitTest::last: analysis.model.kind = ModelKind::last_digit; break;
-                case DigitTest::last_even: analysis.model.kind = ModelKind::last_digit_even; break;
-            }
-        }
-        if (!parsed.edges.empty() && !edges_given) analysis.model.edges = parsed.edges;
+        apply_pasted_input(parsed, &analysis);  // options below override what the paste states
         if (!json && read.ok) {
             for (const auto& note : parsed.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
             for (const auto& alt : parsed.alternatives) std::fprintf(stderr, "alternative: %s\n", alt.c_str());

@@ -17,7 +17,7 @@
 #include "page_bridge.hpp"
 #include "paste_parser.hpp"
 #include "report.hpp"
-#include "digit_laws.hpp"
+#include "pasted_analysis.hpp"
 
 namespace tallyproof::web {
 namespace {
@@ -227,28 +227,11 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     Status problem = parsed.status;
     const Analysis previous = s.analysis;
     if (problem.ok) {
-        s.analysis.categories = parsed.categories;
-        s.analysis.observed = parsed.observed;
-        s.analysis.ordered = parsed.ordered;
         s.analysis.merge = MergeChoice{};
-        if (parsed.expected_kind != ExpectedKind::none) {
-            // An expected column sets the stated mix.
-            s.analysis.model = Model{};
-            s.analysis.model.kind = parsed.expected_kind == ExpectedKind::ratios ? ModelKind::ratio
-                                    : parsed.expected_kind == ExpectedKind::counts ? ModelKind::counts : ModelKind::shares;
-            s.analysis.model.values = parsed.expected;
-        } else if (parsed.digit_test) {
-            s.analysis.model = Model{};
-            switch (*parsed.digit_test) {
-                case DigitTest::first: s.analysis.model.kind = ModelKind::benford_first; break;
-                case DigitTest::second: s.analysis.model.kind = ModelKind::benford_second; break;
-                case DigitTest::first_two: s.analysis.model.kind = ModelKind::benford_first_two; break;
-                case DigitTest::last: s.analysis.model.kind = ModelKind::last_digit; break;
-                case DigitTest::last_even: s.analysis.model.kind = ModelKind::last_digit_even; break;
-            }
-        } else if (((s.analysis.model.kind == ModelKind::shares || s.analysis.model.kind == ModelKind::ratio ||
+        const bool mix_stated = apply_pasted_input(parsed, &s.analysis);  // an expected column or a digit tally
+        if (!mix_stated && (((s.analysis.model.kind == ModelKind::shares || s.analysis.model.kind == ModelKind::ratio ||
                      s.analysis.model.kind == ModelKind::counts) && s.analysis.model.values.size() != parsed.observed.size()) ||
-                   model_is_digit_law(s.analysis.model.kind) || model_is_fitted(s.analysis.model.kind)) {
+                   model_is_digit_law(s.analysis.model.kind) || model_is_fitted(s.analysis.model.kind))) {
             // The previous mix cannot apply to new counts: start from equal shares.
             s.analysis.model = Model{};
         }

@@ -70,7 +70,8 @@ Analysis random_analysis(std::mt19937& g) {
     Analysis a;
     const int k = 2 + static_cast<int>(g() % (g() % 5 == 0 ? 200 : 12));
     for (int i = 0; i < k; ++i) {
-        a.categories.push_back(g() % 2 ? std::to_string(i) : random_label(g));
+        // labels must differ (documents refuse a label twice): the index keeps them apart
+        a.categories.push_back(g() % 2 ? std::to_string(i) : random_label(g) + " #" + std::to_string(i));
         a.observed.push_back(static_cast<double>(g() % (g() % 3 ? 100 : 100000)));
     }
     a.ordered = g() % 2;
@@ -213,10 +214,16 @@ TEST_CASE("encoding refuses what decoding would refuse") {
     REQUIRE(big.size() <= kShareMaxDocumentBytes);
     const std::string f = encode_share_fragment(big);
     REQUIRE_FALSE(f.empty());
-    std::string back;
-    const Status s = decode_share_fragment(f, &back);
+    REQUIRE(f.compare(0, 4, "tp1.") == 0);
+    std::string payload, back;
+    REQUIRE(base64url_decode(std::string_view(f).substr(4), &payload).ok);
+    const Status s = share_decompress(payload, &back);  // the codec itself carries it back whole
     CHECK_MESSAGE(s.ok, s.message);
     CHECK(static_cast<bool>(back == big));  // (not printed: 2 MB)
+    // As a link it is refused by the document reader: a million categories is more than it analyses.
+    const Status opened = decode_share_fragment(f, &back);
+    CHECK_FALSE(opened.ok);
+    CHECK(opened.message.find("at most 100000 can be analysed") != std::string::npos);
     MESSAGE("2 MB document -> " << f.size() << " characters");
 }
 

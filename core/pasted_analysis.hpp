@@ -1,0 +1,14 @@
+// From a read paste to an analysis: the counts, their order, and the expected mix the paste
+// itself states (an expected column, or the digit law of a digit tally).
+#pragma once
+#include "analysis.hpp"
+#include "paste_parser.hpp"
+
+namespace tallyproof {
+
+// Puts the paste's categories, counts and order into `a`. An expected column sets a shares,
+// ratio or counts model; a digit tally sets its digit law; bin edges go to the model. The rest
+// of `a` (test settings) is kept. Returns true when the paste set the model.
+bool apply_pasted_input(const ParsedInput& parsed, Analysis* a);
+
+}  // namespace tallyproof
