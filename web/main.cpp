@@ -33,6 +33,7 @@ struct Page {
     tallyproof::web::Theme theme;
     int width = 0, height = 0;
     bool paused = false;
+    std::vector<SDL_Event> deferred;  // events held back to the next frame (see take_events)
 };
 
 Page* g_page = nullptr;  // the one page; owned by main, reached from the browser's callbacks
@@ -107,13 +108,37 @@ void render_chart_export(Page& p, const tallyproof::web::ChartExport& e) {
     emscripten_set_canvas_element_size("#canvas", fw, fh);
 }
 
-void frame() {
-    Page& p = *g_page;
+// Feeds this frame's events to ImGui. A key or button released in the same frame as it was
+// pressed would never be seen as pressed (the loop sleeps while idle, so a quick tap can arrive
+// whole): the release and everything after it wait for the next frame.
+void take_events(Page& p) {
+    std::vector<SDL_Event> events;
+    events.swap(p.deferred);
     SDL_Event ev;
-    while (SDL_PollEvent(&ev)) {
-        ImGui_ImplSDL2_ProcessEvent(&ev);
+    while (SDL_PollEvent(&ev)) events.push_back(ev);
+    std::vector<SDL_Keycode> keys_down;
+    std::vector<Uint8> buttons_down;
+    for (std::size_t i = 0; i < events.size(); ++i) {
+        const SDL_Event& e = events[i];
+        const bool key_tap = e.type == SDL_KEYUP &&
+                             std::find(keys_down.begin(), keys_down.end(), e.key.keysym.sym) != keys_down.end();
+        const bool click = e.type == SDL_MOUSEBUTTONUP &&
+                           std::find(buttons_down.begin(), buttons_down.end(), e.button.button) != buttons_down.end();
+        if (key_tap || click) {
+            p.deferred.assign(events.begin() + static_cast<std::ptrdiff_t>(i), events.end());
+            break;
+        }
+        if (e.type == SDL_KEYDOWN) keys_down.push_back(e.key.keysym.sym);
+        if (e.type == SDL_MOUSEBUTTONDOWN) buttons_down.push_back(e.button.button);
+        ImGui_ImplSDL2_ProcessEvent(&e);
         p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);  // ImGui settles within a few frames
     }
+    if (!p.deferred.empty()) p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);
+}
+
+void frame() {
+    Page& p = *g_page;
+    take_events(p);
     fit_to_stage(p);
     if (p.state.job_running) {
         tallyproof::web::step_job(p.state, 12.0);  // a slice of work, then draw: the page stays responsive

@@ -125,18 +125,19 @@ export const tests = {
       const before = await page.evaluate(() => globalThis.tallyproofPage.lastDocument);
       for (let i = 0; i < 3; i++) { await page.keyboard.press('ArrowDown'); await page.waitForTimeout(60); }
       await notBlank(page, 'screen-keyboard');
-      // Walk down the controls with the arrow key, pressing Space on each (Escape leaves a text
-      // field or a list again), until one changes the analysis: a checkbox or radio button.
-      let switched = false;
-      for (let i = 0; i < 60 && !switched; i++) {
-        await page.keyboard.press('ArrowDown');
-        await page.keyboard.press('Space');
-        await page.waitForTimeout(60);
-        switched = (await page.evaluate(() => globalThis.tallyproofPage.lastDocument)) !== before;
-        if (!switched) await page.keyboard.press('Escape');
-      }
+      // Walk down the controls with the arrow key to the last one (the merge rule), open it with
+      // Space, move to the next rule and choose it with Space.
+      for (let i = 0; i < 40; i++) { await page.keyboard.press('ArrowDown'); await page.waitForTimeout(25); }
+      await page.keyboard.press('Space');
+      await page.waitForTimeout(100);
+      await page.keyboard.press('ArrowDown');
+      await page.waitForTimeout(100);
+      await page.keyboard.press('Space');
+      await page.waitForTimeout(200);
+      const after = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastDocument));
+      const switched = after.merge.rule !== JSON.parse(before).merge.rule;
       await notBlank(page, 'screen-keyboard-changed');
-      assert(switched, 'keyboard navigation never changed a setting');
+      assert(switched, `keyboard navigation did not change the merge rule (${after.merge.rule})`);
     });
   },
 
