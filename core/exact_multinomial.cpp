@@ -411,6 +411,11 @@ Status exact_multinomial_result(const ExactMultinomialState& st, ExactMultinomia
     if (st.progress.cancelled) return Status::failure("The exact computation was cancelled.");
     if (!st.progress.done || st.s.shares.empty()) return Status::failure("The exact computation has not finished.");
     const double scaled = st.sum + st.compensation;
+    // The observed table itself is extreme, so the sum is positive in exact arithmetic; if it is
+    // not here (every term underflowed against the scale), no honest p-value can be given.
+    if (!(scaled > 0) || !std::isfinite(scaled))
+        return Status::failure("The exact p-value could not be computed to a stated accuracy for this table; "
+                               "use the Monte Carlo p-value instead.");
     const double log_p = std::log(scaled) + st.log_scale;
     double p = std::exp(log_p);
     if (p > 1) p = 1;  // rounding can only overshoot by the stated bound
