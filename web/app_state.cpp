@@ -77,6 +77,12 @@ void sync_editor_from_model(AppState& s) {
 
 constexpr std::size_t kRecentLimit = 8;
 
+// A short confirmation under the title bar, mirrored into the page for screen readers.
+void set_notice(AppState& s, const std::string& text) {
+    s.notice = text;
+    publish_notice(text);
+}
+
 std::string saved_title(const AppState& s) {
     std::string t = s.source_name;
     std::string cats;
@@ -260,7 +266,7 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     std::string notes;
     for (const auto& n : parsed.notes) notes += (notes.empty() ? "" : " ") + n;
     for (const auto& n : parsed.alternatives) notes += (notes.empty() ? "" : " ") + n;
-    s.notice = notes;
+    set_notice(s, notes);
     if (text.size() <= (8u << 20)) {  // kept for "Read as"; larger pastes are not kept twice
         s.pasted_text = std::string(text);
         s.pasted_shape = static_cast<int>(parsed.shape);
@@ -426,7 +432,7 @@ void start_fresh(AppState& s) {
     storage_remove("tallyproof.current");
     s.merge_undo.clear();
     load_demo(s, 0);
-    s.notice = "Started fresh: paste your counts, or pick an example.";
+    set_notice(s, "Started fresh: paste your counts, or pick an example.");
 }
 
 void open_recent(AppState& s, int index) {
@@ -438,21 +444,21 @@ void open_recent(AppState& s, int index) {
 void copy_share_link(AppState& s) {
     const std::string fragment = encode_share_fragment(write_analysis_document(s.analysis));
     if (fragment.empty() || fragment.size() > 8000) {
-        s.notice = "This analysis is too large for a share link; download the analysis file (JSON) instead.";
+        set_notice(s, "This analysis is too large for a share link; download the analysis file (JSON) instead.");
         return;
     }
     copy_text(page_address() + "#" + fragment);
-    s.notice = "Share link copied: it carries the whole analysis in the link itself; nothing is sent to any server.";
+    set_notice(s, "Share link copied: it carries the whole analysis in the link itself; nothing is sent to any server.");
 }
 
 void download_document(AppState& s) {
     download_text("tallyproof-analysis.json", "application/json", write_analysis_document(s.analysis));
-    s.notice = "Analysis file downloaded.";
+    set_notice(s, "Analysis file downloaded.");
 }
 
 void download_table(AppState& s) {
     download_text("tallyproof-categories.csv", "text/csv", category_table(s.result, TableExportOptions{TableFormat::csv, s.decimal_comma, true}));
-    s.notice = "Per-category table downloaded (CSV).";
+    set_notice(s, "Per-category table downloaded (CSV).");
 }
 
 void queue_chart_export(AppState& s, ResultTab chart, int purpose) {

@@ -12,6 +12,9 @@ EM_JS(void, tp_js_publish_result, (const char* text, const char* json, const cha
 EM_JS(void, tp_js_publish_error, (const char* message), {
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.showError(UTF8ToString(message));
 });
+EM_JS(void, tp_js_notice, (const char* message), {
+    if (globalThis.tallyproofPage) globalThis.tallyproofPage.showNotice(UTF8ToString(message));
+});
 EM_JS(void, tp_js_copy, (const char* text), {
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.copy(UTF8ToString(text));
 });
@@ -85,6 +88,7 @@ void publish_result(const std::string& text, const std::string& json, const std:
     tp_js_publish_result(text.c_str(), json.c_str(), document.c_str());
 }
 void publish_error(const std::string& message) { tp_js_publish_error(message.c_str()); }
+void publish_notice(const std::string& message) { tp_js_notice(message.c_str()); }
 void copy_text(const std::string& text) { tp_js_copy(text.c_str()); }
 bool system_prefers_dark() { return tp_js_prefers_dark() != 0; }
 double device_pixel_ratio() { return tp_js_device_pixel_ratio(); }

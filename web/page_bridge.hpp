@@ -7,6 +7,7 @@ namespace tallyproof::web {
 
 void publish_result(const std::string& text, const std::string& json, const std::string& document);
 void publish_error(const std::string& message);     // live region alert
+void publish_notice(const std::string& message);    // a confirmation (tallyproofPage.lastNotice, live region)
 void copy_text(const std::string& text);            // clipboard, with a fallback where refused
 bool system_prefers_dark();
 double device_pixel_ratio();

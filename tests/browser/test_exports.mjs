@@ -185,6 +185,14 @@ export const tests = {
         assert(refusal.toLowerCase().includes(words), `hostile link ${fragment.slice(0, 20)}: message "${refusal}"`);
       }
       await screenshot(page, 'share-hostile');
+      // An analysis too large for a link says so and points to the file download instead.
+      const rand2 = rng(7);
+      const k = 3000;
+      const labels = Array.from({ length: k }, (_, i) => `${i}-` + Array.from({ length: 10 }, () => String.fromCharCode(97 + Math.floor(rand2() * 26))).join(''));
+      await pasteText(page, JSON.stringify({ categories: labels, observed: labels.map(() => 1 + Math.floor(rand2() * 50)) }));
+      await page.waitForFunction((n) => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.length === n, k, { timeout: 15000 });
+      await openMenuItem(page, 'Copy share link');
+      await page.waitForFunction(() => (globalThis.tallyproofPage.lastNotice || '').includes('too large for a share link'), null, { timeout: 5000 });
     });
   },
 

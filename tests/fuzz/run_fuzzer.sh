@@ -1,6 +1,6 @@
 #!/bin/sh
 # Builds a libFuzzer target with AddressSanitizer and UndefinedBehaviorSanitizer and runs it.
-# Usage: tests/fuzz/run_fuzzer.sh TARGET SECONDS   (TARGET: paste_parser)
+# Usage: tests/fuzz/run_fuzzer.sh TARGET SECONDS   (TARGET: paste_parser | share_link)
 # Needs clang-14 and libclang-rt-14-dev (Debian). Findings land in $OUT (crash-*, timeout-*).
 set -eu
 TARGET=${1:?usage: run_fuzzer.sh TARGET SECONDS}
@@ -14,13 +14,18 @@ case "$TARGET" in
   paste_parser)
     SOURCES="paste_parser number_reading delimited_text table_shape raw_observations binning digit_extraction digit_laws"
     SEEDS="$HERE/corpus_paste" ;;
+  share_link)
+    # the decoder reads the document back, so it links the whole core
+    SOURCES=$(cd "$ROOT/core" && ls *.cpp | sed 's/\.cpp$//')
+    SEEDS="$HERE/corpus_share_link" ;;
   *) echo "unknown target $TARGET" >&2; exit 2 ;;
 esac
+mkdir -p "$SEEDS"
 FILES=""
 for s in $SOURCES; do FILES="$FILES $ROOT/core/$s.cpp"; done
 # shellcheck disable=SC2086
 "$CXX" -std=c++17 -O1 -g -fsanitize=fuzzer,address,undefined -fno-sanitize-recover=undefined \
-  -I "$ROOT/core" "$HERE/fuzz_$TARGET.cpp" $FILES -o "$OUT/fuzz_$TARGET"
+  -I "$ROOT/core" -I "$ROOT/build/native/core/generated" "$HERE/fuzz_$TARGET.cpp" $FILES -o "$OUT/fuzz_$TARGET"
 cd "$OUT"
 # The working corpus grows in $OUT/corpus; the starting corpus in the repository is only read.
 exec ./"fuzz_$TARGET" -max_total_time="$SECONDS_TO_RUN" -timeout=10 -rss_limit_mb=2048 -max_len=65536 \
