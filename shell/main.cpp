@@ -16,6 +16,8 @@
 #include "pasted_analysis.hpp"
 #include "pvalue_job.hpp"
 #include "report.hpp"
+#include "table_export.hpp"
+#include "writeup.hpp"
 #include "tallyproof_version.hpp"
 
 namespace {
@@ -40,6 +42,10 @@ const char* kUsage =
     "                         raw-digits, raw-bins\n"
     "output:\n"
     "  --json                 print the result document as JSON\n"
+    "  --table csv|tsv        print the per-category table for a spreadsheet (formulas neutralised)\n"
+    "  --writeup plain|markdown|tsv\n"
+    "                         print the results block to paste into a report\n"
+    "  --output-decimal-comma write numbers with a decimal comma (CSV then uses ';')\n"
     "model (options override the document):\n"
     "  --model KIND           equal, shares, ratio, counts, poisson, binomial, geometric,\n"
     "                         negative-binomial, uniform, normal, lognormal, exponential,\n"
@@ -105,6 +111,8 @@ bool to_list(const std::string& s, std::vector<double>* out) {
 int main(int argc, char** argv) {
     using namespace tallyproof;
     bool json = false;
+    std::string table_format, writeup_style;  // --table csv|tsv, --writeup plain|markdown|tsv
+    bool out_decimal_comma = false;
     std::string path;
     std::vector<std::pair<std::string, std::string>> opts;  // option, value
     const std::vector<std::string> with_value = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
@@ -114,6 +122,13 @@ int main(int argc, char** argv) {
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (arg == "--json") json = true;
+        else if (arg == "--table" || arg == "--writeup") {
+            if (i + 1 >= argc) return usage_error(arg + " needs a value");
+            const std::string v = argv[++i];
+            if (arg == "--table" && v != "csv" && v != "tsv") return usage_error("--table must be csv or tsv");
+            if (arg == "--writeup" && v != "plain" && v != "markdown" && v != "tsv") return usage_error("--writeup must be plain, markdown or tsv");
+            (arg == "--table" ? table_format : writeup_style) = v;
+        } else if (arg == "--output-decimal-comma") out_decimal_comma = true;
         else if (arg == "--version") { std::printf("tallyproof %s\n", TALLYPROOF_VERSION); return 0; }
         else if (arg == "--help" || arg == "-h") { std::fputs(kUsage, stdout); return 0; }
         else if (arg == "--ordered" || arg == "--williams") opts.emplace_back(arg, "");
@@ -238,7 +253,15 @@ int main(int argc, char** argv) {
     if (!read.ok) result.status = read;
     else result = analyse_completely(analysis);
     if (json) std::printf("%s\n", report_json(analysis, result).c_str());
-    else if (result.status.ok) std::fputs(report_text(analysis, result).c_str(), stdout);
+    else if (result.status.ok && !table_format.empty())
+        std::fputs(category_table(result, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
+                                                             out_decimal_comma, false}).c_str(), stdout);
+    else if (result.status.ok && !writeup_style.empty()) {
+        WriteupOptions o;
+        o.style = writeup_style == "markdown" ? WriteupStyle::markdown : writeup_style == "tsv" ? WriteupStyle::tsv : WriteupStyle::plain;
+        o.decimal_comma = out_decimal_comma;
+        std::fputs(writeup(analysis, result, o).c_str(), stdout);
+    } else if (result.status.ok) std::fputs(report_text(analysis, result).c_str(), stdout);
     else std::fprintf(stderr, "tallyproof: %s\n", result.status.message.c_str());
     return result.status.ok ? 0 : 1;
 }
