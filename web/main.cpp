@@ -141,7 +141,9 @@ void frame() {
     take_events(p);
     fit_to_stage(p);
     if (p.state.job_running) {
-        tallyproof::web::step_job(p.state, 12.0);  // a slice of work, then draw: the page stays responsive
+        // A slice of work, then a frame: about 20 frames a second keep the page responsive
+        // (progress, Cancel) while most of the time goes to the work.
+        tallyproof::web::step_job(p.state, 40.0);
     }
     if (p.state.theme_changed) {
         tallyproof::web::apply_palette(&p.theme, p.state.dark);
