@@ -162,17 +162,6 @@ void occupied_span(const FittedDistribution& f, int* first, int* last, double* n
         }
 }
 
-Status boundary_refusal(const FittedDistribution& f, const std::string& parameter, bool upper,
-                        const std::string& edge_low, const std::string& edge_high) {
-    return Status::failure("The counts push the " + f.model + " " + parameter + " towards " +
-                           (upper ? edge_high : edge_low) +
-                           ", so it cannot be estimated from them; check the bins and counts or give its value.");
-}
-
-Status no_convergence(const FittedDistribution& f) {
-    return Status::failure("The maximum-likelihood search for the " + f.model +
-                           " parameters did not converge on these counts; give the parameter values instead.");
-}
 
 // Normal fit on transformed edges: `to_scale` maps an edge to the normal's scale (identity or log).
 FittedDistribution location_scale_fit(const char* model, const char* location_name, const char* scale_name,

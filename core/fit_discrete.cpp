@@ -182,17 +182,6 @@ bool single_cell(FittedDistribution* f, const std::string& what) {
     return true;
 }
 
-Status boundary_refusal(const FittedDistribution& f, const std::string& parameter, bool upper,
-                        const std::string& edge_low, const std::string& edge_high) {
-    return Status::failure("The counts push the " + f.model + " " + parameter + " towards " +
-                           (upper ? edge_high : edge_low) +
-                           ", so it cannot be estimated from them; check the bins and counts or give its value.");
-}
-
-Status no_convergence(const FittedDistribution& f) {
-    return Status::failure("The maximum-likelihood search for the " + f.model +
-                           " parameters did not converge on these counts; give the parameter values instead.");
-}
 
 void add_parameter(FittedDistribution* f, const char* name, double value, bool estimated) {
     f->parameters.push_back({name, value, estimated});

@@ -106,4 +106,16 @@ PValueBounds fitted_p_value_bounds(double statistic, const FittedDegreesOfFreedo
     return {chi_square_upper_tail(statistic, df.lower), chi_square_upper_tail(statistic, df.upper)};
 }
 
+Status boundary_refusal(const FittedDistribution& f, const std::string& parameter, bool upper,
+                        const std::string& edge_low, const std::string& edge_high) {
+    return Status::failure("The counts push the " + f.model + " " + parameter + " towards " +
+                           (upper ? edge_high : edge_low) +
+                           ", so it cannot be estimated from them; check the bins and counts or give its value.");
+}
+
+Status no_convergence(const FittedDistribution& f) {
+    return Status::failure("The maximum-likelihood search for the " + f.model +
+                           " parameters did not converge on these counts; give the parameter values instead.");
+}
+
 }  // namespace tallyproof

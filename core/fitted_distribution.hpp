@@ -46,6 +46,12 @@ struct FittedDistribution {
 // Shared by the fit_* functions: refuses counts that are negative, not finite, of the wrong
 // number, or all zero.
 Status check_observed_counts(const std::vector<double>& observed, std::size_t bins);
+// Shared by the fit_* functions: the refusals when the likelihood is maximised at the edge of a
+// parameter's range, or the search does not converge.
+Status boundary_refusal(const FittedDistribution& f, const std::string& parameter, bool upper,
+                        const std::string& edge_low, const std::string& edge_high);
+Status no_convergence(const FittedDistribution& f);
+
 // Shared by the fit_* functions: sets log_likelihood and df from the cells, probabilities and
 // estimated_parameters; refuses (fit->status) when df < 1 or the probabilities do not sum to 1.
 void finish_fit(FittedDistribution* fit);
