@@ -219,10 +219,11 @@ void apply_paste(AppState& s, std::string_view text) {
     read_paste(s, text, ParseOptions{});
 }
 
-void reread_paste(AppState& s, int shape) {
+void reread_paste(AppState& s, int shape, int digit_test) {
     if (s.pasted_text.empty()) return;
     ParseOptions o;
     o.shape = static_cast<InputShape>(shape);
+    if (digit_test >= 0) o.digits = static_cast<DigitTest>(digit_test);
     const std::string text = s.pasted_text;
     read_paste(s, text, o);
 }
@@ -248,6 +249,11 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
             s.analysis = previous;
             sync_editor_from_model(s);
         }
+    }
+    // Kept for "Read as", refused or not: another reading may be what the user meant.
+    if (text.size() <= (8u << 20)) {
+        s.pasted_text = std::string(text);
+        s.pasted_shape = static_cast<int>(parsed.shape);
     }
     if (!problem.ok) {
         s.rejected_text = std::string(text.substr(0, 4000));

@@ -93,7 +93,8 @@ struct AppState {
 void load_demo(AppState& s, int index);                      // one of kDemoScenarios
 bool open_document(AppState& s, std::string_view json);      // an analysis document; false if refused
 void apply_paste(AppState& s, std::string_view text);        // counts, or a document; keeps the old data if refused
-void reread_paste(AppState& s, int shape);                   // the last paste again, read as InputShape `shape`
+void reread_paste(AppState& s, int shape, int digit_test = -1);  // the last paste again, read as InputShape `shape`
+                                                                 // (raw_digits: DigitTest `digit_test`)
 void set_model_kind(AppState& s, ModelKind kind);            // resets the editor for that kind
 void apply_model_editor(AppState& s);                        // editor text -> analysis.model, recompute
 void set_count(AppState& s, int row, double value);          // an edited table cell

@@ -10,6 +10,7 @@
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
+#include "null_model.hpp"
 #include "paste_parser.hpp"
 #include "power_divergence.hpp"
 
@@ -144,21 +145,35 @@ void draw_counts_panel(AppState& s, const Theme& t) {
     }
     if (s.pasted_shape >= 0 && !s.pasted_text.empty()) {
         // What the last paste was read as, and the other readings on offer.
-        const InputShape shapes[] = {InputShape::label_count, InputShape::label_observed_expected, InputShape::counts_column,
-                                     InputShape::counts_row, InputShape::raw_text, InputShape::raw_whole_numbers};
-        const char* names[] = {"label and count", "label, observed, expected", "one column of counts",
-                               "one row of counts", "raw values to tally", "raw whole numbers"};
+        struct Reading { InputShape shape; int digits; const char* name; };
+        const Reading readings[] = {
+            {InputShape::label_count, -1, "label and count"},
+            {InputShape::label_observed_expected, -1, "label, observed, expected"},
+            {InputShape::counts_column, -1, "one column of counts"},
+            {InputShape::counts_row, -1, "one row of counts"},
+            {InputShape::raw_text, -1, "raw values to tally"},
+            {InputShape::raw_whole_numbers, -1, "raw whole numbers"},
+            {InputShape::raw_digits, static_cast<int>(DigitTest::first), "first digits of raw numbers"},
+            {InputShape::raw_digits, static_cast<int>(DigitTest::second), "second digits of raw numbers"},
+            {InputShape::raw_digits, static_cast<int>(DigitTest::last), "last digits of raw numbers"},
+        };
+        const int count = static_cast<int>(sizeof readings / sizeof readings[0]);
         int current = -1;
-        for (int i = 0; i < 6; ++i) if (static_cast<int>(shapes[i]) == s.pasted_shape) current = i;
+        DigitTest shown = DigitTest::first;
+        const bool digit_model = digit_test_of(s.analysis.model.kind, &shown);
+        for (int i = 0; i < count; ++i) {
+            const bool same_digits = readings[i].digits < 0 || (digit_model && readings[i].digits == static_cast<int>(shown));
+            if (static_cast<int>(readings[i].shape) == s.pasted_shape && same_digits) current = i;
+        }
         ImGui::AlignTextToFramePadding();
         ImGui::TextUnformatted("Read as");
         ImGui::SameLine();
         ImGui::SetNextItemWidth(-1);
-        if (ImGui::BeginCombo("##shape", current >= 0 ? names[current] : input_shape_name(static_cast<InputShape>(s.pasted_shape)))) {
-            for (int i = 0; i < 6; ++i)
-            {
-                if (ImGui::Selectable(names[i], i == current) && i != current) reread_paste(s, static_cast<int>(shapes[i]));
-                mark_widget(names[i]);
+        if (ImGui::BeginCombo("##shape", current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.pasted_shape)))) {
+            for (int i = 0; i < count; ++i) {
+                if (ImGui::Selectable(readings[i].name, i == current) && i != current)
+                    reread_paste(s, static_cast<int>(readings[i].shape), readings[i].digits);
+                mark_widget(readings[i].name);
             }
             ImGui::EndCombo();
         }

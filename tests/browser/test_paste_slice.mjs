@@ -94,4 +94,22 @@ export const tests = {
       await screenshot(page, 'slice-06-read-as');
     });
   },
+
+  async 'raw amounts can be read as first digits for the Benford test'() {
+    await withPage({}, async (page) => {
+      // Invented invoice amounts; first digits 1,1,2,3,1,5,9,1,2,4,7,1 (+ more of the same shape).
+      const amounts = ['1.20', '14.99', '230', '3,120.50', '1875', '56.10', '912', '104.00', '27.35', '4100', '7.80', '199'];
+      const text = Array.from({ length: 10 }, () => amounts).flat().join('\n') + '\n';
+      await pasteText(page, text);
+      // Read as counts first, the decimals are refused; the paste stays on offer under "Read as".
+      await page.waitForFunction(() => globalThis.tallyproofPage.lastRefusal.includes('not a whole number'));
+      await clickWidget(page, 'Read as');
+      await clickWidget(page, 'first digits of raw numbers');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).model?.kind === 'benford-first', null, { timeout: 5000 });
+      const r = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
+      // Counted by hand from the list above (x10): digit 1 five times, 2 twice, 3, 4, 5, 7, 9 once.
+      assert(r.observed.join(',') === '50,20,10,10,10,0,10,0,10', `first digits ${r.observed}`);
+      await screenshot(page, 'slice-07-first-digits');
+    });
+  },
 };
