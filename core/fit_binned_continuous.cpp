@@ -18,18 +18,10 @@ namespace {
 
 constexpr double kInf = std::numeric_limits<double>::infinity();
 
-std::string number(double x) {
-    if (x == kInf) return "infinity";
-    if (x == -kInf) return "-infinity";
-    char buf[40];
-    std::snprintf(buf, sizeof buf, "%.10g", x);
-    return buf;
-}
-
 std::string bin_label(double lo, double hi) {
-    if (lo == -kInf) return "below " + number(hi);
-    if (hi == kInf) return number(lo) + " or more";
-    return number(lo) + " to " + number(hi);
+    if (lo == -kInf) return "below " + fit_number(hi);
+    if (hi == kInf) return fit_number(lo) + " or more";
+    return fit_number(lo) + " to " + fit_number(hi);
 }
 
 using CellProbability = std::function<double(double lo, double hi)>;
@@ -50,18 +42,18 @@ FittedDistribution prepare_bins(const char* model, const std::vector<double>& ed
         const double e = edges[i];
         const bool ok = std::isfinite(e) || (i == 0 && e == -kInf) || (i + 1 == edges.size() && e == kInf);
         if (!ok) {
-            f.status = Status::failure("Bin edge " + std::to_string(i + 1) + " (" + number(e) +
+            f.status = Status::failure("Bin edge " + std::to_string(i + 1) + " (" + fit_number(e) +
                                        ") must be a finite number; only the first may be -infinity and the last +infinity.");
             return f;
         }
         if (i > 0 && !(e > edges[i - 1])) {
-            f.status = Status::failure("Bin edges must increase: edge " + std::to_string(i + 1) + " (" + number(e) +
-                                       ") does not exceed edge " + std::to_string(i) + " (" + number(edges[i - 1]) + ").");
+            f.status = Status::failure("Bin edges must increase: edge " + std::to_string(i + 1) + " (" + fit_number(e) +
+                                       ") does not exceed edge " + std::to_string(i) + " (" + fit_number(edges[i - 1]) + ").");
             return f;
         }
     }
     if (edges[1] <= smin) {
-        f.status = Status::failure("Bin 1 (" + bin_label(edges[0], edges[1]) + ") lies below " + number(smin) +
+        f.status = Status::failure("Bin 1 (" + bin_label(edges[0], edges[1]) + ") lies below " + fit_number(smin) +
                                    ", where the " + model + " model has no values.");
         return f;
     }
@@ -172,12 +164,12 @@ FittedDistribution location_scale_fit(const char* model, const char* location_na
     f.model = model;
     if (location && !std::isfinite(*location)) {
         f.status = Status::failure(std::string("The ") + model + " " + location_name +
-                                   " must be a finite number; it was given as " + number(*location) + ".");
+                                   " must be a finite number; it was given as " + fit_number(*location) + ".");
         return f;
     }
     if (scale && !(std::isfinite(*scale) && *scale > 0)) {
         f.status = Status::failure(std::string("The ") + model + " " + scale_name +
-                                   " must be a positive number; it was given as " + number(*scale) + ".");
+                                   " must be a positive number; it was given as " + fit_number(*scale) + ".");
         return f;
     }
     f = prepare_bins(model, edges, observed, smin, tails);
@@ -195,13 +187,13 @@ FittedDistribution location_scale_fit(const char* model, const char* location_na
         const std::string what = !location && !scale ? std::string(location_name) + " and " + scale_name
                                                       : (!location ? location_name : scale_name);
         if (first == last) {
-            f.status = Status::failure("All " + number(n) + " observations are in one bin (" +
+            f.status = Status::failure("All " + fit_number(n) + " observations are in one bin (" +
                                        bin_label(f.lo[first], f.hi[first]) + "); counts in a single bin cannot identify the " +
                                        model + " " + what + ".");
             return f;
         }
         if (!location && !scale && last == first + 1) {
-            f.status = Status::failure("All " + number(n) + " observations are in two neighbouring bins (" +
+            f.status = Status::failure("All " + fit_number(n) + " observations are in two neighbouring bins (" +
                                        bin_label(f.lo[first], f.hi[last]) + "); the " + model + " " + scale_name +
                                        " then shrinks towards 0, so it cannot be estimated. At least three bins must be spanned.");
             return f;
@@ -272,7 +264,7 @@ FittedDistribution fit_exponential(const std::vector<double>& edges, const std::
     FittedDistribution f;
     f.model = "exponential";
     if (rate && !(std::isfinite(*rate) && *rate > 0)) {
-        f.status = Status::failure("The exponential rate must be a positive number; it was given as " + number(*rate) + ".");
+        f.status = Status::failure("The exponential rate must be a positive number; it was given as " + fit_number(*rate) + ".");
         return f;
     }
     f = prepare_bins("exponential", edges, observed, 0, options.tail_cells);
@@ -283,7 +275,7 @@ FittedDistribution fit_exponential(const std::vector<double>& edges, const std::
         double n = 0;
         occupied_span(f, &first, &last, &n);
         if (first == last) {
-            f.status = Status::failure("All " + number(n) + " observations are in one bin (" +
+            f.status = Status::failure("All " + fit_number(n) + " observations are in one bin (" +
                                        bin_label(f.lo[first], f.hi[first]) +
                                        "); counts in a single bin cannot identify the exponential rate.");
             return f;

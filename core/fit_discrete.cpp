@@ -27,19 +27,11 @@ namespace {
 constexpr double kInf = std::numeric_limits<double>::infinity();
 constexpr double kMaxWhole = 9007199254740992.0;  // 2^53: beyond it k + 1 is not exact
 
-std::string number(double x) {
-    if (x == kInf) return "infinity";
-    if (x == -kInf) return "-infinity";
-    char buf[40];
-    std::snprintf(buf, sizeof buf, "%.10g", x);
-    return buf;
-}
-
 std::string cell_label(double lo, double hi) {
-    if (lo == -kInf) return number(hi) + " or fewer";
-    if (hi == kInf) return number(lo) + " or more";
-    if (lo == hi) return number(lo);
-    return number(lo) + "-" + number(hi);
+    if (lo == -kInf) return fit_number(hi) + " or fewer";
+    if (hi == kInf) return fit_number(lo) + " or more";
+    if (lo == hi) return fit_number(lo);
+    return fit_number(lo) + "-" + fit_number(hi);
 }
 
 bool whole(double x) { return std::floor(x) == x && std::fabs(x) <= kMaxWhole; }
@@ -62,13 +54,13 @@ FittedDistribution prepare_cells(const char* model, const std::vector<IntegerBin
         const bool lo_ok = whole(lo) || (lo == -kInf && i == 0);
         const bool hi_ok = whole(hi) || (hi == kInf && i + 1 == bins.size());
         if (!lo_ok || !hi_ok) {
-            f.status = Status::failure(which + " (" + number(lo) + " to " + number(hi) +
+            f.status = Status::failure(which + " (" + fit_number(lo) + " to " + fit_number(hi) +
                                        ") must have whole-number ends; only the first may start at -infinity "
                                        "and only the last may end at +infinity.");
             return f;
         }
         if (lo > hi) {
-            f.status = Status::failure(which + " runs from " + number(lo) + " down to " + number(hi) + ".");
+            f.status = Status::failure(which + " runs from " + fit_number(lo) + " down to " + fit_number(hi) + ".");
             return f;
         }
         if (i > 0 && lo != bins[i - 1].hi + 1) {
@@ -176,7 +168,7 @@ bool single_cell(FittedDistribution* f, const std::string& what) {
     for (std::size_t i = 0; i < f->observed.size(); ++i)
         if (f->observed[i] > 0) { occupied = static_cast<int>(i); ++count; n += f->observed[i]; }
     if (count != 1) return false;
-    f->status = Status::failure("All " + number(n) + " observations are in one bin (" +
+    f->status = Status::failure("All " + fit_number(n) + " observations are in one bin (" +
                                 cell_label(f->lo[occupied], f->hi[occupied]) +
                                 "); counts in a single bin cannot identify the " + f->model + " " + what + ".");
     return true;
@@ -228,7 +220,7 @@ FittedDistribution fit_poisson(const std::vector<IntegerBin>& bins, const std::v
     if (mean && !positive_finite(*mean)) {
         FittedDistribution f;
         f.model = "Poisson";
-        f.status = Status::failure("The Poisson mean must be a positive number; it was given as " + number(*mean) + ".");
+        f.status = Status::failure("The Poisson mean must be a positive number; it was given as " + fit_number(*mean) + ".");
         return f;
     }
     FittedDistribution f = prepare_cells("Poisson", bins, observed, 0, kInf, options.tail_cells);
@@ -259,11 +251,11 @@ FittedDistribution fit_binomial(const std::vector<IntegerBin>& bins, const std::
     f.model = "binomial";
     if (!(whole(trials) && trials >= 1 && trials <= 1e9)) {
         f.status = Status::failure("The number of binomial trials must be a whole number from 1 to 1e9; it was given as " +
-                                   number(trials) + ".");
+                                   fit_number(trials) + ".");
         return f;
     }
     if (p && !open_unit(*p)) {
-        f.status = Status::failure("The binomial p must lie strictly between 0 and 1; it was given as " + number(*p) + ".");
+        f.status = Status::failure("The binomial p must lie strictly between 0 and 1; it was given as " + fit_number(*p) + ".");
         return f;
     }
     f = prepare_cells("binomial", bins, observed, 0, trials, options.tail_cells);
@@ -296,7 +288,7 @@ FittedDistribution fit_geometric(const std::vector<IntegerBin>& bins, const std:
     if (p && !open_unit(*p)) {
         FittedDistribution f;
         f.model = "geometric";
-        f.status = Status::failure("The geometric p must lie strictly between 0 and 1; it was given as " + number(*p) + ".");
+        f.status = Status::failure("The geometric p must lie strictly between 0 and 1; it was given as " + fit_number(*p) + ".");
         return f;
     }
     FittedDistribution f = prepare_cells("geometric", bins, observed, 0, kInf, options.tail_cells);
@@ -333,17 +325,17 @@ FittedDistribution fit_negative_binomial(const std::vector<IntegerBin>& bins, co
     }
     if (given.size && !positive_finite(*given.size)) {
         f.status = Status::failure("The negative binomial size must be a positive number; it was given as " +
-                                   number(*given.size) + ".");
+                                   fit_number(*given.size) + ".");
         return f;
     }
     if (given.p && !open_unit(*given.p)) {
         f.status = Status::failure("The negative binomial p must lie strictly between 0 and 1; it was given as " +
-                                   number(*given.p) + ".");
+                                   fit_number(*given.p) + ".");
         return f;
     }
     if (given.mean && !positive_finite(*given.mean)) {
         f.status = Status::failure("The negative binomial mean must be a positive number; it was given as " +
-                                   number(*given.mean) + ".");
+                                   fit_number(*given.mean) + ".");
         return f;
     }
     f = prepare_cells("negative binomial", bins, observed, 0, kInf, options.tail_cells);

@@ -118,4 +118,11 @@ Status no_convergence(const FittedDistribution& f) {
                            " parameters did not converge on these counts; give the parameter values instead.");
 }
 
+std::string fit_number(double x) {
+    if (std::isinf(x)) return x > 0 ? "infinity" : "-infinity";
+    char buf[40];
+    std::snprintf(buf, sizeof buf, "%.10g", x);
+    return buf;
+}
+
 }  // namespace tallyproof

@@ -46,6 +46,10 @@ struct FittedDistribution {
 // Shared by the fit_* functions: refuses counts that are negative, not finite, of the wrong
 // number, or all zero.
 Status check_observed_counts(const std::vector<double>& observed, std::size_t bins);
+// Shared by the fit_* functions: a parameter or bin edge as written in messages ("0.61",
+// "infinity"), to 10 significant digits.
+std::string fit_number(double x);
+
 // Shared by the fit_* functions: the refusals when the likelihood is maximised at the edge of a
 // parameter's range, or the search does not converge.
 Status boundary_refusal(const FittedDistribution& f, const std::string& parameter, bool upper,
