@@ -2,6 +2,8 @@
 // enumeration (tests/reference/exact_multinomial.csv), closed forms, slicing and refusals.
 #include <doctest/doctest.h>
 
+#include "reference_csv.hpp"
+
 #include <cmath>
 #include <fstream>
 #include <functional>
@@ -12,6 +14,7 @@
 #include "exact_multinomial.hpp"
 
 using namespace tallyproof;
+using tallyproof_test::split_numbers;
 
 namespace {
 
@@ -71,14 +74,6 @@ ExactMultinomialResult exact(const MultinomialTestSpec& spec) {
     const Status s = exact_multinomial_p_value(spec, ExactMultinomialOptions{}, &r);
     REQUIRE_MESSAGE(s.ok, s.message);
     return r;
-}
-
-std::vector<double> split_numbers(const std::string& field) {
-    std::vector<double> v;
-    std::stringstream ss(field);
-    std::string item;
-    while (std::getline(ss, item, ';')) v.push_back(std::stod(item));
-    return v;
 }
 
 }  // namespace

@@ -1,6 +1,8 @@
 // Power-divergence statistics against SciPy 1.10, mpmath, closed forms and bad inputs.
 #include <doctest/doctest.h>
 
+#include "reference_csv.hpp"
+
 #include <cmath>
 #include <fstream>
 #include <sstream>
@@ -10,6 +12,7 @@
 #include "power_divergence.hpp"
 
 using namespace tallyproof;
+using tallyproof_test::split_numbers;
 
 namespace {
 
@@ -21,14 +24,6 @@ PowerDivergence run(const std::vector<double>& o, const std::vector<double>& e, 
     const Status s = power_divergence(o, e, opt, &r);
     REQUIRE_MESSAGE(s.ok, s.message);
     return r;
-}
-
-std::vector<double> split_numbers(const std::string& field) {
-    std::vector<double> v;
-    std::stringstream ss(field);
-    std::string item;
-    while (std::getline(ss, item, ';')) v.push_back(std::stod(item));
-    return v;
 }
 
 }  // namespace
