@@ -2,6 +2,8 @@
 // tests/reference/generate_multiplicity.py), plus hand-worked cases and bad arguments.
 #include <doctest/doctest.h>
 
+#include "reference_csv.hpp"
+
 #include <cmath>
 #include <cstdlib>
 #include <fstream>
@@ -22,16 +24,9 @@ struct AdjustRow {
 };
 
 std::vector<AdjustRow> read_multiplicity_csv() {
-    std::ifstream in(std::string(TALLYPROOF_REFERENCE_DIR) + "/multiplicity.csv");
     std::vector<AdjustRow> rows;
-    std::string line;
-    bool header = true;
-    while (std::getline(in, line)) {
-        if (line.empty() || line[0] == '#') continue;
-        if (header) { header = false; continue; }
-        std::stringstream ss(line);
-        std::string f[5];
-        for (auto& x : f) std::getline(ss, x, ',');
+    for (const auto& f : tallyproof_test::reference_rows("multiplicity.csv")) {
+        if (f.size() < 5) continue;
         rows.push_back({f[0], f[1], std::stoul(f[2]), std::strtod(f[3].c_str(), nullptr), std::strtod(f[4].c_str(), nullptr)});
     }
     return rows;

@@ -4,6 +4,8 @@
 // library. Closed forms and bad arguments below.
 #include <doctest/doctest.h>
 
+#include "reference_csv.hpp"
+
 #include <cmath>
 #include <cstdint>
 #include <cstdlib>
@@ -24,17 +26,8 @@ struct IntervalRow {
 };
 
 std::vector<IntervalRow> read_interval_csv() {
-    std::ifstream in(std::string(TALLYPROOF_REFERENCE_DIR) + "/simultaneous_intervals.csv");
     std::vector<IntervalRow> rows;
-    std::string line;
-    bool header = true;
-    while (std::getline(in, line)) {
-        if (line.empty() || line[0] == '#') continue;
-        if (header) { header = false; continue; }
-        std::stringstream ss(line);
-        std::vector<std::string> f;
-        std::string x;
-        while (std::getline(ss, x, ',')) f.push_back(x);
+    for (auto f : tallyproof_test::reference_rows("simultaneous_intervals.csv")) {
         if (f.size() == 12) f.push_back("");  // trailing empty exact_nu_c
         auto num = [&](std::size_t i) { return f[i].empty() ? NAN : std::strtod(f[i].c_str(), nullptr); };
         rows.push_back({f[0], num(1), num(3), num(4), num(5), num(6), num(7), num(8), num(9), num(10), num(11), num(12)});
