@@ -36,8 +36,9 @@ void write_tail(JsonWriter& j, const char* key, const TailProbability& t) { j.ke
 
 std::string verdict_sentence(const Result& r) {
     const std::string at = "at α = " + format_plain(r.alpha);
-    if (r.reject) return "The counts are not consistent with the stated mix " + at + ".";
-    return "No evidence against the stated mix " + at + ".";
+    const char* mix = r.estimates.empty() ? "the stated mix" : "the fitted model";
+    if (r.reject) return std::string("The counts are not consistent with ") + mix + " " + at + ".";
+    return std::string("No evidence against ") + mix + " " + at + ".";
 }
 
 std::string method_phrase(const Result& r) {

@@ -85,10 +85,11 @@ void draw_validity_panel(AppState& s, const Theme& t) {
     const Result& r = s.result;
     if (!r.status.ok) return;
     const bool ok = r.validity.all_at_least_5;
+    const bool acceptable = ok || r.validity.cochran_holds;  // Cochran's rule: adequate, with a note
     const bool exact_or_mc = r.method != PValueMethod::asymptotic;
-    ImGui::PushStyleColor(ImGuiCol_ChildBg, ImGui::ColorConvertU32ToFloat4(ok || exact_or_mc ? t.ok_bg : t.warn_bg));
-    const ImU32 ink = ok || exact_or_mc ? t.ok_ink : t.warn_ink;
-    std::string head = (ok ? "✓ " : "⚠ ") + r.validity.summary;
+    ImGui::PushStyleColor(ImGuiCol_ChildBg, ImGui::ColorConvertU32ToFloat4(acceptable || exact_or_mc ? t.ok_bg : t.warn_bg));
+    const ImU32 ink = acceptable || exact_or_mc ? t.ok_ink : t.warn_ink;
+    std::string head = (acceptable ? "✓ " : "⚠ ") + r.validity.summary;
     if (!ok && exact_or_mc) head = "✓ " + std::string(r.method == PValueMethod::exact ? "Exact" : "Monte Carlo") +
                                    " p-value: it does not rely on the large-sample approximation. " + r.validity.summary;
     const bool buttons = !ok || r.merged;
