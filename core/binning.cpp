@@ -1,38 +1,46 @@
 // Counts raw numbers into bins. Equal widths take two passes over the text (minimum and
-// maximum first), keeping memory independent of the number of values; a value on an inner
-// edge goes to the bin above, the maximum into the last bin. Exact counts.
+// maximum first), and so do equal probabilities (the moments that fit the model first,
+// equal_probability_bins), keeping memory independent of the number of values; a value on an
+// inner edge goes to the bin above, the maximum into the last bin. Exact counts.
 #include "binning.hpp"
 
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
 
+#include "equal_probability_bins.hpp"
 #include "table_shape.hpp"
 
 namespace tallyproof {
 namespace {
 
-std::string plain(double x) {
+std::string plain(double x, int digits = 6) {
     if (std::isinf(x)) return x < 0 ? "-inf" : "inf";
     char buf[64];
-    std::snprintf(buf, sizeof buf, "%.6g", x);
+    std::snprintf(buf, sizeof buf, "%.*g", digits, x);
     return buf;
+}
+
+// The fewest significant digits (6 or more) that write neighbouring edges differently, so that
+// every bin label is distinct (edges placed at quantiles can lie close together).
+int label_digits(const std::vector<double>& edges) {
+    for (int d = 6; d < 17; ++d) {
+        bool distinct = true;
+        for (std::size_t i = 0; i + 1 < edges.size() && distinct; ++i) distinct = plain(edges[i], d) != plain(edges[i + 1], d);
+        if (distinct) return d;
+    }
+    return 17;
 }
 
 constexpr int kMaxBins = 10000;
 
 }  // namespace
 
-std::string bin_label(double lo, double hi, bool closed_right) {
-    return "[" + plain(lo) + ", " + plain(hi) + (closed_right ? "]" : ")");
+std::string bin_label(double lo, double hi, bool closed_right, int digits) {
+    return "[" + plain(lo, digits) + ", " + plain(hi, digits) + (closed_right ? "]" : ")");
 }
 
 void count_into_bins(const RawSource& src, const BinChoice& bins, ParsedInput* out) {
-    if (bins.kind == BinChoice::Kind::equal_probability) {
-        out->status = Status::failure("Equal-probability bins need a fitted model, which is not available yet; "
-                                      "expected bin edges (such as 0,10,20,inf) or equal widths (equal:K).");
-        return;
-    }
     std::vector<double> edges = bins.edges;
     auto read_value = [&](std::string_view cell, int line, int column, double* v) {
         const NumberReading n = read_number(cell, out->decimal);
@@ -71,6 +79,50 @@ void count_into_bins(const RawSource& src, const BinChoice& bins, ParsedInput* o
         out->notes.push_back(std::to_string(bins.bins) + " bins of equal width " + plain((hi - lo) / bins.bins) +
                              " from the smallest value " + plain(lo) + " to the largest " + plain(hi) + ".");
     }
+    if (bins.kind == BinChoice::Kind::equal_probability) {
+        const ModelKind kind = bins.model.value_or(ModelKind::normal);
+        if (!places_equal_probability_bins(kind) || bins.bins < 2 || bins.bins > kMaxEqualProbabilityBins) {
+            out->status = equal_probability_bins(kind, RawMoments{}, bins.parameters, bins.bins).status;
+            return;
+        }
+        RawMoments moments;
+        const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
+            double v = 0;
+            if (!read_value(cell, line, column, &v)) return out->problems.size() < kMaxProblems;
+            if (kind == ModelKind::lognormal && !(v > 0)) {
+                add_problem(out, line, column, cell_location(line, column) + quote_cell(cell) +
+                                                   " is not above 0; the lognormal model needs positive values.");
+                return out->problems.size() < kMaxProblems;
+            }
+            if (kind == ModelKind::exponential && v < 0) {
+                add_problem(out, line, column, cell_location(line, column) + quote_cell(cell) +
+                                                   " is negative; the exponential model needs values of 0 or more.");
+                return out->problems.size() < kMaxProblems;
+            }
+            moments.add(kind == ModelKind::lognormal ? std::log(v) : v);
+            return true;
+        });
+        if (!read.ok) add_problem(out, read.line, read.column, read.message);
+        if (!out->status.ok) return;
+        EqualProbabilityBins placed = equal_probability_bins(kind, moments, bins.parameters, bins.bins);
+        if (!placed.status.ok) {
+            out->status = placed.status;
+            return;
+        }
+        edges = std::move(placed.edges);
+        if (!bins.model)
+            out->notes.push_back("No continuous model was chosen, so the equal-probability bins are placed under the "
+                                 "normal model (lognormal and exponential can be chosen instead).");
+        out->notes.push_back(placed.note);
+        bool estimated = false;
+        for (const auto& p : placed.parameters) estimated = estimated || p.estimated;
+        if (estimated)
+            out->notes.push_back("The test fits the estimated parameters again by maximum likelihood on the bin counts, "
+                                 "so each expected count is near, not exactly, N/" + std::to_string(bins.bins) +
+                                 ", and df = k − 1 − m (Moore and Spruill 1975).");
+        out->bin_model = kind;
+        out->bin_parameters = bins.parameters;
+    }
     if (edges.size() < 2 || edges.size() > static_cast<std::size_t>(kMaxBins) + 1) {
         out->status = Status::failure("Bins: expected from 2 to " + std::to_string(kMaxBins + 1) + " edges, got " +
                                       std::to_string(edges.size()) + ".");
@@ -108,8 +160,9 @@ void count_into_bins(const RawSource& src, const BinChoice& bins, ParsedInput* o
     if (!out->status.ok) return;
     out->edges = edges;
     out->ordered = true;
+    const int digits = label_digits(edges);
     for (std::size_t i = 0; i < counts.size(); ++i) {
-        out->categories.push_back(bin_label(edges[i], edges[i + 1], i + 1 == counts.size() && std::isfinite(edges[i + 1])));
+        out->categories.push_back(bin_label(edges[i], edges[i + 1], i + 1 == counts.size() && std::isfinite(edges[i + 1]), digits));
         out->observed.push_back(counts[i]);
     }
     out->notes.push_back("Counted " + std::to_string(values) + " raw numbers into " + std::to_string(counts.size()) +

@@ -6,8 +6,10 @@
 #include <optional>
 #include <string>
 #include <string_view>
+#include <utility>
 #include <vector>
 
+#include "analysis.hpp"  // ModelKind
 #include "delimited_text.hpp"
 #include "digit_laws.hpp"
 #include "number_reading.hpp"
@@ -35,6 +37,11 @@ struct BinChoice {
     enum class Kind { none, edges, equal_width, equal_probability } kind = Kind::none;
     std::vector<double> edges;  // Kind::edges: strictly increasing, may start at -inf / end at +inf
     int bins = 0;               // equal_width / equal_probability: the number of bins K
+    // equal_probability: the model whose quantiles i/K are the edges (normal when not set; only
+    // normal, lognormal and exponential can), and its given parameters (as Model::parameters;
+    // the others are estimated from the raw values).
+    std::optional<ModelKind> model;
+    std::vector<std::pair<std::string, double>> parameters;
 };
 
 struct ParseOptions {
@@ -67,6 +74,8 @@ struct ParsedInput {
     bool ordered = false;                   // whole-number and digit categories, bins
     std::optional<DigitTest> digit_test;    // raw_digits: the digit tallied
     std::vector<double> edges;              // raw_bins: the k + 1 bin edges
+    std::optional<ModelKind> bin_model;     // equal-probability bins: the model that placed them
+    std::vector<std::pair<std::string, double>> bin_parameters;  // ... and its given parameters
     std::vector<std::string> notes;         // plain sentences: what was detected, dropped, left out
     std::vector<std::string> alternatives;  // other readings of ambiguous input
     std::vector<CellProblem> problems;      // offending cells (at most kMaxProblems)

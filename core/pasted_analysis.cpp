@@ -22,6 +22,13 @@ bool apply_pasted_input(const ParsedInput& parsed, Analysis* a) {
         a->model.kind = model_kind_of(*parsed.digit_test);
         return true;
     }
+    if (parsed.bin_model) {  // equal-probability bins: the model that placed them, with explicit edges
+        a->model = Model{};
+        a->model.kind = *parsed.bin_model;
+        a->model.parameters = parsed.bin_parameters;
+        a->model.edges = parsed.edges;
+        return true;
+    }
     if (!parsed.edges.empty()) a->model.edges = parsed.edges;
     return false;
 }

@@ -7,8 +7,9 @@
 namespace tallyproof {
 
 // Puts the paste's categories, counts and order into `a`. An expected column sets a shares,
-// ratio or counts model; a digit tally sets its digit law; bin edges go to the model. The rest
-// of `a` (test settings) is kept. Returns true when the paste set the model.
+// ratio or counts model; a digit tally sets its digit law; bin edges go to the model, and
+// equal-probability bins also set the model that placed them (kind, given parameters, edges).
+// The rest of `a` (test settings) is kept. Returns true when the paste set the model.
 bool apply_pasted_input(const ParsedInput& parsed, Analysis* a);
 
 }  // namespace tallyproof

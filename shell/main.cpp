@@ -31,7 +31,9 @@ const char* kUsage =
     "  --digits D             tally a digit of raw numbers: first, second, first-two, last\n"
     "                         (the model defaults to the matching digit law)\n"
     "  --bins B               count raw numbers into bins: edges such as 0,10,20,inf, or\n"
-    "                         equal:K (K equal-width bins), equal-probability:K (not yet)\n"
+    "                         equal:K (K equal-width bins), or equal-probability:K (K bins of\n"
+    "                         probability 1/K under the --model normal (default), lognormal or\n"
+    "                         exponential fitted to the values; --param values are used if given)\n"
     "  --raw                  the cells are raw observations, one per cell or line\n"
     "  --case-fold            raw text: upper and lower case are one category\n"
     "  --sorted               raw text: categories in sorted order (default: first seen)\n"
@@ -154,9 +156,12 @@ int main(int argc, char** argv) {
                 const auto colon = val.find(':');
                 const std::string kind = colon == std::string::npos ? "" : val.substr(0, colon);
                 if (kind == "equal" || kind == "equal-probability") {
+                    const bool width = kind == "equal";
+                    const double most = width ? 10000 : 1000, least = width ? 1 : 2;
                     double k = 0;
-                    if (!to_number(val.substr(colon + 1), &k) || !(k >= 1 && k <= 10000) || k != std::floor(k))
-                        return usage_error("--bins " + kind + ":K needs a whole number of bins K from 1 to 10000");
+                    if (!to_number(val.substr(colon + 1), &k) || !(k >= least && k <= most) || k != std::floor(k))
+                        return usage_error("--bins " + kind + ":K needs a whole number of bins K from " +
+                                           std::to_string(static_cast<int>(least)) + " to " + std::to_string(static_cast<int>(most)));
                     input.bins.kind = kind == "equal" ? BinChoice::Kind::equal_width : BinChoice::Kind::equal_probability;
                     input.bins.bins = static_cast<int>(k);
                 } else {
@@ -194,6 +199,17 @@ int main(int argc, char** argv) {
     if (first != std::string::npos && text[first] == '{') {
         read = read_analysis_document(text, &analysis);
     } else {
+        if (input.bins.kind == BinChoice::Kind::equal_probability) {
+            // The bins are placed under the model of --model, with the parameters of --param.
+            for (const auto& [opt, val] : opts) {
+                ModelKind kind;
+                double v = 0;
+                const auto eq = val.find('=');
+                if (opt == "--model" && model_kind_from_name(val, &kind)) input.bins.model = kind;
+                else if (opt == "--param" && eq != std::string::npos && to_number(val.substr(eq + 1), &v))
+                    input.bins.parameters.emplace_back(val.substr(0, eq), v);
+            }
+        }
         const ParsedInput parsed = parse_input(text, input);
         read = parsed.status;
         apply_pasted_input(parsed, &analysis);  // options below override what the paste states
@@ -216,7 +232,10 @@ int main(int argc, char** argv) {
         } else if (opt == "--param") {
             const auto eq = val.find('=');
             if (eq == std::string::npos || !to_number(val.substr(eq + 1), &v)) return usage_error("--param needs NAME=VALUE");
-            analysis.model.parameters.emplace_back(val.substr(0, eq), v);
+            auto same = std::find_if(analysis.model.parameters.begin(), analysis.model.parameters.end(),
+                                     [&](const auto& p) { return p.first == val.substr(0, eq); });
+            if (same != analysis.model.parameters.end()) same->second = v;  // already set by the paste
+            else analysis.model.parameters.emplace_back(val.substr(0, eq), v);
         } else if (opt == "--method") {
             if (val == "asymptotic") analysis.pvalue.method = PValueMethod::asymptotic;
             else if (val == "exact") analysis.pvalue.method = PValueMethod::exact;

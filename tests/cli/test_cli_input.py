@@ -129,12 +129,49 @@ if numpy is not None:
     h, _ = numpy.histogram(xs, bins=6)
     check(d.get("observed") == h.tolist(), f"equal-width bins vs numpy.histogram {d.get('observed')} {h.tolist()}")
 
+# 7b. Equal-probability bins: edges at scipy.stats.norm.ppf(i/K, numpy.mean, numpy.std) (ML sd),
+# counts by numpy.histogram, and the p-value against a grouped maximum likelihood fit done here
+# with scipy.optimize (Nelder-Mead) and scipy.stats.chisquare(ddof=2).
+r = run(["--bins", "equal-probability:8"], text)
+check(r.returncode == 0 and "note: No continuous model was chosen, so the equal-probability bins are placed under the normal model" in r.stderr,
+      "equal-probability without a model uses the normal, with a note")
+code, d = doc_of(["--bins", "equal-probability:8", "--model", "normal"], text)
+check(code == 0, f"--bins equal-probability:8 exits 0 ({d.get('error')})")
+check(d.get("df") == 5, f"equal-probability df = k - 1 - m = 5 ({d.get('df')})")
+if numpy is not None and code == 0:
+    from scipy import optimize, stats
+    x = numpy.array(xs)
+    edges = numpy.concatenate(([-numpy.inf], stats.norm.ppf(numpy.arange(1, 8) / 8, x.mean(), x.std()), [numpy.inf]))
+    h, _ = numpy.histogram(x, bins=edges)
+    check(d.get("observed") == h.tolist(), f"equal-probability bins vs numpy.histogram {d.get('observed')} {h.tolist()}")
+
+    def nll(t):
+        pr = numpy.diff(stats.norm.cdf(edges, t[0], math.exp(t[1])))
+        return -float(numpy.sum(h * numpy.log(pr)))
+    fit = optimize.minimize(nll, [x.mean(), math.log(x.std())], method="Nelder-Mead",
+                            options={"xatol": 1e-12, "fatol": 1e-14, "maxiter": 20000})
+    pr = numpy.diff(stats.norm.cdf(edges, fit.x[0], math.exp(fit.x[1])))
+    ref = float(chisquare(h, pr * h.sum(), ddof=2).pvalue)
+    check(close(d["p_value"], ref, 1e-6), f"equal-probability p-value vs scipy grouped ML {d['p_value']} {ref}")
+ln = [round(rng.lognormvariate(2, 0.7), 3) for _ in range(300)]
+code, d = doc_of(["--bins", "equal-probability:6", "--model", "lognormal"], "\n".join(map(str, ln)) + "\n")
+check(code == 0 and d.get("df") == 3, f"lognormal equal-probability exits 0 with df 3 ({d.get('error')})")
+if numpy is not None and code == 0:
+    lx = numpy.log(ln)
+    edges = numpy.concatenate(([0], stats.lognorm.ppf(numpy.arange(1, 6) / 6, lx.std(), scale=math.exp(lx.mean())), [numpy.inf]))
+    h, _ = numpy.histogram(ln, bins=edges)
+    check(d.get("observed") == h.tolist(), f"lognormal equal-probability bins vs numpy.histogram {d.get('observed')} {h.tolist()}")
+
 # 8. Refusals: bad option values are usage errors (2); an unsupported request is refused (1).
 check(run(["--digits", "third"], "1\n").returncode == 2, "--digits third is a usage error")
 check(run(["--shape", "pie"], "1\n").returncode == 2, "--shape pie is a usage error")
 check(run(["--bins", "equal:0"], "1\n").returncode == 2, "--bins equal:0 is a usage error")
-r = run(["--bins", "equal-probability:5"], "1\n2\n3\n")
-check(r.returncode == 1 and "Equal-probability bins need a fitted model" in r.stderr, "equal-probability refused")
+check(run(["--bins", "equal-probability:1"], "1\n").returncode == 2, "--bins equal-probability:1 is a usage error")
+check(run(["--bins", "equal-probability:1001"], "1\n").returncode == 2, "--bins equal-probability:1001 is a usage error")
+r = run(["--bins", "equal-probability:5", "--model", "poisson"], "1\n2\n3\n")
+check(r.returncode == 1 and "the poisson model is not one of these" in r.stderr, "equal-probability under poisson refused")
+r = run(["--bins", "equal-probability:5", "--model", "lognormal"], "1\n2\n-3\n")
+check(r.returncode == 1 and 'Line 3, column 1: "-3" is not above 0' in r.stderr, "lognormal equal-probability refuses -3")
 r = run([], "A\t4\nB\t4\nA\t5\n")
 check(r.returncode == 1 and "Line 3, column 1: the label \"A\" appears twice" in r.stderr, "duplicate label refused")
 

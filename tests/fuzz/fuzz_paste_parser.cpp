@@ -23,7 +23,14 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
             case 5: o.decimal = (b & 8) ? DecimalMark::comma : DecimalMark::point; break;
             case 6: o.shape = static_cast<InputShape>(b % 8); break;
             case 7: o.separator = static_cast<Separator>(b % 4); break;
-            default: break;
+            default:  // 0x08, 0x10, 0x18: equal-probability bins under the normal, lognormal, exponential
+                if (b) {
+                    const ModelKind kinds[] = {ModelKind::normal, ModelKind::lognormal, ModelKind::exponential};
+                    o.bins.kind = BinChoice::Kind::equal_probability;
+                    o.bins.bins = 2 + static_cast<int>(b % 5);
+                    o.bins.model = kinds[(b >> 3) - 1];
+                }
+                break;
         }
         text.remove_prefix(1);
     }

@@ -196,7 +196,7 @@ TEST_CASE("raw numbers for digit tests, in every written form") {
     CHECK(q.observed == D{1, 0, 0, 0, 0, 1, 0, 1, 0, 0});  // last digits as written: 0, 7, 5
 }
 
-TEST_CASE("raw numbers into bins: given edges and equal widths") {
+TEST_CASE("raw numbers into bins: given edges, equal widths and equal probabilities") {
     ParseOptions o;
     o.bins.kind = BinChoice::Kind::edges;
     o.bins.edges = {0, 10, 20, HUGE_VAL};
@@ -214,10 +214,10 @@ TEST_CASE("raw numbers into bins: given edges and equal widths") {
     REQUIRE(p.status.ok);
     CHECK(p.observed == D{2, 2, 1, 1});
     CHECK(p.categories.back() == "[6, 8]");
-    o.bins.kind = BinChoice::Kind::equal_probability;
+    o.bins.kind = BinChoice::Kind::equal_probability;  // more in test_equal_probability_bins.cpp
     p = with("1\n2\n", o);
-    CHECK(p.status.message ==
-          "Equal-probability bins need a fitted model, which is not available yet; expected bin edges (such as 0,10,20,inf) or equal widths (equal:K).");
+    REQUIRE(p.status.ok);
+    CHECK(p.observed == D{1, 0, 0, 1});  // quartiles of Normal(1.5, 0.5): 1.1628, 1.5, 1.8372 (SciPy norm.ppf)
 }
 
 TEST_CASE("number formats in count columns, and ambiguous 1,234 decided from the whole column") {
