@@ -3,6 +3,7 @@
 
 #include <emscripten.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdlib>
 
@@ -144,14 +145,19 @@ bool recompute(AppState& s) {
 
 void step_job(AppState& s, double budget_ms) {
     if (!s.job_running) return;
-    const double until = emscripten_get_now() + budget_ms;
-    std::uint64_t slice = 2000;
-    while (emscripten_get_now() < until) {
+    const double start = emscripten_get_now(), until = start + budget_ms;
+    // Small first slice, then slices sized from the measured rate to fill what is left of the
+    // budget (work units differ a thousandfold in cost between Monte Carlo and exact jobs).
+    std::uint64_t slice = 1000;
+    for (;;) {
+        const double t0 = emscripten_get_now();
         const WorkProgress p = step_pvalue_job(&s.job, slice);
         if (p.done || p.cancelled) break;
-        slice = std::min<std::uint64_t>(slice * 2, 1u << 22);
+        const double now = emscripten_get_now(), left = until - now, took = now - t0;
+        if (left <= 0.5) break;
+        const double rate = static_cast<double>(slice) / std::max(took, 0.05);  // units per ms
+        slice = static_cast<std::uint64_t>(std::clamp(rate * left * 0.9, 100.0, 4194304.0));
     }
-    s.frames_to_draw = 2;
     if (s.job.progress.done || s.job.progress.cancelled) {
         s.job_running = false;
         finish_pvalue_job(s.job, &s.result);

@@ -33,6 +33,7 @@ struct Page {
     tallyproof::web::Theme theme;
     int width = 0, height = 0;
     bool paused = false;
+    double last_job_frame_ms = 0;  // when a frame last showed a running job's progress
     std::vector<SDL_Event> deferred;  // events held back to the next frame (see take_events)
 };
 
@@ -140,11 +141,9 @@ void frame() {
     Page& p = *g_page;
     take_events(p);
     fit_to_stage(p);
-    if (p.state.job_running) {
-        // A slice of work, then a frame: about 20 frames a second keep the page responsive
-        // (progress, Cancel) while most of the time goes to the work.
-        tallyproof::web::step_job(p.state, 40.0);
-    }
+    // Exact and Monte Carlo work runs in the page's own tasks between frames (tp_work), not
+    // inside the animation frame, so it never waits for the display's refresh.
+    if (p.state.job_running) tallyproof::web::start_work_loop();
     if (p.state.theme_changed) {
         tallyproof::web::apply_palette(&p.theme, p.state.dark);
         p.state.theme_changed = false;
@@ -215,6 +214,20 @@ EMSCRIPTEN_KEEPALIVE void tp_open_fragment() {
     const std::string fragment = tallyproof::web::location_fragment();
     if (!fragment.empty()) tallyproof::web::open_share_fragment(g_page->state, fragment);
     want_frames(*g_page, 3);
+}
+// Runs exact or Monte Carlo work for about budget_ms; called by the page glue in tasks of its
+// own, back to back while it returns 1. Progress is drawn about four times a second (each frame
+// in software WebGL costs what the work could use), and at once when the job ends.
+EMSCRIPTEN_KEEPALIVE int tp_work(double budget_ms) {
+    if (!g_page || !g_page->state.job_running) return 0;
+    Page& p = *g_page;
+    tallyproof::web::step_job(p.state, budget_ms);
+    const double now = emscripten_get_now();
+    if (!p.state.job_running || now - p.last_job_frame_ms >= 250) {
+        p.last_job_frame_ms = now;
+        want_frames(p, 2);
+    }
+    return p.state.job_running ? 1 : 0;
 }
 // Cancels running exact or Monte Carlo work (the page's Escape key).
 EMSCRIPTEN_KEEPALIVE void tp_cancel() {

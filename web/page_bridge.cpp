@@ -28,6 +28,10 @@ EM_JS(void, tp_js_progress, (double fraction, int running), {
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.progress(fraction, !!running);
 });
 
+EM_JS(void, tp_js_start_work, (), {
+    if (globalThis.tallyproofPage) globalThis.tallyproofPage.startWork();
+});
+
 EM_JS(void, tp_js_mark, (const char* name, float x, float y, float w, float h), {
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.widgets[UTF8ToString(name)] = { x: x, y: y, w: w, h: h };
 });
@@ -97,6 +101,7 @@ void stage_size(int* width, int* height) {
     *height = tp_js_stage_height();
 }
 void set_progress(double fraction, bool running) { tp_js_progress(fraction, running ? 1 : 0); }
+void start_work_loop() { tp_js_start_work(); }
 void mark_widget(const char* name) {
     const ImVec2 a = ImGui::GetItemRectMin(), b = ImGui::GetItemRectMax();
     tp_js_mark(name, a.x, a.y, b.x - a.x, b.y - a.y);

@@ -13,6 +13,7 @@ bool system_prefers_dark();
 double device_pixel_ratio();
 void stage_size(int* width, int* height);           // CSS pixels
 void set_progress(double fraction, bool running);   // mirrors long work into the page (aria)
+void start_work_loop();                              // starts the page's task loop that calls tp_work
 // Records where the last ImGui item sits (CSS pixels) under `name`, so keyboard-less tests and
 // assistive tools can find controls on the canvas (tallyproofPage.widgets).
 void mark_widget(const char* name);

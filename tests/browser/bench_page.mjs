@@ -66,11 +66,56 @@ const idleFrames = (await page.evaluate(() => globalThis.__frameTimes)).filter((
 // in slices a frame at a time; timed from the paste to the finished result.
 const mcDoc = { categories: Array.from({ length: 10 }, (_, i) => `c${i}`), observed: [95, 105, 98, 102, 110, 90, 101, 99, 104, 96],
   pvalue: { method: 'monte-carlo', replicates: 1000000, seed: 11 } };
+await page.evaluate(() => {  // time spent inside the work tasks, apart from frames and waiting
+  Module._tp_work(0);  // resolves Emscripten's lazy export stub, which replaces itself on its first call
+  const work = Module._tp_work;
+  globalThis.__work = { ms: 0, calls: 0 };
+  Module._tp_work = (budget) => { const t = performance.now(); const r = work(budget); globalThis.__work.ms += performance.now() - t; globalThis.__work.calls++; return r; };
+});
 const mc0 = Date.now();
 await page.evaluate((d) => globalThis.tallyproofPage.paste(JSON.stringify(d)), mcDoc);
 await page.waitForFunction(() => { const r = JSON.parse(globalThis.tallyproofPage.lastResult); return r.monte_carlo && r.monte_carlo.p_value; },
   null, { timeout: 60000, polling: 20 });
 const mcSeconds = (Date.now() - mc0) / 1000;
+const mcWork = await page.evaluate(() => globalThis.__work);
+
+// One million raw amounts (~7 MB; invented, log-uniform over 1..100000 with two decimals so
+// first digits follow Benford's law), made in the page by a fixed LCG, pasted through a real
+// paste event. Read as counts first (refused: decimals), then "Read as" first digits: timed
+// inside the page, from the paste call to the result and for the frame that re-reads it.
+const rawTimes = await page.evaluate(async () => {
+  let seed = 20241202;
+  const next = () => { seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0; return seed / 4294967296; };
+  const lines = new Array(1000000);
+  for (let i = 0; i < lines.length; i++) lines[i] = (10 ** (5 * next())).toFixed(2);
+  const text = lines.join('\n') + '\n';
+  globalThis.__rawText = text;
+  const t0 = performance.now();
+  const data = new DataTransfer();
+  data.setData('text/plain', text);
+  document.dispatchEvent(new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true }));
+  const t1 = performance.now();
+  return { bytes: text.length, pasteMs: t1 - t0, refusal: globalThis.tallyproofPage.lastRefusal };
+});
+await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
+await page.evaluate(() => { globalThis.__frameTimes = []; });
+const readAs = async (name) => {
+  await page.waitForFunction((n) => !!globalThis.tallyproofPage.widgets[n], name, { timeout: 5000 });
+  const r = await page.evaluate((n) => globalThis.tallyproofPage.widgets[n], name);
+  await page.mouse.move(r.x + r.w / 2, r.y + r.h / 2);
+  await page.waitForTimeout(60);
+  await page.mouse.down();
+  await page.waitForTimeout(40);
+  await page.mouse.up();
+  await page.waitForTimeout(120);
+};
+await readAs('Read as');
+await page.evaluate(() => { globalThis.__frameTimes = []; });
+await readAs('first digits of raw numbers');
+await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).model?.kind === 'benford-first', null, { timeout: 20000 });
+const rereadFrame = Math.max(...(await page.evaluate(() => globalThis.__frameTimes)));
+const rawResult = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
+const rawN = rawResult.observed.reduce((a, b) => a + b, 0);
 
 console.log(`single file: ${(size / 1e6).toFixed(3)} MB (budget 1.5 MB)`);
 console.log(`open to first interactive frame: median ${loads[2]} ms, best ${loads[0]} ms of 5 (budget 1000 ms)`);
@@ -78,6 +123,11 @@ console.log(`200 categories, whole renderer main thread (the harness's input dis
   `WebGL included): ${(1000 * busy / frames).toFixed(1)} ms per step, ${wall.toFixed(1)} ms wall per step`);
 console.log(`200 categories: app frame function ${median.toFixed(2)} ms median, ${ft.length ? ft[Math.floor(ft.length * 0.9)].toFixed(2) : 0} ms 90th percentile over ${ft.length} drawn frames (budget 4 ms)`);
 console.log(`idle page: ${idleFrames} frames drawn in 2 s with no input; renderer main thread ${(1000 * idle / 2).toFixed(1)} ms CPU per second (includes the harness's own metric polling)`);
-console.log(`Monte Carlo 1e6 replicates, N = 1000, k = 10, in slices of 40 ms per frame: ${mcSeconds.toFixed(2)} s wall from paste to result`);
+console.log(`Monte Carlo 1e6 replicates, N = 1000, k = 10, in tasks of 30 ms between frames: ${mcSeconds.toFixed(2)} s wall from paste to result, ` +
+  `${(mcWork.ms / 1000).toFixed(2)} s of it inside ${mcWork.calls} work tasks`);
+console.log(`1e6 raw amounts (${(rawTimes.bytes / 1e6).toFixed(1)} MB) by a paste event, read as counts (refused: ` +
+  `"${rawTimes.refusal.slice(0, 40)}..."): ${rawTimes.pasteMs.toFixed(0)} ms`);
+console.log(`1e6 raw amounts, "Read as" first digits: parse, tally and Benford test in the frame that re-reads the ` +
+  `paste, ${rereadFrame.toFixed(0)} ms (target 300 ms); ${rawN} digits tallied into ${rawResult.observed.length} categories`);
 console.log(`network requests attempted: ${requests}`);
 await browser.close();
