@@ -115,13 +115,14 @@ bool DelimitedReader::next(Record* r) {
         ++line_;
     };
     if (sep_ == Separator::spaces) {
+        const char* const d = text_.data();
         std::size_t i = pos_;
         while (i < n) {
-            const char c = text_[i];
+            const char c = d[i];
             if (static_cast<unsigned char>(c) > ' ') {
                 const std::size_t b = i;
-                while (i < n && static_cast<unsigned char>(text_[i]) > ' ') ++i;
-                const std::string_view word = trim_cell(text_.substr(b, i - b));  // no-break spaces at the ends
+                while (++i < n && static_cast<unsigned char>(d[i]) > ' ') {}
+                const std::string_view word = trim_cell(std::string_view(d + b, i - b));  // no-break spaces at the ends
                 if (!word.empty()) {
                     r->cells.push_back(word);
                     r->quoted.push_back(false);

@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "digit_laws.hpp"
+#include "number_reading.hpp"
 #include "status.hpp"
 
 namespace tallyproof {
@@ -28,6 +29,27 @@ struct NumberToken {
 };
 // `with_magnitude`: also convert to a double (slower; only the magnitude floor needs it).
 NumberToken read_number_token(std::string_view token, bool with_magnitude = true);
+
+// What a digit test needs from one number, gathered without allocating.
+struct WrittenDigits {
+    bool is_number = false;
+    bool is_zero = false;      // every mantissa digit is 0
+    bool has_exponent = false;
+    int significant = 0;       // significant digits written (from the first non-zero one)
+    char first = 0, second = 0;  // the first two significant digits ('0' when absent, or 0)
+    char last = 0;             // the last mantissa digit written
+    double magnitude = 0;      // |value|, set by the caller when a floor needs it
+};
+// The mantissa digits of text already known to be a number (this file's token grammar, or a
+// cell that number_reading's read_number accepts): the ASCII digits before any 'e' or 'E'
+// (signs, currency and percent signs, separators and decimal marks hold none). Magnitude 0.
+WrittenDigits written_digits(std::string_view number);
+
+// One spreadsheet cell read as number_reading's read_number reads it (any locale form it
+// accepts, with decimal mark `mark`), then its written digits: not a number exactly when
+// read_number refuses the cell. The plain form ("-1234.50": minus, digits, one decimal mark)
+// is read in one pass without converting to a double unless `with_magnitude`.
+WrittenDigits cell_digits(std::string_view cell, DecimalMark mark, bool with_magnitude);
 
 enum class DigitExclusion {
     not_a_number,       // not readable as a number
@@ -65,5 +87,56 @@ struct DigitTally {
 // Tallies the digit `test` needs over `tokens`; the sign is ignored and leading zeros skipped.
 DigitTally tally_digits(const std::vector<std::string>& tokens, DigitTest test,
                         const DigitExtractionOptions& options = {});
+
+// The same tally streamed one value at a time, so that memory stays that of the tally (the
+// categories), not of the values: add() counts a value or returns why it was left out. The
+// counts, excluded and values of tally() are filled as values arrive; notes and status are
+// left to the caller, who knows where values come from.
+class DigitCounter {
+public:
+    explicit DigitCounter(DigitTest test, const DigitExtractionOptions& options = {});
+    bool needs_magnitude() const { return floor_ > 0; }  // add() compares magnitudes with a floor
+    // Counts one value; returns the reason it was left out, or -1 when it was counted.
+    int add(const WrittenDigits& w) {
+        ++t_.values;
+        int why = -1;
+        if (!w.is_number) why = static_cast<int>(DigitExclusion::not_a_number);
+        else if (w.is_zero) why = static_cast<int>(DigitExclusion::zero);
+        else if (w.magnitude < floor_) why = static_cast<int>(DigitExclusion::below_minimum);
+        else if (w.significant < need_) why = static_cast<int>(DigitExclusion::too_few_digits);
+        else if (last_ && w.has_exponent) why = static_cast<int>(DigitExclusion::exponent_notation);
+        else {
+            int slot = 0;
+            switch (t_.test) {
+                case DigitTest::first: slot = w.first - '1'; break;
+                case DigitTest::second: slot = w.second - '0'; break;
+                case DigitTest::first_two: slot = 10 * (w.first - '0') + (w.second - '0') - 10; break;
+                case DigitTest::last: slot = w.last - '0'; break;
+                case DigitTest::last_even: {
+                    const int d = w.last - '0';
+                    if (d % 2 != 0) { why = static_cast<int>(DigitExclusion::odd_last_digit); break; }
+                    slot = d / 2;  // 0, 2, 4, 6, 8 in slots 0..4
+                    break;
+                }
+            }
+            if (why < 0) {
+                t_.counts[static_cast<std::size_t>(slot)] += 1;
+                ++t_.used;
+                return -1;
+            }
+        }
+        if (t_.excluded[static_cast<std::size_t>(why)]++ == 0) t_.first_excluded[static_cast<std::size_t>(why)] = t_.values;
+        return why;
+    }
+    // add(cell_digits(cell, mark, needs_magnitude())), in one call.
+    int add_cell(std::string_view cell, DecimalMark mark);
+    const DigitTally& tally() const { return t_; }
+    DigitTally& tally() { return t_; }
+private:
+    DigitTally t_;
+    double floor_ = 0;
+    int need_ = 1;
+    bool last_ = false;
+};
 
 }  // namespace tallyproof

@@ -99,7 +99,7 @@ const char* decimal_mark_name(DecimalMark mark) {
     return mark == DecimalMark::point ? "decimal point" : "decimal comma";
 }
 
-std::string_view trim_cell(std::string_view s) {
+std::string_view trim_cell_ends(std::string_view s) {
     s = skip_spaces(s);
     s = drop_trailing_spaces(s);
     while (!s.empty() && (s.back() == '\r' || s.back() == '\n' || s.back() == '\v' || s.back() == '\f')) {

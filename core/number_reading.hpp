@@ -55,6 +55,12 @@ DecimalMark decide_decimal_mark(const MarkVotes& votes, bool want_whole, Decimal
                                 std::string* note, std::string* alternative);
 
 // Trims ASCII white space and the no-break spaces U+00A0 and U+202F at both ends.
-std::string_view trim_cell(std::string_view cell);
+std::string_view trim_cell_ends(std::string_view cell);
+// The same, returning at once when both ends are printable ASCII (the usual cell: inline).
+inline std::string_view trim_cell(std::string_view cell) {
+    auto printable = [](char c) { return static_cast<unsigned char>(c - 0x21) < 0x5E; };  // '!'..'~'
+    if (!cell.empty() && printable(cell.front()) && printable(cell.back())) return cell;
+    return trim_cell_ends(cell);
+}
 
 }  // namespace tallyproof

@@ -1,6 +1,6 @@
-// Tallies raw observations as the text streams past. Digit tallies reuse tally_digits
-// (Nigrini 2012 conventions, digit_extraction.hpp) on each number rewritten in the plain
-// "-1234.50" form, so that digits stay as written in every locale. Exact counting.
+// Tallies raw observations as the text streams past. Digit tallies use digit_extraction's
+// DigitCounter (Nigrini 2012 conventions) on the digits each number is written with, once
+// read_number has accepted it, so that digits stay as written in every locale. Exact counting.
 #include "raw_observations.hpp"
 
 #include <algorithm>
@@ -29,6 +29,7 @@ std::string fold_ascii(std::string_view s) {
 }
 
 constexpr double kMaxWholeRange = 1000;  // whole-number categories min..max at most this many
+constexpr int kExclusionReasons = static_cast<int>(DigitExclusion::odd_last_digit) + 1;
 
 }  // namespace
 
@@ -118,39 +119,15 @@ void tally_raw_whole_numbers(const RawSource& src, const ParseOptions&, ParsedIn
 }
 
 void tally_raw_digits(const RawSource& src, DigitTest test, ParsedInput* out) {
-    constexpr std::size_t kBatch = 4096;
-    std::vector<std::string> batch(kBatch);
-    std::vector<std::pair<int, int>> where(kBatch);
-    std::size_t used_in_batch = 0;
-    DigitTally total;
-    total.digits = digit_values(test);
-    total.counts.assign(total.digits.size(), 0.0);
-    std::vector<std::pair<int, int>> first_where;
-    auto flush = [&] {
-        if (used_in_batch == 0) return;
-        if (used_in_batch < kBatch) batch.resize(used_in_batch);
-        const DigitTally t = tally_digits(batch, test);
-        if (total.excluded.empty()) {
-            total.excluded.assign(t.excluded.size(), 0);
-            first_where.assign(t.excluded.size(), {0, 0});
-        }
-        for (std::size_t i = 0; i < t.counts.size(); ++i) total.counts[i] += t.counts[i];
-        for (std::size_t w = 0; w < t.excluded.size(); ++w) {
-            if (t.excluded[w] > 0 && total.excluded[w] == 0) first_where[w] = where[t.first_excluded[w] - 1];
-            total.excluded[w] += t.excluded[w];
-        }
-        total.values += t.values;
-        total.used += t.used;
-        used_in_batch = 0;
-    };
+    DigitCounter counter(test);
+    std::pair<int, int> first_where[kExclusionReasons] = {};  // line and column of the first value left out, per reason
+    const DecimalMark mark = out->decimal;
     const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
-        std::string& slot = batch[used_in_batch];
-        if (!read_number(cell, out->decimal, &slot).ok) slot.assign("x");  // counted as not a number
-        where[used_in_batch++] = {line, column};
-        if (used_in_batch == kBatch) flush();
+        const int why = counter.add_cell(cell, mark);
+        if (why >= 0 && counter.tally().excluded[static_cast<std::size_t>(why)] == 1) first_where[why] = {line, column};
         return true;
     });
-    flush();
+    const DigitTally& total = counter.tally();
     if (!read.ok) { add_problem(out, read.line, read.column, read.message); return; }
     out->digit_test = test;
     out->ordered = true;

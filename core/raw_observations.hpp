@@ -59,7 +59,7 @@ void tally_raw_text(const RawSource& src, const ParseOptions& options, ParsedInp
 // Whole numbers as ordered categories min..max; out->decimal gives the decimal mark.
 void tally_raw_whole_numbers(const RawSource& src, const ParseOptions& options, ParsedInput* out);
 
-// The digit `test` of each number through tally_digits, fed in fixed-size batches.
+// The digit `test` of each number (digit_extraction's DigitCounter), one value at a time.
 void tally_raw_digits(const RawSource& src, DigitTest test, ParsedInput* out);
 
 }  // namespace tallyproof

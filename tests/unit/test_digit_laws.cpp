@@ -2,7 +2,9 @@
 // against mpmath, published Benford tables, closed forms and the documented extraction rules.
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <cmath>
+#include <cstdint>
 #include <fstream>
 #include <map>
 #include <sstream>
@@ -213,6 +215,62 @@ TEST_CASE("last digit: the last written digit, decimals included") {
     CHECK(e.counts == std::vector<double>{1, 1, 1, 1, 1});
     CHECK(e.excluded_for(DigitExclusion::odd_last_digit) == 1);
     CHECK(contains(e.notes.back(), "contradicts"));
+}
+
+TEST_CASE("cell digits agree with reading the canonical form, in every written form") {
+    // The reference is the two-step reading the one-pass cell_digits replaces: read_number's
+    // canonical "-1234.50e3" form (number_reading.hpp), then read_number_token on it.
+    std::vector<std::string> cells = {
+        "1234.50", "0.0347", "-0.000", "0", "7", "5.", ".5", "-.5", "12,5", "1,234.5", "1.234,5", "1 234,75",
+        "$1,234.50", "\xE2\x82\xAC 250", "(312.00)", "\xE2\x88\x92" "45", "9e3", "1.2E+05", "1e400", "1e-400", "n/a", "",
+        " 12.50 ", "-", ".", "-.", "1.2.3", "12%", "+3", "1\xC2\xA0" "234", "7'500.25", "\xC2\xA3" "6.10", "00012.30",
+        "0.000", "10", "99.1", "3", "45,000", "123456789012345678901234", "0.00000000000000000000000012345",
+        std::string(200, '9'), std::string(201, '9'), "-" + std::string(199, '1'), "1,23", "12a", "--3"};
+    std::uint64_t state = 42;  // plain amounts of 1 to 9 digits, some with decimals (Knuth's MMIX LCG)
+    for (int i = 0; i < 2000; ++i) {
+        state = state * 6364136223846793005ULL + 1442695040888963407ULL;
+        std::string c = std::to_string((state >> 20) % 1000000000ULL >> ((state >> 8) % 28));
+        if (state & 1) c.insert(c.size() - std::min<std::size_t>(c.size(), (state >> 4) % 4), ".");
+        if (state & 2) c.insert(0, "-");
+        cells.push_back(c);
+    }
+    for (const auto& cell : cells)
+        for (DecimalMark mark : {DecimalMark::point, DecimalMark::comma}) {
+            CAPTURE(cell);
+            CAPTURE(mark == DecimalMark::point);
+            std::string canonical;
+            const NumberReading n = read_number(cell, mark, &canonical);
+            const NumberToken t = read_number_token(n.ok ? canonical : "x");
+            for (bool with_magnitude : {false, true}) {
+                const WrittenDigits w = cell_digits(cell, mark, with_magnitude);
+                REQUIRE(w.is_number == t.is_number);
+                if (!w.is_number) continue;
+                CHECK(w.is_zero == t.is_zero);
+                CHECK(w.has_exponent == t.has_exponent);
+                CHECK(w.significant == static_cast<int>(t.significant.size()));
+                CHECK(w.first == (t.significant.size() > 0 ? t.significant[0] : 0));
+                CHECK(w.second == (t.significant.size() > 1 ? t.significant[1] : 0));
+                CHECK(w.last == t.last_digit);
+                if (with_magnitude) CHECK(w.magnitude == t.magnitude);
+            }
+        }
+}
+
+TEST_CASE("the streamed digit counter gives tally_digits' counts and first exclusions") {
+    const std::vector<std::string> v = {"0.0347", "-7", "7.0", "123", "12.50", "abc", "0", "", "9e3", "0.5",
+                                        "1,234", "13", "8", "1.2e5", "45,000"};
+    for (DigitTest test : {DigitTest::first, DigitTest::second, DigitTest::first_two, DigitTest::last, DigitTest::last_even}) {
+        CAPTURE(static_cast<int>(test));
+        const DigitTally whole = tally_digits(v, test);
+        DigitCounter counter(test);
+        for (const auto& cell : v) counter.add_cell(cell, DecimalMark::point);
+        const DigitTally& streamed = counter.tally();
+        CHECK(streamed.counts == whole.counts);
+        CHECK(streamed.excluded == whole.excluded);
+        CHECK(streamed.first_excluded == whole.first_excluded);
+        CHECK(streamed.values == whole.values);
+        CHECK(streamed.used == whole.used);
+    }
 }
 
 TEST_CASE("no usable value is a refusal, with the tally still filled") {
