@@ -29,6 +29,10 @@ class DelimitedReader {
 public:
     DelimitedReader(std::string_view text, Separator sep);
     bool next(Record* record);           // false when the text is used up
+    // The common raw column, fast: when the next line is one cell of printable ASCII with no
+    // separator, quote or space in it, consumes the line and gives the cell and its line (what
+    // next() would give); otherwise consumes nothing and returns false (call next()).
+    bool next_single_cell(std::string_view* cell, int* line);
     const Status& status() const { return status_; }
     std::size_t offset() const { return pos_; }  // bytes consumed so far
 private:
@@ -38,6 +42,8 @@ private:
     int line_ = 1;
     Status status_;
     std::deque<std::string> unescaped_;    // cells whose doubled quotes were undone
+    bool single_[256] = {};                // bytes next_single_cell accepts in a cell
+    void end_line();                       // past the line end at pos_ (LF, CRLF or CR)
 };
 
 // The separator the text most likely uses, judged from its first lines (outside quotes):

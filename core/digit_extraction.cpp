@@ -12,7 +12,7 @@
 namespace tallyproof {
 namespace {
 
-constexpr int kReasons = 6;
+constexpr int kReasons = static_cast<int>(DigitExclusion::odd_last_digit) + 1;
 
 bool is_digit(char c) { return c >= '0' && c <= '9'; }
 bool is_space(char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\n' || c == '\v' || c == '\f'; }
@@ -169,17 +169,24 @@ NumberToken read_number_token(std::string_view token, bool with_magnitude) {
     return t;
 }
 
-DigitCounter::DigitCounter(DigitTest test, const DigitExtractionOptions& options) {
-    t_.test = test;
-    t_.digits = digit_values(test);
-    t_.counts.assign(t_.digits.size(), 0.0);
-    t_.excluded.assign(kReasons, 0);
-    t_.first_excluded.assign(kReasons, 0);
+DigitCounter::DigitCounter(DigitTest test, const DigitExtractionOptions& options) : test_(test) {
     floor_ = options.minimum_absolute_value ? *options.minimum_absolute_value
                                             : (test == DigitTest::first_two ? 10.0 : 0.0);
     need_ = std::max(default_minimum_digits(test),
                      options.minimum_significant_digits ? *options.minimum_significant_digits : 0);
     last_ = test == DigitTest::last || test == DigitTest::last_even;
+}
+
+DigitTally DigitCounter::tally() const {
+    DigitTally t;
+    t.test = test_;
+    t.digits = digit_values(test_);
+    for (std::size_t i = 0; i < t.digits.size(); ++i) t.counts.push_back(static_cast<double>(counts_[i]));
+    t.values = values_;
+    for (std::size_t c : counts_) t.used += c;
+    t.excluded.assign(excluded_, excluded_ + kReasons);
+    t.first_excluded.assign(first_excluded_, first_excluded_ + kReasons);
+    return t;
 }
 
 const char* digit_exclusion_name(DigitExclusion reason) {
@@ -205,7 +212,7 @@ DigitTally tally_digits(const std::vector<std::string>& tokens, DigitTest test, 
         }
         counter.add(w);
     }
-    DigitTally r = std::move(counter.tally());
+    DigitTally r = counter.tally();
     for (int w = 0; w < kReasons; ++w) {
         if (r.excluded[w] == 0) continue;
         std::string note = std::to_string(r.excluded[w]) + " value" + (r.excluded[w] == 1 ? "" : "s") +

@@ -89,16 +89,16 @@ DigitTally tally_digits(const std::vector<std::string>& tokens, DigitTest test,
                         const DigitExtractionOptions& options = {});
 
 // The same tally streamed one value at a time, so that memory stays that of the tally (the
-// categories), not of the values: add() counts a value or returns why it was left out. The
-// counts, excluded and values of tally() are filled as values arrive; notes and status are
+// categories), not of the values: add() counts a value or returns why it was left out.
+// tally() gives counts, excluded, first_excluded, values and used so far; notes and status are
 // left to the caller, who knows where values come from.
 class DigitCounter {
 public:
     explicit DigitCounter(DigitTest test, const DigitExtractionOptions& options = {});
     bool needs_magnitude() const { return floor_ > 0; }  // add() compares magnitudes with a floor
-    // Counts one value; returns the reason it was left out, or -1 when it was counted.
+    // Counts one value; returns the reason it was left out (a DigitExclusion), or -1 when counted.
     int add(const WrittenDigits& w) {
-        ++t_.values;
+        ++values_;
         int why = -1;
         if (!w.is_number) why = static_cast<int>(DigitExclusion::not_a_number);
         else if (w.is_zero) why = static_cast<int>(DigitExclusion::zero);
@@ -107,7 +107,7 @@ public:
         else if (last_ && w.has_exponent) why = static_cast<int>(DigitExclusion::exponent_notation);
         else {
             int slot = 0;
-            switch (t_.test) {
+            switch (test_) {
                 case DigitTest::first: slot = w.first - '1'; break;
                 case DigitTest::second: slot = w.second - '0'; break;
                 case DigitTest::first_two: slot = 10 * (w.first - '0') + (w.second - '0') - 10; break;
@@ -120,23 +120,27 @@ public:
                 }
             }
             if (why < 0) {
-                t_.counts[static_cast<std::size_t>(slot)] += 1;
-                ++t_.used;
+                ++counts_[slot];  // whole numbers: no floating-point add in the loop
                 return -1;
             }
         }
-        if (t_.excluded[static_cast<std::size_t>(why)]++ == 0) t_.first_excluded[static_cast<std::size_t>(why)] = t_.values;
+        if (excluded_[why]++ == 0) first_excluded_[why] = values_;
         return why;
     }
     // add(cell_digits(cell, mark, needs_magnitude())), in one call.
     int add_cell(std::string_view cell, DecimalMark mark);
-    const DigitTally& tally() const { return t_; }
-    DigitTally& tally() { return t_; }
+    DigitTally tally() const;
 private:
-    DigitTally t_;
+    static constexpr int kSlots = 90;  // the most categories: first-two digits 10..99
+    static constexpr int kReasons = static_cast<int>(DigitExclusion::odd_last_digit) + 1;
+    DigitTest test_;
     double floor_ = 0;
     int need_ = 1;
     bool last_ = false;
+    std::size_t values_ = 0;
+    std::size_t counts_[kSlots] = {};
+    std::size_t excluded_[kReasons] = {};
+    std::size_t first_excluded_[kReasons] = {};
 };
 
 }  // namespace tallyproof

@@ -124,10 +124,10 @@ void tally_raw_digits(const RawSource& src, DigitTest test, ParsedInput* out) {
     const DecimalMark mark = out->decimal;
     const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
         const int why = counter.add_cell(cell, mark);
-        if (why >= 0 && counter.tally().excluded[static_cast<std::size_t>(why)] == 1) first_where[why] = {line, column};
+        if (why >= 0 && first_where[why].first == 0) first_where[why] = {line, column};  // lines count from 1
         return true;
     });
-    const DigitTally& total = counter.tally();
+    const DigitTally total = counter.tally();
     if (!read.ok) { add_problem(out, read.line, read.column, read.message); return; }
     out->digit_test = test;
     out->ordered = true;

@@ -26,7 +26,14 @@ Status for_each_raw_cell(const RawSource& src, F&& f) {
     DelimitedReader reader(src.text, src.separator);
     Record rec;
     std::string joined;
-    while (reader.next(&rec)) {
+    for (;;) {
+        std::string_view cell;
+        int line = 0;
+        if (reader.next_single_cell(&cell, &line)) {  // one plain cell on its line: the same in every mode
+            if (line != src.header_line && !f(cell, line, 1)) return reader.status();
+            continue;
+        }
+        if (!reader.next(&rec)) break;
         if (rec.blank() || rec.line == src.header_line) continue;
         if (src.whole_lines) {
             joined.clear();

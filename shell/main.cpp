@@ -4,10 +4,6 @@
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
-#include <fstream>
-#include <iostream>
-#include <iterator>
-#include <sstream>
 #include <string>
 #include <vector>
 
@@ -108,6 +104,21 @@ bool to_list(const std::string& s, std::vector<double>* out) {
     return !out->empty();
 }
 
+// Reads the whole of `in` into `text`: straight into one buffer of the file's size when it has
+// one, so a large paste is not copied through streams; in chunks from pipes.
+void read_all(std::FILE* in, std::string* text) {
+    const long at = std::ftell(in);  // -1 for pipes
+    if (at >= 0 && std::fseek(in, 0, SEEK_END) == 0) {  // a directory may claim any size: only plausible ones
+        const long size = std::ftell(in) - at;
+        if (size > 0 && static_cast<unsigned long>(size) <= tallyproof::kMaxInputBytes + 1)
+            text->resize(static_cast<std::size_t>(size));
+        std::fseek(in, at, SEEK_SET);
+        text->resize(std::fread(text->data(), 1, text->size(), in));
+    }
+    char chunk[65536];
+    for (std::size_t got; (got = std::fread(chunk, 1, sizeof chunk, in)) > 0;) text->append(chunk, got);
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -183,13 +194,12 @@ int main(int argc, char** argv) {
 
     std::string text;
     if (path.empty() || path == "-") {
-        text.assign(std::istreambuf_iterator<char>(std::cin), std::istreambuf_iterator<char>());
+        read_all(stdin, &text);
     } else {
-        std::ifstream in(path, std::ios::binary);
-        if (!in) return usage_error("cannot read " + path);
-        std::ostringstream ss;
-        ss << in.rdbuf();
-        text = ss.str();
+        std::FILE* in = std::fopen(path.c_str(), "rb");
+        if (in == nullptr) return usage_error("cannot read " + path);
+        read_all(in, &text);
+        std::fclose(in);
     }
 
     Analysis analysis;

@@ -74,3 +74,36 @@ TEST_CASE("12.0 is a whole number") {
     REQUIRE(p.status.ok);
     CHECK(p.observed[0] == 12);
 }
+
+TEST_CASE("the one-cell fast path of the reader gives what next() gives") {
+    // Reference: DelimitedReader::next alone (RFC 4180 reading, delimited_text.hpp). Mixing
+    // next_single_cell in must give the same cells on the same lines, for every separator.
+    const std::vector<std::string> texts = {
+        "12.50\n7\n\n1234567.25\r\n0.0347\r3\n",           // LF, CRLF, CR, a blank line
+        "a\nlonger-than-eight-bytes\nb c\n\"q\"\n9",        // spaces, a quote, no final line end
+        "x\t1\n2\n3,5\n4;6\n\"a\nb\"\n7\n",                 // separators, a quoted line break
+        "\xC2\xA0" "12\n12\xC2\xA0\n\xE2\x82\xAC" "5\n8\n",  // no-break spaces and UTF-8 around cells
+        " 5\n6 \n\t7\n8\x01\n~!\n",                          // blanks and control bytes at the ends
+        "\"open\n1\n2\n",                                    // a quote never closed
+        std::string(1000, '1') + "\n" + std::string(17, '2'), ""};
+    for (Separator sep : {Separator::tab, Separator::comma, Separator::semicolon, Separator::spaces})
+        for (const auto& text : texts) {
+            CAPTURE(text);
+            CAPTURE(separator_name(sep));
+            std::vector<std::pair<int, std::string>> slow, fast;
+            DelimitedReader a(text, sep), b(text, sep);
+            Record rec;
+            while (a.next(&rec))
+                for (auto c : rec.cells) slow.emplace_back(rec.line, std::string(c));
+            for (;;) {
+                std::string_view cell;
+                int line = 0;
+                if (b.next_single_cell(&cell, &line)) { fast.emplace_back(line, std::string(cell)); continue; }
+                if (!b.next(&rec)) break;
+                for (auto c : rec.cells) fast.emplace_back(rec.line, std::string(c));
+            }
+            CHECK(fast == slow);
+            CHECK(a.status().ok == b.status().ok);
+            CHECK(a.status().message == b.status().message);
+        }
+}
