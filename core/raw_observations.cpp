@@ -29,6 +29,24 @@ std::string fold_ascii(std::string_view s) {
 }
 
 constexpr double kMaxWholeRange = 1000;  // whole-number categories min..max at most this many
+constexpr long long kSmallWhole = 1024;  // whole numbers 0..1023 are counted in an array
+
+// A cell written as plain digits with an optional minus ("12", "-3"; at most 15 digits, so
+// below the 1e15 limit and exact): its value, as read_number would give it, without the
+// general reader. False for every other form, which read_number then reads.
+bool plain_whole(std::string_view cell, long long* value) {
+    std::size_t i = !cell.empty() && cell[0] == '-' ? 1 : 0;
+    const std::size_t digits = cell.size() - i;
+    if (digits == 0 || digits > 15) return false;
+    long long v = 0;
+    for (; i < cell.size(); ++i) {
+        const unsigned d = static_cast<unsigned char>(cell[i]) - static_cast<unsigned>('0');
+        if (d > 9) return false;
+        v = v * 10 + static_cast<long long>(d);
+    }
+    *value = cell[0] == '-' ? -v : v;  // "-0" is 0, as static_cast<long long>(-0.0)
+    return true;
+}
 constexpr int kExclusionReasons = static_cast<int>(DigitExclusion::odd_last_digit) + 1;
 
 }  // namespace
@@ -78,21 +96,29 @@ void tally_raw_text(const RawSource& src, const ParseOptions& options, ParsedInp
 
 void tally_raw_whole_numbers(const RawSource& src, const ParseOptions&, ParsedInput* out) {
     std::unordered_map<long long, double> tally;
+    std::vector<std::size_t> small(kSmallWhole, 0);  // counts of 0..kSmallWhole-1, the usual values, without hashing
     std::size_t values = 0;
     const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
-        const NumberReading n = read_number(cell, out->decimal);
-        if (!n.ok || n.percent || n.value != std::floor(n.value) || std::fabs(n.value) > 1e15) {
-            add_problem(out, line, column,
-                        cell_location(line, column) + quote_cell(cell) +
-                            " is not a whole number; raw observations here must all be whole numbers.");
-            return out->problems.size() < kMaxProblems;
+        long long v = 0;
+        if (!plain_whole(cell, &v)) {
+            const NumberReading n = read_number(cell, out->decimal);
+            if (!n.ok || n.percent || n.value != std::floor(n.value) || std::fabs(n.value) > 1e15) {
+                add_problem(out, line, column,
+                            cell_location(line, column) + quote_cell(cell) +
+                                " is not a whole number; raw observations here must all be whole numbers.");
+                return out->problems.size() < kMaxProblems;
+            }
+            v = static_cast<long long>(n.value);
         }
-        tally[static_cast<long long>(n.value)] += 1;
+        if (v >= 0 && v < kSmallWhole) ++small[static_cast<std::size_t>(v)];
+        else tally[v] += 1;
         ++values;
         return true;
     });
     if (!read.ok) add_problem(out, read.line, read.column, read.message);
     if (!out->status.ok) return;
+    for (long long v = 0; v < kSmallWhole; ++v)
+        if (small[static_cast<std::size_t>(v)] > 0) tally[v] += static_cast<double>(small[static_cast<std::size_t>(v)]);
     if (tally.empty()) return;
     long long lo = tally.begin()->first, hi = lo;
     for (const auto& [v, c] : tally) { lo = std::min(lo, v); hi = std::max(hi, v); }

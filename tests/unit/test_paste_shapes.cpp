@@ -171,6 +171,16 @@ TEST_CASE("raw whole numbers become ordered categories with zero-filled gaps") {
     CHECK(p.observed == D{12, 5, 2, 0, 2, 0, 1});  // counted by hand from `values`
     ParseOptions raw;
     raw.raw = true;
+    // Plain digits and other written forms of the same whole numbers are one category each,
+    // on both sides of 0 and of 1023 (the small values are counted apart from the others).
+    const ParsedInput m = with("1022\n1,023\n1023\n1024\n1022.0\n1025\n0001023\n", raw);
+    REQUIRE(m.status.ok);
+    CHECK(m.categories == S{"1022", "1023", "1024", "1025"});
+    CHECK(m.observed == D{2, 3, 1, 1});  // "1022", "1022.0"; "1,023", "1023", "0001023"; "1024"; "1025"
+    const ParsedInput z = with("-0\n0\n\xE2\x88\x92" "1\n-1\n1\n-2\n", raw);
+    REQUIRE(z.status.ok);
+    CHECK(z.categories == S{"-2", "-1", "0", "1"});
+    CHECK(z.observed == D{1, 2, 2, 1});  // "-2"; "\u22121", "-1"; "-0", "0"; "1"
     const ParsedInput q = with("3\n5\n3\n", raw);  // forced: too few to tell from counts
     CHECK(q.categories == S{"3", "4", "5"});
     CHECK(q.observed == D{2, 0, 1});
