@@ -1,6 +1,6 @@
 // Chi-square tails as regularized incomplete gamma functions, Q(df/2, x/2) upper and
-// P(df/2, x/2) lower, each from core/log_incomplete_gamma (Boost.Math's DiDonato and Morris 1986
-// while normal, log-space series / continued fraction below). Critical values from Boost's
+// P(df/2, x/2) lower, each from core/log_incomplete_gamma (series / continued fraction with a
+// double-double exponent, to a few ulps wherever p is a normal double). Critical values from Boost's
 // quantile, or for alpha given as log10 by safeguarded Newton steps on ln Q (Press et al. 2007, 9.4).
 #include "chi_square_tail.hpp"
 
