@@ -11,7 +11,7 @@ jobs=${JOBS:-1}
 quick=${1:-}
 mkdir -p "$out"
 [ -f "$dir/CMakeCache.txt" ] || cmake -S "$top" -B "$dir" -DCMAKE_BUILD_TYPE=Release >/dev/null
-targets="bench_tails bench_pvalues bench_tail_grid"
+targets="bench_tails bench_pvalues bench_tail_grid tallyproof"
 help=$(cmake --build "$dir" --target help)
 case "$help" in *bench_parse*) targets="$targets bench_parse" ;; esac
 # shellcheck disable=SC2086
@@ -23,6 +23,15 @@ if [ -x "$bin/bench_parse" ]; then
     echo "== bench_parse"; "$bin/bench_parse" | tee "$out/bench_parse.txt"
 else
     rm -f "$out/bench_parse.txt"
+fi
+echo "== one million raw values, whole process, beside R and NumPy/SciPy"
+/usr/bin/python3 "$top/tests/bench/parse_reference.py" "$dir/shell/tallyproof" | tee "$out/parse_reference.txt"
+# The page, when it has been built (./.ci/build) and the browser tests' packages are installed.
+if [ -f "$top/dist/tallyproof.html" ] && [ -d "$top/tests/browser/node_modules/playwright-core" ]; then
+    echo "== the page in headless Chromium"
+    (cd "$top/tests/browser" && node bench_page.mjs) | tee "$out/bench_page.txt"
+else
+    rm -f "$out/bench_page.txt"
 fi
 echo "== tail accuracy (mpmath 50 digits, R, SciPy)"
 /usr/bin/python3 "$top/tests/bench/tail_accuracy.py" "$bin/bench_tail_grid" "$out" | tee "$out/tail_accuracy.json"
