@@ -36,7 +36,7 @@ struct WrittenDigits {
     bool is_zero = false;      // every mantissa digit is 0
     bool has_exponent = false;
     int significant = 0;       // significant digits written (from the first non-zero one)
-    char first = 0, second = 0;  // the first two significant digits ('0' when absent, or 0)
+    char first = 0, second = 0;  // the first two significant digits (0 when not written)
     char last = 0;             // the last mantissa digit written
     double magnitude = 0;      // |value|, set by the caller when a floor needs it
 };
