@@ -209,6 +209,7 @@ bool open_document(AppState& s, std::string_view json) {
     s.merge_undo.clear();
     s.pasted_text.clear();
     s.pasted_shape = -1;
+    s.pasted_bins = BinChoice{};
     s.source_name = "opened document";
     s.demo_index = -1;
     sync_editor_from_model(s);
@@ -217,11 +218,73 @@ bool open_document(AppState& s, std::string_view json) {
 
 namespace {
 void read_paste(AppState& s, std::string_view text, const ParseOptions& options);
+
+// The number of bins the user typed: a whole number from 2 to kMaxBinsOnPage.
+bool typed_bin_count(const std::string& text, int* k, std::string* error) {
+    const std::size_t b = text.find_first_not_of(" \t"), e = text.find_last_not_of(" \t");
+    const std::string t = b == std::string::npos ? "" : text.substr(b, e - b + 1);
+    char* end = nullptr;
+    const long v = std::strtol(t.c_str(), &end, 10);
+    if (t.empty() || end != t.c_str() + t.size() || v < 2 || v > kMaxBinsOnPage) {
+        *error = "The number of bins must be a whole number from 2 to " + std::to_string(kMaxBinsOnPage) +
+                 (t.empty() ? "." : "; \"" + t.substr(0, 20) + "\" is not.");
+        return false;
+    }
+    *k = static_cast<int>(v);
+    return true;
+}
+
+// Edges to start the stated-edges field from: those of the equal-width bins, with an outer edge
+// that does not survive being written to six digits left open (-inf / inf) so no value falls out.
+std::string starting_edges(const AppState& s) {
+    BinChoice width;
+    width.kind = BinChoice::Kind::equal_width;
+    std::string ignored;
+    if (!typed_bin_count(s.bin_editor.count, &width.bins, &ignored)) width.bins = 10;
+    ParseOptions o;
+    o.shape = InputShape::raw_bins;
+    o.bins = width;
+    std::vector<double> edges = parse_input(s.pasted_text, o).edges;
+    if (edges.size() < 2) return "";
+    std::vector<double> read_back;
+    if (!read_list(format_plain(edges.front()), &read_back, &ignored) || read_back.front() != edges.front()) edges.front() = -HUGE_VAL;
+    if (!read_list(format_plain(edges.back()), &read_back, &ignored) || read_back.front() != edges.back()) edges.back() = HUGE_VAL;
+    return list_text(edges, ", ");
+}
+
+// The last paste counted into bins `b`, with K or the edges from the bin editor.
+void read_bins(AppState& s, BinChoice b) {
+    std::string error;
+    bool ok = true;
+    if (b.kind == BinChoice::Kind::edges) {
+        ok = read_list(s.bin_editor.edges, &b.edges, &error);
+        if (ok && b.edges.size() < 2) {
+            error = "Bin edges: type at least two, such as 0, 10, 20, inf.";
+            ok = false;
+        }
+    } else {
+        ok = typed_bin_count(s.bin_editor.count, &b.bins, &error);
+    }
+    if (!ok) {  // nothing read: the previous analysis stays, the message shows under the bins
+        s.pasted_shape = static_cast<int>(InputShape::raw_bins);
+        s.pasted_bins = b;
+        s.bin_editor.error = error;
+        publish_error(error);
+        s.frames_to_draw = 3;
+        return;
+    }
+    ParseOptions o;
+    o.shape = InputShape::raw_bins;
+    o.bins = b;
+    const std::string text = s.pasted_text;
+    read_paste(s, text, o);
+}
 }  // namespace
 
 void apply_paste(AppState& s, std::string_view text) {
     const std::size_t first = text.find_first_not_of(" \t\r\n");
     if (first != std::string_view::npos && text[first] == '{') { open_document(s, text); return; }
+    s.bin_editor.edges.clear();  // edges typed for other data
     read_paste(s, text, ParseOptions{});
 }
 
@@ -232,6 +295,24 @@ void reread_paste(AppState& s, int shape, int digit_test) {
     if (digit_test >= 0) o.digits = static_cast<DigitTest>(digit_test);
     const std::string text = s.pasted_text;
     read_paste(s, text, o);
+}
+
+void read_paste_into_bins(AppState& s, BinChoice::Kind kind, ModelKind model) {
+    if (s.pasted_text.empty() || kind == BinChoice::Kind::none) return;
+    BinChoice b;
+    b.kind = kind;
+    if (kind == BinChoice::Kind::equal_probability) b.model = model;
+    if (kind == BinChoice::Kind::edges && s.bin_editor.edges.find_first_not_of(" \t") == std::string::npos)
+        s.bin_editor.edges = starting_edges(s);
+    read_bins(s, b);
+}
+
+void apply_bin_editor(AppState& s) {
+    if (s.pasted_text.empty() || s.pasted_bins.kind == BinChoice::Kind::none) return;
+    BinChoice b;
+    b.kind = s.pasted_bins.kind;
+    b.model = s.pasted_bins.model;
+    read_bins(s, b);
 }
 
 namespace {
@@ -248,6 +329,9 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
             // The previous mix cannot apply to new counts: start from equal shares.
             s.analysis.model = Model{};
         }
+        // Bin edges go with the counts they made (a fitted model chosen next starts from them);
+        // other readings leave no edges behind.
+        if (!mix_stated) s.analysis.model.edges = parsed.edges;
         sync_editor_from_model(s);
         if (!recompute(s)) {
             problem = Status::failure(s.input_error, 0, 0);
@@ -260,6 +344,18 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     if (text.size() <= (8u << 20)) {
         s.pasted_text = std::string(text);
         s.pasted_shape = static_cast<int>(parsed.shape);
+    }
+    s.pasted_bins = parsed.shape == InputShape::raw_bins ? options.bins : BinChoice{};
+    s.bin_editor.error.clear();
+    if (!problem.ok && parsed.shape == InputShape::raw_bins && !s.pasted_text.empty()) {
+        // Bins the user set: the message shows under them, not as a refused paste.
+        s.bin_editor.error = problem.message;
+        s.rejected_text.clear();
+        s.rejected_message.clear();
+        s.rejected_line = 0;
+        publish_error(problem.message);
+        s.frames_to_draw = 3;
+        return;
     }
     if (!problem.ok) {
         s.rejected_text = std::string(text.substr(0, 4000));
@@ -290,6 +386,7 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
 }  // namespace
 
 void set_model_kind(AppState& s, ModelKind kind) {
+    const std::vector<double> edges = s.analysis.model.edges;  // of pasted measurements read into bins
     s.analysis.model = Model{};
     s.analysis.model.kind = kind;
     const std::size_t k = s.analysis.observed.size();
@@ -300,6 +397,8 @@ void set_model_kind(AppState& s, ModelKind kind) {
                                                                         : (i < s.result.expected_counts.size() ? s.result.expected_counts[i] : 1));
     } else if (kind == ModelKind::ratio) {
         s.analysis.model.values.assign(k, 1);
+    } else if ((kind == ModelKind::normal || kind == ModelKind::lognormal || kind == ModelKind::exponential) && edges.size() == k + 1) {
+        s.analysis.model.edges = edges;
     } else if (kind == ModelKind::normal || kind == ModelKind::lognormal || kind == ModelKind::exponential) {
         for (std::size_t i = 0; i <= k; ++i) s.analysis.model.edges.push_back(i == 0 ? -HUGE_VAL : i == k ? HUGE_VAL : static_cast<double>(i));
         if (kind != ModelKind::normal) s.analysis.model.edges.front() = 0;

@@ -9,6 +9,7 @@
 
 #include "analysis.hpp"
 #include "density_curve.hpp"
+#include "paste_parser.hpp"
 #include "pvalue_job.hpp"
 #include "result.hpp"
 
@@ -26,6 +27,14 @@ struct ModelEditor {
     std::string edges;   // bin edges for binned measurements, e.g. "-inf, 10, 20, inf"
     std::vector<Parameter> parameters;
 };
+
+// What the user types for the bins of a "measurements in bins" reading of the last paste.
+struct BinEditor {
+    std::string count = "10";  // K for equal-width and equal-probability bins, 2 to kMaxBinsOnPage
+    std::string edges;         // stated edges, e.g. "0, 10, 20, inf"
+    std::string error;         // why the latest bin setting was not applied (the previous analysis stays)
+};
+constexpr int kMaxBinsOnPage = 1000;
 
 enum class ResultTab { curve, bars, categories, planning, writeup };
 
@@ -67,6 +76,8 @@ struct AppState {
     // The last paste that was read, so the user can have it read as another shape
     std::string pasted_text;
     int pasted_shape = -1;           // InputShape as detected (or chosen), -1 when nothing pasted
+    BinChoice pasted_bins;           // the bins of the last reading (kind none unless it counted into bins)
+    BinEditor bin_editor;
 
     // Merge undo: the rules in force before each one-click merge
     std::vector<MergeChoice> merge_undo;
@@ -95,6 +106,10 @@ bool open_document(AppState& s, std::string_view json);      // an analysis docu
 void apply_paste(AppState& s, std::string_view text);        // counts, or a document; keeps the old data if refused
 void reread_paste(AppState& s, int shape, int digit_test = -1);  // the last paste again, read as InputShape `shape`
                                                                  // (raw_digits: DigitTest `digit_test`)
+void read_paste_into_bins(AppState& s, BinChoice::Kind kind, ModelKind model = ModelKind::normal);
+                                                             // the last paste as measurements in bins, with the
+                                                             // editor's K or edges (equal probability: under `model`)
+void apply_bin_editor(AppState& s);                          // the typed K or edges, to the current bins reading
 void set_model_kind(AppState& s, ModelKind kind);            // resets the editor for that kind
 void apply_model_editor(AppState& s);                        // editor text -> analysis.model, recompute
 void set_count(AppState& s, int row, double value);          // an edited table cell

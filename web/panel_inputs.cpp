@@ -59,6 +59,54 @@ bool parse_count_cell(const std::string& text, double* v) {
     return !text.empty() && end == text.c_str() + text.size() && std::isfinite(*v);
 }
 
+// The bins of a "measurements in bins" reading: K, or the stated edges, applied on Enter or Apply.
+void draw_bin_row(AppState& s, const Theme& t) {
+    const ImGuiStyle& style = ImGui::GetStyle();
+    const float apply_w = ImGui::CalcTextSize("Apply").x + style.FramePadding.x * 2;
+    bool apply = false;
+    ImGui::AlignTextToFramePadding();
+    if (s.pasted_bins.kind == BinChoice::Kind::edges) {
+        ImGui::TextUnformatted("Edges");
+        ImGui::SameLine();
+        ImGui::SetNextItemWidth(-(apply_w + style.ItemSpacing.x));
+        apply |= ImGui::InputTextWithHint("##bin-edges", "0, 10, 20, inf", &s.bin_editor.edges, ImGuiInputTextFlags_EnterReturnsTrue);
+        mark_widget("bin edges");
+        if (ImGui::IsItemHovered()) ImGui::SetTooltip("Bin edges in increasing order, separated by commas; -inf and inf leave the ends open.");
+    } else {
+        ImGui::TextUnformatted("Bins");
+        ImGui::SameLine();
+        ImGui::SetNextItemWidth(ImGui::CalcTextSize("00000").x + style.FramePadding.x * 2);
+        apply |= ImGui::InputText("##bin-count", &s.bin_editor.count, ImGuiInputTextFlags_CharsDecimal | ImGuiInputTextFlags_EnterReturnsTrue);
+        mark_widget("number of bins");
+        if (ImGui::IsItemHovered()) ImGui::SetTooltip("The number of bins K, from 2 to %d.", kMaxBinsOnPage);
+    }
+    ImGui::SameLine();
+    apply |= ImGui::Button("Apply");
+    mark_widget("apply bins");
+    if (s.pasted_bins.kind != BinChoice::Kind::edges) {
+        // What the bins are, in case the "Read as" box is too narrow to show it all.
+        const ModelKind model = s.pasted_bins.model.value_or(ModelKind::normal);
+        const char* what = s.pasted_bins.kind == BinChoice::Kind::equal_width ? "of equal width"
+                           : model == ModelKind::lognormal                     ? "lognormal fit"
+                           : model == ModelKind::exponential                   ? "exponential fit"
+                                                                               : "normal fit";
+        ImGui::SameLine();
+        if (ImGui::GetContentRegionAvail().x >= ImGui::CalcTextSize(what).x) {
+            ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
+            ImGui::TextUnformatted(what);
+            ImGui::PopStyleColor();
+        } else {
+            ImGui::NewLine();
+        }
+    }
+    if (apply) apply_bin_editor(s);
+    if (!s.bin_editor.error.empty()) {
+        ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
+        ImGui::TextWrapped("Bins not applied: %s", s.bin_editor.error.c_str());
+        ImGui::PopStyleColor();
+    }
+}
+
 }  // namespace
 
 void section_title(const char* title, const Theme& theme) {
@@ -85,8 +133,15 @@ void draw_counts_panel(AppState& s, const Theme& t) {
                                   ImGuiTableFlags_ScrollY | ImGuiTableFlags_SizingStretchProp;
     const float row_h = ImGui::GetFrameHeight() + ImGui::GetStyle().CellPadding.y * 2;
     const float want = row_h * static_cast<float>(k + 2) + 8;
-    const float avail = ImGui::GetContentRegionAvail().y - ImGui::GetFrameHeightWithSpacing() * 1.2f;
-    const float height = std::max(row_h * 4, std::min(want, std::max(avail, row_h * 4)));
+    // Room under the table for the rows that follow it: "Read as", the bins, "+ Add category".
+    const bool read_as = s.pasted_shape >= 0 && !s.pasted_text.empty();
+    const bool bin_row = read_as && s.pasted_shape == static_cast<int>(InputShape::raw_bins) && s.pasted_bins.kind != BinChoice::Kind::none;
+    float below = ImGui::GetFrameHeightWithSpacing() * (1.2f + (read_as ? 1 : 0) + (bin_row ? 1 : 0));
+    if (bin_row && !s.bin_editor.error.empty())
+        below += ImGui::CalcTextSize(("Bins not applied: " + s.bin_editor.error).c_str(), nullptr, false, ImGui::GetContentRegionAvail().x).y +
+                 ImGui::GetStyle().ItemSpacing.y;
+    const float avail = ImGui::GetContentRegionAvail().y - below;
+    const float height = std::max(row_h * 3, std::min(want, std::max(avail, row_h * 3)));
     if (ImGui::BeginTable("counts", 5, flags, ImVec2(0, height))) {
         ImGui::TableSetupScrollFreeze(0, 1);
         ImGui::TableSetupColumn("Category", ImGuiTableColumnFlags_WidthStretch, 2.0f);
@@ -145,39 +200,53 @@ void draw_counts_panel(AppState& s, const Theme& t) {
     }
     if (s.pasted_shape >= 0 && !s.pasted_text.empty()) {
         // What the last paste was read as, and the other readings on offer.
-        struct Reading { InputShape shape; int digits; const char* name; };
+        using Bins = BinChoice::Kind;
+        struct Reading { InputShape shape; int digits; Bins bins; ModelKind model; const char* name; };
         const Reading readings[] = {
-            {InputShape::label_count, -1, "label and count"},
-            {InputShape::label_observed_expected, -1, "label, observed, expected"},
-            {InputShape::counts_column, -1, "one column of counts"},
-            {InputShape::counts_row, -1, "one row of counts"},
-            {InputShape::raw_text, -1, "raw values to tally"},
-            {InputShape::raw_whole_numbers, -1, "raw whole numbers"},
-            {InputShape::raw_digits, static_cast<int>(DigitTest::first), "first digits of raw numbers"},
-            {InputShape::raw_digits, static_cast<int>(DigitTest::second), "second digits of raw numbers"},
-            {InputShape::raw_digits, static_cast<int>(DigitTest::last), "last digits of raw numbers"},
+            {InputShape::label_count, -1, Bins::none, ModelKind::equal, "label and count"},
+            {InputShape::label_observed_expected, -1, Bins::none, ModelKind::equal, "label, observed, expected"},
+            {InputShape::counts_column, -1, Bins::none, ModelKind::equal, "one column of counts"},
+            {InputShape::counts_row, -1, Bins::none, ModelKind::equal, "one row of counts"},
+            {InputShape::raw_text, -1, Bins::none, ModelKind::equal, "raw values to tally"},
+            {InputShape::raw_whole_numbers, -1, Bins::none, ModelKind::equal, "raw whole numbers"},
+            {InputShape::raw_digits, static_cast<int>(DigitTest::first), Bins::none, ModelKind::equal, "first digits of raw numbers"},
+            {InputShape::raw_digits, static_cast<int>(DigitTest::second), Bins::none, ModelKind::equal, "second digits of raw numbers"},
+            {InputShape::raw_digits, static_cast<int>(DigitTest::first_two), Bins::none, ModelKind::equal, "first two digits of raw numbers"},
+            {InputShape::raw_digits, static_cast<int>(DigitTest::last), Bins::none, ModelKind::equal, "last digits of raw numbers"},
+            {InputShape::raw_bins, -1, Bins::equal_width, ModelKind::equal, "measurements in equal-width bins"},
+            {InputShape::raw_bins, -1, Bins::equal_probability, ModelKind::normal, "measurements in equal-probability bins (normal)"},
+            {InputShape::raw_bins, -1, Bins::equal_probability, ModelKind::lognormal, "measurements in equal-probability bins (lognormal)"},
+            {InputShape::raw_bins, -1, Bins::equal_probability, ModelKind::exponential, "measurements in equal-probability bins (exponential)"},
+            {InputShape::raw_bins, -1, Bins::edges, ModelKind::equal, "measurements in bins with stated edges"},
         };
         const int count = static_cast<int>(sizeof readings / sizeof readings[0]);
         int current = -1;
         DigitTest shown = DigitTest::first;
         const bool digit_model = digit_test_of(s.analysis.model.kind, &shown);
+        const Bins bins = s.pasted_bins.kind;
+        const ModelKind bin_model = s.pasted_bins.model.value_or(ModelKind::normal);
         for (int i = 0; i < count; ++i) {
             const bool same_digits = readings[i].digits < 0 || (digit_model && readings[i].digits == static_cast<int>(shown));
-            if (static_cast<int>(readings[i].shape) == s.pasted_shape && same_digits) current = i;
+            const bool same_bins = readings[i].bins == bins && (bins != Bins::equal_probability || readings[i].model == bin_model);
+            if (static_cast<int>(readings[i].shape) == s.pasted_shape && same_digits && same_bins) current = i;
         }
         ImGui::AlignTextToFramePadding();
         ImGui::TextUnformatted("Read as");
         ImGui::SameLine();
         ImGui::SetNextItemWidth(-1);
-        if (ImGui::BeginCombo("##shape", current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.pasted_shape)))) {
+        if (ImGui::BeginCombo("##shape", current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.pasted_shape)),
+                              ImGuiComboFlags_HeightLargest)) {  // every reading in view, none behind a scroll
             for (int i = 0; i < count; ++i) {
-                if (ImGui::Selectable(readings[i].name, i == current) && i != current)
-                    reread_paste(s, static_cast<int>(readings[i].shape), readings[i].digits);
+                if (ImGui::Selectable(readings[i].name, i == current) && i != current) {
+                    if (readings[i].bins != Bins::none) read_paste_into_bins(s, readings[i].bins, readings[i].model);
+                    else reread_paste(s, static_cast<int>(readings[i].shape), readings[i].digits);
+                }
                 mark_widget(readings[i].name);
             }
             ImGui::EndCombo();
         }
         mark_widget("Read as");
+        if (s.pasted_shape == static_cast<int>(InputShape::raw_bins) && bins != Bins::none) draw_bin_row(s, t);
     }
     if (ImGui::Button("+ Add category")) add_row(s);
     ImGui::SameLine();

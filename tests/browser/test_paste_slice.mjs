@@ -1,5 +1,5 @@
 // The thin slice end to end: paste TSV counts, read the results region, look at the canvas.
-import { assert, clickWidget, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+import { assert, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
 
 export const tests = {
   async 'paste of label<TAB>count lines gives the Pearson result'() {
@@ -110,6 +110,150 @@ export const tests = {
       // Counted by hand from the list above (x10): digit 1 five times, 2 twice, 3, 4, 5, 7, 9 once.
       assert(r.observed.join(',') === '50,20,10,10,10,0,10,0,10', `first digits ${r.observed}`);
       await screenshot(page, 'slice-07-first-digits');
+      await clickWidget(page, 'Read as');
+      await clickWidget(page, 'first two digits of raw numbers');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).model?.kind === 'benford-first-two', null, { timeout: 5000 });
+      const two = await lastResult(page);
+      // Counted by hand (x10): 14, 23, 31, 18, 56, 91, 10, 27, 41, 19; categories 10 to 99. The amounts
+      // under 10 (1.20, 7.80) are left out, as the first-two-digits test does (Nigrini 2012).
+      const byHand = new Array(90).fill(0);
+      for (const d of [14, 23, 31, 18, 56, 91, 10, 27, 41, 19]) byHand[d - 10] += 10;
+      assert(two.categories.length === 90 && two.categories[0] === '10', `first-two categories ${two.categories.slice(0, 3)}`);
+      assert(two.observed.join(',') === byHand.join(','), `first two digits ${two.observed}`);
+    });
+  },
+
+  async 'pasted measurements can be put into equal-width, equal-probability and stated bins'() {
+    // Invented fill weights in grams: 200 values from a fixed formula (a Park-Miller generator,
+    // four uniforms summed), written to 0.1 g, one per line.
+    let seed = 20240611;
+    const uniform = () => { seed = (seed * 16807) % 2147483647; return seed / 2147483647; };
+    const weights = Array.from({ length: 200 }, () =>
+      Number((500 + 5 * (uniform() + uniform() + uniform() + uniform() - 2)).toFixed(1)));
+    const text = 'weight_g\n' + weights.map((w) => w.toFixed(1)).join('\n') + '\n';
+    // Counts by hand: a value on an inner edge goes to the bin above, the largest to the last bin.
+    const countInto = (edges) => {
+      const counts = new Array(edges.length - 1).fill(0);
+      for (const w of weights) {
+        let b = edges.filter((e) => e <= w).length - 1;
+        if (w === edges[edges.length - 1]) b = counts.length - 1;
+        counts[b]++;
+      }
+      return counts;
+    };
+    const labelEdges = (labels) => labels.map((l) => {
+      const m = /^\[(\S+), (\S+)[)\]]$/.exec(l);
+      assert(m, `bin label ${l}`);
+      return [Number(m[1].replace('inf', 'Infinity')), Number(m[2].replace('inf', 'Infinity'))];
+    });
+    const near = (a, b, rel) => a === b || Math.abs(a - b) <= rel * Math.max(Math.abs(a), Math.abs(b));
+    const documentEdges = async (page) => JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastDocument)).model.edges
+      .map((e) => (typeof e === 'number' ? e : e === '-inf' || e === '-Infinity' ? -Infinity : Infinity));
+    const typeInto = async (page, widget, value) => {
+      await clickWidget(page, widget);
+      await page.keyboard.press('End');
+      await page.keyboard.press('Shift+Home');
+      await page.keyboard.type(value, { delay: 20 });
+    };
+
+    await withPage({}, async (page) => {
+      await pasteText(page, text);
+      await clickWidget(page, 'Read as');
+      await clickWidget(page, 'measurements in equal-width bins');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[0]?.startsWith('['), null, { timeout: 5000 });
+      let r = await lastResult(page);
+      // Equal width, K = 10 (the page's default), by hand: from the smallest to the largest value.
+      const lo = Math.min(...weights), hi = Math.max(...weights);
+      const widthEdges = Array.from({ length: 11 }, (_, i) => (i === 10 ? hi : lo + (hi - lo) * i / 10));
+      assert(r.categories.length === 10, `equal-width bins: ${r.categories.length}`);
+      assert(r.observed.join(',') === countInto(widthEdges).join(','), `equal-width counts ${r.observed} vs ${countInto(widthEdges)}`);
+      labelEdges(r.categories).forEach(([a, b], i) => assert(near(a, widthEdges[i], 5e-6) && near(b, widthEdges[i + 1], 5e-6),
+        `bin ${i + 1} label ${r.categories[i]} vs ${widthEdges[i]}, ${widthEdges[i + 1]}`));
+      (await documentEdges(page)).forEach((e, i) => assert(near(e, widthEdges[i], 1e-12), `edge ${i}: ${e} vs ${widthEdges[i]}`));
+      await screenshot(page, 'slice-08-equal-width-bins');
+
+      // Equal probability under the normal fitted by maximum likelihood (mean, sd with divisor n), K = 8.
+      await clickWidget(page, 'Read as');
+      await screenshot(page, 'slice-09-read-as-list');
+      await clickWidget(page, 'measurements in equal-probability bins (normal)');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).model?.kind === 'normal', null, { timeout: 5000 });
+      await typeInto(page, 'number of bins', '8');
+      await page.keyboard.press('Enter');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.length === 8, null, { timeout: 5000 });
+      r = await lastResult(page);
+      const mean = weights.reduce((a, b) => a + b, 0) / weights.length;
+      const sd = Math.sqrt(weights.reduce((a, w) => a + (w - mean) ** 2, 0) / weights.length);
+      // Reference: SciPy 1.10 scipy.stats.norm.ppf([i/8 for i in 1..7]).
+      const z = [-1.1503493803760079, -0.6744897501960817, -0.31863936396437514, 0.0,
+        0.31863936396437514, 0.6744897501960817, 1.1503493803760079];
+      const normalEdges = [-Infinity, ...z.map((q) => mean + sd * q), Infinity];
+      for (const w of weights) for (const e of normalEdges) assert(!(Math.abs(w - e) < 1e-6), `value ${w} on edge ${e}`);
+      assert(r.observed.join(',') === countInto(normalEdges).join(','), `normal bins counts ${r.observed} vs ${countInto(normalEdges)}`);
+      labelEdges(r.categories).forEach(([a, b], i) => assert(near(a, normalEdges[i], 5e-6) && near(b, normalEdges[i + 1], 5e-6),
+        `bin ${i + 1} label ${r.categories[i]} vs ${normalEdges[i]}, ${normalEdges[i + 1]}`));
+      (await documentEdges(page)).forEach((e, i) => assert(near(e, normalEdges[i], 1e-9), `edge ${i}: ${e} vs ${normalEdges[i]}`));
+      assert(r.df === 8 - 1 - 2, `df ${r.df}`);
+      await page.mouse.move(640, 790);  // no tooltip over the bins row
+      await screenshot(page, 'slice-10-equal-probability-normal');
+
+      // A number of bins out of range is refused with a message; the analysis stays.
+      await typeInto(page, 'number of bins', '1');
+      await clickWidget(page, 'apply bins');
+      await page.waitForFunction(() => globalThis.tallyproofPage.lastRefusal.includes('from 2 to 1000'), null, { timeout: 5000 });
+      assert((await lastResult(page)).observed.join(',') === r.observed.join(','), 'the normal bins stay after a refused K');
+      await page.mouse.move(640, 790);
+      await screenshot(page, 'slice-11-bin-count-refused');
+
+      // Stated edges: out of order is refused with the parser's message, then a valid set is counted.
+      await clickWidget(page, 'Read as');
+      await clickWidget(page, 'measurements in bins with stated edges');
+      await typeInto(page, 'bin edges', '480, 500, 490, inf');
+      await page.keyboard.press('Enter');
+      await page.waitForFunction(() => globalThis.tallyproofPage.lastRefusal.includes('must increase strictly'), null, { timeout: 5000 });
+      await page.mouse.move(640, 790);
+      await screenshot(page, 'slice-12-stated-edges-refused');
+      const stated = [-Infinity, 496, 498, 500, 502, 504, Infinity];
+      await typeInto(page, 'bin edges', '-inf, 496, 498, 500, 502, 504, inf');
+      await clickWidget(page, 'apply bins');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.length === 6, null, { timeout: 5000 });
+      r = await lastResult(page);
+      assert(r.observed.join(',') === countInto(stated).join(','), `stated-edge counts ${r.observed} vs ${countInto(stated)}`);
+      assert(r.categories[1] === '[496, 498)', `label ${r.categories[1]}`);
+      await screenshot(page, 'slice-13-stated-edges');
+    });
+
+    // Narrow screen: the inputs come under the results; scroll down to the bins row.
+    await withPage({ viewport: { width: 520, height: 800 } }, async (page) => {
+      await pasteText(page, text);
+      await page.mouse.move(260, 400);
+      for (let i = 0; i < 12; i++) {
+        const box = await page.evaluate(() => globalThis.tallyproofPage.widgets['Read as']);
+        if (box && box.y > 200 && box.y < 450) break;
+        await page.mouse.wheel(0, box && box.y < 200 ? -120 : 240);
+        await page.waitForTimeout(150);
+      }
+      await clickWidget(page, 'Read as');
+      await clickWidget(page, 'measurements in equal-probability bins (normal)');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).model?.kind === 'normal', null, { timeout: 5000 });
+      await screenshot(page, 'slice-14-bins-narrow');
+    });
+    // The narrowest two-column layout: the inputs column at its least width.
+    await withPage({ viewport: { width: 940, height: 760 } }, async (page) => {
+      await pasteText(page, text);
+      await clickWidget(page, 'Read as');
+      const before = await page.evaluate(() => globalThis.tallyproofPage.lastResult);
+      // Weights near 500 g all fall in one bin of the fitted exponential: refused, the analysis stays.
+      await clickWidget(page, 'measurements in equal-probability bins (exponential)');
+      await page.waitForFunction(() => globalThis.tallyproofPage.lastRefusal.includes('exponential rate'), null, { timeout: 5000 });
+      assert(await page.evaluate(() => globalThis.tallyproofPage.lastResult) === before, 'the previous analysis stays');
+      await page.mouse.move(700, 750);
+      await screenshot(page, 'slice-15-bins-two-columns-refused');
+      await clickWidget(page, 'Read as');
+      await clickWidget(page, 'measurements in equal-probability bins (lognormal)');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).model?.kind === 'lognormal', null, { timeout: 5000 });
+      assert((await lastResult(page)).categories.length === 10, 'ten lognormal bins');
+      await page.mouse.move(700, 750);
+      await screenshot(page, 'slice-16-bins-two-columns');
     });
   },
 };
