@@ -185,27 +185,58 @@ void load_demo(AppState& s, int index) {
     }
 }
 
+namespace {
+// A refused paste or document: its message, where it points, and the text kept for editing.
+void record_refusal(AppState& s, std::string_view text, const Status& problem) {
+    s.rejected_text = std::string(text.substr(0, 4000));
+    s.rejected_message = problem.message;
+    s.rejected_line = problem.line;
+    s.rejected_column = problem.column;
+    if (text.size() <= kFixableBytes) s.fix_text = std::string(text);
+    else {
+        s.fix_text.clear();
+        s.fix_open = false;
+    }
+    publish_error(problem.message);
+    s.frames_to_draw = 3;
+}
+
+void clear_refusal(AppState& s) {
+    s.rejected_text.clear();
+    s.rejected_message.clear();
+    s.rejected_line = 0;
+    s.rejected_column = 0;
+    s.fix_text.clear();
+    s.fix_open = false;
+}
+}  // namespace
+
+void edit_refused_paste(AppState& s, bool open) { s.fix_open = open && !s.fix_text.empty(); }
+
+void apply_fixed_paste(AppState& s) {
+    if (s.fix_text.empty()) return;
+    const std::string text = s.fix_text;  // apply_paste replaces fix_text on a new refusal
+    apply_paste(s, text);
+}
+
+void dismiss_refusal(AppState& s) { clear_refusal(s); }
+
 bool open_document(AppState& s, std::string_view json) {
     Analysis a;
     const Status st = read_analysis_document(json, &a);
     if (!st.ok) {
-        s.rejected_text = std::string(json.substr(0, 4000));
-        s.rejected_message = st.message;
-        publish_error(st.message);
-        s.frames_to_draw = 3;
+        record_refusal(s, json, st);
         return false;
     }
     const Analysis previous = s.analysis;
     s.analysis = a;
     if (!recompute(s)) {
-        s.rejected_text = std::string(json.substr(0, 4000));
-        s.rejected_message = s.input_error;
+        record_refusal(s, json, Status::failure(s.input_error));
         s.input_error.clear();
         s.analysis = previous;
         return false;
     }
-    s.rejected_text.clear();
-    s.rejected_message.clear();
+    clear_refusal(s);
     s.merge_undo.clear();
     s.pasted_text.clear();
     s.pasted_shape = -1;
@@ -350,27 +381,19 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     if (!problem.ok && parsed.shape == InputShape::raw_bins && !s.pasted_text.empty()) {
         // Bins the user set: the message shows under them, not as a refused paste.
         s.bin_editor.error = problem.message;
-        s.rejected_text.clear();
-        s.rejected_message.clear();
-        s.rejected_line = 0;
+        clear_refusal(s);
         publish_error(problem.message);
         s.frames_to_draw = 3;
         return;
     }
     if (!problem.ok) {
-        s.rejected_text = std::string(text.substr(0, 4000));
-        s.rejected_message = problem.message;
-        s.rejected_line = problem.line;
-        publish_error(s.rejected_message);
-        s.frames_to_draw = 3;
+        record_refusal(s, text, problem);
         return;
     }
     s.source_name = "pasted text";
     s.demo_index = -1;
     s.merge_undo.clear();
-    s.rejected_text.clear();
-    s.rejected_message.clear();
-    s.rejected_line = 0;
+    clear_refusal(s);
     std::string notes;
     for (const auto& n : parsed.notes) notes += (notes.empty() ? "" : " ") + n;
     for (const auto& n : parsed.alternatives) notes += (notes.empty() ? "" : " ") + n;
@@ -527,9 +550,9 @@ bool open_share_fragment(AppState& s, const std::string& fragment) {
     std::string document;
     const Status st = decode_share_fragment(fragment, &document);
     if (!st.ok) {
+        clear_refusal(s);  // a link is not text to edit here
         s.rejected_message = st.message;
         s.rejected_text = fragment.substr(0, 200);
-        s.rejected_line = 0;
         publish_error(st.message);
         s.frames_to_draw = 3;
         return false;

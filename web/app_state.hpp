@@ -72,6 +72,9 @@ struct AppState {
     std::string rejected_text;
     std::string rejected_message;
     int rejected_line = 0;
+    int rejected_column = 0;         // the cell the message names (1-based), 0 when none
+    std::string fix_text;            // the whole refused paste, editable (empty above kFixableBytes)
+    bool fix_open = false;           // the editor for fix_text is shown
 
     // The last paste that was read, so the user can have it read as another shape
     std::string pasted_text;
@@ -104,6 +107,10 @@ struct AppState {
 void load_demo(AppState& s, int index);                      // one of kDemoScenarios
 bool open_document(AppState& s, std::string_view json);      // an analysis document; false if refused
 void apply_paste(AppState& s, std::string_view text);        // counts, or a document; keeps the old data if refused
+constexpr std::size_t kFixableBytes = 1u << 20;               // refused pastes up to 1 MB can be edited on the page
+void edit_refused_paste(AppState& s, bool open);             // show or hide the editor of the refused paste
+void apply_fixed_paste(AppState& s);                         // read the edited paste as a new paste
+void dismiss_refusal(AppState& s);                           // forget the refused paste and its message
 void reread_paste(AppState& s, int shape, int digit_test = -1);  // the last paste again, read as InputShape `shape`
                                                                  // (raw_digits: DigitTest `digit_test`)
 void read_paste_into_bins(AppState& s, BinChoice::Kind kind, ModelKind model = ModelKind::normal);

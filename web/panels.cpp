@@ -4,6 +4,10 @@
 #include "panels.hpp"
 
 #include <algorithm>
+#include <initializer_list>
+#include <vector>
+
+#include <imgui_stdlib.h>
 #include <string>
 
 #include "demo_library.hpp"
@@ -113,28 +117,101 @@ void draw_notice(AppState& s, const Theme& t) {
     ImGui::PopStyleColor();
 }
 
-void draw_rejection_notice(const AppState& s, const Theme& t) {
+// The cells of one pasted line, split the way a spreadsheet paste usually is: tabs, else
+// semicolons, else commas, else runs of spaces. Only for showing the line; the parser decides.
+std::vector<std::string> display_cells(const std::string& line) {
+    char sep = 0;
+    for (char c : {'\t', ';', ','})
+        if (line.find(c) != std::string::npos) { sep = c; break; }
+    std::vector<std::string> cells;
+    std::string cell;
+    for (char c : line) {
+        const bool split = sep ? c == sep : c == ' ';
+        if (!split) { cell += c; continue; }
+        if (sep || !cell.empty()) cells.push_back(cell);
+        cell.clear();
+    }
+    if (sep || !cell.empty() || cells.empty()) cells.push_back(cell);
+    return cells;
+}
+
+// The refused line, cell by cell, with the cell the message names boxed in the warning colour.
+void draw_refused_line(const AppState& s, const Theme& t) {
+    int line = 1;
+    std::size_t start = 0;
+    for (std::size_t i = 0; i < s.rejected_text.size() && line < s.rejected_line; ++i)
+        if (s.rejected_text[i] == '\n') { ++line; start = i + 1; }
+    if (line < s.rejected_line) return;  // beyond the kept excerpt
+    const std::size_t end = s.rejected_text.find_first_of("\r\n", start);
+    const std::string text = s.rejected_text.substr(start, std::min<std::size_t>(200, (end == std::string::npos ? s.rejected_text.size() : end) - start));
+    ImGui::Text("Line %d:", s.rejected_line);
+    const std::vector<std::string> cells = display_cells(text);
+    ImDrawList* dl = ImGui::GetWindowDrawList();
+    for (std::size_t c = 0; c < cells.size() && c < 12; ++c) {
+        ImGui::SameLine(0, c == 0 ? 8.0f : 14.0f);
+        const bool marked = static_cast<int>(c) + 1 == s.rejected_column;
+        const std::string shown = cells[c].empty() ? std::string("(empty)") : cells[c].substr(0, 40);
+        if (marked) {
+            const ImVec2 p = ImGui::GetCursorScreenPos(), size = ImGui::CalcTextSize(shown.c_str());
+            dl->AddRectFilled(ImVec2(p.x - 4, p.y - 1), ImVec2(p.x + size.x + 4, p.y + size.y + 1), t.paper, 3.0f);
+            dl->AddRect(ImVec2(p.x - 4, p.y - 1), ImVec2(p.x + size.x + 4, p.y + size.y + 1), t.warn_ink, 3.0f, 0, 2.0f);
+            ImGui::PushFont(t.strong);
+            ImGui::TextUnformatted(shown.c_str());
+            ImGui::PopFont();
+            mark_widget("refused cell");
+        } else {
+            ImGui::TextUnformatted(shown.c_str());
+        }
+    }
+    if (cells.size() > 12) {
+        ImGui::SameLine();
+        ImGui::TextUnformatted("…");
+    }
+}
+
+void draw_rejection_notice(AppState& s, const Theme& t) {
     if (s.rejected_message.empty()) return;
     ImGui::PushStyleColor(ImGuiCol_ChildBg, ImGui::ColorConvertU32ToFloat4(t.warn_bg));
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
-    std::string excerpt;
-    if (s.rejected_line > 0) {  // quote the offending line of the paste
-        int line = 1;
-        std::size_t start = 0;
-        for (std::size_t i = 0; i < s.rejected_text.size() && line < s.rejected_line; ++i)
-            if (s.rejected_text[i] == '\n') { ++line; start = i + 1; }
-        const std::size_t end = s.rejected_text.find_first_of("\r\n", start);
-        excerpt = s.rejected_text.substr(start, std::min<std::size_t>(80, (end == std::string::npos ? s.rejected_text.size() : end) - start));
-        for (auto& c : excerpt) if (c == '\t') c = ' ';
-    }
-    const float lines = excerpt.empty() ? 2.0f : 3.0f;
-    const float h = ImGui::GetTextLineHeightWithSpacing() * lines + ImGui::GetStyle().WindowPadding.y * 2;
+    const ImGuiStyle& style = ImGui::GetStyle();
+    const std::string headline = "Paste not used: " + s.rejected_message;
+    const float wrap = ImGui::GetContentRegionAvail().x - style.WindowPadding.x * 2;
+    ImGui::PushFont(t.strong);
+    float h = ImGui::CalcTextSize(headline.c_str(), nullptr, false, wrap).y + style.ItemSpacing.y;
+    ImGui::PopFont();
+    h += ImGui::GetFrameHeightWithSpacing();                          // the line with its buttons
+    if (s.rejected_line > 0) h += ImGui::GetTextLineHeightWithSpacing() + 2;
+    const float editor_h = ImGui::GetTextLineHeight() * 8 + style.FramePadding.y * 2;
+    if (s.fix_open) h += editor_h + style.ItemSpacing.y + ImGui::GetFrameHeightWithSpacing();
+    h += style.WindowPadding.y * 2;
     ImGui::BeginChild("rejected", ImVec2(0, h), true, ImGuiWindowFlags_NoScrollbar);
     ImGui::PushFont(t.strong);
-    ImGui::TextWrapped("Paste not used: %s", s.rejected_message.c_str());
+    ImGui::TextWrapped("%s", headline.c_str());
     ImGui::PopFont();
-    if (!excerpt.empty()) ImGui::Text("Line %d reads:  %s", s.rejected_line, excerpt.c_str());
-    ImGui::TextUnformatted("The analysis below is still the previous one. Fix the line and paste again.");
+    if (s.rejected_line > 0) draw_refused_line(s, t);
+    ImGui::AlignTextToFramePadding();
+    ImGui::TextUnformatted("The analysis below is still the previous one.");
+    if (!s.fix_text.empty() && !s.fix_open) {
+        ImGui::SameLine();
+        if (ImGui::SmallButton("Fix it here")) edit_refused_paste(s, true);
+        mark_widget("fix it here");
+    } else if (s.fix_text.empty()) {
+        ImGui::SameLine();
+        ImGui::TextUnformatted("Fix the source and paste again.");
+    }
+    ImGui::SameLine();
+    if (ImGui::SmallButton("Dismiss")) dismiss_refusal(s);
+    mark_widget("dismiss refusal");
+    if (s.fix_open) {
+        ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.ink));
+        ImGui::InputTextMultiline("##fix", &s.fix_text, ImVec2(-1, editor_h), ImGuiInputTextFlags_AllowTabInput);
+        mark_widget("refused paste editor");
+        ImGui::PopStyleColor();
+        if (ImGui::Button("Read the edited text")) apply_fixed_paste(s);
+        mark_widget("read edited paste");
+        ImGui::SameLine();
+        if (ImGui::Button("Close the editor")) edit_refused_paste(s, false);
+    }
     ImGui::EndChild();
     ImGui::PopStyleColor(2);
 }

@@ -43,6 +43,33 @@ export const tests = {
     });
   },
 
+  async 'a refused paste is shown with its cell marked and can be fixed on the page'() {
+    await withPage({}, async (page) => {
+      // Invented counts with one mistyped cell (a letter O for a zero).
+      await pasteText(page, 'Grade\tCount\nA\t31\nB\t4O\nC\t22\n');
+      await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'error');
+      const refusal = await page.evaluate(() => globalThis.tallyproofPage.lastRefusal);
+      assert(refusal.includes('Line 3, column 2: "4O"'), `message: ${refusal}`);
+      // The offending cell is drawn boxed: it is the second cell of the quoted line.
+      await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['refused cell'], null, { timeout: 5000 });
+      await screenshot(page, 'slice-05-refused-cell');
+      await clickWidget(page, 'fix it here');
+      await clickWidget(page, 'refused paste editor');
+      await page.keyboard.press('Control+a');
+      // Retyped with commas (the Tab key does not reach the editor in this headless setup).
+      await page.keyboard.type('Grade,Count\nA,31\nB,40\nC,22', { delay: 15 });
+      await page.waitForTimeout(200);
+      await screenshot(page, 'slice-06-fixing');
+      await clickWidget(page, 'read edited paste');
+      await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'result', null, { timeout: 5000 });
+      const r = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
+      assert(r.categories.join(',') === 'A,B,C' && r.observed.join(',') === '31,40,22', `read back ${r.categories} ${r.observed}`);
+      assert(!(await page.evaluate(() => globalThis.tallyproofPage.widgets['refused paste editor'] &&
+        document.getElementById('tp-results').dataset.state !== 'result')), 'editor state');
+      await screenshot(page, 'slice-06-fixed');
+    });
+  },
+
   async 'crisp at device scale factor 2'() {
     await withPage({ deviceScaleFactor: 2, viewport: { width: 900, height: 700 } }, async (page) => {
       const size = await page.evaluate(() => [document.getElementById('canvas').width, window.devicePixelRatio]);
