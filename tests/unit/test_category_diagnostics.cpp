@@ -77,6 +77,18 @@ TEST_CASE("binomial test closed forms") {
     // n = 10000, p = 1/2, x = 0: 2 / 2^10000, log10 = log10 2 - 10000 log10 2.
     CHECK(binomial_test_two_sided(0, 10000, 0.5).log10_p ==
           doctest::Approx(-9999 * std::log10(2.0)).epsilon(1e-12));
+    // Just above the double's underflow the value agrees with its logarithm (fuzz_engine found
+    // Boost's cdf off by a factor of 5 there): n = 1000, p = 1/2, x = 0 gives 2^-999 exactly; and
+    // x = 22, n = 2225, p = 0.3 gives 7.9745484732040699e-301, log10 -300.09829389775634
+    // (mpmath 1.2.1 at 50 digits, summing the pmf over R's two-sided rule).
+    for (double x : {0.0, 1000.0}) {
+        const TailProbability t = binomial_test_two_sided(x, 1000, 0.5);
+        CHECK(t.p == doctest::Approx(std::ldexp(1.0, -999)).epsilon(1e-12));
+        CHECK(t.log10_p == doctest::Approx(-999 * std::log10(2.0)).epsilon(1e-13));
+    }
+    const TailProbability far = binomial_test_two_sided(22, 2225, 0.3);
+    CHECK(far.p == doctest::Approx(7.9745484732040699e-301).epsilon(1e-12));
+    CHECK(far.log10_p == doctest::Approx(-300.09829389775634).epsilon(1e-14));
 }
 
 TEST_CASE("binomial test refuses bad arguments with NaN") {
