@@ -58,6 +58,9 @@ Status category_diagnostics(const std::vector<std::string>& labels, const std::v
     r.adjustment = options.adjustment;
     r.categories.resize(k);
     std::vector<double> p_values(k), log10_p(k);
+    std::vector<double> before(k + 1, 0.0), after(k + 1, 0.0);  // expected totals before / from each cell
+    for (std::size_t i = 0; i < k; ++i) before[i + 1] = before[i] + expected[i];
+    for (std::size_t i = k; i-- > 0;) after[i] = after[i + 1] + expected[i];
     for (std::size_t i = 0; i < k; ++i) {
         CategoryDiagnostic& d = r.categories[i];
         const double o = observed[i], e = expected[i], share = e / e_total;
@@ -69,7 +72,10 @@ Status category_diagnostics(const std::vector<std::string>& labels, const std::v
         d.expected_share = share;
         d.contribution = d.difference * d.difference / e;
         d.pearson_residual = d.difference / std::sqrt(e);
-        d.adjusted_residual = d.difference / std::sqrt(e * (1 - share));
+        // 1 - p as the other cells' expected total over the total: a share within rounding of 1
+        // (the others ~1e-17) would otherwise give 1 - p = 0 and a 0/0 (found by fuzz_engine).
+        const double rest = before[i] + after[i + 1];
+        d.adjusted_residual = d.difference / std::sqrt(e * (rest / e_total));
         d.binomial = binomial_test_two_sided(o, n, share);
         if (std::isnan(d.binomial.p)) return Status::failure("The exact binomial test failed for \"" + labels[i] + "\".");
         p_values[i] = d.binomial.p;

@@ -15,6 +15,7 @@
 #include <vector>
 
 #include "analysis.hpp"
+#include "analysis_document.hpp"
 #include "goodness_of_fit.hpp"
 #include "pvalue_job.hpp"
 
@@ -291,6 +292,8 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
         if (pv & 64) a.plan.target_power = b.u8() / 255.0;
     }
 
+    // TALLYPROOF_FUZZ_PRINT=1 when replaying a finding: the analysis as a document, first.
+    if (std::getenv("TALLYPROOF_FUZZ_PRINT")) std::fprintf(stderr, "%s\n", write_analysis_document(a).c_str());
     const Result r = analyse(a);
     tallyproof_fuzz::check_result(a, r);
     if (!r.status.ok || a.pvalue.method == PValueMethod::asymptotic) return 0;

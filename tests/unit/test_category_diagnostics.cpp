@@ -236,3 +236,17 @@ TEST_CASE("bad arguments are refused") {
     }
     CHECK(d.categories.empty());
 }
+
+TEST_CASE("adjusted residuals stay finite when one cell holds almost all the expected count") {
+    // Found by fuzz_engine: an expected share within rounding of 1 made 1 - p = 0 and the
+    // adjusted residual 0/0. With two cells the two adjusted residuals are equal and opposite in
+    // exact arithmetic (common practice: (O - E) sums to 0 and E(1 - p) is the same for both).
+    CategoryDiagnostics d;
+    const double tiny = 1.9116391452262784e-16;
+    REQUIRE(category_diagnostics({"x", "y"}, {9, 0}, {9 - tiny, tiny}, {}, &d).ok);
+    for (const auto& c : d.categories) {
+        CAPTURE(c.label);
+        CHECK(std::isfinite(c.adjusted_residual));
+        CHECK(std::fabs(c.adjusted_residual) < 1e-7);  // sqrt(tiny): both are negligible
+    }
+}
