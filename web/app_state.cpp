@@ -307,8 +307,7 @@ void read_bins(AppState& s, BinChoice b) {
     ParseOptions o;
     o.shape = InputShape::raw_bins;
     o.bins = b;
-    const std::string text = s.pasted_text;
-    read_paste(s, text, o);
+    read_paste(s, s.pasted_text, o);  // read_paste does not change pasted_text while reading it
 }
 }  // namespace
 
@@ -324,8 +323,7 @@ void reread_paste(AppState& s, int shape, int digit_test) {
     ParseOptions o;
     o.shape = static_cast<InputShape>(shape);
     if (digit_test >= 0) o.digits = static_cast<DigitTest>(digit_test);
-    const std::string text = s.pasted_text;
-    read_paste(s, text, o);
+    read_paste(s, s.pasted_text, o);  // read_paste does not change pasted_text while reading it
 }
 
 void read_paste_into_bins(AppState& s, BinChoice::Kind kind, ModelKind model) {
@@ -371,10 +369,14 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
             sync_editor_from_model(s);
         }
     }
-    // Kept for "Read as", refused or not: another reading may be what the user meant.
+    // Kept for "Read as", refused or not: another reading may be what the user meant. Above
+    // 8 MB it is not kept twice. A re-reading passes s.pasted_text itself: no copy then.
     if (text.size() <= (8u << 20)) {
-        s.pasted_text = std::string(text);
+        if (text.data() != s.pasted_text.data()) s.pasted_text.assign(text.data(), text.size());
         s.pasted_shape = static_cast<int>(parsed.shape);
+    } else {
+        s.pasted_text.clear();
+        s.pasted_shape = -1;
     }
     s.pasted_bins = parsed.shape == InputShape::raw_bins ? options.bins : BinChoice{};
     s.bin_editor.error.clear();
@@ -398,13 +400,6 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     for (const auto& n : parsed.notes) notes += (notes.empty() ? "" : " ") + n;
     for (const auto& n : parsed.alternatives) notes += (notes.empty() ? "" : " ") + n;
     set_notice(s, notes);
-    if (text.size() <= (8u << 20)) {  // kept for "Read as"; larger pastes are not kept twice
-        s.pasted_text = std::string(text);
-        s.pasted_shape = static_cast<int>(parsed.shape);
-    } else {
-        s.pasted_text.clear();
-        s.pasted_shape = -1;
-    }
 }
 }  // namespace
 

@@ -112,7 +112,7 @@ void render_chart_export(Page& p, const tallyproof::web::ChartExport& e) {
 // Feeds this frame's events to ImGui. A key or button released in the same frame as it was
 // pressed would never be seen as pressed (the loop sleeps while idle, so a quick tap can arrive
 // whole): the release and everything after it wait for the next frame.
-void take_events(Page& p) {
+bool take_events(Page& p) {
     std::vector<SDL_Event> events;
     events.swap(p.deferred);
     SDL_Event ev;
@@ -135,11 +135,12 @@ void take_events(Page& p) {
         p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);  // ImGui settles within a few frames
     }
     if (!p.deferred.empty()) p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);
+    return !events.empty();
 }
 
 void frame() {
     Page& p = *g_page;
-    take_events(p);
+    const bool input = take_events(p);
     fit_to_stage(p);
     // Exact and Monte Carlo work runs in the page's own tasks between frames (tp_work), not
     // inside the animation frame, so it never waits for the display's refresh.
@@ -164,6 +165,14 @@ void frame() {
         p.paused = true;
         emscripten_pause_main_loop();
         return;
+    }
+    if (p.state.job_running && !input && p.state.exports.empty()) {
+        // While work runs, a frame without input is drawn only to move the progress bar, about
+        // four times a second: each presented frame delays the next work task (by ~50 ms with
+        // software WebGL), and nothing else on screen changes.
+        const double now = emscripten_get_now();
+        if (now - p.last_job_frame_ms < 250) return;
+        p.last_job_frame_ms = now;
     }
     --p.state.frames_to_draw;
 
@@ -223,10 +232,7 @@ EMSCRIPTEN_KEEPALIVE int tp_work(double budget_ms) {
     Page& p = *g_page;
     tallyproof::web::step_job(p.state, budget_ms);
     const double now = emscripten_get_now();
-    if (!p.state.job_running || now - p.last_job_frame_ms >= 250) {
-        p.last_job_frame_ms = now;
-        want_frames(p, 2);
-    }
+    if (!p.state.job_running || now - p.last_job_frame_ms >= 250) want_frames(p, 2);  // frame() stamps the time
     return p.state.job_running ? 1 : 0;
 }
 // Cancels running exact or Monte Carlo work (the page's Escape key).
