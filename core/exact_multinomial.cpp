@@ -153,7 +153,15 @@ double multinomial_outcome_count(int n, int k) {
     return c < 9e15 ? std::round(c) : c;
 }
 
-Status make_outcome_scores(const MultinomialTestSpec& spec, OutcomeScores* sc) {
+double outcome_score(const OutcomeScores& sc, std::size_t j, int x) {
+    const double pi = sc.shares[j];
+    if (sc.ordering == ExtremeOrdering::statistic) return power_divergence_term(x, sc.n * pi, sc.lambda);
+    const double lf = sc.log_factorial.empty() ? boost::math::lgamma(x + 1.0, quiet_policy())
+                                               : sc.log_factorial[static_cast<std::size_t>(x)];
+    return lf - x * std::log(pi);
+}
+
+Status make_outcome_scores(const MultinomialTestSpec& spec, OutcomeScores* sc, bool windowed) {
     *sc = OutcomeScores{};
     const std::size_t k = spec.observed.size();
     char buf[320];
@@ -201,10 +209,13 @@ Status make_outcome_scores(const MultinomialTestSpec& spec, OutcomeScores* sc) {
         return Status::failure(buf);
     }
     sc->ordering = spec.ordering;
+    sc->lambda = spec.lambda;
     sc->n = static_cast<int>(n);
     const int N = sc->n;
-    sc->log_factorial.resize(static_cast<std::size_t>(N) + 1);
-    for (int x = 0; x <= N; ++x) sc->log_factorial[x] = boost::math::lgamma(x + 1.0, quiet_policy());
+    if (!windowed) {
+        sc->log_factorial.resize(static_cast<std::size_t>(N) + 1);
+        for (int x = 0; x <= N; ++x) sc->log_factorial[x] = boost::math::lgamma(x + 1.0, quiet_policy());
+    }
     for (std::size_t i = 0; i < k; ++i) {
         if (spec.null_shares[i] == 0) continue;
         sc->kept.push_back(i);
@@ -212,25 +223,28 @@ Status make_outcome_scores(const MultinomialTestSpec& spec, OutcomeScores* sc) {
         sc->observed.push_back(static_cast<int>(spec.observed[i]));
     }
     for (std::size_t j = 0; j < sc->shares.size(); ++j) {
-        std::vector<double> row(static_cast<std::size_t>(N) + 1);
-        const double pi = sc->shares[j];
-        if (spec.ordering == ExtremeOrdering::statistic) {
-            const double e = N * pi;
-            for (int x = 0; x <= N; ++x) row[x] = power_divergence_term(x, e, spec.lambda);
-        } else {
-            const double lp = std::log(pi);
-            for (int x = 0; x <= N; ++x) row[x] = sc->log_factorial[x] - x * lp;
+        int lo = 0, hi = N;
+        if (windowed) {  // N pi_j +- 40 sd (probability below 1e-300 outside); the rest by outcome_score
+            const double mean = N * sc->shares[j], reach = 40 * std::sqrt(mean * (1 - sc->shares[j])) + 2;
+            if (mean - reach > 0) lo = static_cast<int>(mean - reach);
+            if (mean + reach < N) hi = static_cast<int>(mean + reach);
         }
-        for (double v : row)
-            if (!std::isfinite(v)) {
-                std::snprintf(buf, sizeof buf, "The statistic overflows for category %zu at lambda = %g.",
-                              sc->kept[j] + 1, spec.lambda);
-                return Status::failure(buf);
-            }
+        std::vector<double> row(static_cast<std::size_t>(hi - lo) + 1);
+        for (int x = lo; x <= hi; ++x) row[static_cast<std::size_t>(x - lo)] = outcome_score(*sc, j, x);
+        // The term is convex in x, so the ends of 0..N bound a windowed row.
+        const double ends[2] = {outcome_score(*sc, j, 0), outcome_score(*sc, j, N)};
+        bool finite = std::isfinite(ends[0]) && std::isfinite(ends[1]);
+        for (double v : row) finite = finite && std::isfinite(v);
+        if (!finite) {
+            std::snprintf(buf, sizeof buf, "The statistic overflows for category %zu at lambda = %g.",
+                          sc->kept[j] + 1, spec.lambda);
+            return Status::failure(buf);
+        }
         sc->score.push_back(std::move(row));
+        sc->score_lo.push_back(lo);
     }
     double t = 0;
-    for (std::size_t j = 0; j < sc->shares.size(); ++j) t = t + sc->score[j][sc->observed[j]];
+    for (std::size_t j = 0; j < sc->shares.size(); ++j) t = t + outcome_score(*sc, j, sc->observed[j]);
     sc->observed_score = t;
     sc->threshold = spec.ordering == ExtremeOrdering::statistic ? t - kTieRelativeTolerance * std::fabs(t)
                                                                 : t - kTieRelativeTolerance;

@@ -41,15 +41,21 @@ struct OutcomeScores {
     std::vector<std::size_t> kept;             // original index of each category used
     std::vector<double> shares;                // pi_j of the kept categories, summing to 1
     std::vector<int> observed;                 // observed counts of the kept categories
-    std::vector<std::vector<double>> score;    // [j][x], x = 0..n
-    std::vector<double> log_factorial;         // log x!, x = 0..n
+    std::vector<std::vector<double>> score;    // [j][x - score_lo[j]], x = 0..n unless windowed
+    std::vector<int> score_lo;                 // first x of each row: 0 unless windowed
+    double lambda = 1;                         // of the power divergence (statistic ordering)
+    std::vector<double> log_factorial;         // log x!, x = 0..n (empty when windowed)
     double observed_score = 0;                 // T(observed)
     double threshold = 0;                      // observed_score less the tie tolerance
 };
 
 // Validates the spec (refusals name the bad input) and builds the score tables. Refuses
 // lambda <= -1 (infinite statistic at every outcome with an empty category) and N * k > 2e7.
-Status make_outcome_scores(const MultinomialTestSpec& spec, OutcomeScores* scores);
+// windowed (for Monte Carlo): each row holds only x within 40 standard deviations of N pi_j and
+// log_factorial is left empty, so memory does not grow with N * k; outcome_score gives the rest.
+Status make_outcome_scores(const MultinomialTestSpec& spec, OutcomeScores* scores, bool windowed = false);
+// T_j(x) for any x in 0..n, the same value a full row holds.
+double outcome_score(const OutcomeScores& scores, std::size_t j, int x);
 
 struct ExactMultinomialOptions {
     double max_work = 1e8;  // refuse when the estimated work units exceed this (~1e8 units/s natively)

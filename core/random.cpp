@@ -1,7 +1,11 @@
 // Portable seeded random numbers: xoshiro256** with splitmix64 seeding (Blackman & Vigna 2021),
 // Lemire's (2019) unbiased bounded integers, and binomial/multinomial sampling by Walker alias
-// tables (Vose 1991 construction). Integer ops and IEEE +,-,*,/ only (no libm), so results do
-// not depend on the platform's math library; tails below 2^-64 of the mode weight are omitted.
+// tables (Vose 1991 construction). A binomial of m > kDirectMaxTrials trials is the sum of two
+// independent binomials with the same q, Bin(c B, q) + Bin(r, q), m = c B + r, r < B (additivity of
+// the binomial; Johnson, Kemp & Kotz 2005, Univariate Discrete Distributions, 3rd ed., ch. 3): exact,
+// and it needs one table per (category, c) instead of one per (category, m), whose number and size
+// both grow with N. Integer ops and IEEE +,-,*,/ only (no libm), so results do not depend on the
+// platform's math library; each table omits tails below 2^-64 of its mode weight (< 1e-15 in total).
 #include "random.hpp"
 
 #include <algorithm>
@@ -152,40 +156,102 @@ bool make_multinomial_sampler(int n, const std::vector<double>& pi, MultinomialS
         s->q[j] = rest[j] > 0 ? pi[j] / rest[j] : 0.0;
         s->odds[j] = rest[j + 1] > 0 ? pi[j] / rest[j + 1] : std::numeric_limits<double>::infinity();
     }
-    s->slots.assign(k * (static_cast<std::size_t>(n) + 1), MultinomialSampler::Slot{});
+    s->direct_size = static_cast<std::size_t>(std::min(n, kDirectMaxTrials)) + 1;
+    s->direct.assign(k, {});  // rows are made on first use
     return true;
 }
 
+namespace {
+
+void clear_cache(MultinomialSampler* s) {
+    for (auto& row : s->direct) std::vector<MultinomialSampler::Slot>().swap(row);
+    s->blocks.clear();
+    s->owned.clear();
+    s->cached_entries = 0;
+}
+
+// Makes room for `entries` more cache entries, emptying the cache if the bound would be passed.
+void reserve_entries(MultinomialSampler* s, std::size_t entries) {
+    if (s->cached_entries + entries > s->max_cached_entries) clear_cache(s);
+    s->cached_entries += entries;
+}
+
+MultinomialSampler::Slot build_slot(MultinomialSampler* s, std::size_t j, int trials) {
+    auto made = std::make_shared<const AliasTable>(binomial_alias_table(trials, s->q[j], s->odds[j]));
+    reserve_entries(s, made->columns.size());
+    MultinomialSampler::Slot slot;
+    slot.columns = made->columns.data();
+    slot.lo = made->lo;
+    slot.size = static_cast<std::uint32_t>(made->columns.size());
+    s->owned.push_back(std::move(made));
+    return slot;
+}
+
+// The table of Bin(m, q_j), m <= kDirectMaxTrials. The returned slot stays valid until the next
+// table is built.
+const MultinomialSampler::Slot& direct_slot(MultinomialSampler* s, std::size_t j, int m) {
+    std::vector<MultinomialSampler::Slot>* row = &s->direct[j];
+    if (row->empty()) {
+        reserve_entries(s, s->direct_size);
+        row->assign(s->direct_size, MultinomialSampler::Slot{});
+    }
+    MultinomialSampler::Slot* slot = &(*row)[static_cast<std::size_t>(m)];
+    if (!slot->columns) {
+        const MultinomialSampler::Slot made = build_slot(s, j, m);
+        if (row->empty()) {  // the cache was emptied to make room
+            reserve_entries(s, s->direct_size);
+            row->assign(s->direct_size, MultinomialSampler::Slot{});
+            slot = &(*row)[static_cast<std::size_t>(m)];
+        }
+        *slot = made;
+    }
+    return *slot;
+}
+
+// The table of Bin(c B, q_j).
+MultinomialSampler::Slot block_slot(MultinomialSampler* s, std::size_t j, int c) {
+    const std::uint64_t key = static_cast<std::uint64_t>(j) * (static_cast<std::uint64_t>(s->n / kBlockTrials) + 1) +
+                              static_cast<std::uint64_t>(c);
+    auto it = s->blocks.find(key);
+    if (it != s->blocks.end()) return it->second;
+    const MultinomialSampler::Slot made = build_slot(s, j, c * kBlockTrials);
+    reserve_entries(s, 4);  // the map node, roughly
+    s->blocks.emplace(key, made);
+    return made;
+}
+
+inline int draw(const MultinomialSampler::Slot& slot, Xoshiro256* g) {
+    int x = slot.lo;
+    if (slot.size > 1) {  // same arithmetic as sample_alias
+        const double u = next_unit(g) * static_cast<double>(slot.size);
+        const std::uint32_t col = static_cast<std::uint32_t>(u);
+        const AliasColumn& c = slot.columns[col];
+        x += static_cast<int>(u - col < c.accept ? col : c.alias);
+    }
+    return x;
+}
+
+}  // namespace
+
+inline int binomial_draw(MultinomialSampler* s, std::size_t j, int m, Xoshiro256* g) {
+    if (m == 0) return 0;
+    if (m <= kDirectMaxTrials) {
+        const std::vector<MultinomialSampler::Slot>& row = s->direct[j];
+        if (!row.empty() && row[static_cast<std::size_t>(m)].columns) return draw(row[static_cast<std::size_t>(m)], g);
+        return draw(direct_slot(s, j, m), g);
+    }
+    const int c = m / kBlockTrials, r = m % kBlockTrials;
+    const int x = draw(block_slot(s, j, c), g);  // drawn before the next table may empty the cache
+    return r == 0 ? x : x + draw(direct_slot(s, j, r), g);
+}
+
+int sample_binomial(MultinomialSampler* s, std::size_t j, int m, Xoshiro256* g) { return binomial_draw(s, j, m, g); }
+
 void sample_multinomial(MultinomialSampler* s, Xoshiro256* g, int* counts) {
     const std::size_t k = s->q.size();
-    const std::size_t stride = static_cast<std::size_t>(s->n) + 1;
     int m = s->n;
     for (std::size_t j = 0; j + 1 < k; ++j) {
-        if (m == 0) {
-            counts[j] = 0;
-            continue;
-        }
-        MultinomialSampler::Slot* slot = &s->slots[j * stride + static_cast<std::size_t>(m)];
-        if (!slot->columns) {
-            auto made = std::make_shared<const AliasTable>(binomial_alias_table(m, s->q[j], s->odds[j]));
-            if (s->cached_entries + made->columns.size() > s->max_cached_entries) {
-                std::fill(s->slots.begin(), s->slots.end(), MultinomialSampler::Slot{});
-                s->owned.clear();
-                s->cached_entries = 0;
-            }
-            s->cached_entries += made->columns.size();
-            slot->columns = made->columns.data();
-            slot->lo = made->lo;
-            slot->size = static_cast<std::uint32_t>(made->columns.size());
-            s->owned.push_back(std::move(made));
-        }
-        int x = slot->lo;
-        if (slot->size > 1) {  // same arithmetic as sample_alias
-            const double u = next_unit(g) * static_cast<double>(slot->size);
-            const std::uint32_t col = static_cast<std::uint32_t>(u);
-            const AliasColumn& c = slot->columns[col];
-            x += static_cast<int>(u - col < c.accept ? col : c.alias);
-        }
+        const int x = binomial_draw(s, j, m, g);
         counts[j] = x;
         m -= x;
     }

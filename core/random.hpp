@@ -1,12 +1,17 @@
 // Portable seeded random numbers: xoshiro256** (Blackman & Vigna 2021, ACM TOMS 47(4):36) seeded
 // by splitmix64 (Steele, Lea & Flood 2014, OOPSLA); Lemire (2019, ACM TOMACS 29:3) bounded integers;
 // binomial and multinomial draws by Walker (1977, ACM TOMS 3:253) alias tables, Vose (1991) build.
+// Binomials of more than kDirectMaxTrials trials are drawn as the sum of two independent binomials
+// with the same q, Bin(c B, q) + Bin(m - c B, q) with B = kBlockTrials (the binomial's additivity,
+// Johnson, Kemp & Kotz 2005, Univariate Discrete Distributions, 3rd ed., ch. 3), each from its
+// own alias table, so only a few tables per category are needed however large the total.
 // Integer ops and IEEE +,-,*,/ only, so a seed gives bit-identical draws natively and in
-// WebAssembly; tables omit only tail weights below 2^-64 of the mode's (< 1e-15 in total).
+// WebAssembly; tables omit only tail weights below 2^-64 of the mode's (< 1e-15 in total per table).
 #pragma once
 #include <cstddef>
 #include <cstdint>
 #include <memory>
+#include <unordered_map>
 #include <vector>
 
 namespace tallyproof {
@@ -37,8 +42,13 @@ AliasTable binomial_alias_table(int n, double q, double odds);
 // probabilities are resolved to size * 2^-53 (about 1e-13 for tables of 1000 columns).
 int sample_alias(const AliasTable& t, Xoshiro256* g);
 
-// Multinomial(n, pi) sampler by sequential conditional binomials; alias tables are built on
-// first use per (category, remaining count) and cached (the cache changes speed, never draws).
+// Multinomial(n, pi) sampler by sequential conditional binomials. A binomial of m <= kDirectMaxTrials
+// trials is drawn from one alias table for (category, m); a larger one as Bin(c B, q) + Bin(r, q),
+// m = c B + r, r < B = kBlockTrials, from the table for (category, c) and the one for (category, r).
+// Tables are built on first use and cached; when the cache would exceed max_cached_entries
+// (columns plus slots, 16 bytes each) it is emptied. The cache changes speed, never draws.
+constexpr int kDirectMaxTrials = 4096;
+constexpr int kBlockTrials = 512;
 struct MultinomialSampler {
     int n = 0;
     std::vector<double> q;     // q[j] = pi_j / (pi_j + ... + pi_{k-1})
@@ -48,7 +58,9 @@ struct MultinomialSampler {
         int lo = 0;
         std::uint32_t size = 0;
     };
-    std::vector<Slot> slots;                               // [j * (n + 1) + remaining]
+    std::size_t direct_size = 0;                           // min(n, kDirectMaxTrials) + 1
+    std::vector<std::vector<Slot>> direct;                 // [j][m], m <= kDirectMaxTrials; rows made on first use
+    std::unordered_map<std::uint64_t, Slot> blocks;        // key j * (n / B + 1) + c: table of Bin(c B, q_j)
     std::vector<std::shared_ptr<const AliasTable>> owned;  // keeps the cached tables alive
     std::size_t cached_entries = 0;
     std::size_t max_cached_entries = std::size_t(1) << 22;  // 16 B each: 64 MB; cleared when exceeded
@@ -58,5 +70,7 @@ struct MultinomialSampler {
 // Returns false (and leaves *s empty) on bad arguments.
 bool make_multinomial_sampler(int n, const std::vector<double>& pi, MultinomialSampler* s);
 void sample_multinomial(MultinomialSampler* s, Xoshiro256* g, int* counts);  // counts[k]
+// One draw of Bin(m, q[j]) as sample_multinomial makes it (j + 1 < k, 0 <= m <= n).
+int sample_binomial(MultinomialSampler* s, std::size_t j, int m, Xoshiro256* g);
 
 }  // namespace tallyproof

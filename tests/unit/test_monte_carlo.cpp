@@ -2,6 +2,8 @@
 // p-value within 4 standard errors, the sampler's distribution, slicing and refusals.
 #include <doctest/doctest.h>
 
+#include <boost/math/distributions/binomial.hpp>
+#include <boost/math/distributions/chi_squared.hpp>
 #include <cmath>
 #include <vector>
 
@@ -33,7 +35,121 @@ MonteCarloResult mc(const MultinomialTestSpec& spec, std::uint64_t replicates, s
     return r;
 }
 
+// Pearson chi-square of `draws` draws of Bin(m, q) from the sampler's path against Boost's binomial
+// pmf, in cells of expected count >= 50 (tails merged into the end cells); checks the sample mean and
+// variance against m q and m q (1 - q) within 4 standard errors.
+void check_binomial_draws(int m, double q, int draws, std::uint64_t seed) {
+    CAPTURE(m);
+    CAPTURE(q);
+    MultinomialSampler s;
+    REQUIRE(make_multinomial_sampler(m, {q, 1 - q}, &s));
+    Xoshiro256 g = seed_xoshiro256(seed);
+    const boost::math::binomial_distribution<double> dist(m, q);
+    const double mean = m * q, var = m * q * (1 - q), sd = std::sqrt(var);
+    const int a = std::max(0, static_cast<int>(mean - 12 * sd)), b = std::min(m, static_cast<int>(mean + 12 * sd) + 1);
+    std::vector<long long> hits(static_cast<std::size_t>(b - a) + 1, 0);
+    long long outside = 0;
+    double sum = 0, sum2 = 0;
+    for (int i = 0; i < draws; ++i) {
+        const int x = sample_binomial(&s, 0, m, &g);
+        REQUIRE((x >= 0 && x <= m));
+        if (x < a || x > b) ++outside; else ++hits[static_cast<std::size_t>(x - a)];
+        sum += x;
+        sum2 += (x - mean) * (x - mean);
+    }
+    CHECK(outside == 0);  // P(beyond 12 sd) < 1e-20 for these m, q (Boost binomial cdf)
+    // Cells: walk x = a..b gathering expected counts (Boost pmf) until each holds >= 50.
+    double chi2 = 0, cell_e = draws * (a > 0 ? boost::math::cdf(dist, a - 1.0) : 0.0), cell_o = 0;
+    int cells = 0;
+    for (int x = a; x <= b; ++x) {
+        cell_e += draws * boost::math::pdf(dist, x);
+        cell_o += static_cast<double>(hits[static_cast<std::size_t>(x - a)]);
+        if (x == b) cell_e += draws * boost::math::cdf(boost::math::complement(dist, static_cast<double>(b)));
+        if (cell_e >= 50 || x == b) {
+            chi2 += (cell_o - cell_e) * (cell_o - cell_e) / cell_e;
+            ++cells;
+            cell_e = cell_o = 0;
+        }
+    }
+    // Fails with probability 1e-6 if the draws are exactly binomial (Boost chi-square quantile).
+    const double limit = boost::math::quantile(boost::math::complement(boost::math::chi_squared(cells - 1), 1e-6));
+    CAPTURE(cells);
+    CHECK(chi2 < limit);
+    // Mean: SE sd / sqrt(draws); variance: SE ~ var sqrt(2 / draws) (normal fourth moment).
+    CHECK(std::fabs(sum / draws - mean) < 4 * sd / std::sqrt(static_cast<double>(draws)));
+    CHECK(std::fabs(sum2 / draws - var) < 4 * var * std::sqrt(2.0 / draws));
+}
+
 }  // namespace
+
+TEST_CASE("binomials of many trials (two-table path) follow Boost's binomial pmf") {
+    check_binomial_draws(1000000, 0.3, 1000000, 11);  // 1953 blocks of 512 and 64 more
+    check_binomial_draws(4097, 0.01, 300000, 12);     // just past the one-table path
+    check_binomial_draws(250000, 0.97, 300000, 13);
+    check_binomial_draws(5120, 0.5, 300000, 14);      // whole blocks only
+}
+
+TEST_CASE("a bounded cache gives the same draws as a large one") {
+    MultinomialSampler big, tiny;
+    const std::vector<double> pi = {0.301, 0.176, 0.125, 0.097, 0.079, 0.067, 0.058, 0.051, 0.046};
+    REQUIRE(make_multinomial_sampler(1000000, pi, &big));
+    REQUIRE(make_multinomial_sampler(1000000, pi, &tiny));
+    tiny.max_cached_entries = 20000;  // emptied again and again
+    Xoshiro256 g1 = seed_xoshiro256(3), g2 = seed_xoshiro256(3);
+    std::vector<int> a(pi.size()), b(pi.size());
+    bool same = true;
+    for (int r = 0; r < 2000; ++r) {
+        sample_multinomial(&big, &g1, a.data());
+        sample_multinomial(&tiny, &g2, b.data());
+        same = same && a == b;
+        long long total = 0;
+        for (int x : a) total += x;
+        same = same && total == 1000000;
+    }
+    CHECK(same);
+    CHECK(tiny.cached_entries <= tiny.max_cached_entries);
+    CHECK(big.cached_entries < (std::size_t(1) << 22));
+}
+
+TEST_CASE("windowed outcome scores equal the full rows") {
+    for (ExtremeOrdering ord : {ExtremeOrdering::statistic, ExtremeOrdering::probability}) {
+        const MultinomialTestSpec spec = spec_of({12000, 31000, 7000}, {0.25, 0.6, 0.15}, ord, 2.0 / 3);
+        OutcomeScores full, win;
+        REQUIRE(make_outcome_scores(spec, &full).ok);
+        REQUIRE(make_outcome_scores(spec, &win, true).ok);
+        CHECK(win.observed_score == full.observed_score);
+        CHECK(win.threshold == full.threshold);
+        bool same = true;
+        for (std::size_t j = 0; j < 3; ++j) {
+            CHECK(win.score_lo[j] > 0);  // the window is narrower than 0..N here
+            for (int x = 0; x <= full.n; ++x) {
+                same = same && outcome_score(win, j, x) == full.score[j][static_cast<std::size_t>(x)];
+                const int i = x - win.score_lo[j];
+                if (i >= 0 && i < static_cast<int>(win.score[j].size()))
+                    same = same && win.score[j][static_cast<std::size_t>(i)] == full.score[j][static_cast<std::size_t>(x)];
+            }
+        }
+        CHECK(same);
+    }
+}
+
+TEST_CASE("Monte Carlo at N = 2e5 agrees with the chi-square p-value within 4 standard errors; reproducible") {
+    // At N = 2e5 with every expected count >= 20000 the Pearson statistic's chi-square(4) approximation
+    // is accurate to far below the Monte Carlo error (Boost's chi-square complement as the reference).
+    const std::vector<double> pi = {0.1, 0.2, 0.3, 0.25, 0.15};
+    const std::vector<double> obs = {20150, 39800, 60100, 49900, 30050};
+    double x2 = 0;
+    for (std::size_t j = 0; j < 5; ++j) x2 += (obs[j] - 2e5 * pi[j]) * (obs[j] - 2e5 * pi[j]) / (2e5 * pi[j]);
+    const double asym = boost::math::cdf(boost::math::complement(boost::math::chi_squared(4), x2));
+    const MultinomialTestSpec spec = spec_of(obs, pi, ExtremeOrdering::statistic, 1);
+    const MonteCarloResult a = mc(spec, 40000, 77), b = mc(spec, 40000, 77);
+    CAPTURE(asym);
+    CAPTURE(a.p);
+    CHECK(std::fabs(a.p - asym) < 4 * a.standard_error + 1.0 / 40001);
+    CHECK(a.observed_score == doctest::Approx(x2).epsilon(1e-12));
+    CHECK(a.extreme == b.extreme);
+    CHECK(a.p == b.p);
+}
 
 TEST_CASE("splitmix64 seeding and xoshiro256** outputs match the reference algorithm") {
     // splitmix64 from state 0: first outputs 0xe220a8397b1dcdaf, 0x6e789e6aa1b965f4, ... (widely
