@@ -104,6 +104,14 @@ export const tests = {
       const native = JSON.parse(execFileSync(new URL('../../build/native/shell/tallyproof', import.meta.url).pathname, ['--json', '-'],
         { input: JSON.stringify(doc) }).toString());
       assert(native.monte_carlo.hits === r.monte_carlo.hits, `browser b = ${r.monte_carlo.hits}, native b = ${native.monte_carlo.hits}`);
+      // A total above 4096 takes the sampler's split-binomial path: the same hits here too.
+      const big = { categories: ['A', 'B', 'C', 'D'], observed: [2100, 1900, 2050, 1950], pvalue: { method: 'monte-carlo', replicates: 5000, seed: 9 } };
+      await page.evaluate((d) => globalThis.tallyproofPage.paste(JSON.stringify(d)), big);
+      await page.waitForFunction(() => { const x = JSON.parse(globalThis.tallyproofPage.lastResult); return x.monte_carlo && x.monte_carlo.p_value && x.monte_carlo.seed === 9; }, null, { timeout: 20000 });
+      const rb = await lastResult(page);
+      const nb = JSON.parse(execFileSync(new URL('../../build/native/shell/tallyproof', import.meta.url).pathname, ['--json', '-'],
+        { input: JSON.stringify(big) }).toString());
+      assert(nb.monte_carlo.hits === rb.monte_carlo.hits, `N = 8000: browser b = ${rb.monte_carlo.hits}, native b = ${nb.monte_carlo.hits}`);
     });
   },
 
