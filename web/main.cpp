@@ -132,6 +132,17 @@ bool take_events(Page& p) {
         if (e.type == SDL_KEYDOWN) keys_down.push_back(e.key.keysym.sym);
         if (e.type == SDL_MOUSEBUTTONDOWN) buttons_down.push_back(e.button.button);
         ImGui_ImplSDL2_ProcessEvent(&e);
+        if (e.type == SDL_KEYDOWN || e.type == SDL_KEYUP) {
+            // The backend reads modifiers from SDL_GetModState(), which already reflects every
+            // event polled above: a quick Ctrl+A would be seen with Ctrl released. Use the
+            // modifiers as they were when this key event happened.
+            ImGuiIO& io = ImGui::GetIO();
+            const Uint16 mod = e.key.keysym.mod;
+            io.KeyShift = (mod & KMOD_SHIFT) != 0;
+            io.KeyCtrl = (mod & KMOD_CTRL) != 0;
+            io.KeyAlt = (mod & KMOD_ALT) != 0;
+            io.KeySuper = (mod & KMOD_GUI) != 0;
+        }
         p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);  // ImGui settles within a few frames
     }
     if (!p.deferred.empty()) p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);
