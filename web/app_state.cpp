@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <initializer_list>
 #include <cstdlib>
 
 #include "analysis_document.hpp"
@@ -186,37 +187,72 @@ void load_demo(AppState& s, int index) {
 }
 
 namespace {
-// A refused paste or document: its message, where it points, and the text kept for editing.
+// The cells of one pasted line, split the way a spreadsheet paste usually is: tabs, else
+// semicolons, else commas, else runs of spaces. Only for showing the line; the parser decides.
+std::vector<std::string> display_cells(std::string_view line) {
+    char sep = 0;
+    for (char c : {'\t', ';', ','})
+        if (line.find(c) != std::string_view::npos) { sep = c; break; }
+    std::vector<std::string> cells;
+    std::string cell;
+    for (char c : line) {
+        const bool split = sep ? c == sep : c == ' ';
+        if (!split) { cell += c; continue; }
+        if (sep || !cell.empty()) cells.push_back(cell);
+        cell.clear();
+    }
+    if (sep || !cell.empty() || cells.empty()) cells.push_back(cell);
+    return cells;
+}
+
+// A refused paste or document: its message, the cells of the line it points at (found once,
+// here, not in every frame), and the whole text when it is small enough to edit on the page.
 void record_refusal(AppState& s, std::string_view text, const Status& problem) {
-    s.rejected_text = std::string(text.substr(0, 4000));
     s.rejected_message = problem.message;
     s.rejected_line = problem.line;
     s.rejected_column = problem.column;
-    if (text.size() <= kFixableBytes) s.fix_text = std::string(text);
-    else {
-        s.fix_text.clear();
-        s.fix_open = false;
+    s.rejected_cells.clear();
+    if (problem.line > 0) {
+        std::size_t start = 0;
+        for (int line = 1; line < problem.line && start != std::string_view::npos; ++line) {
+            start = text.find('\n', start);
+            if (start != std::string_view::npos) ++start;
+        }
+        if (start != std::string_view::npos) {
+            const std::size_t end = text.find_first_of("\r\n", start);
+            s.rejected_cells = display_cells(text.substr(start, std::min<std::size_t>(200, (end == std::string_view::npos ? text.size() : end) - start)));
+        }
     }
+    if (text.size() <= kFixableBytes) s.refused_paste = std::string(text);
+    else s.refused_paste.clear();
+    s.fix_text.clear();
+    s.fix_open = false;
     publish_error(problem.message);
     s.frames_to_draw = 3;
 }
 
 void clear_refusal(AppState& s) {
-    s.rejected_text.clear();
     s.rejected_message.clear();
     s.rejected_line = 0;
     s.rejected_column = 0;
+    s.rejected_cells.clear();
+    s.refused_paste.clear();
     s.fix_text.clear();
     s.fix_open = false;
 }
 }  // namespace
 
-void edit_refused_paste(AppState& s, bool open) { s.fix_open = open && !s.fix_text.empty(); }
+void edit_refused_paste(AppState& s, bool open) {
+    s.fix_open = open && !s.refused_paste.empty();
+    if (s.fix_open) s.fix_text = s.refused_paste;  // the original stays for the quoted line
+    else s.fix_text.clear();
+}
 
 void apply_fixed_paste(AppState& s) {
-    if (s.fix_text.empty()) return;
-    const std::string text = s.fix_text;  // apply_paste replaces fix_text on a new refusal
+    if (!s.fix_open) return;
+    const std::string text = std::move(s.fix_text);  // apply_paste replaces the refusal state
     apply_paste(s, text);
+    if (!s.rejected_message.empty()) edit_refused_paste(s, true);  // still refused: keep editing
 }
 
 void dismiss_refusal(AppState& s) { clear_refusal(s); }
@@ -527,7 +563,6 @@ void restore_session(AppState& s) {
         const std::string message = s.rejected_message;
         load_demo(s, 0);  // something to look at, with the refusal above it
         s.rejected_message = message;
-        s.rejected_text = fragment.substr(0, 200);
         publish_error(message);
         return;
     }
@@ -536,8 +571,7 @@ void restore_session(AppState& s) {
         s.source_name = "restored from the last session";
         return;
     }
-    s.rejected_message.clear();
-    s.rejected_text.clear();
+    clear_refusal(s);
     load_demo(s, 0);
 }
 
@@ -547,7 +581,6 @@ bool open_share_fragment(AppState& s, const std::string& fragment) {
     if (!st.ok) {
         clear_refusal(s);  // a link is not text to edit here
         s.rejected_message = st.message;
-        s.rejected_text = fragment.substr(0, 200);
         publish_error(st.message);
         s.frames_to_draw = 3;
         return false;

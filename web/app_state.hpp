@@ -69,12 +69,13 @@ struct AppState {
     double job_started_ms = 0;
 
     // The last paste that was refused: shown with its message while the previous analysis stays
-    std::string rejected_text;
     std::string rejected_message;
     int rejected_line = 0;
-    int rejected_column = 0;         // the cell the message names (1-based), 0 when none
-    std::string fix_text;            // the whole refused paste, editable (empty above kFixableBytes)
-    bool fix_open = false;           // the editor for fix_text is shown
+    int rejected_column = 0;                 // the cell the message names (1-based), 0 when none
+    std::vector<std::string> rejected_cells;  // the cells of line rejected_line, as shown (split once)
+    std::string refused_paste;               // the whole refused text, kept only up to kFixableBytes
+    std::string fix_text;                    // its copy in the editor, while fix_open
+    bool fix_open = false;
 
     // The last paste that was read, so the user can have it read as another shape
     std::string pasted_text;

@@ -4,7 +4,6 @@
 #include "panels.hpp"
 
 #include <algorithm>
-#include <initializer_list>
 #include <vector>
 
 #include <imgui_stdlib.h>
@@ -117,35 +116,10 @@ void draw_notice(AppState& s, const Theme& t) {
     ImGui::PopStyleColor();
 }
 
-// The cells of one pasted line, split the way a spreadsheet paste usually is: tabs, else
-// semicolons, else commas, else runs of spaces. Only for showing the line; the parser decides.
-std::vector<std::string> display_cells(const std::string& line) {
-    char sep = 0;
-    for (char c : {'\t', ';', ','})
-        if (line.find(c) != std::string::npos) { sep = c; break; }
-    std::vector<std::string> cells;
-    std::string cell;
-    for (char c : line) {
-        const bool split = sep ? c == sep : c == ' ';
-        if (!split) { cell += c; continue; }
-        if (sep || !cell.empty()) cells.push_back(cell);
-        cell.clear();
-    }
-    if (sep || !cell.empty() || cells.empty()) cells.push_back(cell);
-    return cells;
-}
-
 // The refused line, cell by cell, with the cell the message names boxed in the warning colour.
 void draw_refused_line(const AppState& s, const Theme& t) {
-    int line = 1;
-    std::size_t start = 0;
-    for (std::size_t i = 0; i < s.rejected_text.size() && line < s.rejected_line; ++i)
-        if (s.rejected_text[i] == '\n') { ++line; start = i + 1; }
-    if (line < s.rejected_line) return;  // beyond the kept excerpt
-    const std::size_t end = s.rejected_text.find_first_of("\r\n", start);
-    const std::string text = s.rejected_text.substr(start, std::min<std::size_t>(200, (end == std::string::npos ? s.rejected_text.size() : end) - start));
     ImGui::Text("Line %d:", s.rejected_line);
-    const std::vector<std::string> cells = display_cells(text);
+    const std::vector<std::string>& cells = s.rejected_cells;
     ImDrawList* dl = ImGui::GetWindowDrawList();
     for (std::size_t c = 0; c < cells.size() && c < 12; ++c) {
         ImGui::SameLine(0, c == 0 ? 8.0f : 14.0f);
@@ -180,7 +154,7 @@ void draw_rejection_notice(AppState& s, const Theme& t) {
     float h = ImGui::CalcTextSize(headline.c_str(), nullptr, false, wrap).y + style.ItemSpacing.y;
     ImGui::PopFont();
     h += ImGui::GetFrameHeightWithSpacing();                          // the line with its buttons
-    if (s.rejected_line > 0) h += ImGui::GetTextLineHeightWithSpacing() + 2;
+    if (!s.rejected_cells.empty()) h += ImGui::GetTextLineHeightWithSpacing() + 2;
     const float editor_h = ImGui::GetTextLineHeight() * 8 + style.FramePadding.y * 2;
     if (s.fix_open) h += editor_h + style.ItemSpacing.y + ImGui::GetFrameHeightWithSpacing();
     h += style.WindowPadding.y * 2;
@@ -188,14 +162,14 @@ void draw_rejection_notice(AppState& s, const Theme& t) {
     ImGui::PushFont(t.strong);
     ImGui::TextWrapped("%s", headline.c_str());
     ImGui::PopFont();
-    if (s.rejected_line > 0) draw_refused_line(s, t);
+    if (!s.rejected_cells.empty()) draw_refused_line(s, t);
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("The analysis below is still the previous one.");
-    if (!s.fix_text.empty() && !s.fix_open) {
+    if (!s.refused_paste.empty() && !s.fix_open) {
         ImGui::SameLine();
         if (ImGui::SmallButton("Fix it here")) edit_refused_paste(s, true);
         mark_widget("fix it here");
-    } else if (s.fix_text.empty()) {
+    } else if (s.refused_paste.empty()) {
         ImGui::SameLine();
         ImGui::TextUnformatted("Fix the source and paste again.");
     }
