@@ -50,20 +50,22 @@ inline DoubleDouble quick_two_sum(double a, double b) {
     return {s, e};
 }
 
+// Dekker's split without the overflow guard, for |a| < 2^996 (hot loops that know their range).
+inline void split_small(double a, double* hi, double* lo) {
+    const double t = dd_detail::kSplitter * a;
+    *hi = t - (t - a);
+    *lo = a - *hi;
+}
+
 // a = hi + lo with hi and lo of at most 26 significant bits each (Dekker's split).
 inline void dekker_split(double a, double* hi, double* lo) {
     using namespace dd_detail;
     if (a > kSplitThreshold || a < -kSplitThreshold) {
-        a *= 3.7252902984619140625e-09;  // 2^-28
-        const double t = kSplitter * a;
-        *hi = t - (t - a);
-        *lo = a - *hi;
+        split_small(a * 3.7252902984619140625e-09, hi, lo);  // 2^-28
         *hi *= 268435456.0;  // 2^28
         *lo *= 268435456.0;
     } else {
-        const double t = kSplitter * a;
-        *hi = t - (t - a);
-        *lo = a - *hi;
+        split_small(a, hi, lo);
     }
 }
 

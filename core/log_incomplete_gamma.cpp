@@ -86,13 +86,6 @@ DoubleDouble log_prefix(double a, double x, DoubleDouble ln_a) {
     return dd_log(x) * a - x - log_gamma_small(a);
 }
 
-// Dekker's split without the overflow guard, for |v| < 2^996.
-inline void split_small(double v, double* hi, double* lo) {
-    const double t = 134217729.0 * v;
-    *hi = t - (t - v);
-    *lo = v - *hi;
-}
-
 // ln(sum_{n>=0} x^n / ((a+1)...(a+n))), the series of P(a,x) = x^a e^-x / Gamma(a+1) * sum
 // (Abramowitz and Stegun 6.5.29). Used for x <= a + 1. Each term is held exactly to ~2^-106 as
 // t + e: the ratio r = x / (a+n) and the product t r are rounded doubles whose rounding errors
