@@ -50,18 +50,9 @@ WorkProgress monte_carlo_step(MonteCarloState* st, std::uint64_t budget) {
     int* x = st->counts.data();
     const std::vector<double>* rows = st->s.score.data();
     const int* row_lo = st->s.score_lo.data();
-    bool full_rows = true;  // every row covers 0..n: no bounds to check
-    for (std::size_t j = 0; j < k; ++j)
-        full_rows = full_rows && row_lo[j] == 0 && rows[j].size() == static_cast<std::size_t>(st->s.n) + 1;
-    for (std::uint64_t r = 0; r < todo && full_rows; ++r) {
+    for (std::uint64_t r = 0; r < todo; ++r) {
         sample_multinomial(&st->sampler, &st->rng, x);
         double t = 0;  // summed left to right, exactly as OutcomeScores::observed_score
-        for (std::size_t j = 0; j < k; ++j) t = t + rows[j][static_cast<std::size_t>(x[j])];
-        extreme += t >= threshold ? 1 : 0;
-    }
-    for (std::uint64_t r = 0; r < todo && !full_rows; ++r) {
-        sample_multinomial(&st->sampler, &st->rng, x);
-        double t = 0;
         for (std::size_t j = 0; j < k; ++j) {
             const std::size_t i = static_cast<std::size_t>(x[j] - row_lo[j]);  // wraps when below the row
             t = t + (i < rows[j].size() ? rows[j][i] : outcome_score(st->s, j, x[j]));

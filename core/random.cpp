@@ -130,13 +130,20 @@ AliasTable binomial_alias_table(int n, double q, double odds) {
     return t;
 }
 
-int sample_alias(const AliasTable& t, Xoshiro256* g) {
-    const std::size_t size = t.columns.size();
-    if (size == 1) return t.lo;
+namespace {
+// One draw from alias columns [0, size) offset by lo; every sampler here goes through it, so a
+// seed gives the same draws whichever path a table is reached by.
+inline int draw_columns(const AliasColumn* columns, std::uint32_t size, int lo, Xoshiro256* g) {
+    if (size <= 1) return lo;
     const double x = next_unit(g) * static_cast<double>(size);  // exact: size < 2^31, u on 2^-53 grid
     const std::uint32_t col = static_cast<std::uint32_t>(x);  // truncation = floor for x >= 0
-    const AliasColumn& c = t.columns[col];
-    return t.lo + static_cast<int>(x - col < c.accept ? col : c.alias);
+    const AliasColumn& c = columns[col];
+    return lo + static_cast<int>(x - col < c.accept ? col : c.alias);
+}
+}  // namespace
+
+int sample_alias(const AliasTable& t, Xoshiro256* g) {
+    return draw_columns(t.columns.data(), static_cast<std::uint32_t>(t.columns.size()), t.lo, g);
 }
 
 bool make_multinomial_sampler(int n, const std::vector<double>& pi, MultinomialSampler* s) {
@@ -220,20 +227,11 @@ MultinomialSampler::Slot block_slot(MultinomialSampler* s, std::size_t j, int c)
     return made;
 }
 
-inline int draw(const MultinomialSampler::Slot& slot, Xoshiro256* g) {
-    int x = slot.lo;
-    if (slot.size > 1) {  // same arithmetic as sample_alias
-        const double u = next_unit(g) * static_cast<double>(slot.size);
-        const std::uint32_t col = static_cast<std::uint32_t>(u);
-        const AliasColumn& c = slot.columns[col];
-        x += static_cast<int>(u - col < c.accept ? col : c.alias);
-    }
-    return x;
-}
+inline int draw(const MultinomialSampler::Slot& slot, Xoshiro256* g) { return draw_columns(slot.columns, slot.size, slot.lo, g); }
 
 }  // namespace
 
-inline int binomial_draw(MultinomialSampler* s, std::size_t j, int m, Xoshiro256* g) {
+int sample_binomial(MultinomialSampler* s, std::size_t j, int m, Xoshiro256* g) {
     if (m == 0) return 0;
     if (m <= kDirectMaxTrials) {
         const std::vector<MultinomialSampler::Slot>& row = s->direct[j];
@@ -245,13 +243,11 @@ inline int binomial_draw(MultinomialSampler* s, std::size_t j, int m, Xoshiro256
     return r == 0 ? x : x + draw(direct_slot(s, j, r), g);
 }
 
-int sample_binomial(MultinomialSampler* s, std::size_t j, int m, Xoshiro256* g) { return binomial_draw(s, j, m, g); }
-
 void sample_multinomial(MultinomialSampler* s, Xoshiro256* g, int* counts) {
     const std::size_t k = s->q.size();
     int m = s->n;
     for (std::size_t j = 0; j + 1 < k; ++j) {
-        const int x = binomial_draw(s, j, m, g);
+        const int x = sample_binomial(s, j, m, g);
         counts[j] = x;
         m -= x;
     }
