@@ -17,6 +17,14 @@ def read(name):
     return open(p).read() if os.path.exists(p) else None
 
 
+def fenced(text):
+    """The text as a fenced code block, as the programs printed it."""
+    w("")
+    w("```")
+    w(text.rstrip())
+    w("```")
+
+
 def cpu_model():
     for line in open("/proc/cpuinfo"):
         if line.startswith("model name"):
@@ -165,35 +173,26 @@ w("")
 if parse_txt:
     w("`bench_parse` output (another engineer's benchmark; `tests/bench/parse_reference.py` times the same job")
     w("in R and NumPy):")
-    w("")
-    w("```")
-    w(parse_txt.rstrip())
-    w("```")
+    fenced(parse_txt)
 else:
     w("`bench_parse` was not built in this run, so there is no figure here.")
 w("")
-parse_ref_path = os.path.join(res, "parse_reference.txt")
-if os.path.exists(parse_ref_path):
+parse_ref_txt = read("parse_reference.txt")
+if parse_ref_txt:
     w("")
     w("The whole job as a user runs it, one process per tool on the same 7 MB file: `tallyproof --json")
     w("--digits first FILE` against R 4.2 (`scan`, first digits, `tabulate`, `chisq.test`) and Debian's")
     w("Python 3 with NumPy 1.24 / SciPy 1.10 (`loadtxt`, first digits, `bincount`, `chisquare`);")
     w("`tests/bench/parse_reference.py`, which also checks that the three tally the same digits:")
-    w("")
-    w("```")
-    w(open(parse_ref_path).read().rstrip())
-    w("```")
+    fenced(parse_ref_txt)
 w("")
 w("## In the browser")
 w("")
-page_path = os.path.join(res, "bench_page.txt")
-if os.path.exists(page_path):
+page_txt = read("bench_page.txt")
+if page_txt:
     w("Measured with `node tests/browser/bench_page.mjs` (headless Debian Chromium, software WebGL through")
     w("SwiftShader, every request blocked), in the same run:")
-    w("")
-    w("```")
-    w(open(page_path).read().rstrip())
-    w("```")
+    fenced(page_txt)
     w("")
     w("- \"Open to first interactive frame\" is from `page.goto` of the file to the second animation frame")
     w("  after the first result is on screen (the wasm module is inflated from the page itself).")

@@ -4,7 +4,7 @@
 import { statSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { chromium } from 'playwright-core';
-import { pageUrl } from './harness.mjs';
+import { clickWidget, pageUrl } from './harness.mjs';
 
 const args = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking',
   '--disable-component-update', '--disable-sync', '--use-gl=angle', '--use-angle=swiftshader', '--enable-unsafe-swiftshader',
@@ -105,19 +105,9 @@ const rawTimes = await page.evaluate(async () => {
 });
 await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
 await page.evaluate(() => { globalThis.__frameTimes = []; });
-const readAs = async (name) => {
-  await page.waitForFunction((n) => !!globalThis.tallyproofPage.widgets[n], name, { timeout: 5000 });
-  const r = await page.evaluate((n) => globalThis.tallyproofPage.widgets[n], name);
-  await page.mouse.move(r.x + r.w / 2, r.y + r.h / 2);
-  await page.waitForTimeout(60);
-  await page.mouse.down();
-  await page.waitForTimeout(40);
-  await page.mouse.up();
-  await page.waitForTimeout(120);
-};
-await readAs('Read as');
+await clickWidget(page, 'Read as');
 await page.evaluate(() => { globalThis.gc(); globalThis.__frameTimes = []; });
-await readAs('first digits of raw numbers');
+await clickWidget(page, 'first digits of raw numbers');
 await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).model?.kind === 'benford-first', null, { timeout: 20000 });
 const rereadFrame = Math.max(...(await page.evaluate(() => globalThis.__frameTimes)));
 const rawResult = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
