@@ -5,6 +5,7 @@
 #include <cstdio>
 #include <cstdlib>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "analysis_document.hpp"
@@ -86,6 +87,15 @@ bool to_number(const std::string& s, double* v) {
     char* end = nullptr;
     *v = std::strtod(s.c_str(), &end);
     return !s.empty() && *end == '\0';
+}
+
+// --param NAME=VALUE as (NAME, VALUE); false when it is not of that form.
+bool to_parameter(const std::string& s, std::pair<std::string, double>* out) {
+    const auto eq = s.find('=');
+    double v = 0;
+    if (eq == std::string::npos || !to_number(s.substr(eq + 1), &v)) return false;
+    *out = {s.substr(0, eq), v};
+    return true;
 }
 
 bool to_list(const std::string& s, std::vector<double>* out) {
@@ -213,11 +223,9 @@ int main(int argc, char** argv) {
             // The bins are placed under the model of --model, with the parameters of --param.
             for (const auto& [opt, val] : opts) {
                 ModelKind kind;
-                double v = 0;
-                const auto eq = val.find('=');
+                std::pair<std::string, double> param;
                 if (opt == "--model" && model_kind_from_name(val, &kind)) input.bins.model = kind;
-                else if (opt == "--param" && eq != std::string::npos && to_number(val.substr(eq + 1), &v))
-                    input.bins.parameters.emplace_back(val.substr(0, eq), v);
+                else if (opt == "--param" && to_parameter(val, &param)) input.bins.parameters.push_back(param);
             }
         }
         const ParsedInput parsed = parse_input(text, input);
@@ -240,12 +248,12 @@ int main(int argc, char** argv) {
         } else if (opt == "--edges") {
             if (!to_list(val, &analysis.model.edges)) return usage_error("--edges needs numbers such as -inf,10,20,inf");
         } else if (opt == "--param") {
-            const auto eq = val.find('=');
-            if (eq == std::string::npos || !to_number(val.substr(eq + 1), &v)) return usage_error("--param needs NAME=VALUE");
+            std::pair<std::string, double> param;
+            if (!to_parameter(val, &param)) return usage_error("--param needs NAME=VALUE");
             auto same = std::find_if(analysis.model.parameters.begin(), analysis.model.parameters.end(),
-                                     [&](const auto& p) { return p.first == val.substr(0, eq); });
-            if (same != analysis.model.parameters.end()) same->second = v;  // already set by the paste
-            else analysis.model.parameters.emplace_back(val.substr(0, eq), v);
+                                     [&](const auto& p) { return p.first == param.first; });
+            if (same != analysis.model.parameters.end()) same->second = param.second;  // already set by the paste
+            else analysis.model.parameters.push_back(param);
         } else if (opt == "--method") {
             if (val == "asymptotic") analysis.pvalue.method = PValueMethod::asymptotic;
             else if (val == "exact") analysis.pvalue.method = PValueMethod::exact;
