@@ -372,6 +372,13 @@ void read_paste_into_bins(AppState& s, BinChoice::Kind kind, ModelKind model) {
     read_bins(s, b);
 }
 
+bool offers_other_readings(const AppState& s) { return s.pasted_shape >= 0 && !s.pasted_text.empty(); }
+
+bool shows_bin_editor(const AppState& s) {
+    return offers_other_readings(s) && s.pasted_shape == static_cast<int>(InputShape::raw_bins) &&
+           s.pasted_bins.kind != BinChoice::Kind::none;
+}
+
 void apply_bin_editor(AppState& s) {
     if (s.pasted_text.empty() || s.pasted_bins.kind == BinChoice::Kind::none) return;
     BinChoice b;

@@ -117,6 +117,8 @@ void reread_paste(AppState& s, int shape, int digit_test = -1);  // the last pas
 void read_paste_into_bins(AppState& s, BinChoice::Kind kind, ModelKind model = ModelKind::normal);
                                                              // the last paste as measurements in bins, with the
                                                              // editor's K or edges (equal probability: under `model`)
+bool offers_other_readings(const AppState& s);               // the last paste is kept: "Read as" is shown
+bool shows_bin_editor(const AppState& s);                    // ... and it was read into bins: K or edges are shown
 void apply_bin_editor(AppState& s);                          // the typed K or edges, to the current bins reading
 void set_model_kind(AppState& s, ModelKind kind);            // resets the editor for that kind
 void apply_model_editor(AppState& s);                        // editor text -> analysis.model, recompute

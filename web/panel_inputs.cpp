@@ -134,8 +134,7 @@ void draw_counts_panel(AppState& s, const Theme& t) {
     const float row_h = ImGui::GetFrameHeight() + ImGui::GetStyle().CellPadding.y * 2;
     const float want = row_h * static_cast<float>(k + 2) + 8;
     // Room under the table for the rows that follow it: "Read as", the bins, "+ Add category".
-    const bool read_as = s.pasted_shape >= 0 && !s.pasted_text.empty();
-    const bool bin_row = read_as && s.pasted_shape == static_cast<int>(InputShape::raw_bins) && s.pasted_bins.kind != BinChoice::Kind::none;
+    const bool read_as = offers_other_readings(s), bin_row = shows_bin_editor(s);
     float below = ImGui::GetFrameHeightWithSpacing() * (1.2f + (read_as ? 1 : 0) + (bin_row ? 1 : 0));
     if (bin_row && !s.bin_editor.error.empty())
         below += ImGui::CalcTextSize(("Bins not applied: " + s.bin_editor.error).c_str(), nullptr, false, ImGui::GetContentRegionAvail().x).y +
@@ -198,7 +197,7 @@ void draw_counts_panel(AppState& s, const Theme& t) {
         ImGui::PopFont();
         ImGui::EndTable();
     }
-    if (s.pasted_shape >= 0 && !s.pasted_text.empty()) {
+    if (read_as) {
         // What the last paste was read as, and the other readings on offer.
         using Bins = BinChoice::Kind;
         struct Reading { InputShape shape; int digits; Bins bins; ModelKind model; const char* name; };
@@ -246,7 +245,7 @@ void draw_counts_panel(AppState& s, const Theme& t) {
             ImGui::EndCombo();
         }
         mark_widget("Read as");
-        if (s.pasted_shape == static_cast<int>(InputShape::raw_bins) && bins != Bins::none) draw_bin_row(s, t);
+        if (bin_row) draw_bin_row(s, t);
     }
     if (ImGui::Button("+ Add category")) add_row(s);
     ImGui::SameLine();

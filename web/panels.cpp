@@ -193,7 +193,7 @@ void draw_rejection_notice(AppState& s, const Theme& t) {
 void draw_inputs(AppState& s, const Theme& t, float height) {
     ImGui::BeginChild("inputs", ImVec2(0, height), true, ImGuiWindowFlags_NavFlattened);
     const float row_h = ImGui::GetFrameHeight() + ImGui::GetStyle().CellPadding.y * 2;
-    const bool bin_row = !s.pasted_text.empty() && s.pasted_bins.kind != BinChoice::Kind::none;  // the bins under "Read as"
+    const bool bin_row = shows_bin_editor(s);  // the bins under "Read as"
     const float needed = row_h * static_cast<float>(s.analysis.observed.size() + 2) + ImGui::GetTextLineHeightWithSpacing() * 4 +
                          ImGui::GetFrameHeightWithSpacing() * (bin_row ? 2 : 1) + 24;
     const float counts_h = std::max(160.0f, std::min(needed, ImGui::GetContentRegionAvail().y - 360));
