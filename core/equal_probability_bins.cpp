@@ -12,6 +12,7 @@
 #include <boost/math/distributions/normal.hpp>
 
 #include "math_policy.hpp"
+#include "number_format.hpp"
 
 namespace tallyproof {
 namespace {
@@ -28,11 +29,6 @@ std::string num(double x) {
     return buf;
 }
 
-std::string count(double n) {
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "%.0f", n);
-    return buf;
-}
 
 // The inner edge i of K under `dist`: quantile i/K, from the complement above the median.
 template <class Dist>
@@ -99,7 +95,7 @@ EqualProbabilityBins equal_probability_bins(ModelKind kind, const RawMoments& mo
         const double dev = moments.mean - loc;
         const double scale = scale_given.value_or(std::sqrt(moments.m2 / n + dev * dev));
         if (!(scale > 0) || !std::isfinite(scale) || !std::isfinite(loc)) {
-            out.status = Status::failure("All " + count(n) + " values are " + num(logs ? std::exp(moments.mean) : moments.mean) +
+            out.status = Status::failure("All " + format_count(n) + " values are " + num(logs ? std::exp(moments.mean) : moments.mean) +
                                          ": the " + model + " model fitted to them has " + scale_name +
                                          " 0, so it cannot place equal-probability bins; they need a spread of values.");
             return out;
@@ -117,7 +113,7 @@ EqualProbabilityBins equal_probability_bins(ModelKind kind, const RawMoments& mo
         const auto rate_given = find(given, "rate");
         if (rate_given && !positive("rate", *rate_given)) return out;
         if (!rate_given && !(moments.mean > 0)) {
-            out.status = Status::failure("All " + count(n) + " values are 0: the exponential model fitted to them has no "
+            out.status = Status::failure("All " + format_count(n) + " values are 0: the exponential model fitted to them has no "
                                          "positive mean, so it cannot place equal-probability bins.");
             return out;
         }
@@ -138,7 +134,7 @@ EqualProbabilityBins equal_probability_bins(ModelKind kind, const RawMoments& mo
         }
     std::size_t estimated = 0;
     for (const auto& p : out.parameters) estimated += p.estimated ? 1 : 0;
-    const std::string how = "estimated from the " + count(n) + " raw values by maximum likelihood";
+    const std::string how = "estimated from the " + format_count(n) + " raw values by maximum likelihood";
     for (const auto& p : out.parameters) {
         params += std::string(params.empty() ? "" : " and ") + p.name + " " + num(p.value);
         if (estimated > 0 && estimated < out.parameters.size()) params += p.estimated ? " (" + how + ")" : " (given)";
