@@ -12,7 +12,6 @@
 namespace tallyproof {
 namespace {
 
-constexpr int kReasons = static_cast<int>(DigitExclusion::odd_last_digit) + 1;
 
 bool is_digit(char c) { return c >= '0' && c <= '9'; }
 bool is_space(char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\n' || c == '\v' || c == '\f'; }
@@ -184,8 +183,8 @@ DigitTally DigitCounter::tally() const {
     for (std::size_t i = 0; i < t.digits.size(); ++i) t.counts.push_back(static_cast<double>(counts_[i]));
     t.values = values_;
     for (std::size_t c : counts_) t.used += c;
-    t.excluded.assign(excluded_, excluded_ + kReasons);
-    t.first_excluded.assign(first_excluded_, first_excluded_ + kReasons);
+    t.excluded.assign(excluded_, excluded_ + kDigitExclusionReasons);
+    t.first_excluded.assign(first_excluded_, first_excluded_ + kDigitExclusionReasons);
     return t;
 }
 
@@ -213,7 +212,7 @@ DigitTally tally_digits(const std::vector<std::string>& tokens, DigitTest test, 
         counter.add(w);
     }
     DigitTally r = counter.tally();
-    for (int w = 0; w < kReasons; ++w) {
+    for (int w = 0; w < kDigitExclusionReasons; ++w) {
         if (r.excluded[w] == 0) continue;
         std::string note = std::to_string(r.excluded[w]) + " value" + (r.excluded[w] == 1 ? "" : "s") +
                            " left out of the " + digit_test_name(test) + " test: " +

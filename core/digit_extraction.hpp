@@ -59,6 +59,7 @@ enum class DigitExclusion {
     exponent_notation,  // last-digit tests: "1.2e5" does not show its last digit
     odd_last_digit,     // last_even test: an odd last digit, which the even-only law says cannot occur
 };
+constexpr int kDigitExclusionReasons = static_cast<int>(DigitExclusion::odd_last_digit) + 1;  // how many reasons there are
 const char* digit_exclusion_name(DigitExclusion reason);  // plain words, e.g. "not a number"
 
 struct DigitExtractionOptions {
@@ -132,15 +133,14 @@ public:
     DigitTally tally() const;
 private:
     static constexpr int kSlots = 90;  // the most categories: first-two digits 10..99
-    static constexpr int kReasons = static_cast<int>(DigitExclusion::odd_last_digit) + 1;
     DigitTest test_;
     double floor_ = 0;
     int need_ = 1;
     bool last_ = false;
     std::size_t values_ = 0;
     std::size_t counts_[kSlots] = {};
-    std::size_t excluded_[kReasons] = {};
-    std::size_t first_excluded_[kReasons] = {};
+    std::size_t excluded_[kDigitExclusionReasons] = {};
+    std::size_t first_excluded_[kDigitExclusionReasons] = {};
 };
 
 }  // namespace tallyproof

@@ -47,7 +47,6 @@ bool plain_whole(std::string_view cell, long long* value) {
     *value = cell[0] == '-' ? -v : v;  // "-0" is 0, as static_cast<long long>(-0.0)
     return true;
 }
-constexpr int kExclusionReasons = static_cast<int>(DigitExclusion::odd_last_digit) + 1;
 
 }  // namespace
 
@@ -146,7 +145,7 @@ void tally_raw_whole_numbers(const RawSource& src, const ParseOptions&, ParsedIn
 
 void tally_raw_digits(const RawSource& src, DigitTest test, ParsedInput* out) {
     DigitCounter counter(test);
-    std::pair<int, int> first_where[kExclusionReasons] = {};  // line and column of the first value left out, per reason
+    std::pair<int, int> first_where[kDigitExclusionReasons] = {};  // line and column of the first value left out, per reason
     const DecimalMark mark = out->decimal;
     const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
         const int why = counter.add_cell(cell, mark);
