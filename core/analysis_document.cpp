@@ -6,6 +6,7 @@
 #include <set>
 
 #include "json_reader.hpp"
+#include "label_text.hpp"
 #include "paste_parser.hpp"  // kMaxCategories
 #include "json_writer.hpp"
 
@@ -110,6 +111,7 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
     if (a.observed.size() > kMaxCategories)
         return Status::failure("The document has " + std::to_string(a.observed.size()) + " categories; at most " +
                                std::to_string(kMaxCategories) + " can be analysed.");
+    normalise_labels(&a.categories);  // the same text in two Unicode forms is then refused as twice the same label
     {
         std::set<std::string> seen;  // each category needs its own label, as in a paste
         for (const auto& c : a.categories)

@@ -10,6 +10,7 @@
 #include "category_values.hpp"
 #include "digit_laws.hpp"
 #include "mean_absolute_deviation.hpp"
+#include "label_text.hpp"
 #include "merge_categories.hpp"
 #include "null_model.hpp"
 #include "number_format.hpp"
@@ -69,6 +70,8 @@ Result analyse(const Analysis& a) {
 
     Result r;
     r.categories = a.categories;
+    r.look_alike_labels = look_alike_groups(a.categories);
+    if (!r.look_alike_labels.empty()) r.warnings.push_back(look_alike_warning(a.categories, r.look_alike_labels));
     r.observed = a.observed;
     r.alpha = a.alpha;
     double n = 0;

@@ -9,6 +9,7 @@
 #include <cstdio>
 #include <numeric>
 
+#include "analysis.hpp"
 #include "number_format.hpp"
 #include "validity.hpp"
 
@@ -239,6 +240,48 @@ Status merge_categories(const std::vector<std::string>& labels, const std::vecto
             r.note += " (Joining the thinnest group repeatedly would have left a single group, so neighbours were "
                       "grouped left to right instead.)";
     }
+    return Status::success();
+}
+
+Status join_categories(const std::vector<std::vector<std::size_t>>& groups, const std::vector<std::string>& names,
+                       Analysis* a) {
+    const std::size_t k = a->observed.size();
+    if (a->categories.size() != k || names.size() != groups.size())
+        return Status::failure("There are " + std::to_string(a->categories.size()) + " labels but " + std::to_string(k) + " counts.");
+    if (groups.empty()) return Status::success();
+    if (!a->model.edges.empty() && a->model.edges.size() == k + 1)
+        return Status::failure("Bins of measurements cannot be joined: change the bins instead.");
+    std::vector<std::size_t> joined_into(k, k);  // k: not joined
+    for (std::size_t g = 0; g < groups.size(); ++g) {
+        if (groups[g].size() < 2) return Status::failure("A category can only be joined with another.");
+        for (std::size_t i : groups[g]) {
+            if (i >= k || joined_into[i] != k) return Status::failure("The categories to join are not distinct categories of this analysis.");
+            joined_into[i] = g;
+        }
+    }
+    const bool per_category_values = a->model.values.size() == k;
+    Analysis out = *a;
+    out.categories.clear();
+    out.observed.clear();
+    if (per_category_values) out.model.values.clear();
+    std::vector<bool> done(groups.size(), false);
+    for (std::size_t i = 0; i < k; ++i) {
+        const std::size_t g = joined_into[i];
+        if (g == k) {
+            out.categories.push_back(a->categories[i]);
+            out.observed.push_back(a->observed[i]);
+            if (per_category_values) out.model.values.push_back(a->model.values[i]);
+            continue;
+        }
+        if (done[g]) continue;
+        done[g] = true;
+        double o = 0;
+        for (std::size_t m : groups[g]) o += a->observed[m];  // whole numbers below 2^53: exact
+        out.categories.push_back(names[g]);
+        out.observed.push_back(o);
+        if (per_category_values) out.model.values.push_back(compensated_sum(a->model.values, groups[g]));
+    }
+    *a = std::move(out);
     return Status::success();
 }
 

@@ -12,6 +12,8 @@
 
 namespace tallyproof {
 
+struct Analysis;
+
 enum class MergeRule {
     none,            // leave the categories as they are
     all_at_least_5,  // every expected count >= 5
@@ -46,5 +48,13 @@ bool merge_rule_holds(const std::vector<double>& expected, MergeRule rule, doubl
 // leaves at least two groups satisfying the rule.
 Status merge_categories(const std::vector<std::string>& labels, const std::vector<double>& observed,
                         const std::vector<double>& expected, const MergeOptions& options, MergeResult* result);
+
+// Joins each of `groups` (0-based indices into a->categories, disjoint) into one category named
+// `names[g]`, in the place of the group's first member, for categories that are one and the same
+// (look-alike labels): observed counts are added, and so are the model's values (shares, ratio
+// terms, expected counts) when it has one per category. Refuses bins of measurements (their edges
+// cannot be joined out of order) and bad indices; `a` is unchanged then.
+Status join_categories(const std::vector<std::vector<std::size_t>>& groups, const std::vector<std::string>& names,
+                       Analysis* a);
 
 }  // namespace tallyproof

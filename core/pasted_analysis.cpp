@@ -1,11 +1,13 @@
 // Mapping from the detected paste (paste_parser) to the analysis document's model kinds.
 #include "pasted_analysis.hpp"
 
+#include "label_text.hpp"
 #include "null_model.hpp"
 
 namespace tallyproof {
+namespace {
 
-bool apply_pasted_input(const ParsedInput& parsed, Analysis* a) {
+bool take_paste(const ParsedInput& parsed, Analysis* a) {
     a->categories = parsed.categories;
     a->observed = parsed.observed;
     a->ordered = parsed.ordered;
@@ -31,6 +33,22 @@ bool apply_pasted_input(const ParsedInput& parsed, Analysis* a) {
     }
     if (!parsed.edges.empty()) a->model.edges = parsed.edges;
     return false;
+}
+
+}  // namespace
+
+bool apply_pasted_input(const ParsedInput& parsed, Analysis* a, std::vector<std::string>* notes) {
+    const bool model_set = take_paste(parsed, a);
+    // The one point where pasted labels enter an analysis (documents: read_analysis_document).
+    const auto same = normalise_labels(&a->categories);
+    if (same.empty()) return model_set;
+    std::vector<std::string> names;
+    for (const auto& g : same) names.push_back(a->categories[g.front()]);
+    if (join_categories(same, names, a).ok && notes)
+        notes->push_back("\"" + names.front().substr(0, 60) + "\"" + (same.size() > 1 ? " and other labels are" : " is") +
+                         " written in more than one Unicode form (such as é as one character or as e and an accent): "
+                         "each is counted as one category.");
+    return model_set;
 }
 
 }  // namespace tallyproof

@@ -10,6 +10,8 @@ namespace tallyproof {
 // ratio or counts model; a digit tally sets its digit law; bin edges go to the model, and
 // equal-probability bins also set the model that placed them (kind, given parameters, edges).
 // The rest of `a` (test settings) is kept. Returns true when the paste set the model.
-bool apply_pasted_input(const ParsedInput& parsed, Analysis* a);
+// Labels are normalised (label_text.hpp); labels that are the same text in two Unicode forms
+// become one category, said in a sentence added to `notes` when given.
+bool apply_pasted_input(const ParsedInput& parsed, Analysis* a, std::vector<std::string>* notes = nullptr);
 
 }  // namespace tallyproof

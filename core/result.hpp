@@ -70,6 +70,7 @@ struct Result {
 
     // As read (before merging)
     std::vector<std::string> categories;
+    std::vector<std::vector<std::size_t>> look_alike_labels;  // groups of categories whose labels look the same
     std::vector<double> observed;
     std::vector<double> expected_shares;    // the null model's share per category
     std::vector<double> expected_counts;    // N * share

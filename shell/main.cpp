@@ -45,6 +45,8 @@ const char* kUsage =
     "  --writeup plain|markdown|tsv\n"
     "                         print the results block to paste into a report\n"
     "  --output-decimal-comma write numbers with a decimal comma (CSV then uses ';')\n"
+    "  --byte-order-mark      start --table output with a UTF-8 byte-order mark, for a file a\n"
+    "                         spreadsheet program will open (standard output has none otherwise)\n"
     "model (options override the document):\n"
     "  --model KIND           equal, shares, ratio, counts, poisson, binomial, geometric,\n"
     "                         negative-binomial, uniform, normal, lognormal, exponential,\n"
@@ -136,6 +138,7 @@ int main(int argc, char** argv) {
     bool json = false;
     std::string table_format, writeup_style;  // --table csv|tsv, --writeup plain|markdown|tsv
     bool out_decimal_comma = false;
+    bool byte_order_mark = false;  // --byte-order-mark: --table output for a spreadsheet file
     std::string path;
     std::vector<std::pair<std::string, std::string>> opts;  // option, value
     const std::vector<std::string> with_value = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
@@ -145,6 +148,7 @@ int main(int argc, char** argv) {
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (arg == "--json") json = true;
+        else if (arg == "--byte-order-mark") byte_order_mark = true;
         else if (arg == "--table" || arg == "--writeup") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             const std::string v = argv[++i];
@@ -230,9 +234,11 @@ int main(int argc, char** argv) {
         }
         const ParsedInput parsed = parse_input(text, input);
         read = parsed.status;
-        apply_pasted_input(parsed, &analysis);  // options below override what the paste states
+        std::vector<std::string> label_notes;
+        apply_pasted_input(parsed, &analysis, &label_notes);  // options below override what the paste states
         if (!json && read.ok) {
             for (const auto& note : parsed.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
+            for (const auto& note : label_notes) std::fprintf(stderr, "note: %s\n", note.c_str());
             for (const auto& alt : parsed.alternatives) std::fprintf(stderr, "alternative: %s\n", alt.c_str());
         }
     }
@@ -292,7 +298,7 @@ int main(int argc, char** argv) {
     if (json) std::printf("%s\n", report_json(analysis, result).c_str());
     else if (result.status.ok && !table_format.empty())
         std::fputs(category_table(result, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
-                                                             out_decimal_comma, false}).c_str(), stdout);
+                                                             out_decimal_comma, byte_order_mark}).c_str(), stdout);
     else if (result.status.ok && !writeup_style.empty()) {
         WriteupOptions o;
         o.style = writeup_style == "markdown" ? WriteupStyle::markdown : writeup_style == "tsv" ? WriteupStyle::tsv : WriteupStyle::plain;

@@ -11,6 +11,7 @@
 #include "analysis_document.hpp"
 #include "json_reader.hpp"
 #include "json_writer.hpp"
+#include "label_text.hpp"
 #include "share_link.hpp"
 #include "table_export.hpp"
 #include "demo_library.hpp"
@@ -392,11 +393,12 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     const ParsedInput parsed = parse_input(text, options);
     Status problem = parsed.status;
     const Analysis previous = s.analysis;
+    std::vector<std::string> label_notes;  // labels written in two Unicode forms, joined
     if (problem.ok) {
         s.analysis.merge = MergeChoice{};
-        const bool mix_stated = apply_pasted_input(parsed, &s.analysis);  // an expected column or a digit tally
+        const bool mix_stated = apply_pasted_input(parsed, &s.analysis, &label_notes);  // an expected column or a digit tally
         if (!mix_stated && (((s.analysis.model.kind == ModelKind::shares || s.analysis.model.kind == ModelKind::ratio ||
-                     s.analysis.model.kind == ModelKind::counts) && s.analysis.model.values.size() != parsed.observed.size()) ||
+                     s.analysis.model.kind == ModelKind::counts) && s.analysis.model.values.size() != s.analysis.observed.size()) ||
                    model_is_digit_law(s.analysis.model.kind) || model_is_fitted(s.analysis.model.kind))) {
             // The previous mix cannot apply to new counts: start from equal shares.
             s.analysis.model = Model{};
@@ -441,6 +443,7 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     clear_refusal(s);
     std::string notes;
     for (const auto& n : parsed.notes) notes += (notes.empty() ? "" : " ") + n;
+    for (const auto& n : label_notes) notes += (notes.empty() ? "" : " ") + n;
     for (const auto& n : parsed.alternatives) notes += (notes.empty() ? "" : " ") + n;
     set_notice(s, notes);
 }
@@ -502,7 +505,7 @@ void set_count(AppState& s, int row, double value) {
 void set_label(AppState& s, int row, const std::string& label) {
     if (row < 0 || row >= static_cast<int>(s.analysis.categories.size())) return;
     const std::string old = s.analysis.categories[row];
-    s.analysis.categories[row] = label;
+    s.analysis.categories[row] = normalised_label(label);
     if (!recompute(s)) s.analysis.categories[row] = old;
 }
 
@@ -547,6 +550,33 @@ void undo_merge(AppState& s) {
     s.analysis.merge = s.merge_undo.back();
     s.merge_undo.pop_back();
     recompute(s);
+}
+
+void merge_look_alike_labels(AppState& s) {
+    const std::vector<std::vector<std::size_t>> groups = s.result.look_alike_labels;
+    if (groups.empty()) return;
+    std::vector<std::string> names;  // each group keeps its first label, without the invisible characters
+    std::string merged;
+    for (const auto& g : groups) {
+        const std::string name = look_alike_name(s.analysis.categories[g.front()]);
+        names.push_back(name.empty() ? s.analysis.categories[g.front()] : name);
+        merged += (merged.empty() ? "\"" : ", \"") + names.back().substr(0, 40) + "\"";
+    }
+    const Analysis previous = s.analysis;
+    const Status joined = join_categories(groups, names, &s.analysis);
+    if (!joined.ok) {
+        s.input_error = joined.message;
+        publish_error(joined.message);
+        s.frames_to_draw = 3;
+        return;
+    }
+    sync_editor_from_model(s);
+    if (!recompute(s)) {
+        s.analysis = previous;
+        sync_editor_from_model(s);
+        return;
+    }
+    set_notice(s, "Merged the look-alike labels into " + merged + ": their counts were added.");
 }
 
 void set_pvalue_method(AppState& s, PValueMethod method) {
@@ -626,7 +656,7 @@ void download_document(AppState& s) {
 }
 
 void download_table(AppState& s) {
-    download_text("tallyproof-categories.csv", "text/csv", category_table(s.result, TableExportOptions{TableFormat::csv, s.decimal_comma, true}));
+    download_text("tallyproof-categories.csv", "text/csv", category_table(s.result, TableExportOptions{TableFormat::csv, s.decimal_comma, false}));
     set_notice(s, "Per-category table downloaded (CSV).");
 }
 

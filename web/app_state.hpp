@@ -129,6 +129,7 @@ void remove_row(AppState& s, int row);
 void move_row(AppState& s, int row, int delta);
 void merge_thin_cells(AppState& s, MergeRule rule);          // one-click remedy, undoable
 void undo_merge(AppState& s);
+void merge_look_alike_labels(AppState& s);                   // joins the categories whose labels look the same
 void set_pvalue_method(AppState& s, PValueMethod method);
 bool recompute(AppState& s);                                 // false: input_error set, old result kept
 void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work

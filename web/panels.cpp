@@ -11,6 +11,7 @@
 
 #include "demo_library.hpp"
 #include "density_plot.hpp"
+#include "label_notice.hpp"
 #include "bar_chart.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
@@ -274,6 +275,7 @@ void draw_screen(AppState& s, const Theme& t) {
     draw_title(s, t);
     draw_notice(s, t);
     draw_rejection_notice(s, t);
+    draw_look_alike_notice(s, t);
     const ImVec2 avail = ImGui::GetContentRegionAvail();
     if (wide) {
         const float inputs_w = std::clamp(avail.x * 0.36f, 340.0f, 520.0f);
