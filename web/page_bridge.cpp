@@ -5,7 +5,6 @@
 #include <imgui.h>
 
 #include <cstdlib>
-#include <string>
 
 EM_JS(void, tp_js_publish_result, (const char* text, const char* json, const char* doc), {
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.showResult(UTF8ToString(text), UTF8ToString(json), UTF8ToString(doc));
@@ -114,14 +113,7 @@ void storage_remove(const char* key) { tp_js_storage_remove(key); }
 std::string location_fragment() { return take(tp_js_fragment()); }
 std::string page_address() { return take(tp_js_address()); }
 std::string local_time_text() { return take(tp_js_time()); }
-void download_text(const char* filename, const char* mime, const std::string& text) {
-    // Spreadsheet programs read a CSV or TSV file as UTF-8 only when it starts with a byte-order
-    // mark (else χ² shows as "Ï‡Â²"); copied text never carries one (copy_text).
-    const std::string m = mime;
-    const bool spreadsheet = m == "text/csv" || m == "text/tab-separated-values";
-    const bool marked = text.compare(0, 3, "\xEF\xBB\xBF") == 0;
-    tp_js_download(filename, mime, (spreadsheet && !marked ? "\xEF\xBB\xBF" + text : text).c_str());
-}
+void download_text(const char* filename, const char* mime, const std::string& text) { tp_js_download(filename, mime, text.c_str()); }
 void deliver_image(const unsigned char* rgba, int width, int height, const char* name, ImagePurpose purpose) {
     tp_js_image(rgba, width, height, name, static_cast<int>(purpose));
 }

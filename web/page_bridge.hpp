@@ -28,7 +28,7 @@ std::string local_time_text();                      // e.g. "2026-12-01 22:40" i
 
 // Files leaving the page (never uploaded): a text download, and a chart image (RGBA rows
 // bottom-up, as glReadPixels gives them) saved, copied or kept for printing.
-void download_text(const char* filename, const char* mime, const std::string& text);  // text/csv, text/tab-separated-values: with a UTF-8 byte-order mark
+void download_text(const char* filename, const char* mime, const std::string& text);
 enum class ImagePurpose { download = 0, copy = 1, print = 2 };
 void deliver_image(const unsigned char* rgba, int width, int height, const char* name, ImagePurpose purpose);
 void print_report(const std::string& text, const std::string& title);  // print layout, then print()
