@@ -33,6 +33,12 @@ if [ -f "$top/dist/tallyproof.html" ] && [ -d "$top/tests/browser/node_modules/p
 else
     rm -f "$out/bench_page.txt"
 fi
+if command -v emcc >/dev/null && [ -f "$top/.cache/utf8proc/utf8proc.c" ]; then
+    echo "== what utf8proc adds to the single file"
+    /usr/bin/python3 "$top/tests/bench/utf8proc_size.py" "$top/.cache/utf8proc" "$top/dist/tallyproof.html" | tee "$out/utf8proc_size.txt"
+else
+    rm -f "$out/utf8proc_size.txt"
+fi
 echo "== tail accuracy (mpmath 50 digits, R, SciPy)"
 /usr/bin/python3 "$top/tests/bench/tail_accuracy.py" "$bin/bench_tail_grid" "$out" | tee "$out/tail_accuracy.json"
 echo "== Monte Carlo and exact workloads in R and NumPy"
