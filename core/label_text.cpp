@@ -141,15 +141,19 @@ std::vector<std::vector<std::size_t>> look_alike_groups(const std::vector<std::s
     return equal_groups(keys);
 }
 
+std::string quoted_labels(const std::vector<std::string>& labels, const std::vector<std::size_t>& group) {
+    std::string names;
+    for (std::size_t j = 0; j < group.size(); ++j) {
+        if (group[j] >= labels.size()) break;
+        names += std::string(j == 0 ? "" : j + 1 == group.size() ? " and " : ", ") + "\"" + labels[group[j]].substr(0, 40) + "\"";
+    }
+    return names;
+}
+
 std::string look_alike_warning(const std::vector<std::string>& labels, const std::vector<std::vector<std::size_t>>& groups) {
     if (groups.empty()) return "";
     std::string s;
-    for (std::size_t g = 0; g < groups.size() && g < 3; ++g) {
-        std::string names;
-        for (std::size_t j = 0; j < groups[g].size(); ++j)
-            names += std::string(j == 0 ? "" : j + 1 == groups[g].size() ? " and " : ", ") + "\"" + labels[groups[g][j]].substr(0, 60) + "\"";
-        s += (g ? "; " : "") + names;
-    }
+    for (std::size_t g = 0; g < groups.size() && g < 3; ++g) s += (g ? "; " : "") + quoted_labels(labels, groups[g]);
     if (groups.size() > 3) s += "; and " + std::to_string(groups.size() - 3) + " more groups";
     return "Labels that look the same (they differ only by invisible characters, case or surrounding spaces): " + s +
            ". If they are one category, merge them: their counts are then added.";

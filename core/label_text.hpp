@@ -24,6 +24,8 @@ std::vector<std::vector<std::size_t>> equal_groups(const std::vector<std::string
 // Groups of labels that look the same (equal look_alike_key).
 std::vector<std::vector<std::size_t>> look_alike_groups(const std::vector<std::string>& labels);
 
+// The labels of one group quoted and listed: "A", "a" and "A<U+200B>" (each cut to 40 bytes).
+std::string quoted_labels(const std::vector<std::string>& labels, const std::vector<std::size_t>& group);
 // One plain sentence naming up to three groups of look-alike labels (empty when there are none).
 std::string look_alike_warning(const std::vector<std::string>& labels, const std::vector<std::vector<std::size_t>>& groups);
 

@@ -6,6 +6,7 @@
 
 #include <imgui.h>
 
+#include "label_text.hpp"
 #include "page_bridge.hpp"
 
 namespace tallyproof::web {
@@ -13,10 +14,7 @@ namespace tallyproof::web {
 void draw_look_alike_notice(AppState& s, const Theme& t) {
     const auto& groups = s.result.look_alike_labels;
     if (groups.empty() || !s.result.status.ok) return;
-    std::string names;  // the first group, then how many more
-    const auto& first = groups.front();
-    for (std::size_t j = 0; j < first.size() && first[j] < s.result.categories.size(); ++j)
-        names += std::string(j == 0 ? "" : j + 1 == first.size() ? " and " : ", ") + "\"" + s.result.categories[first[j]].substr(0, 40) + "\"";
+    std::string names = quoted_labels(s.result.categories, groups.front());  // the first group, then how many more
     if (groups.size() > 1) names += " (and " + std::to_string(groups.size() - 1) + (groups.size() == 2 ? " more group)" : " more groups)");
     const std::string text = "These labels look the same: " + names + ". Merge them?";
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
