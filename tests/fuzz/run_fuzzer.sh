@@ -23,9 +23,12 @@ esac
 mkdir -p "$SEEDS"
 FILES=""
 for s in $SOURCES; do FILES="$FILES $ROOT/core/$s.cpp"; done
+# utf8proc (core/label_text.cpp), a C file from .ci/bootstrap's .cache, compiled as C
+UTF8PROC="$ROOT/.cache/utf8proc"
+"${CC:-clang-14}" -O1 -g -fsanitize=fuzzer-no-link,address -DUTF8PROC_STATIC -c "$UTF8PROC/utf8proc.c" -o "$OUT/utf8proc.o"
 # shellcheck disable=SC2086
-"$CXX" -std=c++17 -O1 -g -fsanitize=fuzzer,address,undefined -fno-sanitize-recover=undefined \
-  -I "$ROOT/core" -I "$ROOT/build/native/core/generated" "$HERE/fuzz_$TARGET.cpp" $FILES -o "$OUT/fuzz_$TARGET"
+"$CXX" -std=c++17 -O1 -g -fsanitize=fuzzer,address,undefined -fno-sanitize-recover=undefined -DUTF8PROC_STATIC \
+  -I "$ROOT/core" -I "$ROOT/build/native/core/generated" -isystem "$UTF8PROC" "$HERE/fuzz_$TARGET.cpp" $FILES "$OUT/utf8proc.o" -o "$OUT/fuzz_$TARGET"
 cd "$OUT"
 # The working corpus grows in $OUT/corpus; the starting corpus in the repository is only read.
 exec ./"fuzz_$TARGET" -max_total_time="$SECONDS_TO_RUN" -timeout=10 -rss_limit_mb=2048 -max_len=65536 \

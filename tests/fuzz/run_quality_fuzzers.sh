@@ -40,10 +40,13 @@ for src in "$ROOT"/core/*.cpp; do
   fi
   if [ ! -f "$obj" ] || [ "$src" -nt "$obj" ]; then
     # shellcheck disable=SC2086
-    "$CXX" $FLAGS $extra -I "$ROOT/core" -c "$src" -o "$obj"
+    "$CXX" $FLAGS $extra -DUTF8PROC_STATIC -I "$ROOT/core" -isystem "$ROOT/.cache/utf8proc" -c "$src" -o "$obj"
   fi
   OBJS="$OBJS $obj"
 done
+# utf8proc (core/label_text.cpp), a C file from .ci/bootstrap's .cache, compiled as C
+"${CC:-clang-14}" -O1 -g -fsanitize=fuzzer-no-link,address -DUTF8PROC_STATIC -c "$ROOT/.cache/utf8proc/utf8proc.c" -o "$OUT/obj/utf8proc.o"
+OBJS="$OBJS $OUT/obj/utf8proc.o"
 # shellcheck disable=SC2086
 "$CXX" $FLAGS -fsanitize=fuzzer -I "$ROOT/core" "$HERE/fuzz_$TARGET.cpp" $OBJS -o "$OUT/fuzz_$TARGET"
 cd "$OUT"
