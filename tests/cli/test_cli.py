@@ -84,6 +84,16 @@ check(r.returncode == 2, "--alpha out of range is a usage error")
 r = run(["--bogus"])
 check(r.returncode == 2, "unknown option is a usage error")
 
+# --table: no byte-order mark on standard output unless --byte-order-mark asks for one (for a file
+# a spreadsheet program opens); labels arrive normalised (NFC, invisible characters as <U+XXXX>).
+labels_paste = "caf\u00e9\t5\nA\u200b\t7\n\u03c7\u00b2\t9\n"
+r = run(["--table", "csv"], stdin=labels_paste)
+check(r.returncode == 0 and r.stdout.startswith("Category,"), "--table csv starts with the header, no mark")
+check("A<U+200B>," in r.stdout and "\u03c7\u00b2," in r.stdout, "--table csv shows the zero-width space as <U+200B>")
+r = subprocess.run([TOOL, "--table", "tsv", "--byte-order-mark", "-"], input=labels_paste.encode(), capture_output=True, timeout=30)
+check(r.returncode == 0 and r.stdout.startswith(b"\xef\xbb\xbfCategory\t"), "--byte-order-mark starts the table with U+FEFF")
+check(r.stdout.count(b"\xef\xbb\xbf") == 1, "one byte-order mark only")
+
 os.unlink(path)
 if failures:
     print(f"{len(failures)} command-line check(s) failed")
