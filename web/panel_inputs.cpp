@@ -202,12 +202,14 @@ void draw_counts_panel(AppState& s, const Theme& t) {
                  ImGui::GetStyle().ItemSpacing.y;
     const float avail = ImGui::GetContentRegionAvail().y - below;
     const float height = std::max(row_h * 3, std::min(want, std::max(avail, row_h * 3)));
-    if (ImGui::BeginTable("counts", 5, flags, ImVec2(0, height))) {
+    // On a phone the share column gives its room to the fields (the shares are in the write-up).
+    const bool share_column = !t.touch || ImGui::GetContentRegionAvail().x >= 560;
+    if (ImGui::BeginTable("counts", share_column ? 5 : 4, flags, ImVec2(0, height))) {
         ImGui::TableSetupScrollFreeze(0, 1);
         ImGui::TableSetupColumn("Category", ImGuiTableColumnFlags_WidthStretch, 2.0f);
         ImGui::TableSetupColumn("Observed", ImGuiTableColumnFlags_WidthStretch, 1.3f);
         ImGui::TableSetupColumn("Expected", ImGuiTableColumnFlags_WidthStretch, 1.0f);
-        ImGui::TableSetupColumn("Share", ImGuiTableColumnFlags_WidthStretch, 0.9f);
+        if (share_column) ImGui::TableSetupColumn("Share", ImGuiTableColumnFlags_WidthStretch, 0.9f);
         const float arrows_w = t.touch ? 3 * ImGui::GetFrameHeight() + 6 : ImGui::CalcTextSize("↑↓×").x + 6 * ImGui::GetStyle().FramePadding.x + 6;
         ImGui::TableSetupColumn("", ImGuiTableColumnFlags_WidthFixed, arrows_w);
         ImGui::TableHeadersRow();
@@ -238,8 +240,10 @@ void draw_counts_panel(AppState& s, const Theme& t) {
                 }
                 ImGui::TableNextColumn();
                 if (i < static_cast<int>(r.expected_counts.size())) ImGui::TextUnformatted(format_fixed(r.expected_counts[i], 2).c_str());
-                ImGui::TableNextColumn();
-                if (i < static_cast<int>(r.expected_shares.size())) ImGui::TextUnformatted(format_significant(r.expected_shares[i], 3).c_str());
+                if (share_column) {
+                    ImGui::TableNextColumn();
+                    if (i < static_cast<int>(r.expected_shares.size())) ImGui::TextUnformatted(format_significant(r.expected_shares[i], 3).c_str());
+                }
                 ImGui::TableNextColumn();
                 if (compact_button("↑", t)) move_row(s, i, -1);
                 if (ImGui::IsItemHovered()) ImGui::SetTooltip("Move up");

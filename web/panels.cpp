@@ -217,7 +217,7 @@ void draw_inputs(AppState& s, const Theme& t, float height) {
     const float row_h = ImGui::GetFrameHeight() + ImGui::GetStyle().CellPadding.y * 2;
     const bool bin_row = shows_bin_editor(s);  // the bins under "Read as"
     const float needed = row_h * static_cast<float>(s.analysis.observed.size() + 2) + ImGui::GetTextLineHeightWithSpacing() * 4 +
-                         ImGui::GetFrameHeightWithSpacing() * ((bin_row ? 2 : 1) + (offers_other_readings(s) ? 1 : 0) + (t.touch ? 1 : 0)) + 24;
+                         ImGui::GetFrameHeightWithSpacing() * ((bin_row ? 2 : 1) + (offers_other_readings(s) ? 1 : 0)) + 24;
     const float room = panel ? ImGui::GetContentRegionAvail().y - 360 : ImGui::GetMainViewport()->Size.y * 0.85f;
     const float counts_h = std::max(160.0f, std::min(needed, room));
     ImGui::BeginChild("counts-area", ImVec2(0, counts_h), false, ImGuiWindowFlags_NavFlattened);
