@@ -157,6 +157,13 @@ void wrapped_text(const char* text) {
     ImGui::TextUnformatted(out.c_str());
 }
 
+// Menu and list items: 44 px apart on touch screens (a Selectable's target spans its spacing).
+void begin_menu_items(const Theme& theme) {
+    const ImVec2 spacing = ImGui::GetStyle().ItemSpacing;
+    ImGui::PushStyleVar(ImGuiStyleVar_ItemSpacing, theme.touch ? ImVec2(spacing.x, 44 - ImGui::GetTextLineHeight()) : spacing);
+}
+void end_menu_items(const Theme&) { ImGui::PopStyleVar(); }
+
 bool compact_button(const char* label, const Theme& theme) {
     if (!theme.touch) return ImGui::SmallButton(label);
     const float h = ImGui::GetFrameHeight();
@@ -305,6 +312,7 @@ void draw_counts_panel(AppState& s, const Theme& t) {
         ImGui::SetNextItemWidth(-1);
         if (ImGui::BeginCombo("##shape", current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.pasted_shape)),
                               ImGuiComboFlags_HeightLargest)) {  // every reading in view, none behind a scroll
+            begin_menu_items(t);
             for (int i = 0; i < count; ++i) {
                 if (ImGui::Selectable(readings[i].name, i == current) && i != current) {
                     if (readings[i].bins != Bins::none) read_paste_into_bins(s, readings[i].bins, readings[i].model);
@@ -312,6 +320,7 @@ void draw_counts_panel(AppState& s, const Theme& t) {
                 }
                 mark_widget(readings[i].name);
             }
+            end_menu_items(t);
             ImGui::EndCombo();
         }
         mark_widget("Read as");
@@ -332,12 +341,14 @@ void draw_model_panel(AppState& s, const Theme& t) {
     const bool model_open = ImGui::BeginCombo("##model", kind_label(s.analysis.model.kind));
     mark_widget("Expected mix");
     if (model_open) {
+        begin_menu_items(t);
         for (const auto& c : kKinds) {
             const bool selected = c.kind == s.analysis.model.kind;
             if (ImGui::Selectable(c.label, selected) && !selected) set_model_kind(s, c.kind);
             mark_widget(c.label);
             if (selected) ImGui::SetItemDefaultFocus();
         }
+        end_menu_items(t);
         ImGui::EndCombo();
     }
     const ModelKind kind = s.analysis.model.kind;
@@ -391,6 +402,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
     std::string custom = "Power divergence, λ = " + format_significant(a.statistic.lambda, 3);
     ImGui::SetNextItemWidth(-1);
     if (ImGui::BeginCombo("##statistic", current ? current : custom.c_str())) {
+        begin_menu_items(t);
         for (const auto& c : kLambdas) {
             if (ImGui::Selectable(c.label, c.lambda == a.statistic.lambda)) {
                 a.statistic.lambda = c.lambda;
@@ -398,6 +410,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
                 recompute(s);
             }
         }
+        end_menu_items(t);
         ImGui::EndCombo();
     }
     if (a.statistic.lambda == 0) {

@@ -61,6 +61,7 @@ void draw_title(AppState& s, const Theme& t) {
     if (ImGui::Button("Save & share ▾")) ImGui::OpenPopup("save");
     mark_widget("Save & share");
     if (ImGui::BeginPopup("save")) {
+        begin_menu_items(t);
         struct Item { const char* label; int action; };
         const Item items[] = {{"Copy share link", 0}, {"Download analysis (JSON)", 1}, {"Download table (CSV)", 2},
                               {"Save curve as PNG", 3}, {"Save bars as PNG", 4}, {"Copy chart image", 5}, {"Print or save as PDF", 6}};
@@ -82,7 +83,17 @@ void draw_title(AppState& s, const Theme& t) {
         ImGui::TextDisabled("Recent analyses (kept in this browser)");
         for (int i = 0; i < static_cast<int>(s.recent.size()); ++i) {
             ImGui::PushID(i);
-            const std::string label = s.recent[i].when + "  " + s.recent[i].title;
+            std::string label = s.recent[i].when + "  " + s.recent[i].title;
+            // On a narrow screen a long title is cut (at a character boundary) so the menu stays on screen.
+            const float room = ImGui::GetMainViewport()->Size.x - 2 * ImGui::GetStyle().WindowPadding.x - 24;
+            if (ImGui::CalcTextSize(label.c_str()).x > room) {
+                while (label.size() > 1 && ImGui::CalcTextSize((label + "…").c_str()).x > room) {
+                    label.pop_back();
+                    while (!label.empty() && (static_cast<unsigned char>(label.back()) & 0xC0) == 0x80) label.pop_back();
+                    if (!label.empty() && static_cast<unsigned char>(label.back()) >= 0xC0) label.pop_back();
+                }
+                label += "…";
+            }
             if (ImGui::Selectable(label.c_str())) open_recent(s, i);
             mark_widget(("recent-" + std::to_string(i)).c_str());
             ImGui::PopID();
@@ -91,12 +102,14 @@ void draw_title(AppState& s, const Theme& t) {
         ImGui::Separator();
         if (ImGui::Selectable("Start fresh")) start_fresh(s);
         mark_widget("Start fresh");
+        end_menu_items(t);
         ImGui::EndPopup();
     }
     next("Examples ▾");
     if (ImGui::Button("Examples ▾")) ImGui::OpenPopup("examples");
     mark_widget("Examples");
     if (ImGui::BeginPopup("examples")) {
+        begin_menu_items(t);
         for (int i = 0; i < kDemoScenarioCount; ++i) {
             ImGui::PushID(i);
             if (ImGui::Selectable(kDemoScenarios[i].title, s.demo_index == i)) load_demo(s, i);
@@ -110,6 +123,7 @@ void draw_title(AppState& s, const Theme& t) {
             ImGui::PopStyleColor();
             ImGui::PopID();
         }
+        end_menu_items(t);
         ImGui::EndPopup();
     }
     next(theme_label);

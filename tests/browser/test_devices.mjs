@@ -7,7 +7,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve, dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { assert, clickWidget, lastResult, screenshot, withPage } from './harness.mjs';
+import { assert, clickWidget, lastResult, pasteText, screenshot, withPage } from './harness.mjs';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const phone = { viewport: { width: 390, height: 844 }, deviceScaleFactor: 2, hasTouch: true, isMobile: true };
@@ -63,11 +63,17 @@ export const tests = {
       await retype(page, '90');
       await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).observed?.[0] === 90, null, { timeout: 5000 });
       await screenshot(page, 'devices-touch-count-typed');
-      // The keyboard's deletion and composition reach the field too: an input method composes "7".
+      // The keyboard's deletion and composition reach the field too: an input method composes
+      // "7" (the field shows it while composing), then commits it.
       await tap(page, 'count 2');
       await page.keyboard.press('End');
       await page.keyboard.press('Backspace');
-      await page.keyboard.insertText('7');
+      const cdp = await page.context().newCDPSession(page);
+      await cdp.send('Input.imeSetComposition', { text: '7', selectionStart: 1, selectionEnd: 1 });
+      await page.waitForTimeout(150);
+      const composing = await page.evaluate(() => document.activeElement.value);
+      assert(composing === '217', `while composing the element holds "${composing}"`);
+      await cdp.send('Input.insertText', { text: '7' });
       await page.keyboard.press('Enter');
       await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).observed?.[1] === 217, null, { timeout: 5000 });
       // Tapping elsewhere ends the edit: the input element gives up focus.
@@ -247,6 +253,20 @@ export const tests = {
         const after = await page.evaluate(() => globalThis.tallyproofPage.widgets);
         const past2 = Object.entries(after).filter(([, r]) => r.x < -0.5 || r.x + r.w > width + 0.5);
         assert(past2.length === 0, `${width}x${height} write-up: past the edge: ${past2.map(([n]) => n).join('; ')}`);
+        // The menus open inside the screen too (a pasted analysis fills the recent list first).
+        await pasteText(page, 'A very long category name from a survey sheet\t31\nAnother long category name\t44\nA third one\t25\n');
+        await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[2] === 'A third one');
+        for (const [menu, item] of [['Save & share', 'Start fresh'], ['Examples', 'Survey sample against census shares']]) {
+          await clickWidget(page, menu);
+          await page.waitForFunction((n) => !!globalThis.tallyproofPage.widgets[n], item, { timeout: 5000 });
+          await screenshot(page, `devices-${width}x${height}-${menu.split(' ')[0].toLowerCase()}`);
+          const open = await page.evaluate(() => globalThis.tallyproofPage.widgets);
+          if (touch) assert(open[item].h >= 44 - 0.5, `${width}x${height}: menu item ${item} is ${open[item].h.toFixed(1)} px tall`);
+          const out = Object.entries(open).filter(([, r]) => r.x < -0.5 || r.x + r.w > width + 0.5);
+          assert(out.length === 0, `${width}x${height} ${menu} menu: past the edge: ${out.map(([n, r]) => `${n} [${r.x.toFixed(0)}, ${(r.x + r.w).toFixed(0)}]`).join('; ')}`);
+          await page.keyboard.press('Escape');
+          await page.waitForTimeout(150);
+        }
       });
     }
   },
