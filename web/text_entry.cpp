@@ -45,7 +45,7 @@ int take_incoming(ImGuiInputTextCallbackData* d) {
     if (d->EventFlag != ImGuiInputTextFlags_CallbackAlways) return 0;
     const ImGuiID id = *static_cast<const ImGuiID*>(d->UserData);
     if (id != g_entry.active && id != ImGui::GetActiveID()) return 0;
-    if (g_entry.incoming) {
+    if (g_entry.incoming && id == g_entry.active) {  // the field was active when the page sent its text
         g_entry.incoming = false;
         const std::string& t = g_entry.incoming_text;
         if (t.size() != static_cast<std::size_t>(d->BufTextLen) || t.compare(0, t.size(), d->Buf, d->BufTextLen) != 0) {
@@ -75,7 +75,10 @@ bool text_field(const char* id, std::string* text, FieldKeys keys, ImGuiInputTex
     const bool result = keys == FieldKeys::multiline ? ImGui::InputTextMultiline(id, text, size, flags, take_incoming, &item)
                                                      : ImGui::InputTextWithHint(id, hint ? hint : "", text, flags, take_incoming, &item);
     if (ImGui::IsItemActive()) {
-        if (g_entry.active != item) g_entry.text = *text;
+        if (g_entry.active != item) {  // newly active: nothing typed for another field applies here
+            g_entry.text = *text;
+            g_entry.incoming = false;
+        }
         g_entry.active = item;
         g_entry.min = ImGui::GetItemRectMin();
         g_entry.max = ImGui::GetItemRectMax();
