@@ -21,6 +21,7 @@
 #include "paste_parser.hpp"
 #include "report.hpp"
 #include "pasted_analysis.hpp"
+#include "writeup.hpp"
 
 namespace tallyproof::web {
 namespace {
@@ -582,6 +583,38 @@ void merge_look_alike_labels(AppState& s) {
 void set_pvalue_method(AppState& s, PValueMethod method) {
     s.analysis.pvalue.method = method;
     recompute(s);
+}
+
+bool apply_alpha_text(AppState& s, const std::string& text) {
+    const std::size_t b = text.find_first_not_of(" \t"), e = text.find_last_not_of(" \t");
+    const std::string t = b == std::string::npos ? "" : text.substr(b, e - b + 1);
+    char* end = nullptr;
+    const double alpha = std::strtod(t.c_str(), &end);
+    if (t.empty() || end != t.c_str() + t.size() || !(alpha > 0 && alpha < 1)) {
+        s.input_error = "α must lie between 0 and 1" + (t.empty() ? std::string(".") : "; \"" + t.substr(0, 20) + "\" does not.");
+        publish_error(s.input_error);
+        s.frames_to_draw = 3;
+        return false;
+    }
+    if (alpha == s.analysis.alpha) return true;
+    const double previous = s.analysis.alpha;
+    s.analysis.alpha = alpha;
+    if (!recompute(s)) {
+        s.analysis.alpha = previous;
+        return false;
+    }
+    return true;
+}
+
+void copy_writeup(AppState& s, bool sentence_only) {
+    WriteupOptions o;
+    o.style = static_cast<WriteupStyle>(s.writeup_style);
+    o.decimal_comma = s.decimal_comma;
+    copy_text(sentence_only ? writeup_sentence(s.analysis, s.result, o) : writeup(s.analysis, s.result, o));
+}
+
+void copy_table(AppState& s) {
+    copy_text(category_table(s.result, TableExportOptions{TableFormat::tsv, s.decimal_comma, false}));
 }
 
 void restore_session(AppState& s) {

@@ -131,6 +131,9 @@ void merge_thin_cells(AppState& s, MergeRule rule);          // one-click remedy
 void undo_merge(AppState& s);
 void merge_look_alike_labels(AppState& s);                   // joins the categories whose labels look the same
 void set_pvalue_method(AppState& s, PValueMethod method);
+bool apply_alpha_text(AppState& s, const std::string& text);  // typed α (0 < α < 1); false: refused, message in input_error
+void copy_writeup(AppState& s, bool sentence_only);          // the write-up in the chosen style (block, or the sentence)
+void copy_table(AppState& s);                                 // the per-category table as TSV
 bool recompute(AppState& s);                                 // false: input_error set, old result kept
 void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work
 void cancel_job(AppState& s);

@@ -8,8 +8,11 @@
 #include <imgui.h>
 #include <imgui_impl_opengl3.h>
 #include <imgui_impl_sdl.h>
+#include <imgui_internal.h>
 
 #include <algorithm>
+#include <cmath>
+#include <string>
 #include <string_view>
 
 #include <cfloat>
@@ -18,13 +21,29 @@
 #include "app_state.hpp"
 #include "bar_chart.hpp"
 #include "density_plot.hpp"
+#include "merge_categories.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
 #include "tallyproof_version.hpp"
+#include "text_entry.hpp"
 #include "theme.hpp"
 #include "writeup.hpp"
 
 namespace {
+
+// One finger on a touch screen. A tap is a click where the finger lifted; a drag scrolls the
+// table or panel under it (the browser's own scrolling is off over the canvas); a finger held
+// still for a moment before moving presses and drags (sliders, text selection).
+struct Touch {
+    enum class Mode { none, pending, scrolling, pressing };
+    Mode mode = Mode::none;
+    SDL_FingerID finger = 0;
+    ImVec2 start, pos;
+    double down_ms = 0;
+    ImVec2 scroll;             // distance to scroll the panel under the finger by, next frame
+    int tap_frames = 0;        // 2: press this frame; 1: release this frame
+    bool drives_mouse = false; // ImGui's mouse follows the finger (until a real mouse moves)
+};
 
 struct Page {
     SDL_Window* window = nullptr;
@@ -35,6 +54,7 @@ struct Page {
     bool paused = false;
     double last_job_frame_ms = 0;  // when a frame last showed a running job's progress
     std::vector<SDL_Event> deferred;  // events held back to the next frame (see take_events)
+    Touch touch;
 };
 
 Page* g_page = nullptr;  // the one page; owned by main, reached from the browser's callbacks
@@ -65,6 +85,13 @@ void handle_shortcuts(Page& p) {
         tallyproof::web::copy_text(p.state.report);
     if (mod && ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_Enter), false)) tallyproof::web::recompute(p.state);
 }
+
+// The text of the print layout: the write-up sentence over the full results block.
+std::string print_text(const tallyproof::web::AppState& s) {
+    const tallyproof::WriteupOptions o;
+    return tallyproof::writeup_sentence(s.analysis, s.result, o) + "\n\n" + s.report;
+}
+std::string print_title(const tallyproof::web::AppState& s) { return s.source_name + " · Tallyproof " TALLYPROOF_VERSION; }
 
 // Renders one chart alone, 960 x 540 CSS pixels at 2x, reads it back and hands it to the page;
 // then restores the canvas. Runs inside the same animation frame as a normal frame drawn after
@@ -109,6 +136,78 @@ void render_chart_export(Page& p, const tallyproof::web::ChartExport& e) {
     emscripten_set_canvas_element_size("#canvas", fw, fh);
 }
 
+constexpr float kDragSlop = 10;          // CSS px a finger moves before a tap becomes a drag
+constexpr double kHoldToPressMs = 450;   // a finger held this long, then moved, presses rather than scrolls
+
+void take_touch(Page& p, const SDL_Event& e) {
+    Touch& t = p.touch;
+    const ImVec2 at(e.tfinger.x * static_cast<float>(p.width), e.tfinger.y * static_cast<float>(p.height));
+    if (!p.theme.touch) {  // the first touch on a device that did not say it had a touch screen
+        p.theme.touch = true;
+        p.state.theme_changed = true;
+    }
+    if (e.type == SDL_FINGERDOWN) {
+        if (t.mode != Touch::Mode::none) return;  // a second finger: ignored
+        t.mode = Touch::Mode::pending;
+        t.finger = e.tfinger.fingerId;
+        t.start = t.pos = at;
+        t.down_ms = emscripten_get_now();
+        t.scroll = ImVec2(0, 0);
+        t.drives_mouse = true;
+        return;
+    }
+    if (e.tfinger.fingerId != t.finger || t.mode == Touch::Mode::none) return;
+    const ImVec2 last = t.pos;
+    t.pos = at;
+    if (e.type == SDL_FINGERMOTION) {
+        if (t.mode == Touch::Mode::pending && std::hypot(at.x - t.start.x, at.y - t.start.y) > kDragSlop)
+            t.mode = emscripten_get_now() - t.down_ms >= kHoldToPressMs ? Touch::Mode::pressing : Touch::Mode::scrolling;
+        if (t.mode == Touch::Mode::scrolling) {
+            t.scroll.x += last.x - at.x;
+            t.scroll.y += last.y - at.y;
+        }
+        return;
+    }
+    if (t.mode == Touch::Mode::pending) t.tap_frames = 2;  // a tap: pressed and released where the finger lifted
+    t.mode = Touch::Mode::none;
+}
+
+// After the backend's NewFrame: ImGui's mouse is the finger while a touch drives it.
+void apply_touch_to_mouse(Page& p) {
+    Touch& t = p.touch;
+    if (!t.drives_mouse) return;
+    ImGuiIO& io = ImGui::GetIO();
+    io.MousePos = t.pos;
+    io.MouseDown[0] = t.mode == Touch::Mode::pressing || t.tap_frames == 2;
+    if (t.tap_frames > 0) {
+        --t.tap_frames;
+        p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
+    } else if (t.mode == Touch::Mode::none) {
+        io.MousePos = ImVec2(-FLT_MAX, -FLT_MAX);  // no hover left behind where the finger was
+        t.drives_mouse = false;
+    }
+}
+
+// After NewFrame (which found the window under the finger): a drag scrolls the nearest window
+// under it that can scroll that way.
+void apply_touch_scroll(Page& p) {
+    Touch& t = p.touch;
+    if (t.scroll.x == 0 && t.scroll.y == 0) return;
+    for (int axis = 0; axis < 2; ++axis) {
+        const float d = axis ? t.scroll.y : t.scroll.x;
+        if (d == 0) continue;
+        for (ImGuiWindow* w = GImGui->HoveredWindow; w; w = w->ParentWindow) {
+            const float max = axis ? w->ScrollMax.y : w->ScrollMax.x;
+            if (max <= 0 || (w->Flags & ImGuiWindowFlags_NoScrollWithMouse)) continue;
+            if (axis) ImGui::SetScrollY(w, std::clamp(w->Scroll.y + d, 0.0f, max));
+            else ImGui::SetScrollX(w, std::clamp(w->Scroll.x + d, 0.0f, max));
+            break;
+        }
+    }
+    t.scroll = ImVec2(0, 0);
+    p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
+}
+
 // Feeds this frame's events to ImGui. A key or button released in the same frame as it was
 // pressed would never be seen as pressed (the loop sleeps while idle, so a quick tap can arrive
 // whole): the release and everything after it wait for the next frame.
@@ -131,6 +230,12 @@ bool take_events(Page& p) {
         }
         if (e.type == SDL_KEYDOWN) keys_down.push_back(e.key.keysym.sym);
         if (e.type == SDL_MOUSEBUTTONDOWN) buttons_down.push_back(e.button.button);
+        if (e.type == SDL_FINGERDOWN || e.type == SDL_FINGERMOTION || e.type == SDL_FINGERUP) {
+            take_touch(p, e);
+            p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);
+            continue;
+        }
+        if (e.type == SDL_MOUSEMOTION || e.type == SDL_MOUSEBUTTONDOWN) p.touch.drives_mouse = false;  // a real mouse
         ImGui_ImplSDL2_ProcessEvent(&e);
         if (e.type == SDL_KEYDOWN || e.type == SDL_KEYUP) {
             // The backend reads modifiers from SDL_GetModState(), which already reflects every
@@ -158,6 +263,7 @@ void frame() {
     if (p.state.job_running) tallyproof::web::start_work_loop();
     if (p.state.theme_changed) {
         tallyproof::web::apply_palette(&p.theme, p.state.dark);
+        p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
         p.state.theme_changed = false;
     }
     if (!p.state.exports.empty()) {
@@ -166,9 +272,7 @@ void frame() {
         render_chart_export(p, e);
         if (p.state.exports.empty() && p.state.print_pending) {
             p.state.print_pending = false;
-            tallyproof::WriteupOptions o;
-            const std::string sentence = tallyproof::writeup_sentence(p.state.analysis, p.state.result, o);
-            tallyproof::web::print_report(sentence + "\n\n" + p.state.report, p.state.source_name + " · Tallyproof " TALLYPROOF_VERSION);
+            tallyproof::web::print_report(print_text(p.state), print_title(p.state), true);
         }
         p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
     }
@@ -189,9 +293,12 @@ void frame() {
 
     ImGui_ImplOpenGL3_NewFrame();
     ImGui_ImplSDL2_NewFrame();
+    apply_touch_to_mouse(p);
     ImGui::NewFrame();
+    apply_touch_scroll(p);
     handle_shortcuts(p);
     tallyproof::web::draw_screen(p.state, p.theme);
+    tallyproof::web::publish_text_entry();
     ImGui::Render();
     int fw = 0, fh = 0;
     SDL_GL_GetDrawableSize(p.window, &fw, &fh);
@@ -246,6 +353,74 @@ EMSCRIPTEN_KEEPALIVE int tp_work(double budget_ms) {
     if (!p.state.job_running || now - p.last_job_frame_ms >= 250) want_frames(p, 2);  // frame() stamps the time
     return p.state.job_running ? 1 : 0;
 }
+// The page's text-entry element changed (typing, composition, deletion, paste, selection): its
+// whole text and selection (UTF-8 byte offsets) replace the active field's.
+EMSCRIPTEN_KEEPALIVE void tp_text_input(const char* text, int length, int selection_start, int selection_end) {
+    if (!g_page) return;
+    tallyproof::web::receive_text_entry(text, length, selection_start, selection_end);
+    want_frames(*g_page, 3);
+}
+// The text-entry element lost focus (the user tapped elsewhere on the page, or closed the keyboard).
+EMSCRIPTEN_KEEPALIVE void tp_text_end() {
+    if (!g_page) return;
+    tallyproof::web::end_text_entry();
+    want_frames(*g_page, 3);
+}
+// Draws the pending frames now, inside the page's handler of a tap or click, so that what the
+// click does (focus a text field and open the on-screen keyboard, open the file picker, read
+// the clipboard) happens within the user's gesture, as browsers require.
+EMSCRIPTEN_KEEPALIVE void tp_frame_now() {
+    if (!g_page) return;
+    for (int i = 0; i < 3 && g_page->state.frames_to_draw > 0; ++i) frame();
+}
+// Before the browser prints: both charts are rendered now and the print layout rebuilt, so the
+// browser's own Print gives the same report as the menu item.
+EMSCRIPTEN_KEEPALIVE void tp_prepare_print() {
+    if (!g_page) return;
+    using namespace tallyproof::web;
+    render_chart_export(*g_page, ChartExport{ResultTab::curve, static_cast<int>(ImagePurpose::print)});
+    render_chart_export(*g_page, ChartExport{ResultTab::bars, static_cast<int>(ImagePurpose::print)});
+    print_report(print_text(g_page->state), print_title(g_page->state), false);
+    want_frames(*g_page, 2);
+}
+// The page's HTML form (shell.html), for screen readers, switch access and keyboard users: each
+// action goes through the same AppState transition as the canvas control it stands for, and a
+// refused value is announced (the live region) like a refused paste.
+enum class FormAction { counts = 0, model = 1, values = 2, alpha = 3, method = 4, merge = 5, copy_writeup = 6, copy_table = 7, download = 8 };
+EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
+    if (!g_page || !text) return;
+    using namespace tallyproof::web;
+    AppState& s = g_page->state;
+    const std::string value = text;
+    s.input_error.clear();
+    switch (static_cast<FormAction>(action)) {
+        case FormAction::counts: apply_paste(s, value); break;
+        case FormAction::model: {
+            tallyproof::ModelKind kind{};
+            if (tallyproof::model_kind_from_name(value, &kind) && kind != s.analysis.model.kind) set_model_kind(s, kind);
+            break;
+        }
+        case FormAction::values:
+            s.model_editor.values = value;
+            apply_model_editor(s);
+            break;
+        case FormAction::alpha: apply_alpha_text(s, value); break;
+        case FormAction::method:
+            for (auto m : {tallyproof::PValueMethod::asymptotic, tallyproof::PValueMethod::exact, tallyproof::PValueMethod::monte_carlo})
+                if (value == tallyproof::pvalue_method_name(m) && m != s.analysis.pvalue.method) set_pvalue_method(s, m);
+            break;
+        case FormAction::merge: {
+            tallyproof::MergeRule rule{};
+            if (tallyproof::merge_rule_from_name(value, &rule) && rule != s.analysis.merge.rule) merge_thin_cells(s, rule);
+            break;
+        }
+        case FormAction::copy_writeup: copy_writeup(s, false); break;
+        case FormAction::copy_table: copy_table(s); break;
+        case FormAction::download: download_document(s); break;
+    }
+    if (!s.input_error.empty()) publish_error(s.input_error);
+    want_frames(*g_page, 3);
+}
 // Cancels running exact or Monte Carlo work (the page's Escape key).
 EMSCRIPTEN_KEEPALIVE void tp_cancel() {
     if (!g_page) return;
@@ -257,6 +432,7 @@ EMSCRIPTEN_KEEPALIVE void tp_cancel() {
 int main() {
     static Page page;
     g_page = &page;
+    SDL_SetHint(SDL_HINT_TOUCH_MOUSE_EVENTS, "0");  // touches are read as fingers (take_touch), not as a mouse
     if (SDL_Init(SDL_INIT_VIDEO | SDL_INIT_TIMER) != 0) return 1;
     SDL_GL_SetAttribute(SDL_GL_CONTEXT_PROFILE_MASK, SDL_GL_CONTEXT_PROFILE_ES);
     SDL_GL_SetAttribute(SDL_GL_CONTEXT_MAJOR_VERSION, 3);
@@ -280,6 +456,7 @@ int main() {
     ImGui_ImplOpenGL3_Init("#version 300 es");
     tallyproof::web::load_fonts(&page.theme, static_cast<float>(std::max(1.0, tallyproof::web::device_pixel_ratio())));
     page.state.dark = tallyproof::web::system_prefers_dark();
+    page.theme.touch = tallyproof::web::has_touch_screen();
     tallyproof::web::apply_palette(&page.theme, page.state.dark);
     page.state.theme_changed = false;
 

@@ -31,6 +31,13 @@ std::string local_time_text();                      // e.g. "2026-12-01 22:40" i
 void download_text(const char* filename, const char* mime, const std::string& text);
 enum class ImagePurpose { download = 0, copy = 1, print = 2 };
 void deliver_image(const unsigned char* rgba, int width, int height, const char* name, ImagePurpose purpose);
-void print_report(const std::string& text, const std::string& title);  // print layout, then print()
+// The print layout (text and the chart images delivered for printing); then the browser's print
+// dialog when `then_print` (the menu item), not when the browser is already printing.
+void print_report(const std::string& text, const std::string& title, bool then_print);
+
+// Touch screens and the page's own file and clipboard controls.
+bool has_touch_screen();                            // a coarse pointer (phone, tablet): 44 px tap targets
+void choose_file();                                 // opens the browser's file picker (read locally, never uploaded)
+void paste_from_clipboard();                        // reads the clipboard (asks the browser), else offers a box to paste into
 
 }  // namespace tallyproof::web

@@ -3,7 +3,9 @@
 #include <imgui.h>
 #include <imgui_stdlib.h>
 
+#include <algorithm>
 #include <cmath>
+#include <cstdarg>
 #include <cstdio>
 #include <string>
 
@@ -13,6 +15,7 @@
 #include "null_model.hpp"
 #include "paste_parser.hpp"
 #include "power_divergence.hpp"
+#include "text_entry.hpp"
 
 namespace tallyproof::web {
 namespace {
@@ -69,14 +72,14 @@ void draw_bin_row(AppState& s, const Theme& t) {
         ImGui::TextUnformatted("Edges");
         ImGui::SameLine();
         ImGui::SetNextItemWidth(-(apply_w + style.ItemSpacing.x));
-        apply |= ImGui::InputTextWithHint("##bin-edges", "0, 10, 20, inf", &s.bin_editor.edges, ImGuiInputTextFlags_EnterReturnsTrue);
+        apply |= text_field("##bin-edges", &s.bin_editor.edges, FieldKeys::text, ImGuiInputTextFlags_EnterReturnsTrue, "0, 10, 20, inf");
         mark_widget("bin edges");
         if (ImGui::IsItemHovered()) ImGui::SetTooltip("Bin edges in increasing order, separated by commas; -inf and inf leave the ends open.");
     } else {
         ImGui::TextUnformatted("Bins");
         ImGui::SameLine();
         ImGui::SetNextItemWidth(ImGui::CalcTextSize("00000").x + style.FramePadding.x * 2);
-        apply |= ImGui::InputText("##bin-count", &s.bin_editor.count, ImGuiInputTextFlags_CharsDecimal | ImGuiInputTextFlags_EnterReturnsTrue);
+        apply |= text_field("##bin-count", &s.bin_editor.count, FieldKeys::whole, ImGuiInputTextFlags_CharsDecimal | ImGuiInputTextFlags_EnterReturnsTrue);
         mark_widget("number of bins");
         if (ImGui::IsItemHovered()) ImGui::SetTooltip("The number of bins K, from 2 to %d.", kMaxBinsOnPage);
     }
@@ -102,7 +105,7 @@ void draw_bin_row(AppState& s, const Theme& t) {
     if (apply) apply_bin_editor(s);
     if (!s.bin_editor.error.empty()) {
         ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
-        ImGui::TextWrapped("Bins not applied: %s", s.bin_editor.error.c_str());
+        wrapped_text(("Bins not applied: " + s.bin_editor.error).c_str());
         ImGui::PopStyleColor();
     }
 }
@@ -117,11 +120,76 @@ void section_title(const char* title, const Theme& theme) {
 
 void muted_wrapped(const Theme& theme, const char* fmt, ...) {
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(theme.muted));
+    char text[2048];
     va_list args;
     va_start(args, fmt);
-    ImGui::TextWrappedV(fmt, args);
+    std::vsnprintf(text, sizeof text, fmt, args);
     va_end(args);
+    wrapped_text(text);
     ImGui::PopStyleColor();
+}
+
+// ImGui's own wrapping also breaks after '.' and ',', which splits numbers such as 0.123 or
+// 1,234 across lines; here lines break only at spaces (a word wider than the line stays whole).
+void wrapped_text(const char* text) {
+    const float width = std::max(40.0f, ImGui::GetContentRegionAvail().x);
+    std::string out, line;
+    const char* p = text;
+    for (;;) {
+        const char* end = p;
+        while (*end && *end != ' ' && *end != '\n') ++end;
+        const std::string word(p, end);
+        const std::string candidate = line.empty() ? word : line + " " + word;
+        if (!line.empty() && ImGui::CalcTextSize(candidate.c_str()).x > width) {
+            out += line + "\n";
+            line = word;
+        } else {
+            line = candidate;
+        }
+        if (*end == '\n' || !*end) {
+            out += line;
+            line.clear();
+            if (!*end) break;
+            out += "\n";
+        }
+        p = end + 1;
+    }
+    ImGui::TextUnformatted(out.c_str());
+}
+
+// Menu and list items: 44 px apart on touch screens (a Selectable's target spans its spacing).
+void begin_menu_items(const Theme& theme) {
+    const ImVec2 spacing = ImGui::GetStyle().ItemSpacing;
+    ImGui::PushStyleVar(ImGuiStyleVar_ItemSpacing, theme.touch ? ImVec2(spacing.x, 44 - ImGui::GetTextLineHeight()) : spacing);
+}
+void end_menu_items(const Theme&) { ImGui::PopStyleVar(); }
+
+bool compact_button(const char* label, const Theme& theme) {
+    if (!theme.touch) return ImGui::SmallButton(label);
+    const float h = ImGui::GetFrameHeight();
+    return ImGui::Button(label, ImVec2(std::max(h, ImGui::CalcTextSize(label).x + 2 * ImGui::GetStyle().FramePadding.x), h));
+}
+
+void flow_next(float width) {
+    const float right = ImGui::GetItemRectMax().x + ImGui::GetStyle().ItemSpacing.x + width;
+    const float edge = ImGui::GetWindowPos().x + ImGui::GetWindowContentRegionMax().x;
+    if (right <= edge) ImGui::SameLine();
+}
+
+float radio_width(const char* label) {
+    return ImGui::GetFrameHeight() + ImGui::GetStyle().ItemInnerSpacing.x + ImGui::CalcTextSize(label).x;
+}
+
+bool number_field(const char* id, double* value, const char* format, FieldKeys keys) {
+    char shown[64];
+    std::snprintf(shown, sizeof shown, format, *value);
+    std::string text = shown;
+    const bool done = text_field(id, &text, keys, ImGuiInputTextFlags_CharsScientific | ImGuiInputTextFlags_EnterReturnsTrue) ||
+                      ImGui::IsItemDeactivatedAfterEdit();
+    double v = 0;
+    if (!done || !parse_count_cell(text, &v) || v == *value) return false;
+    *value = v;
+    return true;
 }
 
 void draw_counts_panel(AppState& s, const Theme& t) {
@@ -141,13 +209,16 @@ void draw_counts_panel(AppState& s, const Theme& t) {
                  ImGui::GetStyle().ItemSpacing.y;
     const float avail = ImGui::GetContentRegionAvail().y - below;
     const float height = std::max(row_h * 3, std::min(want, std::max(avail, row_h * 3)));
-    if (ImGui::BeginTable("counts", 5, flags, ImVec2(0, height))) {
+    // On a phone the share column gives its room to the fields (the shares are in the write-up).
+    const bool share_column = !t.touch || ImGui::GetContentRegionAvail().x >= 560;
+    if (ImGui::BeginTable("counts", share_column ? 5 : 4, flags, ImVec2(0, height))) {
         ImGui::TableSetupScrollFreeze(0, 1);
         ImGui::TableSetupColumn("Category", ImGuiTableColumnFlags_WidthStretch, 2.0f);
         ImGui::TableSetupColumn("Observed", ImGuiTableColumnFlags_WidthStretch, 1.3f);
         ImGui::TableSetupColumn("Expected", ImGuiTableColumnFlags_WidthStretch, 1.0f);
-        ImGui::TableSetupColumn("Share", ImGuiTableColumnFlags_WidthStretch, 0.9f);
-        ImGui::TableSetupColumn("", ImGuiTableColumnFlags_WidthFixed, ImGui::CalcTextSize("↑↓×").x + 6 * ImGui::GetStyle().FramePadding.x + 6);
+        if (share_column) ImGui::TableSetupColumn("Share", ImGuiTableColumnFlags_WidthStretch, 0.9f);
+        const float arrows_w = t.touch ? 3 * ImGui::GetFrameHeight() + 6 : ImGui::CalcTextSize("↑↓×").x + 6 * ImGui::GetStyle().FramePadding.x + 6;
+        ImGui::TableSetupColumn("", ImGuiTableColumnFlags_WidthFixed, arrows_w);
         ImGui::TableHeadersRow();
         ImGuiListClipper clipper;
         clipper.Begin(k, row_h);
@@ -158,30 +229,36 @@ void draw_counts_panel(AppState& s, const Theme& t) {
                 ImGui::TableNextColumn();
                 std::string label = s.analysis.categories[i];
                 ImGui::SetNextItemWidth(-1);
-                if (ImGui::InputText("##label", &label, ImGuiInputTextFlags_EnterReturnsTrue) ||
-                    (ImGui::IsItemDeactivatedAfterEdit() && label != s.analysis.categories[i]))
-                    set_label(s, i, label);
+                const bool label_done = text_field("##label", &label, FieldKeys::text, ImGuiInputTextFlags_EnterReturnsTrue) ||
+                                        (ImGui::IsItemDeactivatedAfterEdit() && label != s.analysis.categories[i]);
+                mark_widget(("label " + std::to_string(i + 1)).c_str());
+                if (label_done) set_label(s, i, label);
                 ImGui::TableNextColumn();
                 std::string count = format_count(s.analysis.observed[i]);
                 ImGui::SetNextItemWidth(-1);
-                if (ImGui::InputText("##count", &count, ImGuiInputTextFlags_CharsScientific | ImGuiInputTextFlags_EnterReturnsTrue) ||
-                    ImGui::IsItemDeactivatedAfterEdit()) {
+                const bool count_done = text_field("##count", &count, FieldKeys::decimal,
+                                                   ImGuiInputTextFlags_CharsScientific | ImGuiInputTextFlags_EnterReturnsTrue) ||
+                                        ImGui::IsItemDeactivatedAfterEdit();
+                mark_widget(("count " + std::to_string(i + 1)).c_str());
+                if (count_done) {
                     double v = 0;
                     if (parse_count_cell(count, &v)) { if (v != s.analysis.observed[i]) set_count(s, i, v); }
                     else s.input_error = "\"" + count.substr(0, 20) + "\" is not a count.";
                 }
                 ImGui::TableNextColumn();
                 if (i < static_cast<int>(r.expected_counts.size())) ImGui::TextUnformatted(format_fixed(r.expected_counts[i], 2).c_str());
+                if (share_column) {
+                    ImGui::TableNextColumn();
+                    if (i < static_cast<int>(r.expected_shares.size())) ImGui::TextUnformatted(format_significant(r.expected_shares[i], 3).c_str());
+                }
                 ImGui::TableNextColumn();
-                if (i < static_cast<int>(r.expected_shares.size())) ImGui::TextUnformatted(format_significant(r.expected_shares[i], 3).c_str());
-                ImGui::TableNextColumn();
-                if (ImGui::SmallButton("↑")) move_row(s, i, -1);
+                if (compact_button("↑", t)) move_row(s, i, -1);
                 if (ImGui::IsItemHovered()) ImGui::SetTooltip("Move up");
                 ImGui::SameLine(0, 2);
-                if (ImGui::SmallButton("↓")) move_row(s, i, +1);
+                if (compact_button("↓", t)) move_row(s, i, +1);
                 if (ImGui::IsItemHovered()) ImGui::SetTooltip("Move down");
                 ImGui::SameLine(0, 2);
-                if (ImGui::SmallButton("×")) remove_row(s, i);
+                if (compact_button("×", t)) remove_row(s, i);
                 if (ImGui::IsItemHovered()) ImGui::SetTooltip("Remove this category");
                 ImGui::PopID();
             }
@@ -235,6 +312,7 @@ void draw_counts_panel(AppState& s, const Theme& t) {
         ImGui::SetNextItemWidth(-1);
         if (ImGui::BeginCombo("##shape", current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.pasted_shape)),
                               ImGuiComboFlags_HeightLargest)) {  // every reading in view, none behind a scroll
+            begin_menu_items(t);
             for (int i = 0; i < count; ++i) {
                 if (ImGui::Selectable(readings[i].name, i == current) && i != current) {
                     if (readings[i].bins != Bins::none) read_paste_into_bins(s, readings[i].bins, readings[i].model);
@@ -242,13 +320,14 @@ void draw_counts_panel(AppState& s, const Theme& t) {
                 }
                 mark_widget(readings[i].name);
             }
+            end_menu_items(t);
             ImGui::EndCombo();
         }
         mark_widget("Read as");
         if (bin_row) draw_bin_row(s, t);
     }
     if (ImGui::Button("+ Add category")) add_row(s);
-    ImGui::SameLine();
+    flow_next(ImGui::GetFrameHeight() + ImGui::CalcTextSize("Categories are in order").x + ImGui::GetStyle().ItemInnerSpacing.x);
     bool ordered = s.analysis.ordered;
     if (ImGui::Checkbox("Categories are in order", &ordered)) {
         s.analysis.ordered = ordered;
@@ -262,24 +341,27 @@ void draw_model_panel(AppState& s, const Theme& t) {
     const bool model_open = ImGui::BeginCombo("##model", kind_label(s.analysis.model.kind));
     mark_widget("Expected mix");
     if (model_open) {
+        begin_menu_items(t);
         for (const auto& c : kKinds) {
             const bool selected = c.kind == s.analysis.model.kind;
             if (ImGui::Selectable(c.label, selected) && !selected) set_model_kind(s, c.kind);
             mark_widget(c.label);
             if (selected) ImGui::SetItemDefaultFocus();
         }
+        end_menu_items(t);
         ImGui::EndCombo();
     }
     const ModelKind kind = s.analysis.model.kind;
     if (kind == ModelKind::shares || kind == ModelKind::ratio || kind == ModelKind::counts) {
         const char* hint = kind == ModelKind::ratio ? "9:3:3:1" : kind == ModelKind::shares ? "40, 35, 25 (one per category)" : "one expected count per category";
         ImGui::SetNextItemWidth(-1);
-        if (ImGui::InputTextWithHint("##values", hint, &s.model_editor.values)) apply_model_editor(s);
+        if (text_field("##values", &s.model_editor.values, FieldKeys::text, 0, hint)) apply_model_editor(s);
+        mark_widget("expected values");
     }
     if (kind == ModelKind::normal || kind == ModelKind::lognormal || kind == ModelKind::exponential) {
         ImGui::TextUnformatted("Bin edges (k + 1):");
         ImGui::SetNextItemWidth(-1);
-        if (ImGui::InputTextWithHint("##edges", "-inf, 10, 20, 30, inf", &s.model_editor.edges)) apply_model_editor(s);
+        if (text_field("##edges", &s.model_editor.edges, FieldKeys::text, 0, "-inf, 10, 20, 30, inf")) apply_model_editor(s);
     }
     for (std::size_t i = 0; i < s.model_editor.parameters.size(); ++i) {
         auto& p = s.model_editor.parameters[i];
@@ -294,7 +376,7 @@ void draw_model_panel(AppState& s, const Theme& t) {
         }
         if (!p.estimate) {
             ImGui::SetNextItemWidth(120);
-            changed |= ImGui::InputDouble("##value", &p.value, 0, 0, "%.6g");
+            changed |= number_field("##value", &p.value, "%.6g");
         } else {
             // Show the estimate in its place
             for (const auto& e : s.result.estimates)
@@ -305,7 +387,7 @@ void draw_model_panel(AppState& s, const Theme& t) {
     }
     if (!s.input_error.empty()) {
         ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
-        ImGui::TextWrapped("Not applied: %s", s.input_error.c_str());
+        wrapped_text(("Not applied: " + s.input_error).c_str());
         ImGui::PopStyleColor();
     } else if (s.result.status.ok) {
         muted_wrapped(t, "%s.", s.result.model_description.c_str());
@@ -320,6 +402,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
     std::string custom = "Power divergence, λ = " + format_significant(a.statistic.lambda, 3);
     ImGui::SetNextItemWidth(-1);
     if (ImGui::BeginCombo("##statistic", current ? current : custom.c_str())) {
+        begin_menu_items(t);
         for (const auto& c : kLambdas) {
             if (ImGui::Selectable(c.label, c.lambda == a.statistic.lambda)) {
                 a.statistic.lambda = c.lambda;
@@ -327,6 +410,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
                 recompute(s);
             }
         }
+        end_menu_items(t);
         ImGui::EndCombo();
     }
     if (a.statistic.lambda == 0) {
@@ -335,43 +419,47 @@ void draw_test_panel(AppState& s, const Theme& t) {
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("α");
     ImGui::SameLine(74);
-    double alpha = a.alpha;
+    std::string alpha = format_plain(a.alpha);
     ImGui::SetNextItemWidth(100);
-    if (ImGui::InputDouble("##alpha", &alpha, 0, 0, "%.4g", ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {
-        if (alpha > 0 && alpha < 1 && alpha != a.alpha) { a.alpha = alpha; recompute(s); }
-        else if (!(alpha > 0 && alpha < 1)) s.input_error = "α must lie between 0 and 1.";
-    }
+    const bool alpha_done = text_field("##alpha", &alpha, FieldKeys::decimal, ImGuiInputTextFlags_CharsScientific | ImGuiInputTextFlags_EnterReturnsTrue) ||
+                            ImGui::IsItemDeactivatedAfterEdit();
+    mark_widget("alpha");
+    if (alpha_done) apply_alpha_text(s, alpha);
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("p-value");
     ImGui::SameLine(74);
     int m = static_cast<int>(a.pvalue.method);
     bool method_changed = ImGui::RadioButton("asymptotic", &m, 0);
     mark_widget("asymptotic");
-    ImGui::SameLine();
+    flow_next(radio_width("exact"));
     method_changed |= ImGui::RadioButton("exact", &m, 1);
     mark_widget("exact");
-    ImGui::SameLine();
+    flow_next(radio_width("Monte Carlo"));
     method_changed |= ImGui::RadioButton("Monte Carlo", &m, 2);
     mark_widget("Monte Carlo");
     if (method_changed) set_pvalue_method(s, static_cast<PValueMethod>(m));
     if (a.pvalue.method == PValueMethod::monte_carlo) {
         ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
-        int reps = static_cast<int>(a.pvalue.replicates), seed = static_cast<int>(a.pvalue.seed);
+        double reps = static_cast<double>(a.pvalue.replicates), seed = static_cast<double>(a.pvalue.seed);
         ImGui::SetNextItemWidth(110);
-        if (ImGui::InputInt("replicates", &reps, 0, 0, ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {
-            if (reps >= 100 && reps <= 100000000) { a.pvalue.replicates = static_cast<std::uint64_t>(reps); recompute(s); }
+        if (number_field("##replicates", &reps, "%.0f", FieldKeys::whole)) {
+            if (reps >= 100 && reps <= 100000000 && reps == std::floor(reps)) { a.pvalue.replicates = static_cast<std::uint64_t>(reps); recompute(s); }
         }
-        ImGui::SameLine();
+        ImGui::SameLine(0, ImGui::GetStyle().ItemInnerSpacing.x);
+        ImGui::TextUnformatted("replicates");
+        flow_next(80 + ImGui::CalcTextSize("seed").x + ImGui::GetStyle().ItemInnerSpacing.x);
         ImGui::SetNextItemWidth(80);
-        if (ImGui::InputInt("seed", &seed, 0, 0, ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {
-            if (seed >= 0) { a.pvalue.seed = static_cast<std::uint64_t>(seed); recompute(s); }
+        if (number_field("##seed", &seed, "%.0f", FieldKeys::whole)) {
+            if (seed >= 0 && seed <= 4294967295.0 && seed == std::floor(seed)) { a.pvalue.seed = static_cast<std::uint64_t>(seed); recompute(s); }
         }
+        ImGui::SameLine(0, ImGui::GetStyle().ItemInnerSpacing.x);
+        ImGui::TextUnformatted("seed");
     }
     if (a.pvalue.method != PValueMethod::asymptotic) {
         ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
         int ord = a.pvalue.ordering == ExactOrdering::statistic ? 0 : 1;
         bool ch = ImGui::RadioButton("by statistic", &ord, 0);
-        ImGui::SameLine();
+        flow_next(radio_width("by probability"));
         ch |= ImGui::RadioButton("by probability", &ord, 1);
         if (ch) { a.pvalue.ordering = ord == 0 ? ExactOrdering::statistic : ExactOrdering::probability; recompute(s); }
     }
@@ -388,9 +476,11 @@ void draw_test_panel(AppState& s, const Theme& t) {
         ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
         double mn = a.merge.minimum;
         ImGui::SetNextItemWidth(100);
-        if (ImGui::InputDouble("minimum", &mn, 0, 0, "%.3g", ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit()) {
+        if (number_field("##minimum", &mn, "%.3g")) {
             if (mn > 0 && mn != a.merge.minimum) { a.merge.minimum = mn; recompute(s); }
         }
+        ImGui::SameLine(0, ImGui::GetStyle().ItemInnerSpacing.x);
+        ImGui::TextUnformatted("minimum");
     }
 }
 

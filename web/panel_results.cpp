@@ -22,7 +22,7 @@ namespace {
 
 void coloured_wrapped(ImU32 colour, const char* text) {
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(colour));
-    ImGui::TextWrapped("%s", text);
+    wrapped_text(text);
     ImGui::PopStyleColor();
 }
 
@@ -39,20 +39,25 @@ std::string p_line(const Result& r) {
 void draw_verdict_panel(AppState& s, const Theme& t) {
     const Result& r = s.result;
     if (!r.status.ok) {
-        ImGui::TextWrapped("%s", r.status.message.c_str());
+        wrapped_text(r.status.message.c_str());
         return;
     }
     ImGui::PushFont(t.heading);
-    ImGui::Text("%s = %s", r.statistic_symbol.c_str(), format_fixed(r.statistic, 2).c_str());
-    ImGui::SameLine(0, 18);
-    ImGui::Text("%s", p_line(r).c_str());
-    ImGui::PopFont();
-    ImGui::Text("df = %s   ·   N = %s   ·   %s   ·   p-value: %s", format_count(r.df).c_str(), format_count(r.n).c_str(),
-                r.statistic_name.c_str(), method_phrase(r).c_str());
-    ImGui::Text("Critical value at α = %s: %s", format_plain(r.alpha).c_str(), format_fixed(r.critical_value, 3).c_str());
-    if (r.method != PValueMethod::asymptotic) {
+    const std::string statistic = r.statistic_symbol + " = " + format_fixed(r.statistic, 2), p = p_line(r);
+    ImGui::TextUnformatted(statistic.c_str());
+    if (ImGui::GetItemRectMax().x + 18 + ImGui::CalcTextSize(p.c_str()).x <= ImGui::GetWindowPos().x + ImGui::GetWindowContentRegionMax().x)
         ImGui::SameLine(0, 18);
-        ImGui::TextDisabled("asymptotic p = %s", format_probability(r.upper).c_str());
+    ImGui::TextUnformatted(p.c_str());
+    ImGui::PopFont();
+    wrapped_text(("df = " + format_count(r.df) + "   ·   N = " + format_count(r.n) + "   ·   " + r.statistic_name + "   ·   p-value: " +
+                  method_phrase(r)).c_str());
+    wrapped_text(("Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3)).c_str());
+    if (r.method != PValueMethod::asymptotic) {
+        const std::string asymptotic = "asymptotic p = " + format_probability(r.upper);
+        flow_next(ImGui::CalcTextSize(asymptotic.c_str()).x + 9);
+        ImGui::PushStyleColor(ImGuiCol_Text, ImGui::GetStyleColorVec4(ImGuiCol_TextDisabled));
+        wrapped_text(asymptotic.c_str());
+        ImGui::PopStyleColor();
     }
     ImGui::PushFont(t.strong);
     coloured_wrapped(r.reject ? t.warn_ink : t.accent, verdict_sentence(r).c_str());
@@ -61,7 +66,7 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
     if (std::isfinite(r.effect.w_interval.lower))
         effect += ", 95% CI " + format_fixed(r.effect.w_interval.lower, 3) + " to " + format_fixed(r.effect.w_interval.upper, 3);
     if (r.effect.fei_defined) effect += ";  Fei = " + format_fixed(r.effect.fei, 3);
-    ImGui::TextWrapped("%s", effect.c_str());
+    wrapped_text(effect.c_str());
     if (r.df_range.shown && r.estimated_parameters > 0) muted_wrapped(t, "%s", r.df_range.note.c_str());
     if (r.exact.computed) muted_wrapped(t, "Exact p-value, error bound %s.", format_significant(r.exact.error_bound, 2).c_str());
     if (r.monte_carlo.computed)
@@ -96,7 +101,21 @@ void draw_validity_panel(AppState& s, const Theme& t) {
     const float wrap = ImGui::GetContentRegionAvail().x - 2 * ImGui::GetStyle().WindowPadding.x;
     float h = ImGui::CalcTextSize(head.c_str(), nullptr, false, wrap).y + 2 * ImGui::GetStyle().WindowPadding.y + 4;
     if (r.merged) h += ImGui::CalcTextSize(r.merge_note.c_str(), nullptr, false, wrap).y + ImGui::GetStyle().ItemSpacing.y;
-    if (buttons) h += ImGui::GetFrameHeightWithSpacing();
+    if (buttons) {  // the remedy buttons, wrapped onto as many lines as the width needs
+        float row = 0;
+        int lines = 1;
+        const float pad = 2 * ImGui::GetStyle().FramePadding.x, gap = ImGui::GetStyle().ItemSpacing.x;
+        std::vector<const char*> shown;
+        if (!ok && s.analysis.merge.rule == MergeRule::none) shown.push_back("Merge thin categories");
+        if (!s.merge_undo.empty()) shown.push_back("Undo merge");
+        if (!ok && r.method == PValueMethod::asymptotic) { shown.push_back("Use the exact p-value"); shown.push_back("Use a Monte Carlo p-value"); }
+        for (const char* b : shown) {
+            const float w = ImGui::CalcTextSize(b).x + pad;
+            if (row > 0 && row + gap + w > wrap) { ++lines; row = w; }
+            else row += (row > 0 ? gap : 0) + w;
+        }
+        h += ImGui::GetFrameHeightWithSpacing() * static_cast<float>(lines);
+    }
     ImGui::BeginChild("validity", ImVec2(0, h), true, ImGuiWindowFlags_NoScrollbar);
     coloured_wrapped(ink, head.c_str());
     if (r.merged) {
@@ -106,15 +125,15 @@ void draw_validity_panel(AppState& s, const Theme& t) {
         if (!ok && s.analysis.merge.rule == MergeRule::none) {
             if (ImGui::Button("Merge thin categories")) merge_thin_cells(s, r.validity.cochran_holds ? MergeRule::all_at_least_5 : MergeRule::cochran); mark_widget("Merge thin categories");
             if (ImGui::IsItemHovered()) ImGui::SetTooltip("Joins categories with small expected counts (decided on expected counts only)");
-            ImGui::SameLine();
+            flow_next(ImGui::CalcTextSize("Undo merge").x + 2 * ImGui::GetStyle().FramePadding.x);
         }
         if (!s.merge_undo.empty()) {
             if (ImGui::Button("Undo merge")) undo_merge(s); mark_widget("Undo merge");
-            ImGui::SameLine();
+            flow_next(ImGui::CalcTextSize("Use the exact p-value").x + 2 * ImGui::GetStyle().FramePadding.x);
         }
         if (!ok && r.method == PValueMethod::asymptotic) {
             if (ImGui::Button("Use the exact p-value")) set_pvalue_method(s, PValueMethod::exact); mark_widget("Use the exact p-value");
-            ImGui::SameLine();
+            flow_next(ImGui::CalcTextSize("Use a Monte Carlo p-value").x + 2 * ImGui::GetStyle().FramePadding.x);
             if (ImGui::Button("Use a Monte Carlo p-value")) set_pvalue_method(s, PValueMethod::monte_carlo); mark_widget("Use a Monte Carlo p-value");
         }
     }
@@ -199,7 +218,9 @@ void draw_planning_panel(AppState& s, const Theme& t) {
     ImGui::SetNextItemWidth(140);
     ImGui::SliderScalar("effect size w", ImGuiDataType_Double, &s.plan_w, &kWMin, &kWMax, "%.3f");
     ImGui::SetNextItemWidth(140);
-    ImGui::InputDouble("sample size N", &s.plan_n, 0, 0, "%.0f");
+    number_field("##plan-n", &s.plan_n, "%.0f", FieldKeys::whole);
+    ImGui::SameLine(0, ImGui::GetStyle().ItemInnerSpacing.x);
+    ImGui::TextUnformatted("sample size N");
     ImGui::SetNextItemWidth(140);
     ImGui::SliderScalar("target power", ImGuiDataType_Double, &s.plan_target, &kPowerMin, &kPowerMax, "%.2f");
     const double power = gof_power(s.plan_w, std::max(1.0, s.plan_n), r.alpha, r.df);
@@ -209,7 +230,7 @@ void draw_planning_panel(AppState& s, const Theme& t) {
     ImGui::PushFont(t.strong);
     ImGui::Text("Power at N = %s: %s", format_count(std::max(1.0, s.plan_n)).c_str(), format_fixed(power, 3).c_str());
     if (st.ok) ImGui::Text("N needed for power %s: %s", format_fixed(s.plan_target, 2).c_str(), format_count(need).c_str());
-    else ImGui::TextWrapped("%s", st.message.c_str());
+    else wrapped_text(st.message.c_str());
     ImGui::PopFont();
     muted_wrapped(t, "This analysis observed w = %s with N = %s.", format_fixed(r.effect.w, 3).c_str(), format_count(r.n).c_str());
     if (ImGui::Button("Use the observed N")) s.plan_n = r.n;
@@ -219,36 +240,36 @@ void draw_writeup_panel(AppState& s, const Theme& t) {
     muted_wrapped(t, "Ready to paste into a report, an email or a spreadsheet.");
     ImGui::RadioButton("Plain text", &s.writeup_style, 0);
     mark_widget("Plain text");
-    ImGui::SameLine();
+    flow_next(radio_width("Markdown"));
     ImGui::RadioButton("Markdown", &s.writeup_style, 1);
     mark_widget("Markdown");
-    ImGui::SameLine();
+    flow_next(radio_width("Spreadsheet (TSV)"));
     ImGui::RadioButton("Spreadsheet (TSV)", &s.writeup_style, 2);
     mark_widget("Spreadsheet (TSV)");
-    ImGui::SameLine();
+    flow_next(radio_width("decimal comma"));
     ImGui::Checkbox("decimal comma", &s.decimal_comma);
     mark_widget("decimal comma");
     WriteupOptions o;
     o.style = static_cast<WriteupStyle>(s.writeup_style);
     o.decimal_comma = s.decimal_comma;
-    const std::string sentence = writeup_sentence(s.analysis, s.result, o);
     std::string block = writeup(s.analysis, s.result, o);
-    if (ImGui::Button("Copy sentence")) copy_text(sentence);
+    const float pad = 2 * ImGui::GetStyle().FramePadding.x;
+    if (ImGui::Button("Copy sentence")) copy_writeup(s, true);
     mark_widget("Copy sentence");
-    ImGui::SameLine();
-    if (ImGui::Button("Copy block")) copy_text(block);
+    flow_next(ImGui::CalcTextSize("Copy block").x + pad);
+    if (ImGui::Button("Copy block")) copy_writeup(s, false);
     mark_widget("Copy block");
-    ImGui::SameLine();
-    if (ImGui::Button("Copy table (TSV)")) copy_text(category_table(s.result, TableExportOptions{TableFormat::tsv, s.decimal_comma, false}));
+    flow_next(ImGui::CalcTextSize("Copy table (TSV)").x + pad);
+    if (ImGui::Button("Copy table (TSV)")) copy_table(s);
     mark_widget("Copy table");
-    ImGui::SameLine();
+    flow_next(ImGui::CalcTextSize("Copy full report").x + pad);
     if (ImGui::Button("Copy full report")) copy_text(s.report);
     mark_widget("Copy full report");
     if (o.style == WriteupStyle::tsv) {
         ImGui::InputTextMultiline("##writeup", &block, ImGui::GetContentRegionAvail(), ImGuiInputTextFlags_ReadOnly);
     } else {
         ImGui::BeginChild("writeup-text", ImGui::GetContentRegionAvail(), true);
-        ImGui::TextWrapped("%s", block.c_str());
+        wrapped_text(block.c_str());
         ImGui::EndChild();
     }
 }

@@ -16,6 +16,7 @@
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "tallyproof_version.hpp"
+#include "text_entry.hpp"
 
 namespace tallyproof::web {
 namespace {
@@ -24,9 +25,11 @@ void draw_title(AppState& s, const Theme& t) {
     ImGui::PushFont(t.heading);
     ImGui::TextUnformatted("Tallyproof");
     ImGui::PopFont();
-    const float w_examples = ImGui::CalcTextSize("Examples ▾").x + 16, w_theme = ImGui::CalcTextSize("Light theme").x + 16;
-    const float w_copy = ImGui::CalcTextSize("Copy results").x + 16, w_save = ImGui::CalcTextSize("Save & share ▾").x + 16;
-    const float buttons = w_save + w_examples + w_theme + w_copy + 3 * ImGui::GetStyle().ItemSpacing.x;
+    const float pad = 2 * ImGui::GetStyle().FramePadding.x, gap = ImGui::GetStyle().ItemSpacing.x;
+    const char* theme_label = s.dark ? "Light theme" : "Dark theme";
+    const char* labels[] = {"Open a file", "Paste", "Save & share ▾", "Examples ▾", theme_label, "Copy results"};
+    float buttons = 0;
+    for (const char* l : labels) buttons += ImGui::CalcTextSize(l).x + pad + (buttons > 0 ? gap : 0);
     const float right = ImGui::GetWindowContentRegionMax().x;
     std::string subtitle = "chi-square goodness of fit · v" + std::string(TALLYPROOF_VERSION) + " · " + s.source_name;
     ImGui::SameLine();
@@ -39,11 +42,27 @@ void draw_title(AppState& s, const Theme& t) {
         ImGui::SameLine(right - buttons);
         ImGui::SetCursorPosY(ImGui::GetCursorPosY() - 4);
     } else {
-        ImGui::NewLine();  // narrow screens: the buttons go on their own line
+        // Narrow screens: the version beside the name, the buttons below, wrapped as they fit.
+        ImGui::SetCursorPosY(ImGui::GetCursorPosY() + 4);
+        ImGui::TextDisabled("%s", subtitle.c_str());
     }
+    // Between two buttons of the bar: on one line, or wrapped onto the next when it does not fit.
+    auto next = [&](const char* label) {
+        if (one_line) ImGui::SameLine();
+        else flow_next(ImGui::CalcTextSize(label).x + pad);
+    };
+    if (ImGui::Button("Open a file")) choose_file();
+    mark_widget("Open a file");
+    if (ImGui::IsItemHovered()) ImGui::SetTooltip("A .csv, .tsv, .txt or .json file, read here in the browser, never uploaded");
+    next("Paste");
+    if (ImGui::Button("Paste")) paste_from_clipboard();
+    mark_widget("Paste");
+    if (ImGui::IsItemHovered()) ImGui::SetTooltip("Counts from the clipboard (Ctrl+V / ⌘V anywhere on the page does the same)");
+    next("Save & share ▾");
     if (ImGui::Button("Save & share ▾")) ImGui::OpenPopup("save");
     mark_widget("Save & share");
     if (ImGui::BeginPopup("save")) {
+        begin_menu_items(t);
         struct Item { const char* label; int action; };
         const Item items[] = {{"Copy share link", 0}, {"Download analysis (JSON)", 1}, {"Download table (CSV)", 2},
                               {"Save curve as PNG", 3}, {"Save bars as PNG", 4}, {"Copy chart image", 5}, {"Print or save as PDF", 6}};
@@ -65,7 +84,17 @@ void draw_title(AppState& s, const Theme& t) {
         ImGui::TextDisabled("Recent analyses (kept in this browser)");
         for (int i = 0; i < static_cast<int>(s.recent.size()); ++i) {
             ImGui::PushID(i);
-            const std::string label = s.recent[i].when + "  " + s.recent[i].title;
+            std::string label = s.recent[i].when + "  " + s.recent[i].title;
+            // On a narrow screen a long title is cut (at a character boundary) so the menu stays on screen.
+            const float room = ImGui::GetMainViewport()->Size.x - 2 * ImGui::GetStyle().WindowPadding.x - 24;
+            if (ImGui::CalcTextSize(label.c_str()).x > room) {
+                while (label.size() > 1 && ImGui::CalcTextSize((label + "…").c_str()).x > room) {
+                    label.pop_back();
+                    while (!label.empty() && (static_cast<unsigned char>(label.back()) & 0xC0) == 0x80) label.pop_back();
+                    if (!label.empty() && static_cast<unsigned char>(label.back()) >= 0xC0) label.pop_back();
+                }
+                label += "…";
+            }
             if (ImGui::Selectable(label.c_str())) open_recent(s, i);
             mark_widget(("recent-" + std::to_string(i)).c_str());
             ImGui::PopID();
@@ -74,46 +103,49 @@ void draw_title(AppState& s, const Theme& t) {
         ImGui::Separator();
         if (ImGui::Selectable("Start fresh")) start_fresh(s);
         mark_widget("Start fresh");
+        end_menu_items(t);
         ImGui::EndPopup();
     }
-    ImGui::SameLine();
+    next("Examples ▾");
     if (ImGui::Button("Examples ▾")) ImGui::OpenPopup("examples");
     mark_widget("Examples");
     if (ImGui::BeginPopup("examples")) {
+        begin_menu_items(t);
         for (int i = 0; i < kDemoScenarioCount; ++i) {
             ImGui::PushID(i);
             if (ImGui::Selectable(kDemoScenarios[i].title, s.demo_index == i)) load_demo(s, i);
             mark_widget(kDemoScenarios[i].title);
             ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
             ImGui::Indent(12);
-            ImGui::PushTextWrapPos(ImGui::GetCursorPosX() + 420);
+            ImGui::PushTextWrapPos(ImGui::GetCursorPosX() + std::min(420.0f, ImGui::GetMainViewport()->Size.x - 80));
             ImGui::TextUnformatted(kDemoScenarios[i].story);
             ImGui::PopTextWrapPos();
             ImGui::Unindent(12);
             ImGui::PopStyleColor();
             ImGui::PopID();
         }
+        end_menu_items(t);
         ImGui::EndPopup();
     }
-    ImGui::SameLine();
-    if (ImGui::Button(s.dark ? "Light theme" : "Dark theme")) {
+    next(theme_label);
+    if (ImGui::Button(theme_label)) {
         s.dark = !s.dark;
         s.theme_from_system = false;
         s.theme_changed = true;
     }
     mark_widget("Theme");
-    ImGui::SameLine();
+    next("Copy results");
     if (ImGui::Button("Copy results")) copy_text(s.report);
     mark_widget("Copy results");
 }
 
 void draw_notice(AppState& s, const Theme& t) {
     if (s.notice.empty()) return;
-    if (ImGui::SmallButton("OK")) s.notice.clear();
+    if (compact_button("OK", t)) s.notice.clear();
     mark_widget("notice-ok");
     ImGui::SameLine();
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.accent));
-    ImGui::TextWrapped("%s", s.notice.c_str());
+    wrapped_text(s.notice.c_str());
     ImGui::PopStyleColor();
 }
 
@@ -154,50 +186,55 @@ void draw_rejection_notice(AppState& s, const Theme& t) {
     ImGui::PushFont(t.strong);
     float h = ImGui::CalcTextSize(headline.c_str(), nullptr, false, wrap).y + style.ItemSpacing.y;
     ImGui::PopFont();
-    h += ImGui::GetFrameHeightWithSpacing();                          // the line with its buttons
+    h += ImGui::GetFrameHeightWithSpacing() * (t.touch && wrap < 560 ? 2.0f : 1.0f);  // the line with its buttons
     if (!s.rejected_cells.empty()) h += ImGui::GetTextLineHeightWithSpacing() + 2;
     const float editor_h = ImGui::GetTextLineHeight() * 8 + style.FramePadding.y * 2;
     if (s.fix_open) h += editor_h + style.ItemSpacing.y + ImGui::GetFrameHeightWithSpacing();
     h += style.WindowPadding.y * 2;
     ImGui::BeginChild("rejected", ImVec2(0, h), true, ImGuiWindowFlags_NoScrollbar);
     ImGui::PushFont(t.strong);
-    ImGui::TextWrapped("%s", headline.c_str());
+    wrapped_text(headline.c_str());
     ImGui::PopFont();
     if (!s.rejected_cells.empty()) draw_refused_line(s, t);
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("The analysis below is still the previous one.");
     if (!s.refused_paste.empty() && !s.fix_open) {
-        ImGui::SameLine();
-        if (ImGui::SmallButton("Fix it here")) edit_refused_paste(s, true);
+        flow_next(ImGui::CalcTextSize("Fix it here").x + 2 * ImGui::GetStyle().FramePadding.x);
+        if (compact_button("Fix it here", t)) edit_refused_paste(s, true);
         mark_widget("fix it here");
     } else if (s.refused_paste.empty()) {
-        ImGui::SameLine();
+        flow_next(ImGui::CalcTextSize("Fix the source and paste again.").x);
         ImGui::TextUnformatted("Fix the source and paste again.");
     }
-    ImGui::SameLine();
-    if (ImGui::SmallButton("Dismiss")) dismiss_refusal(s);
+    flow_next(ImGui::CalcTextSize("Dismiss").x + 2 * ImGui::GetStyle().FramePadding.x);
+    if (compact_button("Dismiss", t)) dismiss_refusal(s);
     mark_widget("dismiss refusal");
     if (s.fix_open) {
         ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.ink));
-        ImGui::InputTextMultiline("##fix", &s.fix_text, ImVec2(-1, editor_h), ImGuiInputTextFlags_AllowTabInput);
+        text_field("##fix", &s.fix_text, FieldKeys::multiline, ImGuiInputTextFlags_AllowTabInput, nullptr, ImVec2(-1, editor_h));
         mark_widget("refused paste editor");
         ImGui::PopStyleColor();
         if (ImGui::Button("Read the edited text")) apply_fixed_paste(s);
         mark_widget("read edited paste");
-        ImGui::SameLine();
+        flow_next(ImGui::CalcTextSize("Close the editor").x + 2 * ImGui::GetStyle().FramePadding.x);
         if (ImGui::Button("Close the editor")) edit_refused_paste(s, false);
     }
     ImGui::EndChild();
     ImGui::PopStyleColor(2);
 }
 
+// The inputs: in a bordered panel of `height` beside the results (wide screens), or in the page's
+// own scrolling column (narrow screens, height 0), where the counts table takes up to most of
+// the screen's height.
 void draw_inputs(AppState& s, const Theme& t, float height) {
-    ImGui::BeginChild("inputs", ImVec2(0, height), true, ImGuiWindowFlags_NavFlattened);
+    const bool panel = height > 0;
+    if (panel) ImGui::BeginChild("inputs", ImVec2(0, height), true, ImGuiWindowFlags_NavFlattened);
     const float row_h = ImGui::GetFrameHeight() + ImGui::GetStyle().CellPadding.y * 2;
     const bool bin_row = shows_bin_editor(s);  // the bins under "Read as"
     const float needed = row_h * static_cast<float>(s.analysis.observed.size() + 2) + ImGui::GetTextLineHeightWithSpacing() * 4 +
-                         ImGui::GetFrameHeightWithSpacing() * (bin_row ? 2 : 1) + 24;
-    const float counts_h = std::max(160.0f, std::min(needed, ImGui::GetContentRegionAvail().y - 360));
+                         ImGui::GetFrameHeightWithSpacing() * ((bin_row ? 2 : 1) + (offers_other_readings(s) ? 1 : 0)) + 24;
+    const float room = panel ? ImGui::GetContentRegionAvail().y - 360 : ImGui::GetMainViewport()->Size.y * 0.85f;
+    const float counts_h = std::max(160.0f, std::min(needed, room));
     ImGui::BeginChild("counts-area", ImVec2(0, counts_h), false, ImGuiWindowFlags_NavFlattened);
     draw_counts_panel(s, t);
     ImGui::EndChild();
@@ -205,7 +242,36 @@ void draw_inputs(AppState& s, const Theme& t, float height) {
     draw_model_panel(s, t);
     ImGui::Separator();
     draw_test_panel(s, t);
-    ImGui::EndChild();
+    if (panel) ImGui::EndChild();
+}
+
+// The open result view (s.tab), over the room left above its notes and cautions.
+void draw_view(AppState& s, const Theme& t) {
+    const ImVec2 avail = ImGui::GetContentRegionAvail();
+    float cautions_h = 0;  // room for the notes and cautions under the view
+    for (const auto* list : {&s.result.warnings, &s.result.cautions})
+        for (const auto& w : *list)
+            cautions_h += ImGui::CalcTextSize(("Caution: " + w).c_str(), nullptr, false, avail.x).y + ImGui::GetStyle().ItemSpacing.y;
+    const ImVec2 area(avail.x, std::max(200.0f, avail.y - cautions_h));
+    switch (s.tab) {
+        case ResultTab::curve: draw_density_plot(s.curve, s.result, area, t); break;
+        case ResultTab::bars: draw_bar_chart(s.result, area, t); break;
+        case ResultTab::categories:
+            ImGui::BeginChild("cat-area", area);
+            draw_categories_table(s, t);
+            ImGui::EndChild();
+            break;
+        case ResultTab::planning:
+            ImGui::BeginChild("plan-area", area);
+            draw_planning_panel(s, t);
+            ImGui::EndChild();
+            break;
+        case ResultTab::writeup:
+            ImGui::BeginChild("writeup-area", area);
+            draw_writeup_panel(s, t);
+            ImGui::EndChild();
+            break;
+    }
 }
 
 void draw_results(AppState& s, const Theme& t, float height) {
@@ -213,45 +279,36 @@ void draw_results(AppState& s, const Theme& t, float height) {
     draw_verdict_panel(s, t);
     ImGui::Spacing();
     draw_validity_panel(s, t);
-    if (ImGui::BeginTabBar("views")) {
-        struct Tab { const char* name; ResultTab tab; };
-        const Tab tabs[] = {{"Curve", ResultTab::curve}, {"Bars", ResultTab::bars}, {"Where it differs", ResultTab::categories},
-                            {"Planning", ResultTab::planning}, {"Write-up", ResultTab::writeup}};
-        for (const auto& tab : tabs) {
-            const bool open = ImGui::BeginTabItem(tab.name);
-            mark_widget(tab.name);
-            if (open) {
-                s.tab = tab.tab;
-                const ImVec2 avail = ImGui::GetContentRegionAvail();
-                float cautions_h = 0;  // room for the notes and cautions under the view
-                for (const auto* list : {&s.result.warnings, &s.result.cautions})
-                    for (const auto& w : *list)
-                        cautions_h += ImGui::CalcTextSize(("Caution: " + w).c_str(), nullptr, false, avail.x).y +
-                                      ImGui::GetStyle().ItemSpacing.y;
-                const ImVec2 area(avail.x, std::max(200.0f, avail.y - cautions_h));
-                switch (tab.tab) {
-                    case ResultTab::curve: draw_density_plot(s.curve, s.result, area, t); break;
-                    case ResultTab::bars: draw_bar_chart(s.result, area, t); break;
-                    case ResultTab::categories:
-                        ImGui::BeginChild("cat-area", area);
-                        draw_categories_table(s, t);
-                        ImGui::EndChild();
-                        break;
-                    case ResultTab::planning:
-                        ImGui::BeginChild("plan-area", area);
-                        draw_planning_panel(s, t);
-                        ImGui::EndChild();
-                        break;
-                    case ResultTab::writeup:
-                        ImGui::BeginChild("writeup-area", area);
-                        draw_writeup_panel(s, t);
-                        ImGui::EndChild();
-                        break;
+    struct Tab { const char* name; ResultTab tab; };
+    const Tab tabs[] = {{"Curve", ResultTab::curve}, {"Bars", ResultTab::bars}, {"Where it differs", ResultTab::categories},
+                        {"Planning", ResultTab::planning}, {"Write-up", ResultTab::writeup}};
+    const ImGuiStyle& style = ImGui::GetStyle();
+    float tabs_w = 0;
+    for (const auto& tab : tabs) tabs_w += ImGui::CalcTextSize(tab.name).x + 2 * style.FramePadding.x + style.ItemInnerSpacing.x;
+    if (tabs_w <= ImGui::GetContentRegionAvail().x) {
+        if (ImGui::BeginTabBar("views")) {
+            for (const auto& tab : tabs) {
+                const bool open = ImGui::BeginTabItem(tab.name);
+                mark_widget(tab.name);
+                if (open) {
+                    s.tab = tab.tab;
+                    draw_view(s, t);
+                    ImGui::EndTabItem();
                 }
-                ImGui::EndTabItem();
             }
+            ImGui::EndTabBar();
         }
-        ImGui::EndTabBar();
+    } else {
+        // Too narrow for the tab names in full: the views as buttons that wrap, the open one marked.
+        for (std::size_t i = 0; i < sizeof tabs / sizeof tabs[0]; ++i) {
+            if (i) flow_next(ImGui::CalcTextSize(tabs[i].name).x + 2 * style.FramePadding.x);
+            const bool open = s.tab == tabs[i].tab;
+            if (open) ImGui::PushStyleColor(ImGuiCol_Button, style.Colors[ImGuiCol_HeaderActive]);
+            if (ImGui::Button(tabs[i].name)) s.tab = tabs[i].tab;
+            if (open) ImGui::PopStyleColor();
+            mark_widget(tabs[i].name);
+        }
+        draw_view(s, t);
     }
     for (const auto& w : s.result.warnings) muted_wrapped(t, "Note: %s", w.c_str());
     for (const auto& c : s.result.cautions) muted_wrapped(t, "Caution: %s", c.c_str());
@@ -289,7 +346,8 @@ void draw_screen(AppState& s, const Theme& t) {
     } else {
         // Narrow screens: the verdict first, then the inputs; the page scrolls.
         draw_results(s, t, std::max(560.0f, vp->Size.y * 0.9f));
-        draw_inputs(s, t, 760.0f);
+        ImGui::Separator();
+        draw_inputs(s, t, 0);
     }
     ImGui::End();
 }

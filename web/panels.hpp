@@ -4,6 +4,7 @@
 //        categories table, planning, write-up)
 #pragma once
 #include "app_state.hpp"
+#include "text_entry.hpp"
 #include "theme.hpp"
 
 namespace tallyproof::web {
@@ -25,5 +26,13 @@ void draw_writeup_panel(AppState& state, const Theme& theme);
 // Helpers shared by the panels
 void section_title(const char* title, const Theme& theme);
 void muted_wrapped(const Theme& theme, const char* fmt, ...);
+void wrapped_text(const char* text);                          // wrapped to the window, only at spaces
+bool compact_button(const char* label, const Theme& theme);   // SmallButton; a 44 px target on touch screens
+void begin_menu_items(const Theme& theme);                    // popup and combo items 44 px apart on touch screens...
+void end_menu_items(const Theme& theme);                      // ...until here
+void flow_next(float width);       // SameLine if an item `width` wide still fits, else the next line
+float radio_width(const char* label);                        // a RadioButton's or Checkbox's width
+// A number in a text field (page text entry): true when a new value was committed (Enter or leaving it).
+bool number_field(const char* id, double* value, const char* format, FieldKeys keys = FieldKeys::decimal);
 
 }  // namespace tallyproof::web

@@ -83,6 +83,15 @@ void apply_palette(Theme* t, bool dark) {
     st.WindowBorderSize = 0;
     st.ChildBorderSize = 1;
     st.ScrollbarSize = 13;
+    if (t->touch) {
+        // Tap targets of at least 44 CSS px (the common guidance for touch screens): a frame is
+        // the font's 15 px plus twice the vertical padding.
+        st.FramePadding = ImVec2(10, 14.5f);
+        st.ItemSpacing = ImVec2(10, 8);
+        st.ItemInnerSpacing = ImVec2(8, 6);
+        st.ScrollbarSize = 18;
+        st.GrabMinSize = 28;
+    }
     ImVec4* c = st.Colors;
     if (!dark) {
         t->clear = rgb(246, 244, 239);

@@ -6,6 +6,7 @@ namespace tallyproof::web {
 
 struct Theme {
     bool dark = false;
+    bool touch = false;          // a touch screen: every control at least 44 CSS px tall (apply_palette)
     ImU32 paper, ink, muted, rule, grid, accent, reject_fill, tail_fill, marker, curve, warn_bg, warn_ink,
         ok_bg, ok_ink, more, fewer, neutral, expected_mark, progress;
     ImVec4 clear;                // canvas background

@@ -23,6 +23,8 @@ export async function withPage(options, body) {
     const context = await browser.newContext({
       viewport: options.viewport || { width: 1280, height: 800 },
       deviceScaleFactor: options.deviceScaleFactor || 1,
+      hasTouch: !!options.hasTouch,
+      isMobile: !!options.isMobile,
       permissions: options.permissions || [],
       acceptDownloads: true,
       serviceWorkers: options.allowOrigin ? 'allow' : 'block',
