@@ -130,6 +130,8 @@ void move_row(AppState& s, int row, int delta);
 void merge_thin_cells(AppState& s, MergeRule rule);          // one-click remedy, undoable
 void undo_merge(AppState& s);
 void set_pvalue_method(AppState& s, PValueMethod method);
+// The test's goal: find a departure (false) or show the mix conforms within w0 (true, 0 < margin_w <= 1).
+void set_test_goal(AppState& s, bool show_conformity, double margin_w);
 bool recompute(AppState& s);                                 // false: input_error set, old result kept
 void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work
 void cancel_job(AppState& s);
