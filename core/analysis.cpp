@@ -22,6 +22,7 @@ constexpr KindName kKindNames[] = {
     {ModelKind::benford_first_two, "benford-first-two"},
     {ModelKind::last_digit, "last-digit"},
     {ModelKind::last_digit_even, "last-digit-even"},
+    {ModelKind::reference_sample, "reference-sample"},
 };
 }  // namespace
 

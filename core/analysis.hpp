@@ -2,7 +2,7 @@
 // analysis document, docs/analysis-document.md): categories with observed counts, the expected
 // mix (the model) and the test settings.
 //
-// Index: ModelKind, Model · StatisticChoice · PValueChoice · MergeChoice · PlanChoice · Analysis
+// Index: ModelKind, Model · StatisticChoice · PValueChoice · MergeChoice · PlanChoice · ConformityChoice · Analysis
 #pragma once
 #include <cstdint>
 #include <limits>
@@ -32,6 +32,7 @@ enum class ModelKind {
     benford_first_two,  // first two digits 10-99
     last_digit,         // last digit uniform over 0-9
     last_digit_even,    // last digit uniform over 0, 2, 4, 6, 8
+    reference_sample,   // `values` are a previous sample's counts: 2 x k test of homogeneity (df k - 1)
 };
 
 const char* model_kind_name(ModelKind kind);                          // "equal", "negative-binomial", ...
@@ -75,6 +76,14 @@ struct PlanChoice {
     double target_power = std::numeric_limits<double>::quiet_NaN(); // for the required N
 };
 
+// Conformity (equivalence) test: show that the mix departs from the stated one by less than w0.
+struct ConformityChoice {
+    bool requested = false;
+    double margin_w = std::numeric_limits<double>::quiet_NaN();      // w0, in (0, 1]
+    double true_w = std::numeric_limits<double>::quiet_NaN();        // planning: true w assumed (default 0)
+    double target_power = std::numeric_limits<double>::quiet_NaN();  // planning: default 0.8
+};
+
 struct Analysis {
     std::vector<std::string> categories;  // labels, one per category
     std::vector<double> observed;         // non-negative whole counts
@@ -86,6 +95,7 @@ struct Analysis {
     MergeChoice merge;
     int extra_estimated_parameters = 0;   // parameters estimated elsewhere, each costing one df
     PlanChoice plan;
+    ConformityChoice conformity;
 };
 
 const char* pvalue_method_name(PValueMethod m);  // "asymptotic", "exact", "monte-carlo"

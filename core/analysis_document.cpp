@@ -178,6 +178,15 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
         TP_TRY(read_number(*p, "df", "plan.", &a.plan.df));
         TP_TRY(read_number(*p, "target_power", "plan.", &a.plan.target_power));
     }
+    if (const JsonValue* c = doc.find("conformity"); c && !c->is(Type::null)) {
+        if (!c->is(Type::object)) return wrong("conformity", "an object such as {\"margin_w\": 0.1}");
+        a.conformity.requested = true;
+        TP_TRY(read_number(*c, "margin_w", "conformity.", &a.conformity.margin_w));
+        TP_TRY(read_number(*c, "true_w", "conformity.", &a.conformity.true_w));
+        TP_TRY(read_number(*c, "target_power", "conformity.", &a.conformity.target_power));
+        if (!(a.conformity.margin_w > 0 && a.conformity.margin_w <= 1))
+            return wrong("conformity.margin_w", "a margin w0 in (0, 1], such as 0.1 (Cohen's small effect)");
+    }
     *out = std::move(a);
     return Status::success();
 }
@@ -217,6 +226,14 @@ std::string write_analysis_document(const Analysis& a) {
         j.key("plan").begin_object();
         const std::pair<const char*, double> fields[] = {{"w", a.plan.w}, {"n", a.plan.n}, {"alpha", a.plan.alpha},
                                                          {"df", a.plan.df}, {"target_power", a.plan.target_power}};
+        for (const auto& [name, value] : fields)
+            if (std::isfinite(value)) j.key(name).value(value);
+        j.end_object();
+    }
+    if (a.conformity.requested) {
+        j.key("conformity").begin_object();
+        const std::pair<const char*, double> fields[] = {{"margin_w", a.conformity.margin_w}, {"true_w", a.conformity.true_w},
+                                                         {"target_power", a.conformity.target_power}};
         for (const auto& [name, value] : fields)
             if (std::isfinite(value)) j.key(name).value(value);
         j.end_object();

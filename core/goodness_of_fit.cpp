@@ -8,6 +8,7 @@
 #include <cstdio>
 
 #include "category_values.hpp"
+#include "conformity_analysis.hpp"
 #include "digit_laws.hpp"
 #include "mean_absolute_deviation.hpp"
 #include "label_text.hpp"
@@ -16,6 +17,7 @@
 #include "number_format.hpp"
 #include "power_analysis.hpp"
 #include "power_divergence.hpp"
+#include "reference_sample_analysis.hpp"
 
 namespace tallyproof {
 namespace {
@@ -57,6 +59,22 @@ void add_cautions(const Analysis& a, Result* r) {
                           "your local rules and professional review, not this test alone.");
 }
 
+// Planning: power and sample size (Cohen 1988, ch. 7; the same for a 2 x k table, with N both samples).
+void add_plan(const Analysis& a, double n, Result* r) {
+    if (!a.plan.requested) return;
+    PlanOutcome& pl = r->plan;
+    pl.requested = true;
+    pl.w = std::isfinite(a.plan.w) ? a.plan.w : r->effect.w;
+    pl.alpha = std::isfinite(a.plan.alpha) ? a.plan.alpha : a.alpha;
+    pl.df = std::isfinite(a.plan.df) ? a.plan.df : r->df;
+    pl.n = std::isfinite(a.plan.n) ? a.plan.n : n;
+    pl.target_power = std::isfinite(a.plan.target_power) ? a.plan.target_power : 0.8;
+    pl.power = gof_power(pl.w, pl.n, pl.alpha, pl.df);
+    pl.status = gof_sample_size(pl.w, pl.target_power, pl.alpha, pl.df, &pl.n_required);
+    if (!pl.status.ok) pl.n_required = NAN;
+    if (std::isnan(pl.power)) pl.status = Status::failure("Power needs w > 0, N > 0, 0 < alpha < 1 and df >= 1.");
+}
+
 }  // namespace
 
 Result analyse(const Analysis& a) {
@@ -86,6 +104,17 @@ Result analyse(const Analysis& a) {
     if (n == 100 || n == 1)
         r.warnings.push_back("The counts total " + format_count(n) + ": if they are percentages or proportions, enter the "
                              "raw counts instead; a test on percentages is wrong by a factor of N/100.");
+
+    if (a.model.kind == ModelKind::reference_sample) {  // 2 x k homogeneity: core/reference_sample_analysis
+        analyse_reference_sample(a, &r);
+        if (!r.status.ok) return r;
+        r.statistic_name = statistic_name(a.statistic.lambda, false);
+        r.statistic_symbol = statistic_symbol(a.statistic.lambda);
+        add_plan(a, r.reference->n_total, &r);
+        add_conformity(a, &r);
+        add_cautions(a, &r);
+        return r;
+    }
 
     // Null model and expected counts
     NullModel model;
@@ -228,20 +257,7 @@ Result analyse(const Analysis& a) {
         r.warnings.push_back("The departure is statistically significant but very small (w = " + format_fixed(r.effect.w, 3) +
                              "): with N = " + format_count(n) + ", even a negligible difference is detected.");
 
-    // Planning: power and sample size
-    if (a.plan.requested) {
-        PlanOutcome& pl = r.plan;
-        pl.requested = true;
-        pl.w = std::isfinite(a.plan.w) ? a.plan.w : r.effect.w;
-        pl.alpha = std::isfinite(a.plan.alpha) ? a.plan.alpha : a.alpha;
-        pl.df = std::isfinite(a.plan.df) ? a.plan.df : r.df;
-        pl.n = std::isfinite(a.plan.n) ? a.plan.n : n;
-        pl.target_power = std::isfinite(a.plan.target_power) ? a.plan.target_power : 0.8;
-        pl.power = gof_power(pl.w, pl.n, pl.alpha, pl.df);
-        pl.status = gof_sample_size(pl.w, pl.target_power, pl.alpha, pl.df, &pl.n_required);
-        if (!pl.status.ok) pl.n_required = NAN;
-        if (std::isnan(pl.power)) pl.status = Status::failure("Power needs w > 0, N > 0, 0 < alpha < 1 and df >= 1.");
-    }
+    add_plan(a, n, &r);
 
     // Digit laws: mean absolute deviation with Nigrini's bands
     DigitTest test;
@@ -254,6 +270,7 @@ Result analyse(const Analysis& a) {
         }
     }
 
+    add_conformity(a, &r);
     add_cautions(a, &r);
     return r;
 }

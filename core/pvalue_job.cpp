@@ -28,7 +28,8 @@ void start_pvalue_job(const Analysis& a, const Result& r, PValueJob* job) {
     job->monte_carlo.reset();
     job->progress = WorkProgress{};
     job->status = Status::success();
-    if (!r.status.ok || a.pvalue.method == PValueMethod::asymptotic) {
+    // A comparison with a previous sample computes its own conditional p-values (reference_sample_analysis).
+    if (!r.status.ok || a.pvalue.method == PValueMethod::asymptotic || r.reference) {
         job->progress.done = true;
         job->progress.fraction = 1;
         return;
@@ -66,7 +67,7 @@ void cancel_pvalue_job(PValueJob* job) {
 }
 
 void finish_pvalue_job(const PValueJob& job, Result* r) {
-    if (!r->status.ok) return;
+    if (!r->status.ok || r->reference) return;
     if (job.method == PValueMethod::exact) {
         r->exact.requested = true;
         ExactMultinomialResult er;

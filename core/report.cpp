@@ -36,9 +36,26 @@ void write_tail(JsonWriter& j, const char* key, const TailProbability& t) { j.ke
 
 std::string verdict_sentence(const Result& r) {
     const std::string at = "at α = " + format_plain(r.alpha);
+    if (r.reference) {
+        const std::string prev = "the previous sample (N = " + format_count(r.reference->n_reference) + ")";
+        if (r.reject) return "The mix differs from " + prev + " " + at + ".";
+        return "No evidence that the mix differs from " + prev + " " + at + ".";
+    }
     const char* mix = r.estimates.empty() ? "the stated mix" : "the fitted model";
     if (r.reject) return std::string("The counts are not consistent with ") + mix + " " + at + ".";
     return std::string("No evidence against ") + mix + " " + at + ".";
+}
+
+std::string conformity_verdict(const Result& r) {
+    if (!r.conformity) return "";
+    const ConformityResult& c = *r.conformity;
+    if (!c.status.ok) return "Conformity not tested: " + c.status.message;
+    const std::string within = "within w < " + format_fixed(c.margin_w, 2);
+    if (c.conforms) return "The counts conform to the stated mix " + within + " (p = " + format_probability(c.p_value) + ").";
+    std::string s = "Conformity " + within + " is not shown (p = " + format_probability(c.p_value) + ")";
+    if (std::isfinite(c.smallest_margin_w))
+        s += "; with N = " + format_count(c.n) + " the data allow only w < " + format_fixed(c.smallest_margin_w, 2);
+    return s + ".";
 }
 
 std::string method_phrase(const Result& r) {
@@ -55,8 +72,12 @@ std::string report_text(const Analysis& a, const Result& r) {
     (void)a;
     if (!r.status.ok) return "Not analysed: " + r.status.message + "\n";
     std::string s;
-    s += "Chi-square goodness of fit: " + r.statistic_name + ", " + r.model_description + "\n";
-    s += "N = " + format_count(r.n) + ", k = " + std::to_string(r.observed.size());
+    if (r.reference)
+        s += "Chi-square test of homogeneity: " + r.statistic_name + ", compared with the previous sample of N = " +
+             format_count(r.reference->n_reference) + "\n";
+    else s += "Chi-square goodness of fit: " + r.statistic_name + ", " + r.model_description + "\n";
+    s += "N = " + format_count(r.n) + (r.reference ? " (both samples " + format_count(r.reference->n_total) + ")" : "") +
+         ", k = " + std::to_string(r.observed.size());
     if (r.merged) s += " (" + std::to_string(r.tested_categories.size()) + " after merging)";
     s += "\n";
     s += r.statistic_symbol + " = " + format_fixed(r.statistic, 2) + ", df = " + format_count(r.df) + ", p = " + format_probability(r.p) +
@@ -88,15 +109,33 @@ std::string report_text(const Analysis& a, const Result& r) {
                  format_count(r.plan.n_required) + "\n";
         else s += "Planning: " + r.plan.status.message + "\n";
     }
+    if (r.conformity) {
+        s += conformity_verdict(r) + "\n";
+        const ConformityResult& c = *r.conformity;
+        if (c.status.ok) {
+            s += "Conformity margin w0 = " + format_fixed(c.margin_w, 3) + ": conform when " + r.statistic_symbol + " < " +
+                 format_fixed(c.critical_value, 3) + " (α quantile of the noncentral chi-square, df " + format_count(c.df) +
+                 ", noncentrality " + format_significant(c.noncentrality, 4) + "); smallest margin shown " +
+                 format_fixed(c.smallest_margin_w, 3) + "\n";
+            if (c.plan.computed)
+                s += "To show conformity within w0 = " + format_fixed(c.margin_w, 2) + " with power " + format_fixed(c.plan.target_power, 2) +
+                     " when the true w is " + format_fixed(c.plan.true_w, 2) + ": N = " + format_count(c.plan.n_required) +
+                     " (power at N = " + format_count(c.n) + ": " + format_fixed(c.plan.power_at_n, 3) + ")\n";
+            else s += "Conformity planning: " + c.plan.status.message + "\n";
+        }
+    }
     for (const auto& w : r.warnings) s += "Note: " + w + "\n";
     for (const auto& c : r.cautions) s += "Caution: " + c + "\n";
 
     std::size_t wl = 8;
     for (const auto& c : r.tested_categories) wl = std::max(wl, std::min<std::size_t>(c.size(), 28));
-    s += "\n" + pad("Category", wl + 2) + pad("Observed", 10) + pad("Expected", 10) + pad("Contribution", 14) + "Adj. residual\n";
+    const bool two = r.reference.has_value();  // a comparison shows the previous sample's column too
+    s += "\n" + pad("Category", wl + 2) + pad("Observed", 10) + (two ? pad("Previous", 10) : "") + pad("Expected", 10) +
+         pad("Contribution", 14) + "Adj. residual\n";
     for (std::size_t i = 0; i < r.tested_categories.size(); ++i) {
         const double adj = i < r.diagnostics.categories.size() ? r.diagnostics.categories[i].adjusted_residual : NAN;
         s += pad(r.tested_categories[i], wl + 2) + pad(format_count(r.tested_observed[i]), 10) +
+             (two ? pad(format_count(r.reference->tested_reference[i]), 10) : "") +
              pad(format_fixed(r.tested_expected[i], 2), 10) + pad(format_fixed(r.contributions[i], 3), 14) +
              format_fixed(adj, 2) + "\n";
     }
@@ -229,6 +268,38 @@ std::string report_json(const Analysis& a, const Result& r) {
             .key("df").value(r.plan.df).key("target_power").value(r.plan.target_power)
             .key("power").value(r.plan.power).key("n_required").value(r.plan.n_required);
         if (!r.plan.status.ok) j.key("error").value(r.plan.status.message);
+        j.end_object();
+    }
+    if (r.reference) {
+        const ReferenceSampleOutcome& ref = *r.reference;
+        std::vector<double> cp, lp;
+        for (const auto& t : ref.category_p) { cp.push_back(t.p); lp.push_back(t.log10_p); }
+        j.key("reference_sample").begin_object()
+            .key("observed").numbers(ref.reference).key("n").value(ref.n_reference).key("n_total").value(ref.n_total)
+            .key("tested_observed").numbers(ref.tested_reference).key("tested_expected").numbers(ref.expected_reference)
+            .key("pooled_shares").numbers(ref.pooled_shares).key("adjusted_residuals").numbers(ref.adjusted_residuals)
+            .key("category_p_values").numbers(cp).key("category_p_adjusted").numbers(ref.category_p_adjusted)
+            .key("exact_tables").value(ref.exact_tables)
+            .key("validity_current").begin_object().key("min_expected").value(ref.validity_current.min_expected)
+                .key("below_5").value(static_cast<double>(ref.validity_current.below_5)).end_object()
+            .key("validity_reference").begin_object().key("min_expected").value(ref.validity_reference.min_expected)
+                .key("below_5").value(static_cast<double>(ref.validity_reference.below_5)).end_object()
+            .end_object();
+    }
+    if (r.conformity) {
+        const ConformityResult& c = *r.conformity;
+        j.key("conformity").begin_object().key("margin_w").value(c.margin_w);
+        if (c.status.ok) {
+            j.key("p_value").value(c.p_value.p).key("log10_p_value").value(c.p_value.log10_p).key("conforms").value(c.conforms)
+                .key("smallest_margin_w").value(c.smallest_margin_w).key("critical_value").value(c.critical_value)
+                .key("noncentrality").value(c.noncentrality).key("verdict").value(conformity_verdict(r));
+            j.key("plan").begin_object().key("true_w").value(c.plan.true_w).key("target_power").value(c.plan.target_power)
+                .key("n_required").value(c.plan.n_required).key("power_at_n").value(c.plan.power_at_n);
+            if (!c.plan.status.ok) j.key("error").value(c.plan.status.message);
+            j.end_object();
+        } else {
+            j.key("error").value(c.status.message);
+        }
         j.end_object();
     }
     j.key("validity").begin_object()

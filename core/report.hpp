@@ -9,6 +9,9 @@
 namespace tallyproof {
 
 std::string verdict_sentence(const Result& r);                 // decision at alpha, in words
+// The conformity test's verdict: "The counts conform to the stated mix within w < 0.10 (p = 0.0003)." or
+// "Conformity within w < 0.10 is not shown; with N = 120 the data allow only w < 0.26." ("" when not asked).
+std::string conformity_verdict(const Result& r);
 std::string method_phrase(const Result& r);                    // "asymptotic", "exact", "Monte Carlo, B = ..."
 std::string report_text(const Analysis& a, const Result& r);   // multi-line plain text
 std::string report_json(const Analysis& a, const Result& r);   // result document (one line)

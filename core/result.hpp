@@ -2,17 +2,20 @@
 // Nothing shown to a user is recomputed outside core/.
 //
 // Index: as read · model · merging · tested cells and diagnostics · statistic and p-values ·
-//        validity · effect size and planning · digit laws · notes
+//        validity · effect size and planning · digit laws · previous sample, conformity · notes
 #pragma once
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "analysis.hpp"
 #include "category_diagnostics.hpp"
 #include "chi_square_tail.hpp"
+#include "conformity.hpp"
 #include "effect_size.hpp"
 #include "fitted_distribution.hpp"
+#include "reference_sample.hpp"
 #include "status.hpp"
 #include "validity.hpp"
 
@@ -120,6 +123,10 @@ struct Result {
 
     // Digit laws
     DigitOutcome digits;
+
+    // Comparison with a previous sample (model kind reference-sample), and the conformity test
+    std::optional<ReferenceSampleOutcome> reference;
+    std::optional<ConformityResult> conformity;  // when asked for (ok or refused, with its reason)
 
     std::vector<std::string> warnings;      // plain-language notes about this analysis
     std::vector<std::string> cautions;      // the usual cautions that apply to it

@@ -10,6 +10,7 @@
 
 #include "number_format.hpp"
 #include "power_divergence.hpp"
+#include "report.hpp"  // conformity_verdict
 #include "table_export.hpp"
 
 namespace tallyproof {
@@ -70,7 +71,17 @@ std::string md(const std::string& s) {
 
 std::string user_text(const std::string& s, const Style& st) { return st.markdown ? md(s) : s; }
 
+std::string one_sample_test_name(const Result& r);
+
+// A comparison with a previous sample is a test of homogeneity of the same family.
 std::string test_name(const Result& r) {
+    std::string name = one_sample_test_name(r);
+    const std::string gof = "goodness-of-fit test";
+    if (r.reference && name.find(gof) != std::string::npos) name.replace(name.find(gof), gof.size(), "test of homogeneity");
+    return name;
+}
+
+std::string one_sample_test_name(const Result& r) {
     if (r.lambda == power_lambda::pearson) return "A chi-square goodness-of-fit test";
     if (r.lambda == power_lambda::log_likelihood)
         return r.williams_q != 1 ? "A likelihood-ratio goodness-of-fit test with Williams' correction"
@@ -138,6 +149,7 @@ std::vector<std::string> notes(const Analysis& a, const Result& r, const Style& 
     if (r.method == PValueMethod::asymptotic && !r.validity.cochran_holds)
         out.push_back("Some expected counts are small (the smallest is " + fixed(r.validity.min_expected, 2, st) +
                       "), so the asymptotic p-value may be inaccurate; an exact or Monte Carlo p-value is safer.");
+    if (r.conformity) out.push_back(conformity_verdict(r));
     if (r.exact.requested && !r.exact.computed)
         out.push_back("An exact p-value was not computed" + (r.exact.refusal.empty() ? std::string() : " (" + r.exact.refusal + ")") +
                       "; the p-value shown is asymptotic.");
@@ -149,17 +161,26 @@ std::vector<std::string> notes(const Analysis& a, const Result& r, const Style& 
 }
 
 // A fitted distribution is not a mix anyone stated, so it is named as what it is.
-std::string mix_phrase(const Analysis& a) { return model_is_fitted(a.model.kind) ? "the fitted model" : "the stated mix"; }
+std::string mix_phrase(const Analysis& a) {
+    if (a.model.kind == ModelKind::reference_sample) return "the previous sample's mix";
+    return model_is_fitted(a.model.kind) ? "the fitted model" : "the stated mix";
+}
 
 std::string sentence(const Analysis& a, const Result& r, const Style& st, const std::string& subject_raw) {
     if (!r.status.ok) return "Not analysed: " + user_text(r.status.message, st);
     const std::string subject = user_text(subject_raw.empty() ? "the counts" : subject_raw, st);
     const std::string at = r.alpha == 0.05 ? "" : " at α = " + alpha_text(r.alpha, st);
     std::string s = test_name(r) + " found ";
-    s += r.reject ? "that " + subject + " were not consistent with " + mix_phrase(a) + at
-                  : "no evidence against " + mix_phrase(a) + " for " + subject + at;
+    if (r.reference) {
+        s = test_name(r) + ", compared with the previous sample of N = " + grouped(r.reference->n_reference, st) + ", found ";
+        s += (r.reject ? "that the mix of " : "no evidence that the mix of ") + subject + " had changed" + at;
+    } else {
+        s += r.reject ? "that " + subject + " were not consistent with " + mix_phrase(a) + at
+                      : "no evidence against " + mix_phrase(a) + " for " + subject + at;
+    }
     const std::string sep = list_sep(st);
-    s += ", " + statistic_symbol(r.lambda) + "(" + format_count(r.df) + ", N = " + grouped(r.n, st) + ") = " + fixed(r.statistic, 2, st);
+    const double n_all = r.reference ? r.reference->n_total : r.n;  // a 2 x k table reports both samples' N
+    s += ", " + statistic_symbol(r.lambda) + "(" + format_count(r.df) + ", N = " + grouped(n_all, st) + ") = " + fixed(r.statistic, 2, st);
     s += sep + "p " + p_report(r.p, st);
     s += sep + "w = " + fixed(r.effect.w, 2, st);
     const EffectSizeInterval& iv = r.effect.w_interval;

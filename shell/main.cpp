@@ -51,8 +51,10 @@ const char* kUsage =
     "  --model KIND           equal, shares, ratio, counts, poisson, binomial, geometric,\n"
     "                         negative-binomial, uniform, normal, lognormal, exponential,\n"
     "                         benford-first, benford-second, benford-first-two, last-digit,\n"
-    "                         last-digit-even\n"
-    "  --values LIST          shares, ratio or expected counts: 9:3:3:1 or 0.5,0.3,0.2\n"
+    "                         last-digit-even, reference-sample (a previous sample's counts\n"
+    "                         in --values: test of homogeneity of the two samples)\n"
+    "  --values LIST          shares, ratio, expected counts or the previous sample's counts:\n"
+    "                         9:3:3:1 or 0.5,0.3,0.2 or 140,390,230,40\n"
     "  --param NAME=VALUE     a given parameter (mean, trials, p, size, sd, meanlog, sdlog, rate);\n"
     "                         parameters not given are estimated from the counts\n"
     "  --edges LIST           bin edges for normal, lognormal, exponential: -inf,10,20,inf\n"
@@ -73,6 +75,10 @@ const char* kUsage =
     "  --plan-w W             effect size to detect (default: the observed w)\n"
     "  --plan-n N             sample size for the power (default: the observed N)\n"
     "  --target-power P       power wanted for the required N (default 0.8)\n"
+    "conformity (show the mix departs from the stated one by less than a margin):\n"
+    "  --conformity W         margin w0 in (0, 1], e.g. 0.1 (Cohen's small); the contract decides\n"
+    "  --conformity-true-w W  planning: the true w assumed (default 0)\n"
+    "  --conformity-power P   planning: power wanted to show conformity (default 0.8)\n"
     "other:\n"
     "  --version, --help\n"
     "\n"
@@ -143,7 +149,8 @@ int main(int argc, char** argv) {
     std::vector<std::pair<std::string, std::string>> opts;  // option, value
     const std::vector<std::string> with_value = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
                                                  "--lambda", "--method", "--ordering", "--replicates", "--seed", "--merge",
-                                                 "--min-expected", "--plan-w", "--plan-n", "--target-power"};
+                                                 "--min-expected", "--plan-w", "--plan-n", "--target-power",
+                                                 "--conformity", "--conformity-true-w", "--conformity-power"};
     ParseOptions input;  // input options, used when the text is pasted text rather than a document
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
@@ -290,6 +297,12 @@ int main(int argc, char** argv) {
             else if (opt == "--plan-w") { analysis.plan.requested = true; analysis.plan.w = v; }
             else if (opt == "--plan-n") { analysis.plan.requested = true; analysis.plan.n = v; }
             else if (opt == "--target-power") { analysis.plan.requested = true; analysis.plan.target_power = v; }
+            else if (opt == "--conformity") {
+                if (!(v > 0 && v <= 1)) return usage_error("--conformity needs a margin w0 in (0, 1], such as 0.1");
+                analysis.conformity.requested = true;
+                analysis.conformity.margin_w = v;
+            } else if (opt == "--conformity-true-w") analysis.conformity.true_w = v;
+            else if (opt == "--conformity-power") analysis.conformity.target_power = v;
         }
     }
 

@@ -16,6 +16,7 @@
 #include "table_export.hpp"
 #include "demo_library.hpp"
 #include "goodness_of_fit.hpp"
+#include "noncentral_density_curve.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "paste_parser.hpp"
@@ -135,7 +136,10 @@ bool recompute(AppState& s) {
     }
     s.input_error.clear();
     s.result = std::move(next);
-    s.curve = density_curve(s.result.df, s.result.critical_value, s.result.statistic);
+    if (s.result.conformity && s.result.conformity->status.ok)  // the curve of "departs by exactly w0"
+        s.curve = noncentral_density_curve(s.result.df, s.result.conformity->noncentrality,
+                                           s.result.conformity->critical_value, s.result.statistic);
+    else s.curve = density_curve(s.result.df, s.result.critical_value, s.result.statistic);
     if (s.analysis.pvalue.method != PValueMethod::asymptotic) {
         start_pvalue_job(s.analysis, s.result, &s.job);
         s.job_running = !s.job.progress.done;
@@ -450,6 +454,18 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
 }
 }  // namespace
 
+void set_test_goal(AppState& s, bool show_conformity, double margin_w) {
+    ConformityChoice& c = s.analysis.conformity;
+    if (show_conformity && !(margin_w > 0 && margin_w <= 1)) {
+        s.input_error = "The conformity margin w0 must lie in (0, 1]; 0.1 is Cohen's small effect.";
+        publish_error(s.input_error);
+        return;
+    }
+    c.requested = show_conformity;
+    if (show_conformity) c.margin_w = margin_w;
+    recompute(s);
+}
+
 void set_model_kind(AppState& s, ModelKind kind) {
     const std::vector<double> edges = s.analysis.model.edges;  // of pasted measurements read into bins
     s.analysis.model = Model{};
@@ -462,6 +478,10 @@ void set_model_kind(AppState& s, ModelKind kind) {
                                                                         : (i < s.result.expected_counts.size() ? s.result.expected_counts[i] : 1));
     } else if (kind == ModelKind::ratio) {
         s.analysis.model.values.assign(k, 1);
+    } else if (kind == ModelKind::reference_sample) {
+        // Start from the current expected counts, rounded: the user types the previous sample over them.
+        for (std::size_t i = 0; i < k; ++i)
+            s.analysis.model.values.push_back(std::round(i < s.result.expected_counts.size() ? s.result.expected_counts[i] : 1));
     } else if ((kind == ModelKind::normal || kind == ModelKind::lognormal || kind == ModelKind::exponential) && edges.size() == k + 1) {
         s.analysis.model.edges = edges;
     } else if (kind == ModelKind::normal || kind == ModelKind::lognormal || kind == ModelKind::exponential) {

@@ -134,6 +134,8 @@ void set_pvalue_method(AppState& s, PValueMethod method);
 bool apply_alpha_text(AppState& s, const std::string& text);  // typed α (0 < α < 1); false: refused, message in input_error
 void copy_writeup(AppState& s, bool sentence_only);          // the write-up in the chosen style (block, or the sentence)
 void copy_table(AppState& s);                                 // the per-category table as TSV
+// The test's goal: find a departure (false) or show the mix conforms within w0 (true, 0 < margin_w <= 1).
+void set_test_goal(AppState& s, bool show_conformity, double margin_w);
 bool recompute(AppState& s);                                 // false: input_error set, old result kept
 void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work
 void cancel_job(AppState& s);

@@ -11,6 +11,8 @@
 
 #include "axis_ticks.hpp"
 #include "chi_square_tail.hpp"
+#include "noncentral_chi_square.hpp"
+#include "noncentral_density_curve.hpp"
 #include "number_format.hpp"
 
 namespace tallyproof::web {
@@ -23,6 +25,10 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     if (curve.x.size() < 2 || size.x < 80 || size.y < 60) return;
 
     const bool broken = curve.statistic_beyond;
+    // Goal "show it conforms": the curve is chi2(df, N w0²) and the region is its lower alpha tail.
+    const bool conform = result.conformity && result.conformity->status.ok;
+    const double critical = conform ? result.conformity->critical_value : result.critical_value;
+    const double lambda = conform ? result.conformity->noncentrality : 0;
     const float left = 56, right = broken ? 150 : 16, top = 30, bottom = 44;
     const ImVec2 p0(origin.x + left, origin.y + top);
     const ImVec2 p1(origin.x + size.x - right, origin.y + size.y - bottom);
@@ -32,7 +38,11 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
 
     dl->AddRectFilled(origin, ImVec2(origin.x + size.x, origin.y + size.y), theme.paper, 6.0f);
     ImGui::PushFont(theme.strong);
-    dl->AddText(ImVec2(origin.x + 12, origin.y + 7), theme.ink, ("Chi-square density, df = " + format_count(result.df)).c_str());
+    const std::string title = conform ? "Noncentral chi-square density if the mix departs by w0 = " +
+                                            format_fixed(result.conformity->margin_w, 2) + ": df = " + format_count(result.df) +
+                                            ", noncentrality N·w0² = " + format_significant(lambda, 4)
+                                      : "Chi-square density, df = " + format_count(result.df);
+    dl->AddText(ImVec2(origin.x + 12, origin.y + 7), theme.ink, title.c_str());
     ImGui::PopFont();
 
     const float th = ImGui::GetTextLineHeight();
@@ -67,9 +77,27 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
         }
         dl->Flags = saved;
     };
+    // Lower tail: the same strips, from 0 up to `to`.
+    auto shade_to = [&](double to, ImU32 colour) {
+        const ImDrawListFlags saved = dl->Flags;
+        dl->Flags &= ~ImDrawListFlags_AntiAliasedFill;
+        for (std::size_t i = 0; i + 1 < curve.x.size() && curve.x[i] < to; ++i) {
+            const double xb = std::min(curve.x[i + 1], to);
+            const double tb = (xb - curve.x[i]) / (curve.x[i + 1] - curve.x[i]);
+            const double yb = curve.y[i] + tb * (curve.y[i + 1] - curve.y[i]);
+            dl->AddQuadFilled(ImVec2(px(curve.x[i]), p1.y), ImVec2(px(curve.x[i]), py(curve.y[i])), ImVec2(px(xb), py(yb)),
+                              ImVec2(px(xb), p1.y), colour);
+        }
+        dl->Flags = saved;
+    };
     dl->PushClipRect(ImVec2(p0.x, p0.y - 2), ImVec2(p1.x + 2, p1.y + 1), true);
-    if (std::isfinite(result.critical_value)) shade_from(result.critical_value, theme.reject_fill);
-    if (!broken) shade_from(result.statistic, theme.tail_fill);
+    if (conform) {
+        if (std::isfinite(critical)) shade_to(critical, theme.reject_fill);
+        shade_to(broken ? xmax : result.statistic, theme.tail_fill);
+    } else {
+        if (std::isfinite(critical)) shade_from(critical, theme.reject_fill);
+        if (!broken) shade_from(result.statistic, theme.tail_fill);
+    }
     dl->PopClipRect();
 
     dl->PushClipRect(ImVec2(p0.x, p0.y - 2), ImVec2(p1.x + 2, p1.y + 1), true);  // df < 2 rises past the top
@@ -81,10 +109,10 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     dl->AddLine(ImVec2(p0.x, p1.y), ImVec2(p1.x, p1.y), theme.ink, 1.0f);
     dl->AddLine(ImVec2(p0.x, p0.y), ImVec2(p0.x, p1.y), theme.ink, 1.0f);
 
-    if (std::isfinite(result.critical_value) && result.critical_value <= xmax) {
-        const float x = px(result.critical_value);
+    if (std::isfinite(critical) && critical <= xmax) {
+        const float x = px(critical);
         for (float y = p0.y; y < p1.y; y += 8) dl->AddLine(ImVec2(x, y), ImVec2(x, std::min(y + 4, p1.y)), theme.warn_ink, 1.5f);
-        const std::string s = "critical " + format_fixed(result.critical_value, 2);
+        const std::string s = (conform ? "conforms below " : "critical ") + format_fixed(critical, 2);
         dl->AddText(ImVec2(x + 4, p0.y), theme.warn_ink, s.c_str());
     }
 
@@ -124,8 +152,13 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
         if (x >= xmin && x <= xmax) {
             ImGui::BeginTooltip();
             ImGui::Text("χ² = %s", format_significant(x, 4).c_str());
-            ImGui::Text("density %s", format_significant(chi_square_density(x, result.df), 3).c_str());
-            ImGui::Text("P(χ² ≥ x) = %s", format_probability(chi_square_upper_tail(x, result.df)).c_str());
+            if (conform) {
+                ImGui::Text("density %s", format_significant(noncentral_chi_square_density(x, result.df, lambda), 3).c_str());
+                ImGui::Text("P(χ² ≤ x) = %s", format_significant(noncentral_chi_square_lower_tail(x, result.df, lambda), 3).c_str());
+            } else {
+                ImGui::Text("density %s", format_significant(chi_square_density(x, result.df), 3).c_str());
+                ImGui::Text("P(χ² ≥ x) = %s", format_probability(chi_square_upper_tail(x, result.df)).c_str());
+            }
             ImGui::EndTooltip();
         }
     }

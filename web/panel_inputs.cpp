@@ -9,6 +9,7 @@
 #include <cstdio>
 #include <string>
 
+#include "conformity.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
@@ -39,6 +40,7 @@ constexpr KindChoice kKinds[] = {
     {ModelKind::benford_first_two, "Benford: first two digits"},
     {ModelKind::last_digit, "Last digit uniform (0-9)"},
     {ModelKind::last_digit_even, "Last digit uniform (even only)"},
+    {ModelKind::reference_sample, "A previous sample's counts"},
 };
 
 const char* kind_label(ModelKind k) {
@@ -108,6 +110,30 @@ void draw_bin_row(AppState& s, const Theme& t) {
         wrapped_text(("Bins not applied: " + s.bin_editor.error).c_str());
         ImGui::PopStyleColor();
     }
+}
+
+// The test's goal: find a departure, or show the mix conforms within a margin w0 (equivalence test).
+void draw_goal_rows(AppState& s, const Theme& t) {
+    ConformityChoice& c = s.analysis.conformity;
+    ImGui::AlignTextToFramePadding();
+    ImGui::TextUnformatted("Goal");
+    ImGui::SameLine(74);
+    int goal = c.requested ? 1 : 0;
+    bool changed = ImGui::RadioButton("find a departure", &goal, 0);
+    mark_widget("find a departure");
+    ImGui::SameLine();
+    changed |= ImGui::RadioButton("show it conforms within w0", &goal, 1);
+    mark_widget("show it conforms");
+    const double margin = std::isfinite(c.margin_w) ? c.margin_w : 0.1;
+    if (changed) set_test_goal(s, goal == 1, margin);
+    if (!c.requested) return;
+    ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
+    double w0 = margin;
+    ImGui::SetNextItemWidth(100);
+    if (ImGui::InputDouble("margin w0", &w0, 0, 0, "%.3g", ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit())
+        if (w0 != margin) set_test_goal(s, true, w0);
+    mark_widget("margin w0");
+    muted_wrapped(t, "%s", conformity_margin_guidance());
 }
 
 }  // namespace
@@ -352,8 +378,12 @@ void draw_model_panel(AppState& s, const Theme& t) {
         ImGui::EndCombo();
     }
     const ModelKind kind = s.analysis.model.kind;
-    if (kind == ModelKind::shares || kind == ModelKind::ratio || kind == ModelKind::counts) {
-        const char* hint = kind == ModelKind::ratio ? "9:3:3:1" : kind == ModelKind::shares ? "40, 35, 25 (one per category)" : "one expected count per category";
+    if (kind == ModelKind::shares || kind == ModelKind::ratio || kind == ModelKind::counts || kind == ModelKind::reference_sample) {
+        const char* hint = kind == ModelKind::ratio ? "9:3:3:1" : kind == ModelKind::shares ? "40, 35, 25 (one per category)"
+                           : kind == ModelKind::reference_sample ? "the previous sample's count per category" : "one expected count per category";
+        if (kind == ModelKind::reference_sample)
+            muted_wrapped(t, "Counts of the previous sample (last month, a control batch), one per category in the same order: "
+                             "both samples are compared, neither is taken as exact.");
         ImGui::SetNextItemWidth(-1);
         if (text_field("##values", &s.model_editor.values, FieldKeys::text, 0, hint)) apply_model_editor(s);
         mark_widget("expected values");
@@ -463,6 +493,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
         ch |= ImGui::RadioButton("by probability", &ord, 1);
         if (ch) { a.pvalue.ordering = ord == 0 ? ExactOrdering::statistic : ExactOrdering::probability; recompute(s); }
     }
+    draw_goal_rows(s, t);
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("Merge");
     ImGui::SameLine(74);

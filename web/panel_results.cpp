@@ -60,8 +60,22 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
         ImGui::PopStyleColor();
     }
     ImGui::PushFont(t.strong);
-    coloured_wrapped(r.reject ? t.warn_ink : t.accent, verdict_sentence(r).c_str());
+    if (r.conformity && r.conformity->status.ok)  // the goal is conformity: its verdict leads
+        coloured_wrapped(r.conformity->conforms ? t.accent : t.warn_ink, conformity_verdict(r).c_str());
+    else coloured_wrapped(r.reject ? t.warn_ink : t.accent, verdict_sentence(r).c_str());
     ImGui::PopFont();
+    if (r.conformity && !r.conformity->status.ok) coloured_wrapped(t.warn_ink, conformity_verdict(r).c_str());
+    if (r.conformity && r.conformity->status.ok) {
+        const ConformityResult& c = *r.conformity;
+        muted_wrapped(t, "Conformity is shown when %s is below %s, the α quantile of the noncentral chi-square with df %s and "
+                         "noncentrality N·w0² = %s. Departure test: %s",
+                      r.statistic_symbol.c_str(), format_fixed(c.critical_value, 3).c_str(), format_count(c.df).c_str(),
+                      format_significant(c.noncentrality, 4).c_str(), verdict_sentence(r).c_str());
+        if (c.plan.computed)
+            muted_wrapped(t, "To show conformity within w0 = %s with power %s when the mix is exactly as stated: N = %s.",
+                          format_fixed(c.margin_w, 2).c_str(), format_fixed(c.plan.target_power, 2).c_str(),
+                          format_count(c.plan.n_required).c_str());
+    }
     std::string effect = "Effect size w = " + format_fixed(r.effect.w, 3) + " (" + r.effect.w_label + ")";
     if (std::isfinite(r.effect.w_interval.lower))
         effect += ", 95% CI " + format_fixed(r.effect.w_interval.lower, 3) + " to " + format_fixed(r.effect.w_interval.upper, 3);

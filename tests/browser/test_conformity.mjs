@@ -1,0 +1,68 @@
+// The test's two goals on the page: "find a departure" and "show it conforms within w0"
+// (equivalence test), switched by the same AppState transition as the document's conformity
+// member; and a comparison with a previous sample. Reference values from SciPy 1.10:
+// ncx2.cdf(0.72941, 2, 10.2) = 0.0040613 for counts 330, 352, 338 against equal shares, w0 = 0.1;
+// chi2_contingency([[150,420,190,40],[140,390,230,40]], correction=False) -> 5.2655, p = 0.15336.
+import { assert, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+
+const conformDoc = JSON.stringify({
+  format: 'tallyproof/1', categories: ['A', 'B', 'C'], observed: [330, 352, 338],
+  model: { kind: 'equal' }, conformity: { margin_w: 0.1 },
+});
+
+async function waitFor(page, text) {
+  await page.waitForFunction((t) => document.getElementById('tp-results').textContent.includes(t), text, { timeout: 10000 });
+}
+
+export const tests = {
+  async 'goal "show it conforms within w0": verdict, noncentral curve and lower-tail region'() {
+    await withPage({}, async (page) => {
+      await pasteText(page, conformDoc);
+      await waitFor(page, 'conform to the stated mix within w < 0.10');
+      const r = await lastResult(page);
+      assert(r.conformity && r.conformity.conforms === true, `conformity: ${JSON.stringify(r.conformity)}`);
+      assert(Math.abs(r.conformity.p_value - 0.004061303243092804) < 1e-9, `p ${r.conformity.p_value}`);  // SciPy ncx2.cdf
+      const colours = await screenshot(page, 'conformity-curve');
+      assert(colours > 20, `the curve view drew ${colours} colours`);
+      const text = await resultsText(page);
+      assert(text.includes('Conformity margin w0 = 0.100'), text);
+    });
+  },
+
+  async 'goal "find a departure" after conformity, and back, through the goal buttons'() {
+    await withPage({}, async (page) => {
+      await pasteText(page, conformDoc);
+      await waitFor(page, 'conform to the stated mix');
+      await clickWidget(page, 'find a departure');
+      await page.waitForFunction(() => !document.getElementById('tp-results').textContent.includes('Conformity margin'), null, { timeout: 10000 });
+      let r = await lastResult(page);
+      assert(!r.conformity, 'no conformity section once the goal is a departure');
+      assert((await resultsText(page)).includes('No evidence against the stated mix'), await resultsText(page));
+      await screenshot(page, 'conformity-departure-goal');
+      // Fewer counts: conformity is not shown, and the verdict says what the data allow.
+      await clickWidget(page, 'show it conforms');
+      await waitFor(page, 'Conformity margin');
+      await pasteText(page, 'A\t30\nB\t52\nC\t38\n');
+      await waitFor(page, 'is not shown');
+      r = await lastResult(page);
+      assert(r.conformity.conforms === false, JSON.stringify(r.conformity));
+      assert((await resultsText(page)).includes('with N = 120 the data allow only w <'), await resultsText(page));
+      await screenshot(page, 'conformity-not-shown');
+    });
+  },
+
+  async 'comparison with a previous sample from a document'() {
+    await withPage({}, async (page) => {
+      await pasteText(page, JSON.stringify({
+        format: 'tallyproof/1', categories: ['A', 'B', 'C', 'D'], observed: [150, 420, 190, 40],
+        model: { kind: 'reference-sample', values: [140, 390, 230, 40] },
+      }));
+      await waitFor(page, 'compared with the previous sample of N = 800');
+      const r = await lastResult(page);
+      assert(Math.abs(r.statistic - 5.265462506841817) < 1e-9 && Math.abs(r.p_value - 0.15335924154056324) < 1e-9,
+        `statistic ${r.statistic}, p ${r.p_value}`);  // SciPy chi2_contingency
+      assert(r.reference_sample && r.reference_sample.n === 800, JSON.stringify(r.reference_sample));
+      await screenshot(page, 'reference-sample');
+    });
+  },
+};
