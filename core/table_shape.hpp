@@ -27,13 +27,10 @@ void regroup_space_words(std::vector<TableRow>* rows);
 InputShape detect_shape(const std::vector<TableRow>& rows, bool more_rows, const ParseOptions& options,
                         std::string* why);
 
-// True when the first row is a header row above raw observations in a single column or grid.
-bool first_row_is_header(const std::vector<TableRow>& rows);
+// True when the first row of the sample is a header row above raw numbers in a single column or grid.
+bool raw_header_row(const std::vector<TableRow>& sample);
 
 // Reads a table-shaped paste (the four table shapes) into `out` (shape and separator set).
 void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, ParsedInput* out);
-
-// Adds a located problem: the first becomes out->status; at most kMaxProblems are kept.
-void add_problem(ParsedInput* out, int line, int column, const std::string& message);
 
 }  // namespace tallyproof
