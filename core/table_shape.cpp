@@ -48,7 +48,9 @@ constexpr double kMaxCount = 9007199254740992.0;  // 2^53: larger counts are not
 
 }  // namespace
 
-bool looks_numeric(const std::string& cell) { return decimal_mark_evidence(cell) != MarkEvidence::not_a_number; }
+bool looks_numeric(const std::string& cell) {
+    return decimal_mark_evidence(cell) != MarkEvidence::not_a_number || is_unusable_number(cell);
+}
 
 void regroup_space_words(std::vector<TableRow>* rows) {
     bool two = !rows->empty(), fractions = false;
@@ -299,7 +301,9 @@ bool read_count_cell(const Entry& e, DecimalMark mark, ParsedInput* out, double*
     const std::string where = cell_location(e.line, e.count_column);
     const NumberReading n = read_number(e.count, mark);
     const char* fault = nullptr;
-    if (!n.ok) fault = " is not a count; expected a non-negative whole number.";
+    if (n.out_of_range && std::isinf(n.value)) fault = " is too large; expected a count below 2^53.";
+    else if (n.out_of_range) fault = " is too small to be read as a number; counts must be whole numbers.";
+    else if (!n.ok) fault = " is not a count; expected a non-negative whole number.";
     else if (n.percent) fault = " is a percentage; counts must be non-negative whole numbers.";
     else if (n.negative && n.value != 0) fault = " is negative; counts must be non-negative whole numbers.";
     else if (n.value != std::floor(n.value)) fault = " is not a whole number; counts must be whole numbers.";
@@ -338,7 +342,9 @@ bool read_entries(const TableCells& entries, DecimalMark mark, ParsedInput* out,
             if (!m.ok) {
                 add_problem(out, e.line, e.expected_column,
                             ewhere + quote_cell(e.expected) +
-                                " is not an expected value; expected a share, percentage, ratio term or expected count.");
+                                (m.out_of_range ? " is out of the range of numbers that can be read; expected"
+                                                : " is not an expected value; expected") +
+                                " a share, percentage, ratio term or expected count.");
                 continue;
             }
             if (m.value < 0) {

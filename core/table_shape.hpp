@@ -15,7 +15,9 @@ struct TableRow {
     std::vector<std::string> cells;  // trimmed, trailing empty cells dropped; never empty
 };
 
-// True when the cell reads as a number with either decimal mark.
+// True when the cell reads as a number with either decimal mark, or is written as a number that
+// cannot be used ("1e400", "NaN", "#DIV/0!"): such a cell is refused where it stands, never taken
+// for a header.
 bool looks_numeric(const std::string& cell);
 
 // Space-separated words regrouped as [label, numbers...]: the trailing numbers (one, or two when
