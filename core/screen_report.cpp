@@ -77,7 +77,7 @@ std::string screen_report_text(const ScreenResult& s) {
         if (!g.tested) { t += g.note + "\n"; continue; }
         t += pad(format_fixed(g.statistic, 2), 10) + pad(format_plain(g.df), 5) + pad(format_probability(g.p), 14) +
              pad(format_probability(g.q), 14) + pad(format_fixed(g.w, 3), 7) + (mad ? pad(g.digits ? format_fixed(g.mad, 4) : "", 8) : "") +
-             (g.flagged ? "FLAGGED" : "") + (g.thin ? (g.flagged ? ", thin" : "thin") : "");
+             (g.flagged ? "FLAGGED" : "") + (g.thin ? std::string(g.flagged ? ", " : "") + g.note : "");
         if (g.flagged && !g.drivers.empty()) t += " (" + drivers_text(g) + ")";
         t += "\n";
     }

@@ -130,6 +130,17 @@ doc = json.loads(r.stdout)
 check(r.returncode == 0 and doc["model"]["kind"] == "benford-first" and all(g["mad_band"] for g in doc["groups"]),
       f"first digits per supplier: Benford's law with MAD bands: {r.stdout[:300]}")
 
+# The documented example (docs/analysis-document.md, "Screening many groups").
+import os
+example = os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "..", "docs", "examples", "screening", "last-digits-by-reader.json")
+r = run(["--json", example], None)
+doc = json.loads(r.stdout)
+check(r.returncode == 0 and [g["flagged"] for g in doc["groups"]] == [False, False, True, False, False], "documented example: reader C flagged")
+check(doc["groups"][4]["thin"] and doc["groups"][4]["method"] == "exact", "documented example: thin reader E gets an exact p")
+if have_scipy:
+    sp = chisquare([31, 6, 7, 8, 6, 27, 5, 7, 9, 6])
+    check(close(doc["groups"][2]["p_value"], sp.pvalue), "documented example: reader C p vs scipy chisquare")
+
 # Refusals: exit 1 with the line and the group.
 r = run(["--by", "reader"], "reader\tdigit\tcount\nA\t0\t3\n\t1\t2\nB\t0\t1\nB\t1\t1\nA\t1\t4\n")
 check(r.returncode == 1 and "Line 3, column 1" in r.stderr and "group cell is empty" in r.stderr, f"empty group cell: {r.stderr!r}")
