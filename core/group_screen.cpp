@@ -248,7 +248,12 @@ ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, co
     for (std::size_t g = 0; g < groups; ++g)
         if (s.groups[g].tested) { log10_p.push_back(s.groups[g].p.log10_p); at.push_back(g); }
     s.tested = at.size();
-    if (s.tested == 0) { s.status = Status::failure("No group could be tested: " + s.groups[0].note + "."); return s; }
+    if (s.tested == 0) {
+        std::string why = s.groups[0].note;
+        if (why.rfind("not tested: ", 0) == 0) why = why.substr(12);
+        s.status = Status::failure("No group could be tested (group " + quote_cell(s.groups[0].name) + ": " + why + ").");
+        return s;
+    }
     std::vector<double> adjusted;
     if (Status st = adjust_log10_p_values(log10_p, choice.adjust, &adjusted); !st.ok) { s.status = st; return s; }
     const double log10_q = std::log10(choice.q);

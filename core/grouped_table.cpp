@@ -207,6 +207,29 @@ void read_wide_rows(const std::vector<TableRow>& rows, std::size_t first, std::s
                          std::to_string(k) + " categories (one per column" + (first == 1 ? ", named by the header row" : "") + ").");
 }
 
+// A message about the values read one per line, with "line N" (and its "column 1") turned into
+// the line and column of the pasted table each value came from.
+std::string original_lines(const std::string& message, const std::vector<int>& lines, int value_column) {
+    std::string out;
+    std::size_t i = 0;
+    while (i < message.size()) {
+        const bool at_line = (message.compare(i, 5, "line ") == 0 || message.compare(i, 5, "Line ") == 0) &&
+                             i + 5 < message.size() && message[i + 5] >= '0' && message[i + 5] <= '9';
+        if (!at_line) { out += message[i++]; continue; }
+        std::size_t j = i + 5;
+        std::size_t n = 0;
+        while (j < message.size() && message[j] >= '0' && message[j] <= '9' && n < 100000000) n = n * 10 + static_cast<std::size_t>(message[j++] - '0');
+        out += message.substr(i, 5);
+        out += n >= 1 && n <= lines.size() ? std::to_string(lines[n - 1]) : message.substr(i + 5, j - i - 5);
+        i = j;
+        if (message.compare(i, 10, ", column 1") == 0 && (i + 10 == message.size() || message[i + 10] < '0' || message[i + 10] > '9')) {
+            out += ", column " + std::to_string(value_column);
+            i += 10;
+        }
+    }
+    return out;
+}
+
 // Raw values with a group column: each group's values tallied as the one-sample reader tallies
 // raw observations; the categories (and bin edges) are those of all values pooled, so that
 // every group is counted into the same categories.
@@ -236,12 +259,13 @@ void read_raw_rows(const std::vector<TableRow>& rows, std::size_t first, std::si
     ParseOptions options = parse;
     options.raw = parse.digits || parse.bins.kind != BinChoice::Kind::none ? parse.raw : true;
     options.separator = Separator::tab;  // one value per line
-    auto located = [](const Status& s, const std::vector<int>& at) {
+    const int value_column = static_cast<int>(value_col) + 1;
+    auto located = [&](const Status& s, const std::vector<int>& at) {
         Status t = s;
+        t.message = original_lines(s.message, at, value_column);
         if (s.line >= 1 && static_cast<std::size_t>(s.line) <= at.size()) {
             t.line = at[s.line - 1];
-            const std::string old = cell_location(s.line, s.column);
-            if (t.message.rfind(old, 0) == 0) t.message = cell_location(t.line, 0) + t.message.substr(old.size());
+            t.column = value_column;
         }
         return t;
     };
@@ -274,7 +298,7 @@ void read_raw_rows(const std::vector<TableRow>& rows, std::size_t first, std::si
             if (it != category.end()) out->counts[g * k + it->second] += one.observed[i];
         }
     }
-    for (const auto& note : all.notes) out->notes.push_back("All values pooled: " + note);
+    for (const auto& note : all.notes) out->notes.push_back("All values pooled: " + original_lines(note, pooled_lines, value_column));
     out->notes.insert(out->notes.begin(), "Read raw values with a group column: " + std::to_string(pooled_lines.size()) +
                                               " values in " + std::to_string(out->groups.size()) + " groups, tallied into " +
                                               std::to_string(k) + " categories shared by every group.");
@@ -382,7 +406,12 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
         std::unordered_map<std::string, int> seen;
         bool repeats = false;
         for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.emplace(cell_at(rows[r], group_col), 0).second;
-        if (!repeats && width >= 3) shape = GroupShape::wide_table;
+        // A wide table holds only counts beside the group names; text there makes it long.
+        bool counts_only = true;
+        for (std::size_t r = first; r < rows.size() && r < first + 200 && counts_only; ++r)
+            for (std::size_t c = 0; c < rows[r].cells.size(); ++c)
+                if (c != group_col && !rows[r].cells[c].empty() && !looks_numeric(rows[r].cells[c])) counts_only = false;
+        if (!repeats && width >= 3 && counts_only) shape = GroupShape::wide_table;
         else if (width == 2) shape = GroupShape::raw_values;
         else shape = GroupShape::long_table;
     }

@@ -245,6 +245,18 @@ TEST_CASE("grouped tables: refusals name the line and the group") {
     g = read_grouped_text("reader\tdigit\tcount\nAnn\t0\t1\nBob\t0\t2\n", by);
     CHECK_FALSE(g.status.ok);
     CHECK(g.status.message.find("has 3 columns") != std::string::npos);
+    // A long table whose groups each have one line is still long: text beside the group names.
+    g = read_grouped_text("g;c;n\na;x;1\nb;y;2\n");
+    CHECK(g.shape == GroupShape::long_table);
+    // Raw values: a refused value is named by its line and column in the pasted table.
+    GroupReadOptions bins;
+    bins.parse.bins.kind = BinChoice::Kind::edges;
+    bins.parse.bins.edges = {0, 20, 40};
+    g = read_grouped_text("g\tv\na\t12\na\tabc\nb\t15\nb\t33\n", bins);
+    CHECK_FALSE(g.status.ok);
+    CHECK(g.status.line == 3);
+    CHECK(g.status.column == 2);
+    CHECK(g.status.message.rfind("Line 3, column 2: \"abc\"", 0) == 0);
     ScreenChoice bad;
     bad.q = 1.5;
     GroupedCounts two = read_grouped_text("Ann\tA\t3\nAnn\tB\t1\nBob\tA\t2\nBob\tB\t2\n");
