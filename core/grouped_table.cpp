@@ -338,6 +338,11 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
         Record rec;
         while (reader.next(&rec)) {
             if (rec.blank()) continue;
+            if (rows.size() == kMaxGroupRows) {
+                out.status = Status::failure(cell_location(rec.line, 0) + "more than " + std::to_string(kMaxGroupRows) +
+                                                 " rows; screen at most that many rows at once.", rec.line, 0);
+                return out;
+            }
             TableRow row;
             row.line = rec.line;
             row.cells.reserve(rec.cells.size());

@@ -31,6 +31,7 @@ struct GroupReadOptions {
 
 constexpr std::size_t kMaxGroups = 200000;              // more groups are refused
 constexpr std::size_t kMaxGroupCells = 20000000;        // groups x categories held at most
+constexpr std::size_t kMaxGroupRows = 2000000;          // lines of a grouped paste read at most (rows are held whole)
 
 struct GroupedCounts {
     Status status;                        // !ok: the first problem, naming line and group
