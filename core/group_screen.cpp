@@ -274,6 +274,9 @@ ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, co
     }
 
     if (choice.against == ScreenAgainst::rest) s.model_description = "the other groups pooled";
+    else if (model_is_fitted(base.model.kind))  // one fit per group: the pooled fit would mislead
+        s.model_description = (base.model.kind == ModelKind::poisson ? std::string("Poisson") : model_kind_name(base.model.kind)) +
+                              std::string(" (parameters estimated per group)");
     else if (Result r0 = [&] { Analysis a = base; a.categories = counts.categories; a.observed = pooled; a.plan = PlanChoice{}; return analyse(a); }();
              r0.status.ok) s.model_description = r0.model_description;
     else s.model_description = model_kind_name(base.model.kind);

@@ -168,6 +168,26 @@ TEST_CASE("flagged groups name their drivers; a group of zero total is listed, n
     CHECK(r.groups[1].df == 9);
 }
 
+TEST_CASE("a fitted model is fitted to each group on its own") {
+    GroupedCounts counts;
+    counts.categories = {"0", "1", "2", "3"};
+    counts.groups = {"A", "B"};
+    counts.counts = {50, 30, 15, 5, 20, 40, 30, 10};
+    Analysis base;
+    base.model.kind = ModelKind::poisson;
+    base.ordered = true;
+    const ScreenResult s = screen_groups(base, counts, ScreenChoice{});
+    REQUIRE(s.status.ok);
+    CHECK(s.model_description == "Poisson (parameters estimated per group)");
+    Analysis b = base;
+    b.categories = counts.categories;
+    b.observed = {20, 40, 30, 10};
+    const Result r = analyse(b);  // B alone: its own mean, df = 4 - 1 - 1
+    REQUIRE(r.status.ok);
+    CHECK(s.groups[1].statistic == r.statistic);
+    CHECK(s.groups[1].df == 2);
+}
+
 TEST_CASE("long, wide and raw tables with a group column give the same counts") {
     const std::string long_text = "reader,digit,count\nAnn,0,3\nAnn,1,1\nBob,0,2\nBob,1,4\nCy,1,5\n";
     const std::string wide_text = "reader\t0\t1\nAnn\t3\t1\nBob\t2\t4\nCy\t0\t5\n";
