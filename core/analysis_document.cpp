@@ -106,8 +106,9 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
         }
     }
     const JsonValue* obs = doc.find("observed");
-    if (!obs) return Status::failure("The document has no \"observed\" counts.");
-    TP_TRY(read_numbers(*obs, "observed", &a.observed));
+    const bool screen = doc.find("groups") != nullptr;  // a screening document (screen_document.hpp)
+    if (!obs && !screen) return Status::failure("The document has no \"observed\" counts.");
+    if (obs) TP_TRY(read_numbers(*obs, "observed", &a.observed));
     if (a.observed.size() > kMaxCategories)
         return Status::failure("The document has " + std::to_string(a.observed.size()) + " categories; at most " +
                                std::to_string(kMaxCategories) + " can be analysed.");
@@ -118,7 +119,7 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
             if (!seen.insert(c).second)
                 return Status::failure("In the document, the label \"" + c.substr(0, 40) + "\" appears twice; each category needs its own label.");
     }
-    if (a.categories.empty())
+    if (a.categories.empty() && !screen)
         for (std::size_t i = 0; i < a.observed.size(); ++i) a.categories.push_back("Category " + std::to_string(i + 1));
     if (const JsonValue* o = doc.find("ordered"); o && !o->is(Type::null)) {
         if (!o->is(Type::boolean)) return wrong("ordered", "true or false");

@@ -9,7 +9,6 @@
 #include <cstdio>
 
 #include "equal_probability_bins.hpp"
-#include "table_shape.hpp"
 
 namespace tallyproof {
 namespace {

@@ -260,7 +260,13 @@ NumberReading read_number(std::string_view cell, DecimalMark mark, std::string* 
         char* end = nullptr;
         v = std::strtod(begin, &end);  // C locale: the canonical form uses a decimal point
     }
-    if (!std::isfinite(v)) return NumberReading{};
+    if (!std::isfinite(v) || (v == 0 && mantissa != 0)) {  // overflow, or underflow to zero
+        NumberReading beyond;
+        beyond.out_of_range = true;
+        beyond.negative = r.negative;
+        beyond.value = r.negative ? -v : v;  // an infinity (too large) or zero (too small)
+        return beyond;
+    }
     r.value = r.negative ? -v : v;
     r.ok = true;
     return r;
@@ -272,6 +278,21 @@ MarkEvidence decimal_mark_evidence(std::string_view cell) {
     if (!p.ok && !c.ok) return MarkEvidence::not_a_number;
     if (p.ok && c.ok) return p.value == c.value ? MarkEvidence::neutral : MarkEvidence::ambiguous;
     return p.ok ? MarkEvidence::point : MarkEvidence::comma;
+}
+
+bool is_unusable_number(std::string_view cell) {
+    std::string_view s = trim_cell(cell);
+    if (s.empty() || s.size() > 200) return false;
+    if (read_number(s, DecimalMark::point).out_of_range || read_number(s, DecimalMark::comma).out_of_range) return true;
+    static const char* const errors[] = {"#DIV/0!", "#N/A", "#NA", "#VALUE!", "#REF!", "#NAME?", "#NUM!", "#NULL!", "#ERROR!"};
+    std::string upper;
+    for (char c : s) upper += (c >= 'a' && c <= 'z') ? static_cast<char>(c - 'a' + 'A') : c;
+    for (const char* e : errors)
+        if (upper == e) return true;
+    std::size_t n;
+    if ((n = minus_at(upper, 0)) > 0) upper.erase(0, n);
+    else if (!upper.empty() && upper[0] == '+') upper.erase(0, 1);
+    return upper == "NAN" || upper == "INF" || upper == "INFINITY" || upper == "\xE2\x88\x9E";  // ∞
 }
 
 void MarkVotes::add(std::string_view cell, int at_line, int at_column) {

@@ -21,6 +21,8 @@ struct NumberReading {
     bool grouped = false;        // thousands separators were used
     bool exponent = false;
     int decimals = 0;            // digits written after the decimal mark
+    bool out_of_range = false;   // written as a number beyond the double range; ok is false and value is
+                                 // an infinity ("1e400") or zero ("1e-400")
 };
 
 // Reads `cell` with the given decimal mark; the other of . and , may only group thousands.
@@ -37,6 +39,11 @@ enum class MarkEvidence {
     ambiguous,     // both work with different values ("1,234", "1.234")
 };
 MarkEvidence decimal_mark_evidence(std::string_view cell);
+
+// True when the cell is written as a number that cannot be used: beyond the double range with
+// either decimal mark ("1e400", "1e-400"), not a number or an infinity ("NaN", "-Inf", "∞"), or a
+// spreadsheet error value ("#DIV/0!", "#N/A"). Such a cell is data, never a header.
+bool is_unusable_number(std::string_view cell);
 
 // Tally of the evidence a column's cells give, and the decision it supports.
 struct MarkVotes {

@@ -56,6 +56,11 @@ TableRow to_row(const Record& rec) {
 
 }  // namespace
 
+void add_problem(ParsedInput* out, int line, int column, const std::string& message) {
+    if (out->status.ok) out->status = Status::failure(message, line, column);
+    if (out->problems.size() < kMaxProblems) out->problems.push_back(CellProblem{line, column, message});
+}
+
 const char* input_shape_name(InputShape shape) {
     for (const auto& n : kShapes)
         if (n.shape == shape) return n.name;
@@ -165,8 +170,7 @@ ParsedInput parse_input(std::string_view text, const ParseOptions& options) {
     src.whole_lines = words && shape == InputShape::raw_text;
     src.numbers = shape != InputShape::raw_text;
     const std::vector<TableRow>& sample = src.whole_lines ? grouped : rows;
-    const bool header = shape == InputShape::raw_text ? false : first_row_is_header(sample) ||
-                        (sample.size() >= 2 && !looks_numeric(sample[0].cells[0]) && looks_numeric(sample[1].cells[0]));
+    const bool header = shape != InputShape::raw_text && raw_header_row(sample);
     if (header) {
         src.header_line = sample[0].line;
         out.column_names = sample[0].cells;

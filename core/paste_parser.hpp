@@ -81,6 +81,9 @@ struct ParsedInput {
     std::vector<CellProblem> problems;      // offending cells (at most kMaxProblems)
 };
 
+// Adds a located problem: the first becomes out->status; at most kMaxProblems are kept.
+void add_problem(ParsedInput* out, int line, int column, const std::string& message);
+
 constexpr std::size_t kMaxInputBytes = 256u << 20;  // larger pastes are refused at once
 constexpr std::size_t kMaxCategories = 100000;      // more categories are refused
 constexpr std::size_t kMaxProblems = 100;           // offending cells listed

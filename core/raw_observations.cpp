@@ -10,7 +10,6 @@
 #include <unordered_map>
 
 #include "digit_extraction.hpp"
-#include "table_shape.hpp"
 
 namespace tallyproof {
 namespace {

@@ -48,11 +48,8 @@ constexpr double kMaxCount = 9007199254740992.0;  // 2^53: larger counts are not
 
 }  // namespace
 
-bool looks_numeric(const std::string& cell) { return decimal_mark_evidence(cell) != MarkEvidence::not_a_number; }
-
-void add_problem(ParsedInput* out, int line, int column, const std::string& message) {
-    if (out->status.ok) out->status = Status::failure(message, line, column);
-    if (out->problems.size() < kMaxProblems) out->problems.push_back(CellProblem{line, column, message});
+bool looks_numeric(const std::string& cell) {
+    return decimal_mark_evidence(cell) != MarkEvidence::not_a_number || is_unusable_number(cell);
 }
 
 void regroup_space_words(std::vector<TableRow>* rows) {
@@ -79,6 +76,7 @@ void regroup_space_words(std::vector<TableRow>* rows) {
     }
 }
 
+namespace {
 bool first_row_is_header(const std::vector<TableRow>& rows) {
     if (rows.size() < 2) return false;
     for (const auto& cell : rows[0].cells)
@@ -87,6 +85,12 @@ bool first_row_is_header(const std::vector<TableRow>& rows) {
     for (std::size_t r = 1; r < rows.size(); ++r)
         for (const auto& cell : rows[r].cells) { ++cells; if (looks_numeric(cell)) ++numeric; }
     return numeric * 2 > cells;
+}
+}  // namespace
+
+bool raw_header_row(const std::vector<TableRow>& sample) {
+    return first_row_is_header(sample) ||
+           (sample.size() >= 2 && !looks_numeric(sample[0].cells[0]) && looks_numeric(sample[1].cells[0]));
 }
 
 InputShape detect_shape(const std::vector<TableRow>& rows, bool more_rows, const ParseOptions& options,
@@ -152,105 +156,128 @@ InputShape detect_shape(const std::vector<TableRow>& rows, bool more_rows, const
     return maxc == 2 ? InputShape::label_count : InputShape::label_observed_expected;
 }
 
-void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, ParsedInput* out) {
-    const InputShape shape = out->shape;
-    std::vector<Entry> entries;
+namespace {
+
+// The cells of a table that hold its numbers, found by one shape's reader.
+using TableCells = std::vector<Entry>;
+
+// One row of counts across cells, optionally under a row of labels (and after a row heading).
+TableCells read_counts_row(const std::vector<TableRow>& rows, ParsedInput* out) {
+    TableCells entries;
+    std::size_t value_row = 0;
+    std::vector<std::string> labels;
+    if (rows.size() >= 2) {
+        value_row = 1;
+        labels = rows[0].cells;
+        out->column_names = rows[0].cells;
+        out->notes.push_back("Line " + std::to_string(rows[0].line) + " read as the category labels.");
+    }
+    if (rows.size() > 2)
+        add_problem(out, rows[2].line, 1,
+                    cell_location(rows[2].line, 1) + "a third row; expected one row of counts, optionally under a row of labels.");
+    const auto& c = rows[value_row].cells;
+    std::size_t start = 0;
+    if (!looks_numeric(c[0]) && c.size() >= 2) {  // a row heading such as "Count"
+        start = 1;
+        out->column_names.insert(out->column_names.begin(), c[0]);
+        if (!labels.empty()) labels.erase(labels.begin());
+    }
+    for (std::size_t i = start; i < c.size(); ++i) {
+        Entry e;
+        e.line = rows[value_row].line;
+        e.count = c[i];
+        e.count_column = static_cast<int>(i) + 1;
+        if (i - start < labels.size()) { e.label = labels[i - start]; e.label_column = e.count_column; }
+        entries.push_back(e);
+    }
+    out->notes.push_back("Read one row of " + std::to_string(entries.size()) + " counts across cells, one category per cell.");
+    return entries;
+}
+
+// One count per line, optionally under a header cell; the categories are numbered.
+TableCells read_counts_column(const std::vector<TableRow>& rows, ParsedInput* out) {
+    TableCells entries;
     std::size_t first = 0;
-    // Header rows and the cells that hold numbers, per shape.
-    if (shape == InputShape::counts_row) {
-        std::size_t value_row = 0;
-        std::vector<std::string> labels;
-        if (rows.size() >= 2) {
-            value_row = 1;
-            labels = rows[0].cells;
-            out->column_names = rows[0].cells;
-            out->notes.push_back("Line " + std::to_string(rows[0].line) + " read as the category labels.");
-        }
-        if (rows.size() > 2)
-            add_problem(out, rows[2].line, 1,
-                        cell_location(rows[2].line, 1) + "a third row; expected one row of counts, optionally under a row of labels.");
-        const auto& c = rows[value_row].cells;
-        std::size_t start = 0;
-        if (!looks_numeric(c[0]) && c.size() >= 2) {  // a row heading such as "Count"
-            start = 1;
-            out->column_names.insert(out->column_names.begin(), c[0]);
-            if (!labels.empty()) labels.erase(labels.begin());
-        }
-        for (std::size_t i = start; i < c.size(); ++i) {
-            Entry e;
-            e.line = rows[value_row].line;
-            e.count = c[i];
-            e.count_column = static_cast<int>(i) + 1;
-            if (i - start < labels.size()) { e.label = labels[i - start]; e.label_column = e.count_column; }
-            entries.push_back(e);
-        }
-        out->notes.push_back("Read one row of " + std::to_string(entries.size()) + " counts across cells, one category per cell.");
-    } else if (shape == InputShape::counts_column) {
-        if (!rows.empty() && !looks_numeric(rows[0].cells[0]) && rows.size() >= 2) {
-            out->column_names = {rows[0].cells[0]};
+    if (!rows.empty() && !looks_numeric(rows[0].cells[0]) && rows.size() >= 2) {
+        out->column_names = {rows[0].cells[0]};
+        out->notes.push_back("Line " + std::to_string(rows[0].line) + " read as a header row.");
+        first = 1;
+    }
+    for (std::size_t r = first; r < rows.size(); ++r) {
+        Entry e;
+        e.line = rows[r].line;
+        e.count = rows[r].cells[0];
+        e.count_column = 1;
+        if (rows[r].cells.size() > 1)
+            add_problem(out, rows[r].line, 2,
+                        cell_location(rows[r].line, 2) + "found " + std::to_string(rows[r].cells.size()) +
+                            " cells; expected one count per line.");
+        entries.push_back(e);
+    }
+    return entries;
+}
+
+// A label and a count (and, with `with_expected`, an expected value) on every line.
+TableCells read_label_rows(const std::vector<TableRow>& rows, bool with_expected, ParsedInput* out) {
+    TableCells entries;
+    const std::size_t want = with_expected ? 3 : 2;
+    std::size_t first = 0;
+    if (!rows.empty()) {
+        const auto& c = rows[0].cells;
+        const bool more_below = rows.size() >= 2;
+        bool header = false;
+        if (more_below && c.size() >= 2 && !looks_numeric(c[1])) header = true;
+        if (more_below && c.size() >= 3 && want == 3 && !looks_numeric(c[2]) && !looks_numeric(c[0])) header = true;
+        if (more_below && c.size() == 1 && !looks_numeric(c[0]) && rows[1].cells.size() >= 2) header = true;
+        if (header) {
+            out->column_names = c;
             out->notes.push_back("Line " + std::to_string(rows[0].line) + " read as a header row.");
             first = 1;
         }
-        for (std::size_t r = first; r < rows.size(); ++r) {
-            Entry e;
-            e.line = rows[r].line;
-            e.count = rows[r].cells[0];
-            e.count_column = 1;
-            if (rows[r].cells.size() > 1)
-                add_problem(out, rows[r].line, 2,
-                            cell_location(rows[r].line, 2) + "found " + std::to_string(rows[r].cells.size()) +
-                                " cells; expected one count per line.");
-            entries.push_back(e);
-        }
-    } else {
-        const std::size_t want = shape == InputShape::label_observed_expected ? 3 : 2;
-        if (!rows.empty()) {
-            const auto& c = rows[0].cells;
-            const bool more_below = rows.size() >= 2;
-            bool header = false;
-            if (more_below && c.size() >= 2 && !looks_numeric(c[1])) header = true;
-            if (more_below && c.size() >= 3 && want == 3 && !looks_numeric(c[2]) && !looks_numeric(c[0])) header = true;
-            if (more_below && c.size() == 1 && !looks_numeric(c[0]) && rows[1].cells.size() >= 2) header = true;
-            if (header) {
-                out->column_names = c;
-                out->notes.push_back("Line " + std::to_string(rows[0].line) + " read as a header row.");
-                first = 1;
-            }
-        }
-        const char* expected_shape = want == 3 ? "a label, a count and an expected value" : "a label and a count";
-        for (std::size_t r = first; r < rows.size(); ++r) {
-            const auto& c = rows[r].cells;
-            const int line = rows[r].line;
-            if (c.size() > want) {
-                add_problem(out, line, static_cast<int>(want) + 1,
-                            cell_location(line, static_cast<int>(want) + 1) + "found " + std::to_string(c.size()) +
-                                " cells; expected " + expected_shape + ".");
-                continue;
-            }
-            if (c.size() < want) {
-                const int col = static_cast<int>(c.size()) + 1;
-                add_problem(out, line, col,
-                            cell_location(line, col) + "nothing after " + quote_cell(c.back()) + "; expected " +
-                                expected_shape + " on every line.");
-                continue;
-            }
-            Entry e;
-            e.line = line;
-            e.label = c[0];
-            e.label_column = 1;
-            e.count = c[1];
-            e.count_column = 2;
-            if (want == 3) { e.expected = c[2]; e.expected_column = 3; }
-            entries.push_back(e);
-        }
     }
-    if (entries.size() > kMaxCategories) {
-        add_problem(out, entries[kMaxCategories].line, 0,
-                    cell_location(entries[kMaxCategories].line, 0) + "more than " + std::to_string(kMaxCategories) +
-                        " categories; expected a table of at most that many.");
-        return;
+    const char* expected_shape = want == 3 ? "a label, a count and an expected value" : "a label and a count";
+    for (std::size_t r = first; r < rows.size(); ++r) {
+        const auto& c = rows[r].cells;
+        const int line = rows[r].line;
+        if (c.size() > want) {
+            add_problem(out, line, static_cast<int>(want) + 1,
+                        cell_location(line, static_cast<int>(want) + 1) + "found " + std::to_string(c.size()) +
+                            " cells; expected " + expected_shape + ".");
+            continue;
+        }
+        if (c.size() < want) {
+            const int col = static_cast<int>(c.size()) + 1;
+            add_problem(out, line, col,
+                        cell_location(line, col) + "nothing after " + quote_cell(c.back()) + "; expected " +
+                            expected_shape + " on every line.");
+            continue;
+        }
+        Entry e;
+        e.line = line;
+        e.label = c[0];
+        e.label_column = 1;
+        e.count = c[1];
+        e.count_column = 2;
+        if (want == 3) { e.expected = c[2]; e.expected_column = 3; }
+        entries.push_back(e);
     }
-    // Decimal mark, decided from the whole count (and expected) column.
+    return entries;
+}
+
+// The per-shape readers: each finds the cells holding labels, counts and expected values and
+// notes the header rows it took; the steps below (decimal mark, numbers, totals row, expected
+// column) are shared. A new table shape is one more reader here.
+TableCells read_shape(const std::vector<TableRow>& rows, InputShape shape, ParsedInput* out) {
+    switch (shape) {
+        case InputShape::counts_row: return read_counts_row(rows, out);
+        case InputShape::counts_column: return read_counts_column(rows, out);
+        case InputShape::label_observed_expected: return read_label_rows(rows, true, out);
+        default: return read_label_rows(rows, false, out);
+    }
+}
+
+// The decimal mark, decided from the whole count (and expected) column.
+DecimalMark table_decimal_mark(const TableCells& entries, const ParseOptions& options, ParsedInput* out) {
     MarkVotes counts, expected;
     for (const auto& e : entries) {
         counts.add(e.count, e.line, e.count_column);
@@ -264,41 +291,37 @@ void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, 
         mark = counts.point + expected.point >= counts.comma + expected.comma ? DecimalMark::point : DecimalMark::comma;
     else if (counts.ambiguous > 0) mark = decide_decimal_mark(counts, true, fallback, &note, &alternative);
     else if (expected.ambiguous > 0) mark = decide_decimal_mark(expected, false, fallback, &note, &alternative);
-    out->decimal = mark;
     if (!note.empty()) out->notes.push_back(note);
     if (!alternative.empty()) out->alternatives.push_back(alternative);
+    return mark;
+}
 
+// A count cell as a count, or a located problem (false).
+bool read_count_cell(const Entry& e, DecimalMark mark, ParsedInput* out, double* count) {
+    const std::string where = cell_location(e.line, e.count_column);
+    const NumberReading n = read_number(e.count, mark);
+    const char* fault = nullptr;
+    if (n.out_of_range && std::isinf(n.value)) fault = " is too large; expected a count below 2^53.";
+    else if (n.out_of_range) fault = " is too small to be read as a number; counts must be whole numbers.";
+    else if (!n.ok) fault = " is not a count; expected a non-negative whole number.";
+    else if (n.percent) fault = " is a percentage; counts must be non-negative whole numbers.";
+    else if (n.negative && n.value != 0) fault = " is negative; counts must be non-negative whole numbers.";
+    else if (n.value != std::floor(n.value)) fault = " is not a whole number; counts must be whole numbers.";
+    else if (n.value >= kMaxCount) fault = " is too large; expected a count below 2^53.";
+    if (fault != nullptr) {
+        add_problem(out, e.line, e.count_column, where + quote_cell(e.count) + fault);
+        return false;
+    }
+    *count = n.value;
+    return true;
+}
+
+// The labels, counts and expected values of the entries into `out`; false when none may be used.
+bool read_entries(const TableCells& entries, DecimalMark mark, ParsedInput* out, bool* any_percent) {
     std::unordered_map<std::string, int> seen;  // label -> line
-    bool any_percent = false;
-    for (std::size_t k = 0; k < entries.size(); ++k) {
-        const Entry& e = entries[k];
-        const std::string where = cell_location(e.line, e.count_column);
-        const NumberReading n = read_number(e.count, mark);
-        if (!n.ok) {
-            add_problem(out, e.line, e.count_column,
-                        where + quote_cell(e.count) + " is not a count; expected a non-negative whole number.");
-            continue;
-        }
-        if (n.percent) {
-            add_problem(out, e.line, e.count_column,
-                        where + quote_cell(e.count) + " is a percentage; counts must be non-negative whole numbers.");
-            continue;
-        }
-        if (n.negative && n.value != 0) {
-            add_problem(out, e.line, e.count_column,
-                        where + quote_cell(e.count) + " is negative; counts must be non-negative whole numbers.");
-            continue;
-        }
-        if (n.value != std::floor(n.value)) {
-            add_problem(out, e.line, e.count_column,
-                        where + quote_cell(e.count) + " is not a whole number; counts must be whole numbers.");
-            continue;
-        }
-        if (n.value >= kMaxCount) {
-            add_problem(out, e.line, e.count_column,
-                        where + quote_cell(e.count) + " is too large; expected a count below 2^53.");
-            continue;
-        }
+    for (const Entry& e : entries) {
+        double count = 0;
+        if (!read_count_cell(e, mark, out, &count)) continue;
         std::string label = e.label.empty() ? "Category " + std::to_string(out->observed.size() + 1) : e.label;
         if (!valid_utf8(label)) {
             label = utf8_or_replacement(label);
@@ -319,7 +342,9 @@ void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, 
             if (!m.ok) {
                 add_problem(out, e.line, e.expected_column,
                             ewhere + quote_cell(e.expected) +
-                                " is not an expected value; expected a share, percentage, ratio term or expected count.");
+                                (m.out_of_range ? " is out of the range of numbers that can be read; expected"
+                                                : " is not an expected value; expected") +
+                                " a share, percentage, ratio term or expected count.");
                 continue;
             }
             if (m.value < 0) {
@@ -327,41 +352,85 @@ void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, 
                             ewhere + quote_cell(e.expected) + " is negative; expected values must be zero or more.");
                 continue;
             }
-            any_percent = any_percent || m.percent;
+            *any_percent = *any_percent || m.percent;
             x = m.value;
         }
         out->categories.push_back(std::move(label));
-        out->observed.push_back(n.value);
+        out->observed.push_back(count);
         if (e.expected_column) out->expected.push_back(x);
     }
-    if (!out->status.ok) return;
+    return out->status.ok;
+}
 
-    // A trailing totals row: dropped when it equals the sum above, refused when it does not.
+// A trailing totals row: dropped when it equals the sum above, refused when it does not (false).
+bool drop_totals_row(const TableCells& entries, ParsedInput* out) {
     const std::size_t k = out->observed.size();
-    if (k >= 3) {
-        const Entry& last = entries.back();
-        double above = 0;
-        for (std::size_t i = 0; i + 1 < k; ++i) above += out->observed[i];
-        const bool labelled_total = !last.label.empty() && is_totals_label(last.label);
-        const bool unlabelled_sum = last.label.empty() && k >= 4 && above > 0 && out->observed.back() == above;
-        if (labelled_total && out->observed.back() != above) {
-            add_problem(out, last.line, last.count_column,
-                        cell_location(last.line, last.count_column) + "the totals row " + quote_cell(last.label) +
-                            " gives " + plain(out->observed.back()) + ", but the counts above add up to " + plain(above) +
-                            "; expected their sum, or no totals row.");
-            return;
-        }
-        if (labelled_total || unlabelled_sum) {
-            out->categories.pop_back();
-            out->observed.pop_back();
-            if (!out->expected.empty()) out->expected.pop_back();
-            out->notes.push_back("Line " + std::to_string(last.line) + " (" + plain(above) +
-                                 ") equals the sum of the counts above it: dropped as a totals row.");
-            if (unlabelled_sum)
-                out->alternatives.push_back("If line " + std::to_string(last.line) +
-                                            " is a category rather than a total, give the categories labels.");
-        }
+    if (k < 3) return true;
+    const Entry& last = entries.back();
+    double above = 0;
+    for (std::size_t i = 0; i + 1 < k; ++i) above += out->observed[i];
+    const bool labelled_total = !last.label.empty() && is_totals_label(last.label);
+    const bool unlabelled_sum = last.label.empty() && k >= 4 && above > 0 && out->observed.back() == above;
+    if (labelled_total && out->observed.back() != above) {
+        add_problem(out, last.line, last.count_column,
+                    cell_location(last.line, last.count_column) + "the totals row " + quote_cell(last.label) +
+                        " gives " + plain(out->observed.back()) + ", but the counts above add up to " + plain(above) +
+                        "; expected their sum, or no totals row.");
+        return false;
     }
+    if (labelled_total || unlabelled_sum) {
+        out->categories.pop_back();
+        out->observed.pop_back();
+        if (!out->expected.empty()) out->expected.pop_back();
+        out->notes.push_back("Line " + std::to_string(last.line) + " (" + plain(above) +
+                             ") equals the sum of the counts above it: dropped as a totals row.");
+        if (unlabelled_sum)
+            out->alternatives.push_back("If line " + std::to_string(last.line) +
+                                        " is a category rather than a total, give the categories labels.");
+    }
+    return true;
+}
+
+// What the expected column holds: shares, percentages, expected counts or ratio terms.
+void classify_expected(const TableCells& entries, bool any_percent, ParsedInput* out) {
+    if (out->expected.empty()) return;
+    const std::size_t k = out->observed.size();
+    double sum = 0, total = 0;
+    for (double v : out->expected) sum += v;
+    for (double v : out->observed) total += v;
+    if (!(sum > 0)) {
+        const Entry& e = entries.front();
+        add_problem(out, e.line, e.expected_column,
+                    cell_location(e.line, e.expected_column) + "the expected values are all zero; expected shares, percentages, ratio terms or counts.");
+        return;
+    }
+    ExpectedKind kind;
+    std::string why;
+    if (any_percent) { kind = ExpectedKind::percentages; why = "written with % signs"; }
+    else if (std::fabs(sum - 1) <= 0.02) { kind = ExpectedKind::shares; why = "they add up to " + plain(sum); }
+    else if (std::fabs(sum - total) <= std::max(0.5 * static_cast<double>(k), 1e-9 * total) && total > 0 &&
+             std::fabs(total - 100) > 1e-9) {
+        kind = ExpectedKind::counts; why = "they add up to the observed total " + plain(total);
+    } else if (std::fabs(sum - 100) <= 2) { kind = ExpectedKind::percentages; why = "they add up to " + plain(sum); }
+    else { kind = ExpectedKind::ratios; why = "they add up to " + plain(sum) + ", neither 1, 100 nor the observed total"; }
+    out->expected_kind = kind;
+    out->notes.push_back(std::string("The expected column was read as ") + expected_kind_name(kind) + " (" + why + ").");
+}
+
+}  // namespace
+
+void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, ParsedInput* out) {
+    const TableCells entries = read_shape(rows, out->shape, out);
+    if (entries.size() > kMaxCategories) {
+        add_problem(out, entries[kMaxCategories].line, 0,
+                    cell_location(entries[kMaxCategories].line, 0) + "more than " + std::to_string(kMaxCategories) +
+                        " categories; expected a table of at most that many.");
+        return;
+    }
+    out->decimal = table_decimal_mark(entries, options, out);
+    bool any_percent = false;
+    if (!read_entries(entries, out->decimal, out, &any_percent)) return;
+    if (!drop_totals_row(entries, out)) return;
     if (out->observed.empty()) {
         out->status = Status::failure("No counts found: paste lines of label and count.");
         return;
@@ -373,29 +442,7 @@ void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, 
                                       e.line, e.count_column);
         return;
     }
-    // What the expected column holds.
-    if (!out->expected.empty()) {
-        double sum = 0, total = 0;
-        for (double v : out->expected) sum += v;
-        for (double v : out->observed) total += v;
-        if (!(sum > 0)) {
-            const Entry& e = entries.front();
-            add_problem(out, e.line, e.expected_column,
-                        cell_location(e.line, e.expected_column) + "the expected values are all zero; expected shares, percentages, ratio terms or counts.");
-            return;
-        }
-        ExpectedKind kind;
-        std::string why;
-        if (any_percent) { kind = ExpectedKind::percentages; why = "written with % signs"; }
-        else if (std::fabs(sum - 1) <= 0.02) { kind = ExpectedKind::shares; why = "they add up to " + plain(sum); }
-        else if (std::fabs(sum - total) <= std::max(0.5 * static_cast<double>(k), 1e-9 * total) && total > 0 &&
-                 std::fabs(total - 100) > 1e-9) {
-            kind = ExpectedKind::counts; why = "they add up to the observed total " + plain(total);
-        } else if (std::fabs(sum - 100) <= 2) { kind = ExpectedKind::percentages; why = "they add up to " + plain(sum); }
-        else { kind = ExpectedKind::ratios; why = "they add up to " + plain(sum) + ", neither 1, 100 nor the observed total"; }
-        out->expected_kind = kind;
-        out->notes.push_back(std::string("The expected column was read as ") + expected_kind_name(kind) + " (" + why + ").");
-    }
+    classify_expected(entries, any_percent, out);
 }
 
 }  // namespace tallyproof

@@ -15,7 +15,9 @@ struct TableRow {
     std::vector<std::string> cells;  // trimmed, trailing empty cells dropped; never empty
 };
 
-// True when the cell reads as a number with either decimal mark.
+// True when the cell reads as a number with either decimal mark, or is written as a number that
+// cannot be used ("1e400", "NaN", "#DIV/0!"): such a cell is refused where it stands, never taken
+// for a header.
 bool looks_numeric(const std::string& cell);
 
 // Space-separated words regrouped as [label, numbers...]: the trailing numbers (one, or two when
@@ -27,13 +29,10 @@ void regroup_space_words(std::vector<TableRow>* rows);
 InputShape detect_shape(const std::vector<TableRow>& rows, bool more_rows, const ParseOptions& options,
                         std::string* why);
 
-// True when the first row is a header row above raw observations in a single column or grid.
-bool first_row_is_header(const std::vector<TableRow>& rows);
+// True when the first row of the sample is a header row above raw numbers in a single column or grid.
+bool raw_header_row(const std::vector<TableRow>& sample);
 
 // Reads a table-shaped paste (the four table shapes) into `out` (shape and separator set).
 void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, ParsedInput* out);
-
-// Adds a located problem: the first becomes out->status; at most kMaxProblems are kept.
-void add_problem(ParsedInput* out, int line, int column, const std::string& message);
 
 }  // namespace tallyproof

@@ -9,10 +9,14 @@
 #include <vector>
 
 #include "analysis_document.hpp"
+#include "group_screen.hpp"
+#include "grouped_table.hpp"
 #include "paste_parser.hpp"
 #include "pasted_analysis.hpp"
 #include "pvalue_job.hpp"
 #include "report.hpp"
+#include "screen_document.hpp"
+#include "screen_report.hpp"
 #include "table_export.hpp"
 #include "writeup.hpp"
 #include "tallyproof_version.hpp"
@@ -79,6 +83,18 @@ const char* kUsage =
     "  --conformity W         margin w0 in (0, 1], e.g. 0.1 (Cohen's small); the contract decides\n"
     "  --conformity-true-w W  planning: the true w assumed (default 0)\n"
     "  --conformity-power P   planning: power wanted to show conformity (default 0.8)\n"
+    "screening many groups (one test per group; see docs/analysis-document.md, Screening):\n"
+    "  --by COLUMN            the group column: its header name or 1-based number; the table\n"
+    "                         is long (group, category, count), wide (one row per group under\n"
+    "                         a header naming the categories) or raw (group, value; tallied\n"
+    "                         per group with --digits, --bins or as text)\n"
+    "  --group-shape S        override the detected shape: long, wide, raw\n"
+    "  --against A            model (default: each group against --model) or rest (each group\n"
+    "                         against the other groups pooled, a test of homogeneity)\n"
+    "  --adjust M             across groups: bh (default, false discovery rate), holm,\n"
+    "                         bonferroni, none\n"
+    "  --q Q                  flag groups whose adjusted p is at most Q (default 0.05)\n"
+    "                         (--table and --writeup then give the groups table and summary)\n"
     "other:\n"
     "  --version, --help\n"
     "\n"
@@ -152,6 +168,10 @@ int main(int argc, char** argv) {
                                                  "--min-expected", "--plan-w", "--plan-n", "--target-power",
                                                  "--conformity", "--conformity-true-w", "--conformity-power"};
     ParseOptions input;  // input options, used when the text is pasted text rather than a document
+    // Screening many groups: on with --by, --group-shape, --against, --adjust or --q, or a document with "groups".
+    bool screening = false;
+    GroupReadOptions group_input;
+    ScreenChoice screen;
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (arg == "--json") json = true;
@@ -171,6 +191,28 @@ int main(int argc, char** argv) {
         else if (arg == "--sorted") input.sorted = true;
         else if (arg == "--decimal-comma") input.decimal = DecimalMark::comma;
         else if (arg == "--decimal-point") input.decimal = DecimalMark::point;
+        else if (arg == "--by" || arg == "--group-shape" || arg == "--against" || arg == "--adjust" || arg == "--q") {
+            if (i + 1 >= argc) return usage_error(arg + " needs a value");
+            const std::string val = argv[++i];
+            screening = true;
+            if (arg == "--by") {
+                if (val.empty()) return usage_error("--by needs a column name or number");
+                group_input.by = val;
+            } else if (arg == "--group-shape") {
+                GroupShape shape;
+                if (!group_shape_from_name(val, &shape)) return usage_error("--group-shape must be long, wide or raw");
+                group_input.shape = shape;
+            } else if (arg == "--against") {
+                if (!screen_against_from_name(val, &screen.against)) return usage_error("--against must be model or rest");
+            } else if (arg == "--adjust") {
+                if (!multiplicity_method_from_name(val == "bh" ? "BH" : val, &screen.adjust))
+                    return usage_error("--adjust must be bh, holm, bonferroni or none");
+            } else {
+                double q = 0;
+                if (!to_number(val, &q) || !(q > 0 && q < 1)) return usage_error("--q must be a number between 0 and 1");
+                screen.q = q;
+            }
+        }
         else if (arg == "--digits" || arg == "--bins" || arg == "--shape") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             const std::string val = argv[++i];
@@ -227,8 +269,36 @@ int main(int argc, char** argv) {
     Result result;
     const std::size_t first = text.find_first_not_of(" \t\r\n\xEF\xBB\xBF");
     Status read;
+    GroupedCounts groups;
     if (first != std::string::npos && text[first] == '{') {
         read = read_analysis_document(text, &analysis);
+        bool document_screen = false;
+        ScreenChoice from_document;
+        if (read.ok) read = read_screen_document(text, &groups, &from_document, &document_screen);
+        if (document_screen) {
+            // Options given on the command line override the document's screen settings.
+            ScreenChoice chosen = from_document;
+            for (int i = 1; i + 1 < argc; ++i) {
+                const std::string arg = argv[i];
+                if (arg == "--against") chosen.against = screen.against;
+                else if (arg == "--adjust") chosen.adjust = screen.adjust;
+                else if (arg == "--q") chosen.q = screen.q;
+            }
+            screen = chosen;
+            screening = true;
+        }
+    } else if (screening) {
+        group_input.parse = input;
+        groups = read_grouped_text(text, group_input);
+        read = groups.status;
+        ParsedInput shared;  // what the groups share: categories, order, digit law, bin edges
+        shared.categories = groups.categories;
+        shared.ordered = groups.ordered;
+        shared.digit_test = groups.digit_test;
+        shared.edges = groups.edges;
+        apply_pasted_input(shared, &analysis);
+        if (!json && read.ok)
+            for (const auto& note : groups.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
     } else {
         if (input.bins.kind == BinChoice::Kind::equal_probability) {
             // The bins are placed under the model of --model, with the parameters of --param.
@@ -306,6 +376,19 @@ int main(int argc, char** argv) {
         }
     }
 
+    if (screening) {
+        ScreenResult s;
+        if (!read.ok) s.status = read;
+        else s = screen_groups(analysis, groups, screen);
+        if (json) std::printf("%s\n", screen_json(analysis, groups, s).c_str());
+        else if (s.status.ok && !table_format.empty())
+            std::fputs(group_table(s, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
+                                                         out_decimal_comma, false}).c_str(), stdout);
+        else if (s.status.ok && !writeup_style.empty()) std::fputs(screen_writeup(s).c_str(), stdout);
+        else if (s.status.ok) std::fputs(screen_report_text(s).c_str(), stdout);
+        else std::fprintf(stderr, "tallyproof: %s\n", s.status.message.c_str());
+        return s.status.ok ? 0 : 1;
+    }
     if (!read.ok) result.status = read;
     else result = analyse_completely(analysis);
     if (json) std::printf("%s\n", report_json(analysis, result).c_str());

@@ -26,6 +26,8 @@ else
 fi
 echo "== one million raw values, whole process, beside R and NumPy/SciPy"
 /usr/bin/python3 "$top/tests/bench/parse_reference.py" "$dir/shell/tallyproof" | tee "$out/parse_reference.txt"
+echo "== screening 10,000 groups, whole process, beside NumPy/SciPy/statsmodels"
+/usr/bin/python3 "$top/tests/bench/screen_reference.py" "$dir/shell/tallyproof" | tee "$out/screen_reference.txt"
 # The page, when it has been built (./.ci/build) and the browser tests' packages are installed.
 if [ -f "$top/dist/tallyproof.html" ] && [ -d "$top/tests/browser/node_modules/playwright-core" ]; then
     echo "== the page in headless Chromium"

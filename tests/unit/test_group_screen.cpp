@@ -1,0 +1,305 @@
+// Screening many groups: per-group statistics and p against SciPy chisquare, q-values against
+// statsmodels multipletests and R p.adjust, against-the-rest against SciPy chi2_contingency
+// (tests/reference/group_screen.csv, made by tests/reference/generate_group_screen.py); the
+// grouped-table readers (long, wide, raw) and their refusals; thin groups and drivers.
+#include <doctest/doctest.h>
+
+#include "reference_csv.hpp"
+
+#include <cmath>
+#include <map>
+
+#include "goodness_of_fit.hpp"
+#include "group_screen.hpp"
+#include "grouped_table.hpp"
+#include "pvalue_job.hpp"
+#include "screen_document.hpp"
+#include "screen_report.hpp"
+
+using namespace tallyproof;
+
+namespace {
+
+bool near_rel(double a, double b, double rel) { return std::fabs(a - b) <= rel * std::fabs(b); }
+
+struct RefGroup {
+    std::string name;
+    std::vector<double> counts, shares;
+    double statistic, df, p, bh_sm, holm_sm, bh_r, holm_r;
+};
+
+}  // namespace
+
+TEST_CASE("screen against SciPy chisquare / chi2_contingency, statsmodels multipletests and R p.adjust") {
+    std::map<std::pair<std::string, std::string>, std::vector<RefGroup>> cases;
+    for (const auto& f : tallyproof_test::reference_rows("group_screen.csv")) {
+        REQUIRE(f.size() == 12);
+        cases[{f[0], f[1]}].push_back(RefGroup{f[2], tallyproof_test::split_numbers(f[3]), tallyproof_test::split_numbers(f[4]),
+                                               std::stod(f[5]), std::stod(f[6]), std::stod(f[7]), std::stod(f[8]),
+                                               std::stod(f[9]), std::stod(f[10]), std::stod(f[11])});
+    }
+    REQUIRE(cases.size() == 6);
+    std::size_t checked = 0;
+    for (const auto& [key, rows] : cases) {
+        CAPTURE(key.first);
+        CAPTURE(key.second);
+        GroupedCounts counts;
+        for (std::size_t i = 0; i < rows[0].counts.size(); ++i) counts.categories.push_back("C" + std::to_string(i + 1));
+        for (const auto& r : rows) {
+            counts.groups.push_back(r.name);
+            counts.group_lines.push_back(0);
+            counts.counts.insert(counts.counts.end(), r.counts.begin(), r.counts.end());
+        }
+        Analysis base;
+        base.model.kind = ModelKind::shares;
+        base.model.values = rows[0].shares;
+        for (MultiplicityMethod m : {MultiplicityMethod::benjamini_hochberg, MultiplicityMethod::holm}) {
+            ScreenChoice choice;
+            choice.against = key.second == "rest" ? ScreenAgainst::rest : ScreenAgainst::model;
+            choice.adjust = m;
+            const ScreenResult s = screen_groups(base, counts, choice);
+            REQUIRE(s.status.ok);
+            REQUIRE(s.groups.size() == rows.size());
+            for (std::size_t g = 0; g < rows.size(); ++g) {
+                CAPTURE(rows[g].name);
+                const GroupRow& row = s.groups[g];
+                REQUIRE(row.tested);
+                CHECK(near_rel(row.statistic, rows[g].statistic, 1e-12));  // SciPy 1.10
+                CHECK(row.df == rows[g].df);
+                CHECK(near_rel(row.p.p, rows[g].p, 1e-10));                // SciPy 1.10 (chi2.sf)
+                const bool bh = m == MultiplicityMethod::benjamini_hochberg;
+                CHECK(near_rel(row.q.p, bh ? rows[g].bh_sm : rows[g].holm_sm, 1e-10));  // statsmodels 0.13
+                CHECK(near_rel(row.q.p, bh ? rows[g].bh_r : rows[g].holm_r, 1e-10));    // R 4.2 p.adjust
+                CHECK(row.flagged == (row.q.p <= 0.05));
+                ++checked;
+            }
+        }
+    }
+    CHECK(checked == 2 * 2 * (12 + 20 + 30));
+}
+
+TEST_CASE("the quick per-group test gives the single analysis's numbers") {
+    // Counts of no source: any fixed counts do, the check is screen == analyse().
+    GroupedCounts counts;
+    counts.categories = {"1", "2", "3", "4", "5", "6", "7", "8", "9"};
+    const std::vector<std::vector<double>> rows = {{30, 18, 12, 10, 8, 7, 6, 5, 4}, {20, 20, 20, 10, 10, 5, 5, 5, 5},
+                                                   {60, 35, 25, 19, 16, 13, 11, 10, 9}, {9, 9, 9, 9, 9, 9, 9, 9, 9}};
+    for (std::size_t g = 0; g < rows.size(); ++g) {
+        counts.groups.push_back("supplier " + std::to_string(g));
+        counts.counts.insert(counts.counts.end(), rows[g].begin(), rows[g].end());
+    }
+    Analysis base;
+    base.model.kind = ModelKind::benford_first;
+    for (double lambda : {1.0, 0.0, 2.0 / 3.0}) {
+        base.statistic.lambda = lambda;
+        const ScreenResult s = screen_groups(base, counts, ScreenChoice{});
+        REQUIRE(s.status.ok);
+        for (std::size_t g = 0; g < rows.size(); ++g) {
+            Analysis a = base;
+            a.categories = counts.categories;
+            a.observed = rows[g];
+            const Result r = analyse_completely(a);
+            REQUIRE(r.status.ok);
+            CHECK(s.groups[g].statistic == r.statistic);
+            CHECK(s.groups[g].df == r.df);
+            CHECK(s.groups[g].w == r.effect.w);
+            CHECK(s.groups[g].mad == r.digits.mad);
+            CHECK(s.groups[g].band == r.digits.band);
+            CHECK(s.groups[g].thin == !r.validity.cochran_holds);
+            if (!s.groups[g].thin) CHECK(s.groups[g].p.log10_p == r.upper.log10_p);
+        }
+    }
+}
+
+TEST_CASE("a thin group gets an exact p-value, never a silent asymptotic one") {
+    GroupedCounts counts;
+    counts.categories = {"A", "B", "C"};
+    counts.groups = {"big", "thin"};
+    counts.counts = {40, 35, 45, 4, 0, 1};
+    Analysis base;  // equal shares
+    const ScreenResult s = screen_groups(base, counts, ScreenChoice{});
+    REQUIRE(s.status.ok);
+    CHECK_FALSE(s.groups[0].thin);
+    REQUIRE(s.groups[1].thin);
+    CHECK(s.groups[1].method == PValueMethod::exact);
+    CHECK(s.thin == 1);
+    // The exact multinomial p of (4, 0, 1) under equal shares, as the single analysis gives it.
+    Analysis a;
+    a.categories = counts.categories;
+    a.observed = {4, 0, 1};
+    a.pvalue.method = PValueMethod::exact;
+    const Result r = analyse_completely(a);
+    CHECK(s.groups[1].p.p == r.p.p);
+    CHECK(s.groups[1].note.find("exact") != std::string::npos);
+}
+
+TEST_CASE("flagged groups name their drivers; a group of zero total is listed, not tested") {
+    GroupedCounts counts;
+    counts.categories = {"0", "1", "2", "3", "4", "5", "6", "7", "8", "9"};
+    counts.groups = {"R1", "R2", "R3", "R4"};
+    counts.counts = {10, 11, 9, 10, 10, 10, 11, 9, 10, 10,  //
+                     40, 5, 5, 5, 5, 40, 5, 5, 5, 5,        //
+                     0, 0, 0, 0, 0, 0, 0, 0, 0, 0,          //
+                     12, 9, 10, 11, 8, 10, 10, 9, 11, 10};
+    counts.group_lines = {2, 12, 22, 32};
+    Analysis base;
+    base.model.kind = ModelKind::last_digit;
+    const ScreenResult s = screen_groups(base, counts, ScreenChoice{});
+    REQUIRE(s.status.ok);
+    CHECK(s.tested == 3);
+    CHECK(s.flagged == 1);
+    CHECK(s.groups[1].flagged);
+    REQUIRE(s.groups[1].drivers.size() >= 2);
+    CHECK(s.groups[1].drivers[0].category == "0");
+    CHECK(s.groups[1].drivers[0].direction == "more than expected");
+    CHECK_FALSE(s.groups[2].tested);
+    REQUIRE(!s.notes.empty());
+    CHECK(s.notes[0].find("\"R3\" (line 22)") != std::string::npos);
+    const std::string summary = screen_summary(s);
+    CHECK(summary.find("1 of 4 groups departs from") != std::string::npos);
+    CHECK(summary.find("false discovery rate of 5% (1 not tested): R2 (q = ") != std::string::npos);
+    // Against the rest: the same flagged group, with drivers from the adjusted residuals.
+    ScreenChoice rest;
+    rest.against = ScreenAgainst::rest;
+    const ScreenResult r = screen_groups(base, counts, rest);
+    REQUIRE(r.status.ok);
+    CHECK(r.groups[1].flagged);
+    CHECK_FALSE(r.groups[1].drivers.empty());
+    CHECK(r.groups[1].df == 9);
+}
+
+TEST_CASE("a fitted model is fitted to each group on its own") {
+    GroupedCounts counts;
+    counts.categories = {"0", "1", "2", "3"};
+    counts.groups = {"A", "B"};
+    counts.counts = {50, 30, 15, 5, 20, 40, 30, 10};
+    Analysis base;
+    base.model.kind = ModelKind::poisson;
+    base.ordered = true;
+    const ScreenResult s = screen_groups(base, counts, ScreenChoice{});
+    REQUIRE(s.status.ok);
+    CHECK(s.model_description == "Poisson (parameters estimated per group)");
+    Analysis b = base;
+    b.categories = counts.categories;
+    b.observed = {20, 40, 30, 10};
+    const Result r = analyse(b);  // B alone: its own mean, df = 4 - 1 - 1
+    REQUIRE(r.status.ok);
+    CHECK(s.groups[1].statistic == r.statistic);
+    CHECK(s.groups[1].df == 2);
+}
+
+TEST_CASE("long, wide and raw tables with a group column give the same counts") {
+    const std::string long_text = "reader,digit,count\nAnn,0,3\nAnn,1,1\nBob,0,2\nBob,1,4\nCy,1,5\n";
+    const std::string wide_text = "reader\t0\t1\nAnn\t3\t1\nBob\t2\t4\nCy\t0\t5\n";
+    const std::string raw_text = "reader;digit\nAnn;0\nAnn;0\nBob;1\nAnn;1\nAnn;0\nBob;0\nBob;1\nBob;0\nBob;1\nBob;1\n"
+                                 "Cy;1\nCy;1\nCy;1\nCy;1\nCy;1\n";
+    const std::vector<double> want = {3, 1, 2, 4, 0, 5};
+    GroupReadOptions by;
+    by.by = "reader";
+    const GroupedCounts l = read_grouped_text(long_text, by), w = read_grouped_text(wide_text, by), r = read_grouped_text(raw_text, by);
+    REQUIRE(l.status.ok);
+    REQUIRE(w.status.ok);
+    REQUIRE(r.status.ok);
+    CHECK(l.shape == GroupShape::long_table);
+    CHECK(w.shape == GroupShape::wide_table);
+    CHECK(r.shape == GroupShape::raw_values);
+    for (const GroupedCounts* g : {&l, &w, &r}) {
+        CHECK(g->groups == std::vector<std::string>{"Ann", "Bob", "Cy"});
+        CHECK(g->categories == std::vector<std::string>{"0", "1"});
+        CHECK(g->counts == want);
+    }
+    bool said_zero = false;
+    for (const auto& n : l.notes) said_zero = said_zero || n.find("1 combinations of group and category do not appear") != std::string::npos;
+    CHECK(said_zero);
+    // Detected without --by: column 1, as the notes say.
+    const GroupedCounts d = read_grouped_text(long_text);
+    REQUIRE(d.status.ok);
+    CHECK(d.group_column == 1);
+    CHECK(d.notes[0].find("detected") != std::string::npos);
+    // The group column by number: column 2 holds the groups here.
+    GroupReadOptions second;
+    second.by = "2";
+    const GroupedCounts n = read_grouped_text("A\tAnn\t3\nB\tAnn\t1\nA\tBob\t2\nB\tBob\t4\n", second);
+    REQUIRE(n.status.ok);
+    CHECK(n.groups == std::vector<std::string>{"Ann", "Bob"});
+    CHECK(n.counts == std::vector<double>{3, 1, 2, 4});
+    // Raw digits per group: the last digit of each value.
+    GroupReadOptions digits;
+    digits.parse.digits = DigitTest::first;
+    const GroupedCounts fd = read_grouped_text("Ann\t123\nAnn\t45\nBob\t19\nBob\t2000\nBob\t9.5\n", digits);
+    REQUIRE(fd.status.ok);
+    CHECK(fd.categories.size() == 9);
+    CHECK(fd.count(0, 0) == 1);  // Ann: 1
+    CHECK(fd.count(0, 3) == 1);  // Ann: 4
+    CHECK(fd.count(1, 0) == 1);  // Bob: 1
+    CHECK(fd.count(1, 1) == 1);  // Bob: 2
+    CHECK(fd.count(1, 8) == 1);  // Bob: 9
+}
+
+TEST_CASE("grouped tables: refusals name the line and the group") {
+    GroupedCounts g = read_grouped_text("Ann\tA\t3\nAnn\tB\t1\n\tB\t1\nBob\tA\t2\n");
+    CHECK_FALSE(g.status.ok);
+    CHECK(g.status.line == 3);
+    CHECK(g.status.message.find("group cell is empty") != std::string::npos);
+    g = read_grouped_text("Ann\tA\t3\nAnn\tB\t1\n");
+    CHECK_FALSE(g.status.ok);
+    CHECK(g.status.message.find("Only one group (\"Ann\")") != std::string::npos);
+    g = read_grouped_text("Ann\tA\t3\nBob\tA\tmany\nBob\tB\t1\n");
+    CHECK_FALSE(g.status.ok);
+    CHECK(g.status.line == 2);
+    CHECK(g.status.message.find("\"many\" is not a count") != std::string::npos);
+    g = read_grouped_text("who\tA\tB\nAnn\t1\t2\nBob\t3\t4\nAnn\t5\t6\n");  // a repeated group: read as a long table
+    CHECK(g.shape == GroupShape::long_table);
+    GroupReadOptions wide;
+    wide.shape = GroupShape::wide_table;
+    g = read_grouped_text("who\tA\tB\nAnn\t1\t2\nBob\t3\t4\nAnn\t5\t6\n", wide);
+    CHECK_FALSE(g.status.ok);
+    CHECK(g.status.line == 4);
+    CHECK(g.status.message.find("appears again (first on line 2)") != std::string::npos);
+    GroupReadOptions by;
+    by.by = "supplier";
+    g = read_grouped_text("reader\tdigit\tcount\nAnn\t0\t1\nBob\t0\t2\n", by);
+    CHECK_FALSE(g.status.ok);
+    CHECK(g.status.message.find("No column is named \"supplier\"") != std::string::npos);
+    by.by = "7";
+    g = read_grouped_text("reader\tdigit\tcount\nAnn\t0\t1\nBob\t0\t2\n", by);
+    CHECK_FALSE(g.status.ok);
+    CHECK(g.status.message.find("has 3 columns") != std::string::npos);
+    // A long table whose groups each have one line is still long: text beside the group names.
+    g = read_grouped_text("g;c;n\na;x;1\nb;y;2\n");
+    CHECK(g.shape == GroupShape::long_table);
+    // Raw values: a refused value is named by its line and column in the pasted table.
+    GroupReadOptions bins;
+    bins.parse.bins.kind = BinChoice::Kind::edges;
+    bins.parse.bins.edges = {0, 20, 40};
+    g = read_grouped_text("g\tv\na\t12\na\tabc\nb\t15\nb\t33\n", bins);
+    CHECK_FALSE(g.status.ok);
+    CHECK(g.status.line == 3);
+    CHECK(g.status.column == 2);
+    CHECK(g.status.message.rfind("Line 3, column 2: \"abc\"", 0) == 0);
+    ScreenChoice bad;
+    bad.q = 1.5;
+    GroupedCounts two = read_grouped_text("Ann\tA\t3\nAnn\tB\t1\nBob\tA\t2\nBob\tB\t2\n");
+    REQUIRE(two.status.ok);
+    CHECK_FALSE(screen_groups(Analysis{}, two, bad).status.ok);
+}
+
+TEST_CASE("the screening document: groups and screen members") {
+    const char* doc = R"({"format": "tallyproof/1", "categories": ["A", "B"], "model": {"kind": "equal"},
+        "groups": [{"name": "x", "observed": [10, 12]}, {"name": "y", "observed": [30, 2]}],
+        "screen": {"against": "rest", "adjust": "holm", "q": 0.1}})";
+    GroupedCounts counts;
+    ScreenChoice choice;
+    bool is_screen = false;
+    REQUIRE(read_screen_document(doc, &counts, &choice, &is_screen).ok);
+    CHECK(is_screen);
+    CHECK(counts.groups == std::vector<std::string>{"x", "y"});
+    CHECK(counts.counts == std::vector<double>{10, 12, 30, 2});
+    CHECK(choice.against == ScreenAgainst::rest);
+    CHECK(choice.adjust == MultiplicityMethod::holm);
+    CHECK(choice.q == 0.1);
+    const char* bad = R"({"categories": ["A", "B"], "groups": [{"name": "x", "observed": [10]}, {"name": "y", "observed": [1, 2]}]})";
+    const Status s = read_screen_document(bad, &counts, &choice, &is_screen);
+    CHECK_FALSE(s.ok);
+    CHECK(s.message.find("groups[0].observed has 1 counts but there are 2 categories") != std::string::npos);
+}
