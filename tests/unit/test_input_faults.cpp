@@ -4,6 +4,7 @@
 // Unicode byte-order marks of UTF-8 and UTF-16, the published file signatures of PNG, PDF, zip).
 #include <doctest/doctest.h>
 
+#include "json_reader.hpp"
 #include "number_reading.hpp"
 #include "paste_parser.hpp"
 
@@ -39,4 +40,22 @@ TEST_CASE("unusable numbers are recognised with either decimal mark") {
     const NumberReading r = read_number("1e400", DecimalMark::point);
     CHECK_FALSE(r.ok);
     CHECK(r.out_of_range);
+}
+
+TEST_CASE("a document with a duplicate key is refused, naming the key and where it stands") {
+    JsonValue v;
+    Status s = parse_json("{\"observed\":[3,5,2],\"alpha\":0.05,\"alpha\":0.9}", &v);
+    REQUIRE_FALSE(s.ok);
+    CHECK(s.message == "Not a valid document: the key \"alpha\" appears twice (line 1, column 34; first at line 1, "
+                       "column 21); keep one of them.");
+    s = parse_json("{\"model\":{\"kind\":\"shares\",\n\"kind\":\"equal\"}}", &v);
+    REQUIRE_FALSE(s.ok);
+    CHECK(s.message.find("\"kind\" appears twice (line 2, column 1; first at line 1, column 11)") != std::string::npos);
+    std::string big = "{";  // past the linear scan: the index finds it too
+    for (int i = 0; i < 40; ++i) big += "\"k" + std::to_string(i) + "\":" + std::to_string(i) + ",";
+    s = parse_json(big + "\"k7\":1}", &v);
+    REQUIRE_FALSE(s.ok);
+    CHECK(s.message.find("\"k7\" appears twice") != std::string::npos);
+    CHECK(parse_json(big + "\"k40\":1}", &v).ok);
+    CHECK(parse_json("{\"a\":{\"x\":1},\"b\":{\"x\":2}}", &v).ok);  // the same name in two objects is fine
 }
