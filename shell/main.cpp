@@ -16,6 +16,7 @@
 #include "pvalue_job.hpp"
 #include "report.hpp"
 #include "table_export.hpp"
+#include "text_decoding.hpp"
 #include "writeup.hpp"
 #include "tallyproof_version.hpp"
 
@@ -242,7 +243,13 @@ int main(int argc, char** argv) {
 
     Analysis analysis;
     Result result;
-    const std::size_t first = text.find_first_not_of(" \t\r\n\xEF\xBB\xBF");
+    const TextDecoding decoded = decode_text(&text);  // UTF-8 without a mark, or refused as not text
+    if (!decoded.status.ok) {
+        std::fprintf(stderr, "tallyproof: %s\n", decoded.status.message.c_str());
+        return kRefused;
+    }
+    if (!decoded.notice.empty() && !json) std::fprintf(stderr, "note: %s\n", decoded.notice.c_str());
+    const std::size_t first = text.find_first_not_of(" \t\r\n");
     Status read;
     if (first != std::string::npos && text[first] == '{') {
         read = read_analysis_document(text, &analysis);
