@@ -7,6 +7,8 @@
 #include <cstdlib>
 #include <unordered_map>
 
+#include "delimited_text.hpp"  // append_utf8
+
 namespace tallyproof {
 
 const JsonValue* JsonValue::find(std::string_view key) const {
@@ -148,18 +150,6 @@ private:
         }
     }
 
-    static void put_utf8(std::string* s, unsigned cp) {
-        if (cp < 0x80) *s += static_cast<char>(cp);
-        else if (cp < 0x800) { *s += static_cast<char>(0xC0 | (cp >> 6)); *s += static_cast<char>(0x80 | (cp & 0x3F)); }
-        else if (cp < 0x10000) {
-            *s += static_cast<char>(0xE0 | (cp >> 12)); *s += static_cast<char>(0x80 | ((cp >> 6) & 0x3F));
-            *s += static_cast<char>(0x80 | (cp & 0x3F));
-        } else {
-            *s += static_cast<char>(0xF0 | (cp >> 18)); *s += static_cast<char>(0x80 | ((cp >> 12) & 0x3F));
-            *s += static_cast<char>(0x80 | ((cp >> 6) & 0x3F)); *s += static_cast<char>(0x80 | (cp & 0x3F));
-        }
-    }
-
     bool hex4(unsigned* out) {
         if (pos_ + 4 > text_.size()) return fail_bool("short \\u escape");
         unsigned v = 0;
@@ -218,7 +208,7 @@ private:
                         } else if (cp >= 0xDC00 && cp <= 0xDFFF) {
                             return fail_bool("lone surrogate");
                         }
-                        put_utf8(s, cp);
+                        append_utf8(s, cp);
                         break;
                     }
                     default: return fail_bool("unknown escape");

@@ -8,23 +8,13 @@
 #include <cstdint>
 #include <string_view>
 
+#include "delimited_text.hpp"  // append_utf8
+
 namespace tallyproof {
 namespace {
 
 bool starts_with(std::string_view s, std::string_view p) { return s.size() >= p.size() && s.substr(0, p.size()) == p; }
 bool contains(std::string_view s, std::string_view p) { return s.find(p) != std::string_view::npos; }
-
-void put_utf8(std::string* s, std::uint32_t cp) {
-    if (cp < 0x80) *s += static_cast<char>(cp);
-    else if (cp < 0x800) { *s += static_cast<char>(0xC0 | (cp >> 6)); *s += static_cast<char>(0x80 | (cp & 0x3F)); }
-    else if (cp < 0x10000) {
-        *s += static_cast<char>(0xE0 | (cp >> 12)); *s += static_cast<char>(0x80 | ((cp >> 6) & 0x3F));
-        *s += static_cast<char>(0x80 | (cp & 0x3F));
-    } else {
-        *s += static_cast<char>(0xF0 | (cp >> 18)); *s += static_cast<char>(0x80 | ((cp >> 12) & 0x3F));
-        *s += static_cast<char>(0x80 | ((cp >> 6) & 0x3F)); *s += static_cast<char>(0x80 | (cp & 0x3F));
-    }
-}
 
 const char* const kTextAdvice = " Paste the counts as text (a label and a count on each line), or give a CSV or text file.";
 const char* const kWorkbookAdvice = " Save it as CSV (comma-separated values) or copy the cells and paste them as text.";
@@ -108,7 +98,7 @@ std::string from_utf16(std::string_view b, bool little_endian, std::size_t* bad)
             cp = 0xFFFD;
             ++*bad;
         }
-        put_utf8(&out, cp);
+        append_utf8(&out, cp);
     }
     return out;
 }
@@ -137,7 +127,7 @@ std::string from_windows1252(std::string_view s) {
     out.reserve(s.size() + s.size() / 4);
     for (char ch : s) {
         const auto c = static_cast<unsigned char>(ch);
-        put_utf8(&out, c >= 0x80 && c < 0xA0 ? k80[c - 0x80] : c);
+        append_utf8(&out, c >= 0x80 && c < 0xA0 ? k80[c - 0x80] : c);
     }
     return out;
 }

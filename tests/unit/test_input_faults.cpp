@@ -7,6 +7,7 @@
 #include "json_reader.hpp"
 #include "number_reading.hpp"
 #include "paste_parser.hpp"
+#include "text_decoding.hpp"
 
 using namespace tallyproof;
 
@@ -58,4 +59,50 @@ TEST_CASE("a document with a duplicate key is refused, naming the key and where 
     CHECK(s.message.find("\"k7\" appears twice") != std::string::npos);
     CHECK(parse_json(big + "\"k40\":1}", &v).ok);
     CHECK(parse_json("{\"a\":{\"x\":1},\"b\":{\"x\":2}}", &v).ok);  // the same name in two objects is fine
+}
+
+TEST_CASE("text decoding: UTF-8, UTF-16 with and without a mark, Windows-1252, binary refused") {
+    std::string b = "\xEF\xBB\xBF" "A\t3\n";
+    TextDecoding d = decode_text(&b);
+    CHECK(d.status.ok);
+    CHECK(d.encoding == TextEncoding::utf8_with_mark);
+    CHECK(b == "A\t3\n");
+    // "é😀\n" in UTF-16 LE with a mark: U+00E9, the pair D83D DE00, U+000A (Unicode 15 §3.9).
+    b = std::string("\xFF\xFE\xE9\x00\x3D\xD8\x00\xDE\x0A\x00", 10);
+    d = decode_text(&b);
+    CHECK(d.encoding == TextEncoding::utf16le);
+    CHECK(b == "\xC3\xA9\xF0\x9F\x98\x80\n");
+    b = std::string("\x00" "A\x00\t\x00" "3\x00\n", 8);  // big-endian, no mark: zeros on the even bytes
+    d = decode_text(&b);
+    CHECK(d.encoding == TextEncoding::utf16be);
+    CHECK(b == "A\t3\n");
+    CHECK(d.notice == "The text was read as UTF-16 big-endian (it has no byte-order mark).");
+    b = std::string("\xFF\xFE\x00\xD8" "A\x00", 6);  // an unpaired high surrogate
+    d = decode_text(&b);
+    CHECK(b == "\xEF\xBF\xBD" "A");
+    CHECK(d.notice.find("1 unpaired surrogate") != std::string::npos);
+    b = "caf\xE9 \x80\n";  // Windows-1252: é and the euro sign at 0x80 (WHATWG Encoding Standard)
+    d = decode_text(&b);
+    CHECK(d.encoding == TextEncoding::windows1252);
+    CHECK(b == "caf\xC3\xA9 \xE2\x82\xAC\n");
+    b = "{\"categories\":[\"caf\xE9\"]}";  // a JSON document must be UTF-8: left for its reader
+    d = decode_text(&b);
+    CHECK(d.encoding == TextEncoding::utf8);
+    CHECK(b == "{\"categories\":[\"caf\xE9\"]}");
+    b = "na\xC3\xAFve caf\xC3\xA9 \xFF\n";  // mostly UTF-8: the stray byte is left for the readers
+    d = decode_text(&b);
+    CHECK(d.encoding == TextEncoding::utf8);
+    CHECK(d.notice == "The text is UTF-8 but 1 byte is not; they are shown as \xEF\xBF\xBD.");
+    b = std::string("A\t3\nB\x00\t5\n", 9);
+    d = decode_text(&b);
+    REQUIRE_FALSE(d.status.ok);
+    CHECK(d.status.message.find("NUL byte (byte 6)") != std::string::npos);
+    b = "\x89PNG\r\n\x1A\n";
+    CHECK(decode_text(&b).status.message.rfind("This is not text: it looks like a PNG image.", 0) == 0);
+    b = "%PDF-1.7\n";
+    CHECK(decode_text(&b).status.message.find("a PDF document") != std::string::npos);
+    b = std::string("\xFF\xFE\x00\x00", 4);
+    CHECK(decode_text(&b).status.message.find("UTF-32") != std::string::npos);
+    b = "";
+    CHECK(decode_text(&b).status.ok);
 }
