@@ -43,6 +43,18 @@ export const tests = {
     });
   },
 
+  async 'a p below the double range is written a × 10^b in the report and the table'() {
+    await withPage({}, async (page) => {
+      await pasteText(page, 'A\t1000000000000\nB\t1\n');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).observed?.[1] === 1);
+      const report = await page.evaluate(() => document.getElementById('tp-results').textContent);
+      // log10 p = -217147240957.0725 (mpmath, erfc(sqrt(X²/2)) with X² = 999999999997)
+      assert(report.includes('p = 8.5 × 10⁻²¹⁷¹⁴⁷²⁴⁰⁹⁵⁸'), `report: ${report.slice(0, 300)}`);
+      const cells = await page.evaluate(() => Array.from(document.querySelectorAll('#tp-table tbody tr')).map((r) => r.cells[5].textContent));
+      assert(cells.length === 2 && cells.every((c) => /^[1-9]\.[0-9] × 10⁻[⁰¹²³⁴⁵⁶⁷⁸⁹]+$/.test(c)), `adjusted p cells: ${cells}`);
+    });
+  },
+
   async 'a dropped UTF-16 file reads as the UTF-8 text does'() {
     await withPage({}, async (page) => {
       const text = 'Größe S\t48\nGröße M\t35\nχ² 🍎\t17\n';
