@@ -86,6 +86,18 @@ bool valid_utf8(std::string_view s) {
     return true;
 }
 
+void append_utf8(std::string* s, std::uint32_t cp) {
+    if (cp < 0x80) *s += static_cast<char>(cp);
+    else if (cp < 0x800) { *s += static_cast<char>(0xC0 | (cp >> 6)); *s += static_cast<char>(0x80 | (cp & 0x3F)); }
+    else if (cp < 0x10000) {
+        *s += static_cast<char>(0xE0 | (cp >> 12)); *s += static_cast<char>(0x80 | ((cp >> 6) & 0x3F));
+        *s += static_cast<char>(0x80 | (cp & 0x3F));
+    } else {
+        *s += static_cast<char>(0xF0 | (cp >> 18)); *s += static_cast<char>(0x80 | ((cp >> 12) & 0x3F));
+        *s += static_cast<char>(0x80 | ((cp >> 6) & 0x3F)); *s += static_cast<char>(0x80 | (cp & 0x3F));
+    }
+}
+
 std::string utf8_or_replacement(std::string_view s) {
     std::string out;
     for (std::size_t i = 0; i < s.size();) {

@@ -4,6 +4,7 @@
 // mark is skipped. Streaming: one record at a time, memory proportional to one record.
 #pragma once
 #include <cstddef>
+#include <cstdint>
 #include <deque>
 #include <string>
 #include <string_view>
@@ -63,5 +64,8 @@ bool valid_utf8(std::string_view s);
 std::string utf8_or_replacement(std::string_view s);
 
 std::string_view skip_byte_order_mark(std::string_view text);
+
+// Appends code point `cp` (at most U+10FFFF, not a surrogate) as UTF-8.
+void append_utf8(std::string* s, std::uint32_t cp);
 
 }  // namespace tallyproof

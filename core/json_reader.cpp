@@ -5,6 +5,9 @@
 #include <cerrno>
 #include <cmath>
 #include <cstdlib>
+#include <unordered_map>
+
+#include "delimited_text.hpp"  // append_utf8
 
 namespace tallyproof {
 
@@ -72,23 +75,61 @@ private:
         ++pos_;
         skip_ws();
         if (pos_ < text_.size() && text_[pos_] == '}') { ++pos_; return true; }
+        std::vector<std::size_t> key_at;                        // offset of each member name
+        std::unordered_map<std::string, std::size_t> index;  // name -> member, for large objects
         for (;;) {
             skip_ws();
             if (pos_ >= text_.size() || text_[pos_] != '"') return fail_bool("expected a member name");
+            const std::size_t at = pos_;
             std::string key;
             if (!string(&key)) return false;
+            if (!unique_key(*v, key, at, &key_at, &index)) return false;
             skip_ws();
             if (pos_ >= text_.size() || text_[pos_] != ':') return fail_bool("expected ':'");
             ++pos_;
             skip_ws();
             if (!count_element()) return false;
             v->object.emplace_back(std::move(key), JsonValue{});
+            if (!index.empty()) index.emplace(v->object.back().first, v->object.size() - 1);
             if (!value(&v->object.back().second, depth)) return false;
             skip_ws();
             if (pos_ < text_.size() && text_[pos_] == ',') { ++pos_; continue; }
             if (pos_ < text_.size() && text_[pos_] == '}') { ++pos_; return true; }
             return fail_bool("expected ',' or '}'");
         }
+    }
+
+    // "line 3, column 5" of a byte offset (1-based; columns count bytes).
+    std::string where(std::size_t offset) const {
+        int line = 1;
+        std::size_t line_start = 0;
+        for (std::size_t i = 0; i < offset && i < text_.size(); ++i)
+            if (text_[i] == '\n') { ++line; line_start = i + 1; }
+        return "line " + std::to_string(line) + ", column " + std::to_string(offset - line_start + 1);
+    }
+
+    // Refuses a member name the object already has (RFC 8259 leaves the meaning open; readers
+    // differ on which value wins, so a hand-edited document is refused rather than guessed).
+    bool unique_key(const JsonValue& v, const std::string& key, std::size_t at, std::vector<std::size_t>* key_at,
+                    std::unordered_map<std::string, std::size_t>* index) {
+        std::size_t first = v.object.size();
+        if (v.object.size() < 16) {
+            for (std::size_t i = 0; i < v.object.size(); ++i)
+                if (v.object[i].first == key) { first = i; break; }
+        } else {
+            if (index->empty())
+                for (std::size_t i = 0; i < v.object.size(); ++i) index->emplace(v.object[i].first, i);
+            if (auto it = index->find(key); it != index->end()) first = it->second;
+        }
+        if (first < v.object.size()) {
+            std::string shown = key.substr(0, 40);
+            error_ = Status::failure("Not a valid document: the key \"" + shown + "\" appears twice (" + where(at) +
+                                         "; first at " + where((*key_at)[first]) + "); keep one of them.",
+                                     0, static_cast<int>(at + 1));
+            return false;
+        }
+        key_at->push_back(at);
+        return true;
     }
 
     bool array(JsonValue* v, int depth) {
@@ -106,18 +147,6 @@ private:
             if (pos_ < text_.size() && text_[pos_] == ',') { ++pos_; continue; }
             if (pos_ < text_.size() && text_[pos_] == ']') { ++pos_; return true; }
             return fail_bool("expected ',' or ']'");
-        }
-    }
-
-    static void put_utf8(std::string* s, unsigned cp) {
-        if (cp < 0x80) *s += static_cast<char>(cp);
-        else if (cp < 0x800) { *s += static_cast<char>(0xC0 | (cp >> 6)); *s += static_cast<char>(0x80 | (cp & 0x3F)); }
-        else if (cp < 0x10000) {
-            *s += static_cast<char>(0xE0 | (cp >> 12)); *s += static_cast<char>(0x80 | ((cp >> 6) & 0x3F));
-            *s += static_cast<char>(0x80 | (cp & 0x3F));
-        } else {
-            *s += static_cast<char>(0xF0 | (cp >> 18)); *s += static_cast<char>(0x80 | ((cp >> 12) & 0x3F));
-            *s += static_cast<char>(0x80 | ((cp >> 6) & 0x3F)); *s += static_cast<char>(0x80 | (cp & 0x3F));
         }
     }
 
@@ -179,7 +208,7 @@ private:
                         } else if (cp >= 0xDC00 && cp <= 0xDFFF) {
                             return fail_bool("lone surrogate");
                         }
-                        put_utf8(s, cp);
+                        append_utf8(s, cp);
                         break;
                     }
                     default: return fail_bool("unknown escape");

@@ -3,17 +3,43 @@
 // superscript exponents, mantissa and exponent taken from log10 so nothing underflows.
 #include "number_format.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
 namespace tallyproof {
 
-std::string superscript_exponent(int e) {
+std::string superscript_exponent(long long e) {
     static const char* digits[] = {"⁰", "¹", "²", "³", "⁴", "⁵", "⁶", "⁷", "⁸", "⁹"};
     std::string s = e < 0 ? "⁻" : "";
-    const std::string d = std::to_string(e < 0 ? -static_cast<long long>(e) : static_cast<long long>(e));
-    for (char c : d) s += digits[c - '0'];
+    const std::string d = std::to_string(e);
+    for (char c : d)
+        if (c != '-') s += digits[c - '0'];
     return s;
+}
+
+std::string format_power_of_ten(double log10x, int digits, ExponentStyle style) {
+    if (!std::isfinite(log10x)) return "n/a";
+    // |log10x| up to about 9e15 holds its integer part exactly, so floor() is the true exponent and
+    // log10x - e (exact by Sterbenz's lemma) the mantissa's log. The mantissa's relative error is
+    // ln 10 times the absolute error of log10x, taken as a few units in its last place.
+    const double e_floor = std::floor(log10x);
+    if (std::fabs(e_floor) > 9e15) return "n/a";
+    long long e = static_cast<long long>(e_floor);
+    const double spread = 2 * 2.302585092994046 * std::fabs(log10x) * 1.6e-15;
+    const int supported = spread > 0 ? static_cast<int>(std::floor(-std::log10(spread))) + 1 : digits;
+    digits = std::max(1, std::min(digits, supported));
+    double m = std::pow(10.0, log10x - e_floor);
+    const double scale = std::pow(10.0, digits - 1);
+    m = std::round(m * scale) / scale;
+    if (m >= 10) { m /= 10; ++e; }
+    char buf[64];
+    if (style == ExponentStyle::e_notation) {
+        std::snprintf(buf, sizeof buf, "%.*ge%lld", digits, m, e);
+        return buf;
+    }
+    std::snprintf(buf, sizeof buf, "%.*f", digits - 1, m);
+    return std::string(buf) + " × 10" + superscript_exponent(e);
 }
 
 std::string format_fixed(double x, int decimals) {
@@ -38,20 +64,6 @@ std::string format_plain(double x) {
     return buf;
 }
 
-namespace {
-// mantissa m in [1, 10) and exponent e of 10^log10x, rounded to `digits` significant digits.
-std::string scientific_from_log10(double log10x, int digits) {
-    int e = static_cast<int>(std::floor(log10x));
-    double m = std::pow(10.0, log10x - e);
-    const double scale = std::pow(10.0, digits - 1);
-    m = std::round(m * scale) / scale;
-    if (m >= 10) { m /= 10; ++e; }
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "%.*f", digits - 1, m);
-    return std::string(buf) + " × 10" + superscript_exponent(e);
-}
-}  // namespace
-
 std::string format_significant(double x, int digits) {
     if (!std::isfinite(x)) return "n/a";
     if (x == 0) return "0";
@@ -61,7 +73,7 @@ std::string format_significant(double x, int digits) {
         const int decimals = std::max(0, digits - 1 - mag);
         return format_fixed(x, decimals);
     }
-    return (x < 0 ? "-" : "") + scientific_from_log10(std::log10(ax), digits);
+    return (x < 0 ? "-" : "") + format_power_of_ten(std::log10(ax), digits);
 }
 
 std::string format_probability(const TailProbability& p) {
@@ -69,7 +81,7 @@ std::string format_probability(const TailProbability& p) {
     if (p.p >= 1) return "1";
     if (p.p > 0 && p.p >= 1e-3) return format_significant(p.p, 3);
     if (std::isinf(p.log10_p)) return "0";  // a true zero (lower tail at x = 0)
-    return scientific_from_log10(p.log10_p, p.log10_p < -300 ? 2 : 3);
+    return format_power_of_ten(p.log10_p, p.log10_p < -300 ? 2 : 3);
 }
 
 std::string format_p_report(const TailProbability& p) {

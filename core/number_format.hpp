@@ -13,6 +13,15 @@ std::string format_plain(double x);                       // shortest form: "0.0
 std::string format_significant(double x, int digits);     // "0.0431", "3.21 × 10⁻⁵"
 std::string format_probability(const TailProbability& p); // 3 significant digits at any size
 std::string format_p_report(const TailProbability& p);    // reporting style: "= .043", "< .001"
-std::string superscript_exponent(int e);                  // "⁻¹⁰⁸³"
+std::string superscript_exponent(long long e);            // "⁻¹⁰⁸³"
+
+// The one writer of a × 10^b: the positive number whose log10 is `log10x` (any finite value; p
+// below the double range is given only by its log10), to `digits` significant digits, fewer when
+// |log10x| is so large that the double holding it cannot give them (one digit from about 1e13 on).
+enum class ExponentStyle {
+    superscript,  // "3.21 × 10⁻⁵" for people
+    e_notation,   // "3.21e-5" for spreadsheets and programs (trailing zeros dropped)
+};
+std::string format_power_of_ten(double log10x, int digits, ExponentStyle style = ExponentStyle::superscript);
 
 }  // namespace tallyproof

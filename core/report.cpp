@@ -181,8 +181,9 @@ std::string report_json(const Analysis& a, const Result& r) {
     j.key("tested_expected").numbers(r.tested_expected);
     j.key("contributions").numbers(r.contributions);
     std::vector<double> pres, ares, cp, cpa, sh;
-    std::vector<std::string> dirs;
+    std::vector<std::string> dirs, cpa_text;
     for (const auto& d : r.diagnostics.categories) {
+        cpa_text.push_back(format_probability(d.adjusted));
         pres.push_back(d.pearson_residual);
         ares.push_back(d.adjusted_residual);
         cp.push_back(d.binomial.p);
@@ -194,6 +195,7 @@ std::string report_json(const Analysis& a, const Result& r) {
     j.key("adjusted_residuals").numbers(ares);
     j.key("category_p_values").numbers(cp);
     j.key("category_p_adjusted").numbers(cpa);
+    j.key("category_p_adjusted_text").strings(cpa_text);
     j.key("contribution_shares").numbers(sh);
     j.key("directions").strings(dirs);
     j.key("p_adjustment").value(multiplicity_method_name(r.diagnostics.adjustment));

@@ -59,12 +59,7 @@ TableCell probability_cell(const TailProbability& p) {
     if (std::isnan(p.p)) return TableCell{true, ""};
     if (p.p > 0 || std::isinf(p.log10_p) || std::isnan(p.log10_p)) return number_cell(p.p, 4);
     // Below the double range: mantissa and exponent from log10, so it is never written as 0.
-    int e = static_cast<int>(std::floor(p.log10_p));
-    double m = std::round(std::pow(10.0, p.log10_p - e) * 100) / 100;
-    if (m >= 10) { m /= 10; ++e; }
-    char buf[48];
-    std::snprintf(buf, sizeof buf, "%.3ge%d", m, e);
-    return TableCell{true, buf};
+    return TableCell{true, format_power_of_ten(p.log10_p, 3, ExponentStyle::e_notation)};
 }
 
 char table_separator(const TableExportOptions& o) {

@@ -1,9 +1,11 @@
 // tallyproof: command-line front end. Parses arguments, reads pasted text or an analysis
 // document from a file or stdin, and prints what core/ returns (plain text, or JSON).
 #include <algorithm>
+#include <cerrno>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
+#include <cstring>
 #include <string>
 #include <utility>
 #include <vector>
@@ -18,6 +20,7 @@
 #include "screen_document.hpp"
 #include "screen_report.hpp"
 #include "table_export.hpp"
+#include "text_decoding.hpp"
 #include "writeup.hpp"
 #include "tallyproof_version.hpp"
 
@@ -98,11 +101,33 @@ const char* kUsage =
     "other:\n"
     "  --version, --help\n"
     "\n"
-    "exit status: 0 analysed, 1 input refused, 2 usage error\n";
+    "exit status: 0 analysed, 1 input refused, 2 usage error or input that cannot be read,\n"
+    "             3 output that could not be written (a full disk, a closed output)\n";
+
+constexpr int kRefused = 1, kUsageError = 2, kCannotRead = 2, kCannotWrite = 3;
 
 int usage_error(const std::string& msg) {
     std::fprintf(stderr, "tallyproof: %s\n(see tallyproof --help)\n", msg.c_str());
-    return 2;
+    return kUsageError;
+}
+
+int cannot_read(const std::string& what, int error) {
+    std::fprintf(stderr, "tallyproof: cannot read %s: %s\n", what.c_str(), std::strerror(error));
+    return kCannotRead;
+}
+
+// Writes `text` to standard output and makes sure it arrived: the stream's error state after
+// the write, a flush and closing it (a full disk or a closed descriptor shows only there).
+int write_output(const std::string& text, const char* what) {
+    errno = 0;
+    const bool written = std::fwrite(text.data(), 1, text.size(), stdout) == text.size();
+    const bool flushed = written && std::fflush(stdout) == 0 && !std::ferror(stdout);
+    const int error = errno;
+    const bool closed = std::fclose(stdout) == 0;
+    if (written && flushed && closed) return 0;
+    std::fprintf(stderr, "tallyproof: could not write %s to standard output: %s\n", what,
+                 std::strerror(error != 0 ? error : errno != 0 ? errno : EIO));
+    return kCannotWrite;
 }
 
 bool to_number(const std::string& s, double* v) {
@@ -139,8 +164,10 @@ bool to_list(const std::string& s, std::vector<double>* out) {
 }
 
 // Reads the whole of `in` into `text`: straight into one buffer of the file's size when it has
-// one, so a large paste is not copied through streams; in chunks from pipes.
-void read_all(std::FILE* in, std::string* text) {
+// one, so a large paste is not copied through streams; in chunks from pipes. Returns 0, or the
+// error number when the stream could not be read (a directory, a device, a vanished file).
+int read_all(std::FILE* in, std::string* text) {
+    errno = 0;
     const long at = std::ftell(in);  // -1 for pipes
     if (at >= 0 && std::fseek(in, 0, SEEK_END) == 0) {  // a directory may claim any size: only plausible ones
         const long size = std::ftell(in) - at;
@@ -151,6 +178,7 @@ void read_all(std::FILE* in, std::string* text) {
     }
     char chunk[65536];
     for (std::size_t got; (got = std::fread(chunk, 1, sizeof chunk, in)) > 0;) text->append(chunk, got);
+    return std::ferror(in) ? (errno != 0 ? errno : EIO) : 0;
 }
 
 }  // namespace
@@ -183,8 +211,8 @@ int main(int argc, char** argv) {
             if (arg == "--writeup" && v != "plain" && v != "markdown" && v != "tsv") return usage_error("--writeup must be plain, markdown or tsv");
             (arg == "--table" ? table_format : writeup_style) = v;
         } else if (arg == "--output-decimal-comma") out_decimal_comma = true;
-        else if (arg == "--version") { std::printf("tallyproof %s\n", TALLYPROOF_VERSION); return 0; }
-        else if (arg == "--help" || arg == "-h") { std::fputs(kUsage, stdout); return 0; }
+        else if (arg == "--version") return write_output(std::string("tallyproof ") + TALLYPROOF_VERSION + "\n", "the version");
+        else if (arg == "--help" || arg == "-h") return write_output(kUsage, "the help text");
         else if (arg == "--ordered" || arg == "--williams") opts.emplace_back(arg, "");
         else if (arg == "--raw") input.raw = true;
         else if (arg == "--case-fold") input.case_fold = true;
@@ -257,17 +285,24 @@ int main(int argc, char** argv) {
 
     std::string text;
     if (path.empty() || path == "-") {
-        read_all(stdin, &text);
+        if (const int error = read_all(stdin, &text)) return cannot_read("standard input", error);
     } else {
         std::FILE* in = std::fopen(path.c_str(), "rb");
-        if (in == nullptr) return usage_error("cannot read " + path);
-        read_all(in, &text);
+        if (in == nullptr) return cannot_read(path, errno);
+        const int error = read_all(in, &text);
         std::fclose(in);
+        if (error != 0) return cannot_read(path, error);
     }
 
     Analysis analysis;
     Result result;
-    const std::size_t first = text.find_first_not_of(" \t\r\n\xEF\xBB\xBF");
+    const TextDecoding decoded = decode_text(&text);  // UTF-8 without a mark, or refused as not text
+    if (!decoded.status.ok) {
+        std::fprintf(stderr, "tallyproof: %s\n", decoded.status.message.c_str());
+        return kRefused;
+    }
+    if (!decoded.notice.empty() && !json) std::fprintf(stderr, "note: %s\n", decoded.notice.c_str());
+    const std::size_t first = text.find_first_not_of(" \t\r\n");
     Status read;
     GroupedCounts groups;
     if (first != std::string::npos && text[first] == '{') {
@@ -380,27 +415,33 @@ int main(int argc, char** argv) {
         ScreenResult s;
         if (!read.ok) s.status = read;
         else s = screen_groups(analysis, groups, screen);
-        if (json) std::printf("%s\n", screen_json(analysis, groups, s).c_str());
+        int screen_written = 0;
+        if (json) screen_written = write_output(screen_json(analysis, groups, s) + "\n", "the result document (--json)");
         else if (s.status.ok && !table_format.empty())
-            std::fputs(group_table(s, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
-                                                         out_decimal_comma, false}).c_str(), stdout);
-        else if (s.status.ok && !writeup_style.empty()) std::fputs(screen_writeup(s).c_str(), stdout);
-        else if (s.status.ok) std::fputs(screen_report_text(s).c_str(), stdout);
+            screen_written = write_output(group_table(s, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
+                                                                            out_decimal_comma, byte_order_mark}),
+                                          table_format == "csv" ? "the groups table (--table csv)" : "the groups table (--table tsv)");
+        else if (s.status.ok && !writeup_style.empty()) screen_written = write_output(screen_writeup(s), "the screening write-up (--writeup)");
+        else if (s.status.ok) screen_written = write_output(screen_report_text(s), "the screening report");
         else std::fprintf(stderr, "tallyproof: %s\n", s.status.message.c_str());
-        return s.status.ok ? 0 : 1;
+        if (screen_written != 0) return screen_written;
+        return s.status.ok ? 0 : kRefused;
     }
     if (!read.ok) result.status = read;
     else result = analyse_completely(analysis);
-    if (json) std::printf("%s\n", report_json(analysis, result).c_str());
+    int written = 0;
+    if (json) written = write_output(report_json(analysis, result) + "\n", "the result document (--json)");
     else if (result.status.ok && !table_format.empty())
-        std::fputs(category_table(result, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
-                                                             out_decimal_comma, byte_order_mark}).c_str(), stdout);
+        written = write_output(category_table(result, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
+                                                                         out_decimal_comma, byte_order_mark}),
+                               table_format == "csv" ? "the table (--table csv)" : "the table (--table tsv)");
     else if (result.status.ok && !writeup_style.empty()) {
         WriteupOptions o;
         o.style = writeup_style == "markdown" ? WriteupStyle::markdown : writeup_style == "tsv" ? WriteupStyle::tsv : WriteupStyle::plain;
         o.decimal_comma = out_decimal_comma;
-        std::fputs(writeup(analysis, result, o).c_str(), stdout);
-    } else if (result.status.ok) std::fputs(report_text(analysis, result).c_str(), stdout);
+        written = write_output(writeup(analysis, result, o), ("the write-up (--writeup " + writeup_style + ")").c_str());
+    } else if (result.status.ok) written = write_output(report_text(analysis, result), "the report");
     else std::fprintf(stderr, "tallyproof: %s\n", result.status.message.c_str());
-    return result.status.ok ? 0 : 1;
+    if (written != 0) return written;
+    return result.status.ok ? 0 : kRefused;
 }

@@ -13,6 +13,7 @@
 #include "json_writer.hpp"
 #include "label_text.hpp"
 #include "share_link.hpp"
+#include "text_decoding.hpp"
 #include "table_export.hpp"
 #include "demo_library.hpp"
 #include "goodness_of_fit.hpp"
@@ -358,6 +359,18 @@ void apply_paste(AppState& s, std::string_view text) {
     if (first != std::string_view::npos && text[first] == '{') { open_document(s, text); return; }
     s.bin_editor.edges.clear();  // edges typed for other data
     read_paste(s, text, ParseOptions{});
+}
+
+void apply_input(AppState& s, std::string bytes, std::string_view file_name) {
+    const TextDecoding d = decode_text(&bytes);
+    if (!d.status.ok) {
+        const std::string who = file_name.empty() ? std::string() : std::string(file_name.substr(0, 80)) + ": ";
+        // A pasted text stays editable; a binary file's bytes are not worth editing.
+        record_refusal(s, file_name.empty() ? std::string_view(bytes) : std::string_view(), Status::failure(who + d.status.message));
+        return;
+    }
+    apply_paste(s, bytes);
+    if (!d.notice.empty() && s.rejected_message.empty()) set_notice(s, d.notice + (s.notice.empty() ? "" : " " + s.notice));
 }
 
 void reread_paste(AppState& s, int shape, int digit_test) {

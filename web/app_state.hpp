@@ -108,6 +108,10 @@ struct AppState {
 void load_demo(AppState& s, int index);                      // one of kDemoScenarios
 bool open_document(AppState& s, std::string_view json);      // an analysis document; false if refused
 void apply_paste(AppState& s, std::string_view text);        // counts, or a document; keeps the old data if refused
+// The bytes of a paste or of a dropped or opened file (`file_name`, empty for a paste): decoded
+// by core's text_decoding (UTF-8, UTF-16, Windows-1252), then read as apply_paste; a file that is
+// not text (an image, a workbook, ...) is refused saying so, and the old data is kept.
+void apply_input(AppState& s, std::string bytes, std::string_view file_name = {});
 constexpr std::size_t kFixableBytes = 1u << 20;               // refused pastes up to 1 MB can be edited on the page
 void edit_refused_paste(AppState& s, bool open);             // show or hide the editor of the refused paste
 void apply_fixed_paste(AppState& s);                         // read the edited paste as a new paste

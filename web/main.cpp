@@ -312,10 +312,16 @@ void frame() {
 }  // namespace
 
 extern "C" {
-// Called by the page glue with UTF-8 text from a paste event or a dropped file.
+// Called by the page glue with UTF-8 text from a paste event.
 EMSCRIPTEN_KEEPALIVE void tp_paste(const char* text, int length) {
     if (!g_page || !text || length < 0) return;
-    tallyproof::web::apply_paste(g_page->state, std::string_view(text, static_cast<std::size_t>(length)));
+    tallyproof::web::apply_input(g_page->state, std::string(text, static_cast<std::size_t>(length)));
+    want_frames(*g_page, 3);
+}
+// Called by the page glue with the bytes of a dropped or opened file and its name (UTF-8).
+EMSCRIPTEN_KEEPALIVE void tp_open_file(const char* bytes, int length, const char* name) {
+    if (!g_page || !bytes || length < 0) return;
+    tallyproof::web::apply_input(g_page->state, std::string(bytes, static_cast<std::size_t>(length)), name ? name : "");
     want_frames(*g_page, 3);
 }
 // Called by the page glue on any browser input so the next frames are drawn.

@@ -11,7 +11,7 @@ export const tests = {
   async 'hostile catalogue through the page'() {
     // Invalid UTF-8 cannot reach the page: clipboard and file text arrive as Unicode strings.
     const entries = catalogue.filter((e) => typeof e.input === 'string' && !(e.args && e.args.length) && !e.generate &&
-      !e.id.includes('invalid-utf8'));
+      !e.id.includes('invalid-utf8') && !e.encoding && !e.known_defect);  // other encodings cannot be pasted; known hangs would stall the page
     assert(entries.length >= 40, `only ${entries.length} catalogue entries apply to the page`);
     const problems = [];
     await withPage({}, async (page) => {
