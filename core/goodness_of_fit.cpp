@@ -204,6 +204,7 @@ Result analyse(const Analysis& a) {
     dopt.alpha = a.alpha;
     s = category_diagnostics(labels, obs, exp, dopt, &r.diagnostics);
     if (!s.ok) r.warnings.push_back("Per-category diagnostics were not computed: " + s.message);
+    r.warnings.insert(r.warnings.end(), r.diagnostics.warnings.begin(), r.diagnostics.warnings.end());
 
     // Effect sizes (95% intervals by inverting the noncentral chi-square)
     r.effect.w = cohens_w(r.statistic, n);

@@ -172,7 +172,9 @@ std::string report_json(const Analysis& a, const Result& r) {
     for (const auto& d : r.diagnostics.categories) j.value(d.goodman.lower);
     j.end_array().key("goodman_upper").begin_array();
     for (const auto& d : r.diagnostics.categories) j.value(d.goodman.upper);
-    j.end_array().end_object();
+    j.end_array();
+    if (!r.diagnostics.warnings.empty()) j.key("note").value(r.diagnostics.warnings.front());
+    j.end_object();
     j.key("effect_size").begin_object();
     j.key("w").value(r.effect.w).key("w_label").value(r.effect.w_label);
     j.key("w_interval").begin_array().value(r.effect.w_interval.lower).value(r.effect.w_interval.upper).end_array();
