@@ -246,6 +246,12 @@ EMSCRIPTEN_KEEPALIVE int tp_work(double budget_ms) {
     if (!p.state.job_running || now - p.last_job_frame_ms >= 250) want_frames(p, 2);  // frame() stamps the time
     return p.state.job_running ? 1 : 0;
 }
+// Another tab changed the shared recent list (the storage event): it is read again.
+EMSCRIPTEN_KEEPALIVE void tp_storage_changed() {
+    if (!g_page) return;
+    tallyproof::web::reload_recent(g_page->state);
+    want_frames(*g_page, 3);
+}
 // Cancels running exact or Monte Carlo work (the page's Escape key).
 EMSCRIPTEN_KEEPALIVE void tp_cancel() {
     if (!g_page) return;

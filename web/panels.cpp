@@ -65,6 +65,9 @@ void draw_title(AppState& s, const Theme& t) {
         for (int i = 0; i < static_cast<int>(s.recent.size()); ++i) {
             ImGui::PushID(i);
             const std::string label = s.recent[i].when + "  " + s.recent[i].title;
+            if (ImGui::SmallButton("Remove")) { remove_recent(s, i); ImGui::PopID(); break; }
+            mark_widget(("recent-remove-" + std::to_string(i)).c_str());
+            ImGui::SameLine();
             if (ImGui::Selectable(label.c_str())) open_recent(s, i);
             mark_widget(("recent-" + std::to_string(i)).c_str());
             ImGui::PopID();
