@@ -6,6 +6,7 @@
 #include "binomial_test.hpp"
 
 #include <cmath>
+#include <cstdint>
 #include <limits>
 
 #include <boost/math/distributions/binomial.hpp>
@@ -89,39 +90,44 @@ TailProbability binomial_test_two_sided(double x, double n, double p) {
     const Binomial dist(n, p);
     const Mass mx = mass(dist, x, n, p);
 
-    // Tail pieces: lower = P(X <= lo_end), upper = P(X >= hi_start); lo_end < 0 or hi_start > n
-    // means that piece is empty.
-    double lo_end, hi_start;
+    // Tail pieces: lower = P(X <= lo_end), upper = P(X >= hi_start); either may be empty.
+    // The bisection runs on 64-bit integers: a double midpoint of two counts above 2^52 can round
+    // back onto an end and never move (it hung for n = 9e15).
+    const std::int64_t ni = static_cast<std::int64_t>(n);
+    std::int64_t lo_i, hi_i;
     if (x < m) {
         // i in [ceil(m), n] with pmf(i) <= pmf(x) form a suffix [j, n] (pmf non-increasing there).
-        double a = std::ceil(m), b = n + 1;  // invariant: answer j in [a, b]; b = n + 1 means none
+        std::int64_t a = static_cast<std::int64_t>(std::ceil(m)), b = ni + 1;  // j in [a, b]; b = n + 1: none
         while (a < b) {
-            const double mid = std::floor((a + b) / 2);
-            if (no_larger(mass(dist, mid, n, p), mx)) b = mid;
+            const std::int64_t mid = a + (b - a) / 2;
+            if (no_larger(mass(dist, static_cast<double>(mid), n, p), mx)) b = mid;
             else a = mid + 1;
         }
-        lo_end = x;
-        hi_start = a;
+        lo_i = static_cast<std::int64_t>(x);
+        hi_i = a;
     } else {
         // i in [0, floor(m)] with pmf(i) <= pmf(x) form a prefix [0, j] (pmf non-decreasing there).
-        double a = -1, b = std::floor(m);  // answer j in [a, b]; a = -1 means none
+        std::int64_t a = -1, b = static_cast<std::int64_t>(std::floor(m));  // j in [a, b]; a = -1: none
         while (a < b) {
-            const double mid = std::ceil((a + b) / 2);
-            if (no_larger(mass(dist, mid, n, p), mx)) a = mid;
+            const std::int64_t mid = b - (b - a) / 2;  // rounds up, so a = mid always moves
+            if (no_larger(mass(dist, static_cast<double>(mid), n, p), mx)) a = mid;
             else b = mid - 1;
         }
-        lo_end = a;
-        hi_start = x;
+        lo_i = a;
+        hi_i = static_cast<std::int64_t>(x);
     }
-    const double lower = lo_end < 0 ? 0.0 : boost::math::cdf(dist, lo_end);
+    // n + 1 (no upper piece) may not be a double above 2^53; the pieces are tested as integers.
+    const bool no_lower = lo_i < 0, no_upper = hi_i > ni;
+    const double lo_end = static_cast<double>(lo_i), hi_start = no_upper ? n : static_cast<double>(hi_i);
+    const double lower = no_lower ? 0.0 : boost::math::cdf(dist, lo_end);
     const double upper =
-        hi_start > n ? 0.0 : (hi_start <= 0 ? 1.0 : boost::math::cdf(boost::math::complement(dist, hi_start - 1)));
+        no_upper ? 0.0 : (hi_i <= 0 ? 1.0 : boost::math::cdf(boost::math::complement(dist, hi_start - 1)));
     const double total = lower + upper;
     if (!std::isfinite(total)) return {nan, nan};
     if (total >= 1) return {1.0, 0.0};
     if (total > 1e-300) return {total, std::log10(total)};
-    const double ll = lo_end < 0 ? -INFINITY : log_tail(lo_end, n, p, false);
-    const double lu = hi_start > n ? -INFINITY : log_tail(hi_start, n, p, true);
+    const double ll = no_lower ? -INFINITY : log_tail(lo_end, n, p, false);
+    const double lu = no_upper ? -INFINITY : log_tail(hi_start, n, p, true);
     // Near and below the double's underflow Boost's cdf loses relative precision (4% seen by
     // fuzz_engine at 2e-301), so the value is taken from the logarithm, which stays exact.
     const double log10_total = log_add(ll, lu) / kLn10;

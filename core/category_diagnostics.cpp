@@ -87,18 +87,30 @@ Status category_diagnostics(const std::vector<std::string>& labels, const std::v
     if (s.ok) s = adjust_log10_p_values(log10_p, options.adjustment, &adjusted_log10);
     if (!s.ok) return s;
 
+    // Intervals at 1 - alpha: below kMinIntervalAlpha the double 1 - alpha no longer carries alpha
+    // (1 - 1e-17 is 1), so they are left out (NaN, written as null) rather than shown as zeros.
+    // Sison-Glaz's cost grows with the counts (Poisson tails near their centre): above
+    // kMaxSisonGlazTotal only Goodman's intervals are given, so every analysis stays bounded in time.
     std::vector<ProportionInterval> goodman, sison;
-    s = goodman_intervals(observed, 1 - options.alpha, &goodman);
-    if (!s.ok) return s;
-    const Status sg = sison_glaz_intervals(observed, 1 - options.alpha, &sison, &r.sison_glaz);
-    if (!sg.ok) r.warnings.push_back("Sison-Glaz intervals are not available: " + sg.message);
+    const bool alpha_usable = options.alpha >= kMinIntervalAlpha;
+    Status gm = Status::failure("the significance level " + format_significant(options.alpha, 3) +
+                                " is below " + format_significant(kMinIntervalAlpha, 1) +
+                                ", where 1 - alpha cannot be held in double precision; choose a larger alpha for intervals.");
+    if (alpha_usable) gm = goodman_intervals(observed, 1 - options.alpha, &goodman);
+    if (!gm.ok) r.warnings.push_back("Simultaneous intervals are not available: " + gm.message);
+    Status sg = gm;
+    if (gm.ok && n > kMaxSisonGlazTotal)
+        sg = Status::failure("they are computed for totals up to " + format_count(kMaxSisonGlazTotal) +
+                             " (their cost grows with the counts); Goodman's intervals are given.");
+    else if (gm.ok) sg = sison_glaz_intervals(observed, 1 - options.alpha, &sison, &r.sison_glaz);
+    if (gm.ok && !sg.ok) r.warnings.push_back("Sison-Glaz intervals are not available: " + sg.message);
 
     std::string drivers;
     for (std::size_t i = 0; i < k; ++i) {
         CategoryDiagnostic& d = r.categories[i];
         d.contribution_share = r.statistic > 0 ? d.contribution / r.statistic : 0.0;
         d.adjusted = {adjusted[i], adjusted_log10[i]};
-        d.goodman = goodman[i];
+        d.goodman = gm.ok ? goodman[i] : ProportionInterval{NAN, NAN};
         d.sison_glaz = sg.ok ? sison[i] : ProportionInterval{NAN, NAN};
         d.drives_result = adjusted[i] < options.alpha;
         d.direction = d.difference > 0 ? "more than expected" : (d.difference < 0 ? "fewer than expected" : "as expected");

@@ -13,6 +13,9 @@
 
 namespace tallyproof {
 
+constexpr double kMinIntervalAlpha = 1e-15;     // below it 1 - alpha is too coarse: no intervals
+constexpr double kMaxSisonGlazTotal = 1e8;      // above it only Goodman's intervals (bounded time)
+
 struct CategoryDiagnosticsOptions {
     double alpha = 0.05;  // flags a category at adjusted p < alpha; intervals at 1 - alpha
     MultiplicityMethod adjustment = MultiplicityMethod::holm;
@@ -31,8 +34,8 @@ struct CategoryDiagnostic {
     double adjusted_residual = 0;   // (O - E) / sqrt(E (1 - p)), R's chisq.test()$stdres
     TailProbability binomial;       // exact two-sided binom.test(O, n, p) p-value
     TailProbability adjusted;       // after the multiplicity adjustment
-    ProportionInterval goodman;     // simultaneous 1 - alpha interval for the observed share
-    ProportionInterval sison_glaz;  // simultaneous 1 - alpha interval (NaN if it failed)
+    ProportionInterval goodman;     // simultaneous 1 - alpha interval for the observed share (NaN: see warnings)
+    ProportionInterval sison_glaz;  // simultaneous 1 - alpha interval (NaN if it failed or was not computed)
     bool drives_result = false;     // adjusted p < alpha
     std::string direction;          // "more than expected", "fewer than expected", "as expected"
     std::string description;        // e.g. "B: more than expected (30 observed vs 20.0 expected)"

@@ -54,6 +54,11 @@ double cohens_w(double chi_square, double n) {
     return std::sqrt(chi_square / n);
 }
 
+double noncentral_w(double chi_square, double n, double df) {
+    if (!check_statistic(chi_square, n).ok || !(df > 0)) return kNaN;
+    return std::sqrt(std::max(0.0, chi_square - df) / n);
+}
+
 const char* cohens_w_label(double w) {
     if (!(w >= 0)) return "undefined";
     if (w < 0.1) return "very small";

@@ -9,6 +9,10 @@
 namespace tallyproof {
 
 double cohens_w(double chi_square, double n);  // sqrt(X2 / N); NaN if X2 < 0 or N <= 0
+// sqrt(max(0, X2 - df) / N): w from the noncentrality's moment estimate X2 - df (E X2 = df + lambda),
+// which lies inside the noncentrality interval and is 0 for a sample typical of the null, where
+// sqrt(X2 / N) still reads about sqrt(df / N). NaN on a bad argument.
+double noncentral_w(double chi_square, double n, double df);
 // Cohen's (1988) labels: "very small" below .1, "small" from .1, "medium" from .3, "large" from .5.
 const char* cohens_w_label(double w);
 // Fei in [0, 1]; p_min is the smallest expected share, 0 < p_min < 1. NaN on a bad argument.

@@ -10,6 +10,7 @@
 #include "category_values.hpp"
 #include "conformity_analysis.hpp"
 #include "digit_laws.hpp"
+#include "exact_lower_tail.hpp"
 #include "mean_absolute_deviation.hpp"
 #include "label_text.hpp"
 #include "merge_categories.hpp"
@@ -236,11 +237,15 @@ Result analyse(const Analysis& a) {
     dopt.alpha = a.alpha;
     s = category_diagnostics(labels, obs, exp, dopt, &r.diagnostics);
     if (!s.ok) r.warnings.push_back("Per-category diagnostics were not computed: " + s.message);
+    r.warnings.insert(r.warnings.end(), r.diagnostics.warnings.begin(), r.diagnostics.warnings.end());
 
     // Effect sizes (95% intervals by inverting the noncentral chi-square)
     r.effect.w = cohens_w(r.statistic, n);
     r.effect.w_label = cohens_w_label(r.effect.w);
+    r.effect.estimate = noncentral_w(r.statistic, n, r.df);
+    r.effect.label = cohens_w_label(r.effect.estimate);
     if (!cohens_w_interval(r.statistic, n, r.df, 0.95, &r.effect.w_interval).ok) r.effect.w_interval = {r.effect.w, NAN, NAN, 0.95};
+    r.effect.w_interval.estimate = r.effect.estimate;
     double p_min = 1;
     for (double e : exp) p_min = std::min(p_min, e / n);
     if (p_min > 0 && p_min < 1) {
@@ -250,11 +255,16 @@ Result analyse(const Analysis& a) {
             r.effect.fei_interval = {r.effect.fei, NAN, NAN, 0.95};
     }
     // A fit closer than chance allows (lower tail; Fisher's remark on Mendel's data is the classic case).
-    if (r.lower.p < 0.001 && r.df >= 2)
-        r.warnings.push_back("The counts sit closer to the stated mix than chance usually allows (lower-tail p = " +
-                             format_probability(r.lower) + "): check how the counts were recorded before relying on them.");
-    if (r.reject && r.effect.w < 0.1)
-        r.warnings.push_back("The departure is statistically significant but very small (w = " + format_fixed(r.effect.w, 3) +
+    // At small N the chi-square lower tail is far off (X² = 0 at N = 15 has exact probability 0.053,
+    // chi2 gives 0), so the exact P(T <= statistic) decides there; otherwise it is named asymptotic.
+    r.exact_lower_computed = r.lambda > -1 && exact_lower_tail(obs, exp, r.lambda, &r.exact_lower).ok;
+    const TailProbability& closeness = r.exact_lower_computed ? r.exact_lower : r.lower;
+    if (closeness.p < 0.001 && r.df >= 2)
+        r.warnings.push_back(std::string("The counts sit closer to the stated mix than chance usually allows (") +
+                             (r.exact_lower_computed ? "exact" : "asymptotic") + " lower-tail p = " +
+                             format_probability(closeness) + "): check how the counts were recorded before relying on them.");
+    if (r.reject && r.effect.estimate < 0.1)
+        r.warnings.push_back("The departure is statistically significant but very small (w = " + format_fixed(r.effect.estimate, 3) +
                              "): with N = " + format_count(n) + ", even a negligible difference is detected.");
 
     add_plan(a, n, &r);

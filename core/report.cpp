@@ -87,9 +87,13 @@ std::string report_text(const Analysis& a, const Result& r) {
     if (r.monte_carlo.computed)
         s += "Monte Carlo: " + grouped(r.monte_carlo.hits) + " of " + grouped(r.monte_carlo.replicates) +
              " replicates at least as extreme; standard error " + format_significant(r.monte_carlo.standard_error, 2) + "\n";
+    s += "Lower-tail p (a fit closer than chance allows?): " +
+         format_probability(r.exact_lower_computed ? r.exact_lower : r.lower) + (r.exact_lower_computed ? " (exact)\n" : " (asymptotic)\n");
     s += "Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3) + "\n";
     s += verdict_sentence(r) + "\n";
-    s += "Effect size: w = " + format_fixed(r.effect.w, 3) + " (" + r.effect.w_label + ")" + interval_text(r.effect.w_interval);
+    s += "Effect size: w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ", from the noncentrality)" +
+         interval_text(r.effect.w_interval) + "; Cohen's w = √(" + r.statistic_symbol + "/N) = " + format_fixed(r.effect.w, 3) +
+         ", which averages about √(df/N) = " + format_fixed(std::sqrt(r.df / r.n), 3) + " even when the mix holds";
     if (r.effect.fei_defined) s += "; Fei = " + format_fixed(r.effect.fei, 3) + interval_text(r.effect.fei_interval);
     s += "\n";
     s += "Validity: " + r.validity.summary + "\n";
@@ -172,6 +176,11 @@ std::string report_json(const Analysis& a, const Result& r) {
     write_tail(j, "asymptotic_p_value", r.upper);
     j.key("asymptotic_log10_p_value").value(r.upper.log10_p);
     write_tail(j, "lower_p_value", r.lower);
+    j.key("log10_lower_p_value").value(r.lower.log10_p);
+    if (r.exact_lower_computed)
+        j.key("exact_lower_p_value").value(r.exact_lower.p).key("log10_exact_lower_p_value").value(r.exact_lower.log10_p);
+    else
+        j.key("exact_lower_p_value").null().key("log10_exact_lower_p_value").null();
     j.key("critical_value").value(r.critical_value);
     j.key("reject").value(r.reject);
     j.key("expected_shares").numbers(r.expected_shares);
@@ -213,8 +222,11 @@ std::string report_json(const Analysis& a, const Result& r) {
     for (const auto& d : r.diagnostics.categories) j.value(d.goodman.lower);
     j.end_array().key("goodman_upper").begin_array();
     for (const auto& d : r.diagnostics.categories) j.value(d.goodman.upper);
-    j.end_array().end_object();
+    j.end_array();
+    if (!r.diagnostics.warnings.empty()) j.key("note").value(r.diagnostics.warnings.front());
+    j.end_object();
     j.key("effect_size").begin_object();
+    j.key("estimate").value(r.effect.estimate).key("label").value(r.effect.label);
     j.key("w").value(r.effect.w).key("w_label").value(r.effect.w_label);
     j.key("w_interval").begin_array().value(r.effect.w_interval.lower).value(r.effect.w_interval.upper).end_array();
     if (r.effect.fei_defined) {

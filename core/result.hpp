@@ -46,8 +46,10 @@ struct MonteCarloOutcome {
 };
 
 struct EffectOutcome {
-    double w = 0;
-    const char* w_label = "";
+    double estimate = 0;        // sqrt(max(0, X2 - df) / N): noncentrality-based, inside w_interval
+    const char* label = "";     // Cohen's (1988) label of `estimate`
+    double w = 0;               // Cohen's w = sqrt(X2 / N), biased upward by about df / N under the null
+    const char* w_label = "";   // Cohen's label of w (kept for reference; the labelled size is `estimate`)
     EffectSizeInterval w_interval;
     bool fei_defined = false;  // needs a smallest expected share below 1
     double fei = 0;
@@ -104,6 +106,8 @@ struct Result {
     double df = 0;
     TailProbability upper;                  // asymptotic P(chi2(df) >= statistic)
     TailProbability lower;                  // asymptotic P(chi2(df) <= statistic): a fit too good?
+    bool exact_lower_computed = false;      // small N: P(T <= statistic) by enumeration (exact_lower_tail)
+    TailProbability exact_lower;
     DfRange df_range;
     ExactOutcome exact;
     MonteCarloOutcome monte_carlo;

@@ -182,7 +182,7 @@ std::string sentence(const Analysis& a, const Result& r, const Style& st, const 
     const double n_all = r.reference ? r.reference->n_total : r.n;  // a 2 x k table reports both samples' N
     s += ", " + statistic_symbol(r.lambda) + "(" + format_count(r.df) + ", N = " + grouped(n_all, st) + ") = " + fixed(r.statistic, 2, st);
     s += sep + "p " + p_report(r.p, st);
-    s += sep + "w = " + fixed(r.effect.w, 2, st);
+    s += sep + "w = " + fixed(r.effect.estimate, 2, st);
     const EffectSizeInterval& iv = r.effect.w_interval;
     if (std::isfinite(iv.lower) && std::isfinite(iv.upper))
         s += sep + "95% CI " + (st.markdown ? "\\[" : "[") + fixed(iv.lower, 2, st) + sep + fixed(iv.upper, 2, st) +
@@ -237,7 +237,9 @@ std::string tsv_block(const Analysis& a, const Result& r, const WriteupOptions& 
     rows.push_back({text_cell("N"), count_cell(r.n)});
     rows.push_back({text_cell("p"), probability_cell(r.p)});
     rows.push_back({text_cell("p-value method"), text_cell(method_text(r, st))});
-    rows.push_back({text_cell("w"), fixed_cell(r.effect.w, 2)});
+    rows.push_back({text_cell("Lower-tail p (fit too good?)"), probability_cell(r.exact_lower_computed ? r.exact_lower : r.lower)});
+    rows.push_back({text_cell("w (from the noncentrality)"), fixed_cell(r.effect.estimate, 2)});
+    rows.push_back({text_cell("Cohen's w = sqrt(X2/N), biased up by about df/N"), fixed_cell(r.effect.w, 2)});
     rows.push_back({text_cell("w, 95% CI lower"), fixed_cell(iv.lower, 2)});
     rows.push_back({text_cell("w, 95% CI upper"), fixed_cell(iv.upper, 2)});
     rows.push_back({text_cell("Conclusion"), text_cell((r.reject ? "not consistent with " : "no evidence against ") + mix_phrase(a))});

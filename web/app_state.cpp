@@ -81,40 +81,103 @@ void sync_editor_from_model(AppState& s) {
             if (name == p.name) { p.estimate = false; p.value = value; }
 }
 
-constexpr std::size_t kRecentLimit = 8;
+constexpr const char* kRecentKey = "tallyproof.recent";    // shared by the tabs
+constexpr const char* kLatestKey = "tallyproof.current";   // the latest analysis of any tab: a new tab starts there
+constexpr const char* kTabKey = "tallyproof.tab-current";  // this tab's own (sessionStorage)
+constexpr const char* kTabIdKey = "tallyproof.tab-id";
+constexpr const char* kStorageRefused =
+    "This analysis is not being kept in this browser (storage is refused or full): use Save & share, "
+    "Download analysis (JSON) to keep it.";
 
-// A short confirmation under the title bar, mirrored into the page for screen readers.
+// A short confirmation under the title bar, mirrored into the page for screen readers. While
+// storage is refused that is said first, whatever else is confirmed.
 void set_notice(AppState& s, const std::string& text) {
     s.notice = text;
-    publish_notice(text);
+    if (s.storage_refused && text.find(kStorageRefused) == std::string::npos)
+        s.notice = std::string(kStorageRefused) + (text.empty() ? "" : "  " + text);
+    publish_notice(s.notice);
 }
 
+std::string new_analysis_id() {
+    static unsigned counter = 0;  // distinct within a tab; the time and a random part across tabs
+    return std::to_string(static_cast<long long>(wall_clock_ms())) + "-" + std::to_string(std::rand() % 100000) + "-" +
+           std::to_string(++counter);
+}
+
+// The analysis on screen is the example `demo_index` as loaded (not yet edited).
+bool shows_unchanged_demo(const AppState& s) {
+    if (s.demo_index < 0 || s.demo_index >= kDemoScenarioCount) return false;
+    Analysis demo;
+    if (!read_analysis_document(kDemoScenarios[s.demo_index].document, &demo).ok) return false;
+    return demo.observed == s.analysis.observed && demo.categories == s.analysis.categories &&
+           demo.model.kind == s.analysis.model.kind && demo.model.values == s.analysis.model.values;
+}
+
+// A title from the data: the first categories, N and the expected mix; an example's name only
+// while its data are on screen unchanged.
 std::string saved_title(const AppState& s) {
-    std::string t = s.source_name;
+    const auto& c = s.analysis.categories;
     std::string cats;
-    for (std::size_t i = 0; i < s.analysis.categories.size() && i < 3; ++i) cats += (i ? ", " : "") + s.analysis.categories[i];
-    if (s.analysis.categories.size() > 3) cats += ", …";
-    return t + " (" + cats + ")";
+    for (std::size_t i = 0; i < c.size() && i < 3; ++i) cats += (i ? ", " : "") + (c[i].empty() ? std::string("(no label)") : c[i]);
+    if (c.size() > 3) cats += ", …";
+    if (cats.empty()) cats = "no categories";
+    std::string t = cats + " · N = " + format_count(s.result.n);
+    if (!s.result.model_description.empty()) t += " · " + s.result.model_description;
+    if (shows_unchanged_demo(s)) t = std::string("Example: ") + kDemoScenarios[s.demo_index].title + " · " + t;
+    return t;
 }
 
-void persist_recent(const AppState& s) {
+std::vector<SavedAnalysis> read_recent_list() {
+    std::vector<SavedAnalysis> out;
+    JsonValue list;
+    if (!parse_json(storage_get(kRecentKey), &list).ok || !list.is(JsonValue::Type::array)) return out;
+    for (const auto& e : list.array) {
+        const JsonValue *t = e.find("title"), *w = e.find("when"), *d = e.find("document"), *id = e.find("id"), *ms = e.find("saved_ms");
+        if (!(t && w && d && t->is(JsonValue::Type::string) && w->is(JsonValue::Type::string) && d->is(JsonValue::Type::string))) continue;
+        SavedAnalysis a{t->string, w->string, d->string, "", 0};
+        if (id && id->is(JsonValue::Type::string)) a.id = id->string;
+        if (ms && ms->is(JsonValue::Type::number)) a.saved_ms = ms->number;
+        if (a.id.empty()) a.id = "old-" + std::to_string(out.size());  // saved before entries had ids
+        out.push_back(std::move(a));
+        if (out.size() >= kRecentLimit) break;
+    }
+    return out;
+}
+
+bool write_recent_list(const std::vector<SavedAnalysis>& list) {
     JsonWriter j;
     j.begin_array();
-    for (const auto& r : s.recent) j.begin_object().key("title").value(r.title).key("when").value(r.when).key("document").value(r.document).end_object();
+    for (const auto& r : list)
+        j.begin_object().key("title").value(r.title).key("when").value(r.when).key("document").value(r.document)
+            .key("id").value(r.id).key("saved_ms").value(r.saved_ms).end_object();
     j.end_array();
-    storage_set("tallyproof.recent", j.str());
+    return storage_set(kRecentKey, j.str());
 }
 
-// Autosave: the analysis on screen is kept in the browser's storage after every change.
+void note_storage(AppState& s, bool kept) {
+    if (kept || s.storage_refused) return;
+    s.storage_refused = true;
+    set_notice(s, s.notice);
+}
+
+// Autosave: the analysis on screen is kept after every change, in this tab's slot (restored on
+// its reload), as the latest (where a new tab starts) and in the recent list, which is read,
+// merged with this analysis by identity and time, and written back, so other tabs' entries stay.
 void remember(AppState& s, const std::string& document) {
-    storage_set("tallyproof.current", document);
-    const std::string when = local_time_text();
-    if (!s.recent.empty() && s.recent.front().document == document) return;
-    // The same analysis edited again replaces its entry rather than filling the list.
-    if (!s.recent.empty() && s.recent.front().title == saved_title(s)) s.recent.erase(s.recent.begin());
-    s.recent.insert(s.recent.begin(), SavedAnalysis{saved_title(s), when, document});
-    if (s.recent.size() > kRecentLimit) s.recent.resize(kRecentLimit);
-    persist_recent(s);
+    if (s.analysis_id.empty()) s.analysis_id = new_analysis_id();
+    bool kept = tab_storage_set(kTabKey, document);
+    kept = tab_storage_set(kTabIdKey, s.analysis_id) && kept;
+    kept = storage_set(kLatestKey, document) && kept;
+    std::vector<SavedAnalysis> list = read_recent_list();
+    list.erase(std::remove_if(list.begin(), list.end(), [&](const SavedAnalysis& e) {
+                   return e.id == s.analysis_id || e.document == document;
+               }), list.end());
+    list.push_back(SavedAnalysis{saved_title(s), local_time_text(), document, s.analysis_id, wall_clock_ms()});
+    std::stable_sort(list.begin(), list.end(), [](const SavedAnalysis& a, const SavedAnalysis& b) { return a.saved_ms > b.saved_ms; });
+    if (list.size() > kRecentLimit) list.resize(kRecentLimit);
+    kept = write_recent_list(list) && kept;
+    s.recent = std::move(list);
+    note_storage(s, kept);
 }
 
 void publish(AppState& s) {
@@ -189,6 +252,7 @@ void load_demo(AppState& s, int index) {
     if (index < 0 || index >= kDemoScenarioCount) return;
     if (open_document(s, kDemoScenarios[index].document)) {
         s.demo_index = index;
+        remember(s, write_analysis_document(s.analysis));  // titled as the example now that demo_index is set
         s.source_name = std::string("example: ") + kDemoScenarios[index].title;
     }
 }
@@ -272,11 +336,15 @@ bool open_document(AppState& s, std::string_view json) {
         return false;
     }
     const Analysis previous = s.analysis;
+    const std::string previous_id = s.analysis_id;
     s.analysis = a;
+    s.analysis_id = new_analysis_id();
+    s.demo_index = -1;
     if (!recompute(s)) {
         record_refusal(s, json, Status::failure(s.input_error));
         s.input_error.clear();
         s.analysis = previous;
+        s.analysis_id = previous_id;
         return false;
     }
     clear_refusal(s);
@@ -412,7 +480,11 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     Status problem = parsed.status;
     const Analysis previous = s.analysis;
     std::vector<std::string> label_notes;  // labels written in two Unicode forms, joined
+    const std::string previous_id = s.analysis_id;
+    const int previous_demo = s.demo_index;
     if (problem.ok) {
+        s.analysis_id = new_analysis_id();  // the user's own data: a new entry, no example's name
+        s.demo_index = -1;
         s.analysis.merge = MergeChoice{};
         const bool mix_stated = apply_pasted_input(parsed, &s.analysis, &label_notes);  // an expected column or a digit tally
         if (!mix_stated && (((s.analysis.model.kind == ModelKind::shares || s.analysis.model.kind == ModelKind::ratio ||
@@ -429,6 +501,8 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
             problem = Status::failure(s.input_error, 0, 0);
             s.input_error.clear();
             s.analysis = previous;
+            s.analysis_id = previous_id;
+            s.demo_index = previous_demo;
             sync_editor_from_model(s);
         }
     }
@@ -651,15 +725,8 @@ void copy_table(AppState& s) {
 }
 
 void restore_session(AppState& s) {
-    JsonValue list;
-    if (parse_json(storage_get("tallyproof.recent"), &list).ok && list.is(JsonValue::Type::array)) {
-        for (const auto& e : list.array) {
-            const JsonValue *t = e.find("title"), *w = e.find("when"), *d = e.find("document");
-            if (t && w && d && t->is(JsonValue::Type::string) && w->is(JsonValue::Type::string) && d->is(JsonValue::Type::string))
-                s.recent.push_back(SavedAnalysis{t->string, w->string, d->string});
-            if (s.recent.size() >= kRecentLimit) break;
-        }
-    }
+    s.recent = read_recent_list();
+    watch_storage(kRecentKey);
     const std::string fragment = location_fragment();
     if (!fragment.empty()) {
         if (open_share_fragment(s, fragment)) return;
@@ -669,8 +736,17 @@ void restore_session(AppState& s) {
         publish_error(message);
         return;
     }
-    const std::string saved = storage_get("tallyproof.current");
+    // This tab's own analysis on its reload; a new tab starts from the latest of any tab.
+    const std::string own = tab_storage_get(kTabKey), own_id = tab_storage_get(kTabIdKey);
+    const std::string saved = own.empty() ? storage_get(kLatestKey) : own;
     if (!saved.empty() && open_document(s, saved)) {
+        std::string id = own.empty() ? "" : own_id;
+        for (const auto& e : s.recent)
+            if (id.empty() && e.document == saved) id = e.id;
+        if (!id.empty()) {  // the same analysis: its entry, not a new one
+            s.analysis_id = id;
+            remember(s, saved);
+        }
         s.source_name = "restored from the last session";
         return;
     }
@@ -694,7 +770,9 @@ bool open_share_fragment(AppState& s, const std::string& fragment) {
 }
 
 void start_fresh(AppState& s) {
-    storage_remove("tallyproof.current");
+    storage_remove(kLatestKey);
+    tab_storage_remove(kTabKey);
+    tab_storage_remove(kTabIdKey);
     s.merge_undo.clear();
     load_demo(s, 0);
     set_notice(s, "Started fresh: paste your counts, or pick an example.");
@@ -703,7 +781,27 @@ void start_fresh(AppState& s) {
 void open_recent(AppState& s, int index) {
     if (index < 0 || index >= static_cast<int>(s.recent.size())) return;
     const SavedAnalysis chosen = s.recent[index];
-    if (open_document(s, chosen.document)) s.source_name = "recent: " + chosen.title;
+    if (open_document(s, chosen.document)) {
+        s.source_name = "recent: " + chosen.title;
+        s.analysis_id = chosen.id;  // edits go on in its entry
+        remember(s, chosen.document);
+    }
+}
+
+void remove_recent(AppState& s, int index) {
+    if (index < 0 || index >= static_cast<int>(s.recent.size())) return;
+    const std::string id = s.recent[index].id;
+    std::vector<SavedAnalysis> list = read_recent_list();
+    list.erase(std::remove_if(list.begin(), list.end(), [&](const SavedAnalysis& e) { return e.id == id; }), list.end());
+    note_storage(s, write_recent_list(list));
+    s.recent = std::move(list);
+    if (id == s.analysis_id) s.analysis_id = new_analysis_id();  // kept on screen, no longer in the list
+    s.frames_to_draw = 3;
+}
+
+void reload_recent(AppState& s) {
+    s.recent = read_recent_list();
+    s.frames_to_draw = 3;
 }
 
 void copy_share_link(AppState& s) {

@@ -40,10 +40,13 @@ enum class ResultTab { curve, bars, categories, planning, writeup };
 
 // An analysis kept in the browser's storage (autosave and the recent list).
 struct SavedAnalysis {
-    std::string title;     // what it was (example title, "pasted text", ...) and its first categories
+    std::string title;     // from the data: first categories, N, expected mix (an example's name while unchanged)
     std::string when;      // local time it was last changed
     std::string document;  // the analysis document
+    std::string id;        // the analysis it is (kept through its edits, in any tab)
+    double saved_ms = 0;   // when it was saved (ms since 1970): newest first across tabs
 };
+constexpr std::size_t kRecentLimit = 8;  // the oldest is dropped first
 
 // A chart image to render off screen at 2x: saved as PNG, copied, or kept for printing.
 struct ChartExport {
@@ -97,7 +100,9 @@ struct AppState {
     bool focus_screen = true;        // give the screen keyboard focus on the first frame
 
     // Leaving the page
-    std::vector<SavedAnalysis> recent;   // most recent first, at most 8
+    std::vector<SavedAnalysis> recent;   // most recent first, at most kRecentLimit, shared by the tabs
+    std::string analysis_id;             // identity of the analysis on screen (its recent entry)
+    bool storage_refused = false;        // the browser refused or had no room: nothing is being kept
     std::vector<ChartExport> exports;    // rendered one per frame by main
     bool print_pending = false;          // print once the queued chart images are delivered
     std::string notice;                  // a short confirmation ("Share link copied")
@@ -149,6 +154,8 @@ void restore_session(AppState& s);
 bool open_share_fragment(AppState& s, const std::string& fragment);  // false: refused, message shown        // share link in the URL, else the autosaved analysis, else an example
 void start_fresh(AppState& s);            // forget the autosaved analysis; back to the first example
 void open_recent(AppState& s, int index);
+void remove_recent(AppState& s, int index);   // forget one entry of the recent list (in every tab)
+void reload_recent(AppState& s);              // another tab changed the list: read it again
 void copy_share_link(AppState& s);
 void download_document(AppState& s);      // the analysis document (JSON)
 void download_table(AppState& s);         // the per-category table (CSV)

@@ -427,6 +427,12 @@ EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
     if (!s.input_error.empty()) publish_error(s.input_error);
     want_frames(*g_page, 3);
 }
+// Another tab changed the shared recent list (the storage event): it is read again.
+EMSCRIPTEN_KEEPALIVE void tp_storage_changed() {
+    if (!g_page) return;
+    tallyproof::web::reload_recent(g_page->state);
+    want_frames(*g_page, 3);
+}
 // Cancels running exact or Monte Carlo work (the page's Escape key).
 EMSCRIPTEN_KEEPALIVE void tp_cancel() {
     if (!g_page) return;

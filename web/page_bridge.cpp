@@ -44,9 +44,30 @@ EM_JS(char*, tp_js_storage_get, (const char* key), {
     stringToUTF8(v, p, n);
     return p;
 });
-EM_JS(void, tp_js_storage_set, (const char* key, const char* value), {
-    try { window.localStorage.setItem(UTF8ToString(key), UTF8ToString(value)); } catch (e) { /* storage refused or full */ }
+EM_JS(int, tp_js_storage_set, (const char* key, const char* value), {
+    try { window.localStorage.setItem(UTF8ToString(key), UTF8ToString(value)); return 1; } catch (e) { return 0; /* refused or full */ }
 });
+// This tab's own slot (sessionStorage survives the tab's reloads, not other tabs).
+EM_JS(char*, tp_js_tab_get, (const char* key), {
+    var v = null;
+    try { v = window.sessionStorage.getItem(UTF8ToString(key)); } catch (e) { v = null; }
+    v = v || '';
+    var n = lengthBytesUTF8(v) + 1, p = _malloc(n);
+    stringToUTF8(v, p, n);
+    return p;
+});
+EM_JS(int, tp_js_tab_set, (const char* key, const char* value), {
+    try { window.sessionStorage.setItem(UTF8ToString(key), UTF8ToString(value)); return 1; } catch (e) { return 0; }
+});
+EM_JS(void, tp_js_tab_remove, (const char* key), {
+    try { window.sessionStorage.removeItem(UTF8ToString(key)); } catch (e) { }
+});
+// Another tab changed `key` in localStorage: the app is told (tp_storage_changed).
+EM_JS(void, tp_js_watch_storage, (const char* key), {
+    var k = UTF8ToString(key);
+    window.addEventListener('storage', function (e) { if (e.key === k || e.key === null) Module._tp_storage_changed(); });
+});
+EM_JS(double, tp_js_now_ms, (), { return Date.now(); });
 EM_JS(void, tp_js_storage_remove, (const char* key), {
     try { window.localStorage.removeItem(UTF8ToString(key)); } catch (e) { }
 });
@@ -117,7 +138,12 @@ void mark_widget(const char* name) {
 }
 
 std::string storage_get(const char* key) { return take(tp_js_storage_get(key)); }
-void storage_set(const char* key, const std::string& value) { tp_js_storage_set(key, value.c_str()); }
+bool storage_set(const char* key, const std::string& value) { return tp_js_storage_set(key, value.c_str()) != 0; }
+std::string tab_storage_get(const char* key) { return take(tp_js_tab_get(key)); }
+bool tab_storage_set(const char* key, const std::string& value) { return tp_js_tab_set(key, value.c_str()) != 0; }
+void tab_storage_remove(const char* key) { tp_js_tab_remove(key); }
+void watch_storage(const char* key) { tp_js_watch_storage(key); }
+double wall_clock_ms() { return tp_js_now_ms(); }
 void storage_remove(const char* key) { tp_js_storage_remove(key); }
 std::string location_fragment() { return take(tp_js_fragment()); }
 std::string page_address() { return take(tp_js_address()); }

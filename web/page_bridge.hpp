@@ -18,10 +18,16 @@ void start_work_loop();                              // starts the page's task l
 // assistive tools can find controls on the canvas (tallyproofPage.widgets).
 void mark_widget(const char* name);
 
-// Browser storage (localStorage; empty string when absent or refused) and the URL fragment.
+// Browser storage (localStorage, shared by the tabs; empty string when absent or refused; set is
+// false when refused or full), this tab's own storage (sessionStorage), and the URL fragment.
 std::string storage_get(const char* key);
-void storage_set(const char* key, const std::string& value);
+bool storage_set(const char* key, const std::string& value);
 void storage_remove(const char* key);
+std::string tab_storage_get(const char* key);
+bool tab_storage_set(const char* key, const std::string& value);
+void tab_storage_remove(const char* key);
+void watch_storage(const char* key);                 // another tab's change of `key` calls tp_storage_changed
+double wall_clock_ms();                              // ms since 1970 (orders saves across tabs)
 std::string location_fragment();                    // without '#'
 std::string page_address();                         // the page's address without its fragment
 std::string local_time_text();                      // e.g. "2026-12-01 22:40" in the user's time zone

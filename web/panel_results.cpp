@@ -76,9 +76,12 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
                           format_fixed(c.margin_w, 2).c_str(), format_fixed(c.plan.target_power, 2).c_str(),
                           format_count(c.plan.n_required).c_str());
     }
-    std::string effect = "Effect size w = " + format_fixed(r.effect.w, 3) + " (" + r.effect.w_label + ")";
+    std::string effect = "Effect size w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ")";
     if (std::isfinite(r.effect.w_interval.lower))
         effect += ", 95% CI " + format_fixed(r.effect.w_interval.lower, 3) + " to " + format_fixed(r.effect.w_interval.upper, 3);
+    effect += "; Cohen's w = " + format_fixed(r.effect.w, 3) + " (biased up by about df/N)";
+    effect += ";  lower-tail p = " + format_probability(r.exact_lower_computed ? r.exact_lower : r.lower) +
+              (r.exact_lower_computed ? " (exact)" : "");
     if (r.effect.fei_defined) effect += ";  Fei = " + format_fixed(r.effect.fei, 3);
     wrapped_text(effect.c_str());
     if (r.df_range.shown && r.estimated_parameters > 0) muted_wrapped(t, "%s", r.df_range.note.c_str());

@@ -86,7 +86,7 @@ void draw_title(AppState& s, const Theme& t) {
             ImGui::PushID(i);
             std::string label = s.recent[i].when + "  " + s.recent[i].title;
             // On a narrow screen a long title is cut (at a character boundary) so the menu stays on screen.
-            const float room = ImGui::GetMainViewport()->Size.x - 2 * ImGui::GetStyle().WindowPadding.x - 24;
+            const float room = ImGui::GetMainViewport()->Size.x - 2 * ImGui::GetStyle().WindowPadding.x - 24 - ImGui::CalcTextSize("Remove").x - 3 * ImGui::GetStyle().FramePadding.x;
             if (ImGui::CalcTextSize(label.c_str()).x > room) {
                 while (label.size() > 1 && ImGui::CalcTextSize((label + "…").c_str()).x > room) {
                     label.pop_back();
@@ -95,6 +95,9 @@ void draw_title(AppState& s, const Theme& t) {
                 }
                 label += "…";
             }
+            if (ImGui::SmallButton("Remove")) { remove_recent(s, i); ImGui::PopID(); break; }
+            mark_widget(("recent-remove-" + std::to_string(i)).c_str());
+            ImGui::SameLine();
             if (ImGui::Selectable(label.c_str())) open_recent(s, i);
             mark_widget(("recent-" + std::to_string(i)).c_str());
             ImGui::PopID();

@@ -93,6 +93,49 @@ check("A<U+200B>," in r.stdout and "\u03c7\u00b2," in r.stdout, "--table csv sho
 r = subprocess.run([TOOL, "--table", "tsv", "--byte-order-mark", "-"], input=labels_paste.encode(), capture_output=True, timeout=30)
 check(r.returncode == 0 and r.stdout.startswith(b"\xef\xbb\xbfCategory\t"), "--byte-order-mark starts the table with U+FEFF")
 check(r.stdout.count(b"\xef\xbb\xbf") == 1, "one byte-order mark only")
+# Totals near 2^53 answer within 5 s (the two-sided binomial test per category once bisected on
+# doubles whose midpoint rounded back onto an end: [9e15, 0] hung). The binomial p of the first
+# category is 2 * 2^-n (closed form), so its log10 is log10(2) - n log10(2); mpmath 1.3 agrees.
+import math
+import time
+for counts in ([9 * 10**15, 0], [2**53 - 1, 1], [2**52, 2**52], [2**53 - 10, 7, 3], [10**12, 1],
+               [4 * 10**15, 1, 4 * 10**15], [2**53 - 1, 0]):
+    text = "".join("c%d\t%d\n" % (i, v) for i, v in enumerate(counts))
+    start = time.monotonic()
+    r = run(["--json"], stdin=text)
+    took = time.monotonic() - start
+    check(r.returncode == 0, f"total {sum(counts)} {counts}: exits 0 (got {r.returncode}: {r.stderr[-200:]})")
+    check(took < 5, f"total {sum(counts)} {counts}: answered in {took:.1f} s (limit 5 s)")
+    if r.returncode != 0:
+        continue
+    d = json.loads(r.stdout)
+    n = sum(counts)
+    check(d["n"] == n, f"total {counts}: N = {d['n']}")
+    check(d["log10_p_value"] is None or d["log10_p_value"] <= 0, f"total {counts}: log10 p <= 0")
+    if len(counts) == 2 and counts[1] == 0:
+        want = math.log10(2) - n * math.log10(2)
+        got = math.log10(d["category_p_values"][0]) if d["category_p_values"][0] > 0 else None
+        check(got is None or close(got, want, 1e-9), f"{counts}: category p log10 {got} vs {want}")
+    check(d["effect_size"]["estimate"] <= d["effect_size"]["w_interval"][1] * (1 + 1e-9) and
+          d["effect_size"]["estimate"] >= d["effect_size"]["w_interval"][0] * (1 - 1e-9),
+          f"{counts}: labelled effect size inside its interval")
+
+# The lower tail beyond the double range is in the result document as a logarithm:
+# R 4.2.2 pchisq(0.02, 300, log.p = TRUE) / log(10) = -562.761207593581 (301 categories of 100,
+# one +1 and one -1: X2 = 0.02).
+text = "".join("c%d\t%d\n" % (i, 100 + (1 if i == 0 else -1 if i == 1 else 0)) for i in range(301))
+d = json.loads(run(["--json"], stdin=text).stdout)
+check(d["lower_p_value"] == 0 and close(d["log10_lower_p_value"], -562.761207593581, 1e-12),
+      f"log10_lower_p_value {d.get('log10_lower_p_value')}")
+check(d["exact_lower_p_value"] is None, "no exact lower tail for 301 categories")
+# A perfect fit at N = 15: exact P(X2 <= 0) = 15! / (5!^3 3^15) = 756756 / 14348907, no warning.
+d = json.loads(run(["--json"], stdin="A\t5\nB\t5\nC\t5\n").stdout)
+check(close(d["exact_lower_p_value"], 756756 / 14348907, 1e-12), f"exact lower p {d['exact_lower_p_value']}")
+check(not any("closer to the stated mix" in w for w in d["warnings"]), "perfect fit at N = 15 is not called too good")
+# Intervals that cannot be computed at alpha 1e-17 are null, with a note.
+d = json.loads(run(["--json", "--alpha", "1e-17"], stdin="A\t30\nB\t50\nC\t20\n").stdout)
+check(d["intervals"]["goodman_lower"] == [None] * 3 and d["intervals"]["lower"] == [None] * 3 and
+      "not available" in d["intervals"].get("note", ""), f"intervals at alpha 1e-17: {d['intervals']}")
 
 os.unlink(path)
 if failures:

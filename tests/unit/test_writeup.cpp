@@ -30,8 +30,10 @@ Result sample() {
     r.p = r.upper = {0.0001697424356, std::log10(0.0001697424356)};
     r.alpha = 0.05;
     r.reject = true;
-    r.effect.w = 0.4472136;
-    r.effect.w_interval = {0.4472136, 0.2195227538, 0.6242481428, 0.95};
+    r.effect.w = 0.4472136;              // sqrt(20 / 100)
+    r.effect.estimate = 0.4123105626;    // sqrt((20 - 3) / 100), the labelled size the sentence gives
+    r.lower = {0.9998302575644, std::log10(0.9998302575644)};  // R: pchisq(20, 3)
+    r.effect.w_interval = {0.4123105626, 0.2195227538, 0.6242481428, 0.95};
     r.validity.cochran_holds = true;
     for (std::size_t i = 0; i < 4; ++i) r.merge_map.push_back({i});
     const double ares[] = {0, -1.732051, -3.464102, 3.464102};
@@ -55,13 +57,13 @@ TEST_CASE("the sentence in reporting style") {
     o.subject = "the grades";
     CHECK(writeup_sentence(a, r, o) ==
           "A chi-square goodness-of-fit test found that the grades were not consistent with the stated mix, "
-          "χ²(3, N = 100) = 20.00, p < .001, w = 0.45, 95% CI [0.22, 0.62] (asymptotic).");
+          "χ²(3, N = 100) = 20.00, p < .001, w = 0.41, 95% CI [0.22, 0.62] (asymptotic).");
 
     // p = .019: three decimals, no leading zero (X2 = 10 on 3 df, R: 0.01856613546).
     r.statistic = 10;
     r.p = {0.01856613546, std::log10(0.01856613546)};
     r.method = PValueMethod::exact;
-    CHECK(writeup_sentence(a, r, o).find("= 10.00, p = .019, w = 0.45") != std::string::npos);
+    CHECK(writeup_sentence(a, r, o).find("= 10.00, p = .019, w = 0.41") != std::string::npos);
     CHECK(writeup_sentence(a, r, o).find("(exact).") != std::string::npos);
 
     r.method = PValueMethod::monte_carlo;
@@ -110,7 +112,7 @@ TEST_CASE("decimal comma") {
     o.decimal_comma = true;
     CHECK(writeup_sentence(a, r, o) ==
           "A chi-square goodness-of-fit test found that the counts were not consistent with the stated mix, "
-          "χ²(3, N = 12\u202F345) = 12,84; p = ,005; w = 0,45; 95% CI [0,22; 0,62] (Monte Carlo; B = 100\u202F000; seed 7).");
+          "χ²(3, N = 12\u202F345) = 12,84; p = ,005; w = 0,41; 95% CI [0,22; 0,62] (Monte Carlo; B = 100\u202F000; seed 7).");
     o.decimal_comma = false;
     CHECK(writeup_sentence(a, r, o).find("χ²(3, N = 12,345) = 12.84, p = .005,") != std::string::npos);
 }
@@ -182,7 +184,8 @@ TEST_CASE("TSV block pastes into cells") {
     o.style = WriteupStyle::tsv;
     const std::string s = writeup(a, r, o);
     CHECK(s.rfind("Test\tchi-square goodness-of-fit test\nStatistic\tχ²\nValue\t20.00\ndf\t3\nN\t100\np\t0.0001697\n"
-                  "p-value method\tasymptotic\nw\t0.45\nw, 95% CI lower\t0.22\nw, 95% CI upper\t0.62\n"
+                  "p-value method\tasymptotic\nLower-tail p (fit too good?)\t0.9998\nw (from the noncentrality)\t0.41\n"
+                  "Cohen's w = sqrt(X2/N), biased up by about df/N\t0.45\nw, 95% CI lower\t0.22\nw, 95% CI upper\t0.62\n"
                   "Conclusion\tnot consistent with the stated mix\nSentence\tA chi-square", 0) == 0);
     CHECK(s.find("\n\nCategory\tObserved\tExpected\tContribution\tAdjusted residual\tAdjusted p\tDirection\n") != std::string::npos);
     CHECK(s.find("\n'=cmd|' /C calc'!A0\t20\t25.00\t1.00\t-1.73\t0.5\tfewer than expected\n") != std::string::npos);
@@ -210,5 +213,5 @@ TEST_CASE("end to end through analyse()") {
     REQUIRE(r.status.ok);
     CHECK(writeup_sentence(a, r, {}) ==
           "A chi-square goodness-of-fit test found that the counts were not consistent with the stated mix, "
-          "χ²(3, N = 400) = 10.00, p = .019, w = 0.16, 95% CI [0.02, 0.24] (asymptotic).");
+          "χ²(3, N = 400) = 10.00, p = .019, w = 0.13, 95% CI [0.02, 0.24] (asymptotic).");  // sqrt((10 - 3) / 400)
 }

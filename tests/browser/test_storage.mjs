@@ -1,0 +1,65 @@
+// Storage across tabs and when the browser refuses it: two tabs of one browser make, save and
+// reload analyses in turn and each keeps its own while the shared recent list keeps both; with
+// setItem throwing (private windows, full quota) the page says nothing is kept and offers the download.
+import { assert, lastResult, pasteText, pageUrl, withPage } from './harness.mjs';
+
+async function ready(page) {
+  await page.waitForFunction(() => document.getElementById('tp-results')?.dataset.state === 'result', null, { timeout: 20000 });
+}
+async function pasteAndWait(page, text, first) {
+  await pasteText(page, text);
+  await page.waitForFunction((f) => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[0] === f, first);
+}
+async function recentTitles(page) {
+  return page.evaluate(() => JSON.parse(localStorage.getItem('tallyproof.recent') || '[]').map((e) => e.title));
+}
+
+export const tests = {
+  async 'two tabs keep their own analyses and share the recent list'() {
+    await withPage({}, async (a, context) => {
+      const b = await context.newPage();
+      await b.goto(pageUrl);
+      await ready(b);
+      await pasteAndWait(a, 'North\t31\nSouth\t44\nEast\t25\nWest\t40\n', 'North');
+      await pasteAndWait(b, 'Red\t12\nGreen\t19\nBlue\t9\n', 'Red');
+      await pasteAndWait(a, 'North\t31\nSouth\t44\nEast\t25\nWest\t41\n', 'North');  // tab A saves again after B
+      await a.reload();
+      await ready(a);
+      let r = await lastResult(a);
+      assert(r.categories.join(',') === 'North,South,East,West' && r.observed[3] === 41, `tab A after reload: ${r.categories} ${r.observed}`);
+      await b.reload();
+      await ready(b);
+      r = await lastResult(b);
+      assert(r.categories.join(',') === 'Red,Green,Blue', `tab B after reload: ${r.categories}`);
+      const titles = await recentTitles(a);
+      assert(titles.some((t) => t.startsWith('North, South, East, …') && t.includes('N = 141')), `recent list has A's: ${titles}`);
+      assert(titles.some((t) => t.startsWith('Red, Green, Blue') && t.includes('N = 40')), `recent list has B's: ${titles}`);
+      // Each analysis has one entry: A's reload did not add its analysis again.
+      assert(titles.filter((t) => t.includes('N = 141')).length === 1, `one entry for A's analysis: ${titles}`);
+      assert(titles.some((t) => t.includes('N = 140')), `A's first paste is kept too: ${titles}`);
+      for (const t of titles) {
+        assert(!t.startsWith(' ') && !t.includes('restored from the last session') && !t.startsWith('('), `title ${t}`);
+      }
+      // A third tab starts from the latest analysis of any tab (B's reload saved it last).
+      const c = await context.newPage();
+      await c.goto(pageUrl);
+      await ready(c);
+      r = await lastResult(c);
+      assert(r.categories[0] === 'Red', `a new tab starts from the latest: ${r.categories}`);
+    });
+  },
+
+  async 'storage refused: the notice says nothing is kept and offers the download'() {
+    const initScript = () => {
+      Storage.prototype.setItem = function () { throw new DOMException('refused', 'QuotaExceededError'); };
+    };
+    await withPage({ initScript }, async (page) => {
+      await page.waitForFunction(() => (globalThis.tallyproofPage.lastNotice || '').includes('not being kept in this browser'), null, { timeout: 5000 });
+      await pasteAndWait(page, 'A\t5\nB\t9\nC\t7\n', 'A');  // the analysis itself is unchanged by the refusal
+      const r = await lastResult(page);
+      assert(r.n === 21, `analysed as usual: N = ${r.n}`);
+      const notice = await page.evaluate(() => globalThis.tallyproofPage.lastNotice);
+      assert(notice.includes('not being kept in this browser') && notice.includes('Download analysis (JSON)'), notice);
+    });
+  },
+};
