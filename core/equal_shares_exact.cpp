@@ -12,13 +12,13 @@
 
 #include <boost/math/special_functions/gamma.hpp>
 
+#include "binomial_terms.hpp"
 #include "math_policy.hpp"
 
 namespace tallyproof {
 namespace {
 
 constexpr double kEps = std::numeric_limits<double>::epsilon();
-constexpr double kPmfCut = 1e-20;  // binomial terms below this (relative to 1) are bounded, not used
 
 // Least sum of squares of M counts over r categories (as even as possible), and the greatest.
 double least_squares_sum(std::int64_t m, std::int64_t r) {
@@ -27,12 +27,7 @@ double least_squares_sum(std::int64_t m, std::int64_t r) {
     return static_cast<double>(r * q * q + rem * (2 * q + 1));
 }
 
-void add_tail(EqualSharesExactState* st, double v) {  // Neumaier compensated summation
-    const double t = st->tail + v;
-    if (std::fabs(st->tail) >= std::fabs(v)) st->compensation += (st->tail - t) + v;
-    else st->compensation += (v - t) + st->tail;
-    st->tail = t;
-}
+void add_tail(EqualSharesExactState* st, double v) { st->tail.add(v); }
 
 std::int64_t integer_threshold(const OutcomeScores& sc) {
     // X² = (k/N) S - N, so the statistic threshold (observed less the tie tolerance) is S >= this.
@@ -58,6 +53,10 @@ double estimate_equal_shares_work(const OutcomeScores& sc) {
     // times the binomial terms used per state (measured: actual / estimate 0.1 to 0.5, k = 10..100).
     const double n = sc.n, k = static_cast<double>(sc.shares.size());
     const double s_thr = static_cast<double>(integer_threshold(sc));
+    // Rows are dense in s up to min(S, m²): refuse (infinite work) past 256 MB for two levels.
+    double cells = 0;
+    for (int m = 0; m <= sc.n; ++m) cells += std::min(s_thr, static_cast<double>(m) * m) + 1;
+    if (2 * 8 * cells > 268435456.0) return std::numeric_limits<double>::infinity();
     double units = 0;
     for (int j = 0; j < static_cast<int>(k); ++j) {
         const double f = j / k, sd_m = std::sqrt(n * f * (1 - f));
@@ -131,37 +130,8 @@ WorkProgress equal_shares_exact_step(EqualSharesExactState* st, std::uint64_t bu
                 else if (from < static_cast<std::int64_t>(len)) add_tail(st, suffix[static_cast<std::size_t>(from)]);
                 continue;
             }
-            // Binomial terms Bin(M, q) walked out from the mode by the ratio recurrence.
-            int mode = static_cast<int>(std::floor((M + 1.0) * q));
-            if (mode > M) mode = M;
-            const auto& lf = st->log_factorial;
-            const double log_mode = lf[static_cast<std::size_t>(M)] - lf[static_cast<std::size_t>(mode)] -
-                                    lf[static_cast<std::size_t>(M - mode)] + mode * std::log(q) +
-                                    (M - mode) * std::log1p(-q);
-            pmf.assign(static_cast<std::size_t>(M) + 1, 0.0);
-            pmf[static_cast<std::size_t>(mode)] = std::exp(log_mode);
-            int lo = mode, hi = mode;
-            double bounded = 0;  // binomial mass left out, bounded geometrically
-            for (int x = mode; x < M; ++x) {
-                const double rho = (static_cast<double>(M - x) / (x + 1.0)) * odds;
-                const double t = pmf[static_cast<std::size_t>(x)] * rho;
-                if (t < kPmfCut && rho < 0.5) {
-                    bounded += t / (1 - rho);
-                    break;
-                }
-                pmf[static_cast<std::size_t>(x) + 1] = t;
-                hi = x + 1;
-            }
-            for (int x = mode; x > 0; --x) {
-                const double rho = x / ((M - x + 1.0) * odds);
-                const double t = pmf[static_cast<std::size_t>(x)] * rho;
-                if (t < kPmfCut && rho < 0.5) {
-                    bounded += t / (1 - rho);
-                    break;
-                }
-                pmf[static_cast<std::size_t>(x) - 1] = t;
-                lo = x - 1;
-            }
+            int lo = 0, hi = 0;
+            const double bounded = binomial_terms(M, q, odds, st->log_factorial, &pmf, &lo, &hi);
             st->dropped += total * bounded;
             std::size_t a = 0, b = len;  // the nonzero span of the row
             while (a < b && row[a] == 0) ++a;
@@ -223,7 +193,7 @@ Status equal_shares_exact_result(const EqualSharesExactState& st, ExactMultinomi
     *r = ExactMultinomialResult{};
     if (st.progress.cancelled) return Status::failure("The exact computation was cancelled.");
     if (!st.progress.done || st.k == 0) return Status::failure("The exact computation has not finished.");
-    const double p = std::min(1.0, st.tail + st.compensation);
+    const double p = std::min(1.0, st.tail.value());
     if (!(p > 0) || !std::isfinite(p))
         return Status::failure("The exact p-value could not be computed to a stated accuracy for this table; "
                                "use the Monte Carlo p-value instead.");

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "chi_square_tail.hpp"
+#include "compensated_sum.hpp"
 #include "exact_multinomial.hpp"
 #include "status.hpp"
 #include "work_slice.hpp"
@@ -17,7 +18,8 @@ namespace tallyproof {
 
 // Whether the DP applies: the statistic ordering with lambda = 1 and every kept share equal.
 bool equal_shares_dp_applies(const OutcomeScores& scores);
-// Estimated work units (state updates, about 1e9 a second natively) of the run.
+// Estimated work units (state updates, about 1e9 a second natively) of the run; infinity when its
+// rows would pass 256 MB.
 double estimate_equal_shares_work(const OutcomeScores& scores);
 
 struct EqualSharesExactState {
@@ -26,7 +28,7 @@ struct EqualSharesExactState {
     double observed_score = 0;
     std::vector<double> log_factorial;
     std::vector<std::vector<double>> rows, next;  // rows[m][s]: P(prefix with count m, sum of squares s)
-    double tail = 0, compensation = 0;    // mass already known extreme (Neumaier sum)
+    CompensatedSum tail;                  // mass already known extreme
     double dropped = 0;                   // mass of dropped light states (an upper bound on the loss)
     double mass_cut = 0;                  // states lighter than this are dropped
     double estimated_work = 0;

@@ -1,8 +1,9 @@
 // The exact p-value by whichever exact method is estimated fastest for the table: the
 // branch-and-bound walk (exact_multinomial) or, under equal shares with X², the dynamic
 // programme over sums of squares (equal_shares_exact). The choice is made on estimated time
-// (work estimates over rates measured natively on one core, tests/bench/bench_exact_dp); a
-// table no method is estimated to finish within the limit is refused, offering Monte Carlo.
+// (work estimates over rates measured natively on one core, tests/bench/bench_exact_dp). A table
+// neither finishes within the limit gets the certified grid bracket (grid_bracket_exact), refined
+// as far as the time limit allows; its half-width is the reported error bound.
 #pragma once
 #include <cstdint>
 #include <memory>
@@ -10,16 +11,18 @@
 
 #include "equal_shares_exact.hpp"
 #include "exact_multinomial.hpp"
+#include "grid_bracket_exact.hpp"
 #include "status.hpp"
 #include "work_slice.hpp"
 
 namespace tallyproof {
 
-enum class ExactMethod { walk, equal_shares_dp };
-const char* exact_method_name(ExactMethod m);  // "branch-and-bound", "equal-shares-dp"
+enum class ExactMethod { walk, equal_shares_dp, grid_bracket };
+const char* exact_method_name(ExactMethod m);  // "branch-and-bound", "equal-shares-dp", "grid-bracket"
 
 struct ExactChoiceOptions {
-    double max_seconds = 1.0;  // refuse when the fastest method is estimated to take longer natively
+    double max_seconds = 1.0;   // the time limit, natively (the page takes up to about twice as long)
+    double error_bound = 1e-6;  // wanted bound of the grid bracket (the other methods do far better)
 };
 
 struct ExactJob {
@@ -27,6 +30,7 @@ struct ExactJob {
     double estimated_seconds = 0;  // of the chosen method, natively
     std::unique_ptr<ExactMultinomialState> walk;
     std::unique_ptr<EqualSharesExactState> dp;
+    std::unique_ptr<GridBracketState> grid;
 };
 
 // Estimated native seconds of each method for the scored table (infinity where it does not apply).

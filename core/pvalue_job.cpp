@@ -87,6 +87,10 @@ void finish_pvalue_job(const PValueJob& job, Result* r) {
         }
         r->exact.computed = true;
         r->exact.method = exact_method_name(job.exact->method);
+        if (er.error_bound > ExactChoiceOptions{}.error_bound)
+            r->warnings.push_back("The exact p-value is certified only to within " + format_significant(er.error_bound, 2) +
+                                  " either way (the bracket reached within the time limit); use it with that margin, or "
+                                  "use the Monte Carlo p-value for a tighter estimate.");
         if (r->estimated_parameters > 0)
             r->warnings.push_back("The exact p-value is conditional on the fitted shares (it treats them as known); with "
                                   "estimated parameters it is conservative (closer to the p at df " +
