@@ -251,6 +251,33 @@ Status make_outcome_scores(const MultinomialTestSpec& spec, OutcomeScores* sc, b
     return Status::success();
 }
 
+std::vector<std::vector<double>> least_completion_scores(const OutcomeScores& sc, std::vector<std::vector<int>>* argmin) {
+    const int k = static_cast<int>(sc.shares.size());
+    const int N = sc.n;
+    std::vector<std::vector<double>> min_rest(static_cast<std::size_t>(k));
+    if (argmin) argmin->assign(static_cast<std::size_t>(k), {});
+    if (k == 0) return min_rest;
+    min_rest[k - 1] = sc.score[k - 1];
+    for (int j = k - 2; j >= 0; --j) {
+        const std::vector<double>& g = sc.score[j];
+        const std::vector<double>& v = min_rest[j + 1];
+        std::vector<double> w(N + 1);
+        std::vector<int> split(N + 1);
+        int ig = 0, iv = 0;
+        for (int m = 0; m <= N; ++m) {
+            split[m] = ig;
+            w[m] = g[ig] + v[iv];
+            if (m == N) break;
+            const double dg = ig < N ? g[ig + 1] - g[ig] : HUGE_VAL;
+            const double dv = iv < N ? v[iv + 1] - v[iv] : HUGE_VAL;
+            (dg <= dv ? ig : iv) += 1;
+        }
+        if (argmin) (*argmin)[j] = std::move(split);
+        if (j >= 1) min_rest[j] = std::move(w);
+    }
+    return min_rest;
+}
+
 double estimate_exact_work(const OutcomeScores& sc) {
     const int k = static_cast<int>(sc.shares.size());
     const int N = sc.n;
@@ -331,28 +358,7 @@ Status exact_multinomial_start(const MultinomialTestSpec& spec, const ExactMulti
         st->log_rest_cond[j] = std::log(rest[j + 1]) - std::log(rest[j]);
         st->odds[j] = sc.shares[j] / rest[j + 1];
     }
-    // Least completion scores V[j][m] by merging increments (valid because each score row is
-    // discrete-convex), with the split that attains them.
-    st->min_rest.assign(k, {});
-    st->argmin.assign(k, {});
-    st->min_rest[k - 1] = sc.score[k - 1];
-    for (int j = k - 2; j >= 0; --j) {
-        const std::vector<double>& g = sc.score[j];
-        const std::vector<double>& v = st->min_rest[j + 1];
-        std::vector<double> w(N + 1);
-        std::vector<int> split(N + 1);
-        int ig = 0, iv = 0;
-        for (int m = 0; m <= N; ++m) {
-            split[m] = ig;
-            w[m] = g[ig] + v[iv];
-            if (m == N) break;
-            const double dg = ig < N ? g[ig + 1] - g[ig] : HUGE_VAL;
-            const double dv = iv < N ? v[iv + 1] - v[iv] : HUGE_VAL;
-            (dg <= dv ? ig : iv) += 1;
-        }
-        st->argmin[j] = std::move(split);
-        if (j >= 1) st->min_rest[j] = std::move(w);
-    }
+    st->min_rest = least_completion_scores(sc, &st->argmin);
     // Pruning of inner prefixes allows for rounding in V; leaves are classified exactly.
     double big = std::fabs(sc.threshold);
     for (int j = 0; j < k; ++j) big = std::max(big, std::fabs(sc.score[j][N]));

@@ -72,6 +72,12 @@ struct ExactMultinomialResult {
     double observed_score = 0;         // T(observed), see OutcomeScores
 };
 
+// V[j][m]: the least score of categories j.. holding m counts (every score row is discrete-convex,
+// so an infimal convolution by merging sorted increments; Ibaraki & Katoh 1988). argmin (if given)
+// receives the count of category j in that least completion. Rows j = 0..k-1; V[0] is left empty.
+std::vector<std::vector<double>> least_completion_scores(const OutcomeScores& scores,
+                                                         std::vector<std::vector<int>>* argmin = nullptr);
+
 // Cheap estimate (chi-square-ellipsoid volume) of the work units the exact run will take.
 double estimate_exact_work(const OutcomeScores& scores);
 double multinomial_outcome_count(int n, int k);  // C(n + k - 1, k - 1) as a double

@@ -26,6 +26,7 @@ void start_pvalue_job(const Analysis& a, const Result& r, PValueJob* job) {
     job->method = a.pvalue.method;
     job->exact.reset();
     job->monte_carlo.reset();
+    job->refit.reset();
     job->progress = WorkProgress{};
     job->status = Status::success();
     // A comparison with a previous sample computes its own conditional p-values (reference_sample_analysis).
@@ -36,14 +37,19 @@ void start_pvalue_job(const Analysis& a, const Result& r, PValueJob* job) {
     }
     const MultinomialTestSpec spec = spec_of(a, r);
     if (a.pvalue.method == PValueMethod::exact) {
-        job->exact = std::make_unique<ExactMultinomialState>();
-        job->status = exact_multinomial_start(spec, ExactMultinomialOptions{}, job->exact.get());
+        job->exact = std::make_unique<ExactJob>();
+        job->status = exact_job_start(spec, ExactChoiceOptions{}, job->exact.get());
     } else {
-        job->monte_carlo = std::make_unique<MonteCarloState>();
         MonteCarloOptions mo;
         mo.replicates = a.pvalue.replicates;
         mo.seed = a.pvalue.seed;
-        job->status = monte_carlo_start(spec, mo, job->monte_carlo.get());
+        if (monte_carlo_refits(a, r)) {
+            job->refit = std::make_unique<RefitMonteCarloState>();
+            job->status = refit_monte_carlo_start(a, r, mo, job->refit.get());
+        } else {
+            job->monte_carlo = std::make_unique<MonteCarloState>();
+            job->status = monte_carlo_start(spec, mo, job->monte_carlo.get());
+        }
     }
     if (!job->status.ok) {
         job->progress.done = true;
@@ -53,15 +59,17 @@ void start_pvalue_job(const Analysis& a, const Result& r, PValueJob* job) {
 
 WorkProgress step_pvalue_job(PValueJob* job, std::uint64_t budget) {
     if (job->progress.done || job->progress.cancelled) return job->progress;
-    if (job->exact) job->progress = exact_multinomial_step(job->exact.get(), budget);
+    if (job->exact) job->progress = exact_job_step(job->exact.get(), budget);
     else if (job->monte_carlo) job->progress = monte_carlo_step(job->monte_carlo.get(), budget);
+    else if (job->refit) job->progress = refit_monte_carlo_step(job->refit.get(), budget);
     else { job->progress.done = true; job->progress.fraction = 1; }
     return job->progress;
 }
 
 void cancel_pvalue_job(PValueJob* job) {
-    if (job->exact) exact_multinomial_cancel(job->exact.get());
+    if (job->exact) exact_job_cancel(job->exact.get());
     if (job->monte_carlo) monte_carlo_cancel(job->monte_carlo.get());
+    if (job->refit) refit_monte_carlo_cancel(job->refit.get());
     step_pvalue_job(job, 0);
     job->progress.cancelled = true;
 }
@@ -71,7 +79,7 @@ void finish_pvalue_job(const PValueJob& job, Result* r) {
     if (job.method == PValueMethod::exact) {
         r->exact.requested = true;
         ExactMultinomialResult er;
-        const Status s = job.status.ok ? (job.exact ? exact_multinomial_result(*job.exact, &er) : Status::failure("not started"))
+        const Status s = job.status.ok ? (job.exact ? exact_job_result(*job.exact, &er) : Status::failure("not started"))
                                        : job.status;
         if (!s.ok || job.progress.cancelled) {
             r->exact.refusal = job.progress.cancelled ? "The exact computation was cancelled." : s.message;
@@ -79,9 +87,16 @@ void finish_pvalue_job(const PValueJob& job, Result* r) {
             return;
         }
         r->exact.computed = true;
+        r->exact.method = exact_method_name(job.exact->method);
+        if (er.error_bound > ExactChoiceOptions{}.error_bound)
+            r->warnings.push_back("The exact p-value is certified only to within " + format_significant(er.error_bound, 2) +
+                                  " either way (the bracket reached within the time limit); use it with that margin, or "
+                                  "use the Monte Carlo p-value for a tighter estimate.");
         if (r->estimated_parameters > 0)
-            r->warnings.push_back("The exact p-value treats the fitted shares as known; with estimated parameters it is "
-                                  "conservative (closer to the p at df " + std::to_string(static_cast<long long>(r->df_range.upper_df)) + ").");
+            r->warnings.push_back("The exact p-value is conditional on the fitted shares (it treats them as known); with "
+                                  "estimated parameters it is conservative (closer to the p at df " +
+                                  std::to_string(static_cast<long long>(r->df_range.upper_df)) + "). The Monte Carlo "
+                                  "p-value refits the model on every simulated table.");
         r->exact.p = er.p;
         r->exact.error_bound = er.error_bound;
         r->exact.work_units = static_cast<double>(er.work_units);
@@ -90,17 +105,28 @@ void finish_pvalue_job(const PValueJob& job, Result* r) {
     } else if (job.method == PValueMethod::monte_carlo) {
         r->monte_carlo.requested = true;
         MonteCarloResult mr;
-        const Status s = job.status.ok ? (job.monte_carlo ? monte_carlo_result(*job.monte_carlo, &mr) : Status::failure("not started"))
-                                       : job.status;
+        RefitMonteCarloResult rr;
+        Status s = job.status;
+        if (s.ok && job.refit) {
+            s = refit_monte_carlo_result(*job.refit, &rr);
+            mr = rr.mc;
+        } else if (s.ok) {
+            s = job.monte_carlo ? monte_carlo_result(*job.monte_carlo, &mr) : Status::failure("not started");
+        }
         if (!s.ok || job.progress.cancelled) {
             r->monte_carlo.refusal = job.progress.cancelled ? "The simulation was cancelled." : s.message;
             r->warnings.push_back("Monte Carlo p-value not available: " + r->monte_carlo.refusal + " The asymptotic p-value is shown.");
             return;
         }
         r->monte_carlo.computed = true;
-        if (r->estimated_parameters > 0)
+        r->monte_carlo.refit = job.refit != nullptr;
+        if (!job.refit && r->estimated_parameters > 0)
             r->warnings.push_back("The Monte Carlo p-value treats the fitted shares as known; with estimated parameters it is "
                                   "conservative (closer to the p at df " + std::to_string(static_cast<long long>(r->df_range.upper_df)) + ").");
+        if (job.refit && rr.failed_refits > 0)
+            r->warnings.push_back("The model could not be refitted to " + std::to_string(rr.failed_refits) +
+                                  " simulated tables (a parameter at the edge of its range); they are left out of the "
+                                  "Monte Carlo p-value.");
         r->monte_carlo.p = mr.p;
         r->monte_carlo.standard_error = mr.standard_error;
         r->monte_carlo.replicates = mr.replicates;

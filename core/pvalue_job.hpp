@@ -1,12 +1,15 @@
 // p-value jobs: the exact multinomial or Monte Carlo p-value of an analysed Result, run in
-// slices (a frame at a time in the browser) with progress and cancel, or in one call.
+// slices (a frame at a time in the browser) with progress and cancel, or in one call. Monte
+// Carlo for a model fitted to these counts refits on every replicate (refit_monte_carlo).
 #pragma once
 #include <cstdint>
 #include <memory>
 
 #include "analysis.hpp"
+#include "exact_choice.hpp"
 #include "exact_multinomial.hpp"
 #include "monte_carlo.hpp"
+#include "refit_monte_carlo.hpp"
 #include "result.hpp"
 #include "work_slice.hpp"
 
@@ -14,8 +17,9 @@ namespace tallyproof {
 
 struct PValueJob {
     PValueMethod method = PValueMethod::asymptotic;
-    std::unique_ptr<ExactMultinomialState> exact;
-    std::unique_ptr<MonteCarloState> monte_carlo;
+    std::unique_ptr<ExactJob> exact;                 // the fastest exact method, chosen by estimated time
+    std::unique_ptr<MonteCarloState> monte_carlo;    // stated or digit-law shares
+    std::unique_ptr<RefitMonteCarloState> refit;     // fitted models: parametric bootstrap
     WorkProgress progress;
     Status status;  // a refusal at start (too costly, unsupported statistic)
 };

@@ -6,6 +6,9 @@
 // and it needs one table per (category, c) instead of one per (category, m), whose number and size
 // both grow with N. Integer ops and IEEE +,-,*,/ only (no libm), so results do not depend on the
 // platform's math library; each table omits tails below 2^-64 of its mode weight (< 1e-15 in total).
+// Sparse tables (n at most kCategoricalPerCategory per category) are drawn instead as n categorical
+// draws from one Walker alias table over the categories (Lemire's exact column choice, 32-bit
+// alias test): O(n + k) per table with no cache, so the cost is linear in k at a fixed n / k.
 #include "random.hpp"
 
 #include <algorithm>
@@ -31,6 +34,34 @@ AliasTable point_mass(int x) {
     t.lo = x;
     t.columns.assign(1, AliasColumn{1.0, 0});
     return t;
+}
+
+// Vose's (1991) stable alias construction over weights w summing to total.
+std::vector<AliasColumn> vose_alias_columns(const std::vector<double>& w, double total) {
+    const std::size_t size = w.size();
+    std::vector<AliasColumn> columns(size, AliasColumn{1.0, 0});
+    std::vector<double> scaled(size);
+    std::vector<std::uint32_t> small, large;
+    small.reserve(size);
+    large.reserve(size);
+    for (std::size_t i = 0; i < size; ++i) {
+        scaled[i] = w[i] * static_cast<double>(size) / total;
+        columns[i].alias = static_cast<std::uint32_t>(i);
+        (scaled[i] < 1.0 ? small : large).push_back(static_cast<std::uint32_t>(i));
+    }
+    while (!small.empty() && !large.empty()) {
+        const std::uint32_t l = small.back();
+        small.pop_back();
+        const std::uint32_t g = large.back();
+        large.pop_back();
+        columns[l].accept = scaled[l];
+        columns[l].alias = g;
+        scaled[g] = (scaled[g] + scaled[l]) - 1.0;
+        (scaled[g] < 1.0 ? small : large).push_back(g);
+    }
+    for (std::uint32_t i : small) columns[i].accept = 1.0;  // leftovers are 1 up to rounding
+    for (std::uint32_t i : large) columns[i].accept = 1.0;
+    return columns;
 }
 
 }  // namespace
@@ -104,29 +135,7 @@ AliasTable binomial_alias_table(int n, double q, double odds) {
         while (lo < m0) total += w[lo++];
         while (hi > m0) total += w[--hi];
     }
-    // Vose's stable alias construction.
-    t.columns.assign(size, AliasColumn{1.0, 0});
-    std::vector<double> scaled(size);
-    std::vector<std::uint32_t> small, large;
-    small.reserve(size);
-    large.reserve(size);
-    for (std::size_t i = 0; i < size; ++i) {
-        scaled[i] = w[i] * static_cast<double>(size) / total;
-        t.columns[i].alias = static_cast<std::uint32_t>(i);
-        (scaled[i] < 1.0 ? small : large).push_back(static_cast<std::uint32_t>(i));
-    }
-    while (!small.empty() && !large.empty()) {
-        const std::uint32_t l = small.back();
-        small.pop_back();
-        const std::uint32_t g = large.back();
-        large.pop_back();
-        t.columns[l].accept = scaled[l];
-        t.columns[l].alias = g;
-        scaled[g] = (scaled[g] + scaled[l]) - 1.0;
-        (scaled[g] < 1.0 ? small : large).push_back(g);
-    }
-    for (std::uint32_t i : small) t.columns[i].accept = 1.0;  // leftovers are 1 up to rounding
-    for (std::uint32_t i : large) t.columns[i].accept = 1.0;
+    t.columns = vose_alias_columns(w, total);
     return t;
 }
 
@@ -146,7 +155,7 @@ int sample_alias(const AliasTable& t, Xoshiro256* g) {
     return draw_columns(t.columns.data(), static_cast<std::uint32_t>(t.columns.size()), t.lo, g);
 }
 
-bool make_multinomial_sampler(int n, const std::vector<double>& pi, MultinomialSampler* s) {
+bool make_multinomial_sampler(int n, const std::vector<double>& pi, MultinomialSampler* s, MultinomialPath path) {
     *s = MultinomialSampler{};
     const std::size_t k = pi.size();
     if (n < 0 || k == 0) return false;
@@ -165,6 +174,18 @@ bool make_multinomial_sampler(int n, const std::vector<double>& pi, MultinomialS
     }
     s->direct_size = static_cast<std::size_t>(std::min(n, kDirectMaxTrials)) + 1;
     s->direct.assign(k, {});  // rows are made on first use
+    const bool sparse = static_cast<double>(n) <= static_cast<double>(kCategoricalPerCategory) * static_cast<double>(k);
+    if (k >= 2 && k < (std::size_t(1) << 31) &&
+        (path == MultinomialPath::categorical || (path == MultinomialPath::automatic && sparse))) {
+        const std::vector<AliasColumn> columns = vose_alias_columns(pi, rest[0]);
+        s->categories.resize(k);
+        for (std::size_t j = 0; j < k; ++j) {
+            // keep = round(accept 2^32) exactly (accept <= 1, and 2^32 scaling is exact in IEEE).
+            const double a = columns[j].accept * 4294967296.0;
+            s->categories[j].keep = a >= 4294967296.0 ? (std::uint64_t(1) << 32) : static_cast<std::uint64_t>(a + 0.5);
+            s->categories[j].alias = columns[j].alias;
+        }
+    }
     return true;
 }
 
@@ -183,9 +204,11 @@ void reserve_entries(MultinomialSampler* s, std::size_t entries) {
     s->cached_entries += entries;
 }
 
-MultinomialSampler::Slot build_slot(MultinomialSampler* s, std::size_t j, int trials) {
+// Builds and registers a table. Room for it and `extra` bookkeeping entries is made before it is
+// registered, so the emptying of the cache can never free a table that is about to be handed out.
+MultinomialSampler::Slot build_slot(MultinomialSampler* s, std::size_t j, int trials, std::size_t extra = 0) {
     auto made = std::make_shared<const AliasTable>(binomial_alias_table(trials, s->q[j], s->odds[j]));
-    reserve_entries(s, made->columns.size());
+    reserve_entries(s, made->columns.size() + extra);
     MultinomialSampler::Slot slot;
     slot.columns = made->columns.data();
     slot.lo = made->lo;
@@ -221,8 +244,7 @@ MultinomialSampler::Slot block_slot(MultinomialSampler* s, std::size_t j, int c)
                               static_cast<std::uint64_t>(c);
     auto it = s->blocks.find(key);
     if (it != s->blocks.end()) return it->second;
-    const MultinomialSampler::Slot made = build_slot(s, j, c * kBlockTrials);
-    reserve_entries(s, 4);  // the map node, roughly
+    const MultinomialSampler::Slot made = build_slot(s, j, c * kBlockTrials, 4);  // 4: the map node, roughly
     s->blocks.emplace(key, made);
     return made;
 }
@@ -245,6 +267,23 @@ int sample_binomial(MultinomialSampler* s, std::size_t j, int m, Xoshiro256* g) 
 
 void sample_multinomial(MultinomialSampler* s, Xoshiro256* g, int* counts) {
     const std::size_t k = s->q.size();
+    if (!s->categories.empty()) {
+        std::fill(counts, counts + k, 0);
+        const CategoryColumn* columns = s->categories.data();
+        const std::uint64_t size = k;
+        const std::uint32_t reject_below = static_cast<std::uint32_t>(-static_cast<std::uint32_t>(size)) % static_cast<std::uint32_t>(size);
+        for (int i = 0; i < s->n; ++i) {
+            std::uint64_t u = next_u64(g);
+            std::uint64_t m = (u >> 32) * size;  // Lemire (2019): column = m >> 32, exact after rejection
+            while (static_cast<std::uint32_t>(m) < reject_below) {
+                u = next_u64(g);
+                m = (u >> 32) * size;
+            }
+            const CategoryColumn& c = columns[m >> 32];
+            ++counts[(u & 0xffffffffULL) < c.keep ? (m >> 32) : c.alias];
+        }
+        return;
+    }
     int m = s->n;
     for (std::size_t j = 0; j + 1 < k; ++j) {
         const int x = sample_binomial(s, j, m, g);

@@ -42,15 +42,25 @@ AliasTable binomial_alias_table(int n, double q, double odds);
 // probabilities are resolved to size * 2^-53 (about 1e-13 for tables of 1000 columns).
 int sample_alias(const AliasTable& t, Xoshiro256* g);
 
-// Multinomial(n, pi) sampler by sequential conditional binomials. A binomial of m <= kDirectMaxTrials
+// Multinomial(n, pi) sampler. Sparse tables (n <= kCategoricalPerCategory * k) are drawn as n
+// single categorical draws from one alias table over the k categories (one 64-bit word per draw:
+// its high 32 bits pick the column by Lemire's exact multiply-and-reject, its low 32 bits decide
+// the alias, so shares are resolved to 2^-32 of a column), O(n + k) per table. Otherwise by
+// sequential conditional binomials. A binomial of m <= kDirectMaxTrials
 // trials is drawn from one alias table for (category, m); a larger one as Bin(c B, q) + Bin(r, q),
 // m = c B + r, r < B = kBlockTrials, from the table for (category, c) and the one for (category, r).
 // Tables are built on first use and cached; when the cache would exceed max_cached_entries
 // (columns plus slots, 16 bytes each) it is emptied. The cache changes speed, never draws.
 constexpr int kDirectMaxTrials = 4096;
+constexpr int kCategoricalPerCategory = 32;
+struct CategoryColumn {
+    std::uint64_t keep;   // keep the column when the low 32 bits are below this (2^32: always)
+    std::uint32_t alias;  // otherwise take this category
+};
 constexpr int kBlockTrials = 512;
 struct MultinomialSampler {
     int n = 0;
+    std::vector<CategoryColumn> categories;  // non-empty: the categorical path is used
     std::vector<double> q;     // q[j] = pi_j / (pi_j + ... + pi_{k-1})
     std::vector<double> odds;  // pi_j / (pi_{j+1} + ... + pi_{k-1})
     struct Slot {  // flat view of one cached table: one load before the column itself
@@ -68,9 +78,11 @@ struct MultinomialSampler {
 
 // Sampler for n trials over shares `pi` (non-negative, positive sum; need not sum to 1).
 // Returns false (and leaves *s empty) on bad arguments.
-bool make_multinomial_sampler(int n, const std::vector<double>& pi, MultinomialSampler* s);
+enum class MultinomialPath { automatic, categorical, conditional_binomials };
+bool make_multinomial_sampler(int n, const std::vector<double>& pi, MultinomialSampler* s,
+                              MultinomialPath path = MultinomialPath::automatic);
 void sample_multinomial(MultinomialSampler* s, Xoshiro256* g, int* counts);  // counts[k]
-// One draw of Bin(m, q[j]) as sample_multinomial makes it (j + 1 < k, 0 <= m <= n).
+// One draw of Bin(m, q[j]) as sample_multinomial makes it on the conditional path (j + 1 < k, 0 <= m <= n).
 int sample_binomial(MultinomialSampler* s, std::size_t j, int m, Xoshiro256* g);
 
 }  // namespace tallyproof

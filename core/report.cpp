@@ -259,7 +259,8 @@ std::string report_json(const Analysis& a, const Result& r) {
     if (r.exact.requested) {
         j.key("exact").begin_object();
         if (r.exact.computed) j.key("p_value").value(r.exact.p.p).key("log10_p_value").value(r.exact.p.log10_p)
-                                  .key("error_bound").value(r.exact.error_bound).key("work_units").value(r.exact.work_units);
+                                  .key("error_bound").value(r.exact.error_bound).key("work_units").value(r.exact.work_units)
+                                  .key("method").value(r.exact.method);
         else j.key("refusal").value(r.exact.refusal);
         j.end_object();
     }
@@ -269,7 +270,8 @@ std::string report_json(const Analysis& a, const Result& r) {
             j.key("p_value").value(r.monte_carlo.p).key("se").value(r.monte_carlo.standard_error)
                 .key("replicates").value(static_cast<double>(r.monte_carlo.replicates))
                 .key("hits").value(static_cast<double>(r.monte_carlo.hits))
-                .key("seed").value(static_cast<double>(r.monte_carlo.seed));
+                .key("seed").value(static_cast<double>(r.monte_carlo.seed))
+                .key("refit").value(r.monte_carlo.refit);
         else j.key("refusal").value(r.monte_carlo.refusal);
         j.end_object();
     }

@@ -35,6 +35,7 @@ struct ExactOutcome {
     TailProbability p;
     double error_bound = 0;
     double work_units = 0;
+    std::string method;   // exact_method_name: "branch-and-bound", "equal-shares-dp"
     std::string refusal;  // why it was not computed (too costly: use Monte Carlo)
 };
 
@@ -42,6 +43,7 @@ struct MonteCarloOutcome {
     bool requested = false, computed = false;
     double p = 1, standard_error = 0;
     std::uint64_t replicates = 0, hits = 0, seed = 0;
+    bool refit = false;   // parameters re-estimated on every replicate (parametric bootstrap)
     std::string refusal;
 };
 
