@@ -7,6 +7,7 @@
 #include <cmath>
 #include <cstdarg>
 #include <cstdio>
+#include <cstdlib>
 #include <string>
 
 #include "conformity.hpp"
@@ -128,11 +129,22 @@ void draw_goal_rows(AppState& s, const Theme& t) {
     if (changed) set_test_goal(s, goal == 1, margin);
     if (!c.requested) return;
     ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
-    double w0 = margin;
+    std::string w0_text = format_plain(margin);
     ImGui::SetNextItemWidth(100);
-    if (ImGui::InputDouble("margin w0", &w0, 0, 0, "%.3g", ImGuiInputTextFlags_EnterReturnsTrue) || ImGui::IsItemDeactivatedAfterEdit())
-        if (w0 != margin) set_test_goal(s, true, w0);
+    // A text field like α's, so a touch screen's keyboard opens (text_entry.hpp); a value that
+    // cannot be read goes to set_test_goal as NaN and is refused there with its message.
+    const bool w0_done = text_field("##margin-w0", &w0_text, FieldKeys::decimal,
+                                    ImGuiInputTextFlags_CharsScientific | ImGuiInputTextFlags_EnterReturnsTrue) ||
+                         ImGui::IsItemDeactivatedAfterEdit();
     mark_widget("margin w0");
+    ImGui::SameLine();
+    ImGui::TextUnformatted("margin w0");
+    if (w0_done) {
+        char* end = nullptr;
+        const double w0 = std::strtod(w0_text.c_str(), &end);
+        const bool read = !w0_text.empty() && end && *end == '\0';
+        if (!read || w0 != margin) set_test_goal(s, true, read ? w0 : std::nan(""));
+    }
     muted_wrapped(t, "%s", conformity_margin_guidance());
 }
 

@@ -29,6 +29,31 @@ export const tests = {
     });
   },
 
+  async 'margin w0 is typed through the text-entry element (touch keyboards); an unreadable margin is refused'() {
+    await withPage({}, async (page) => {
+      await pasteText(page, conformDoc);
+      await waitFor(page, 'conform to the stated mix within w < 0.10');
+      await clickWidget(page, 'margin w0');
+      const f = await page.evaluate(() => ({ id: document.activeElement.id, mode: document.activeElement.inputMode, value: document.activeElement.value }));
+      assert(f.id === 'tp-ime' && f.mode === 'decimal' && f.value === '0.1', `margin field: ${JSON.stringify(f)}`);
+      await page.keyboard.press('End');
+      for (let i = 0; i < 8; i++) await page.keyboard.press('Backspace');
+      await page.keyboard.type('0.2', { delay: 20 });
+      await page.keyboard.press('Enter');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastDocument).conformity.margin_w === 0.2, null, { timeout: 5000 });
+      const r = await lastResult(page);
+      // SciPy 1.10: ncx2.cdf(0.72941, 2, 1020 * 0.2**2 = 40.8) is far below 0.004 (the margin is wider).
+      assert(r.conformity && r.conformity.margin_w === 0.2 && r.conformity.p_value < 0.0040613, `conformity at w0 = 0.2: ${JSON.stringify(r.conformity)}`);
+      await clickWidget(page, 'margin w0');
+      await page.keyboard.press('End');
+      for (let i = 0; i < 8; i++) await page.keyboard.press('Backspace');
+      await page.keyboard.type('1.5', { delay: 20 });
+      await page.keyboard.press('Enter');
+      await page.waitForFunction(() => document.body.textContent.includes('must lie in (0, 1]'), null, { timeout: 5000 });
+      assert(JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastDocument)).conformity.margin_w === 0.2, 'the refused margin leaves w0 = 0.2');
+    });
+  },
+
   async 'goal "find a departure" after conformity, and back, through the goal buttons'() {
     await withPage({}, async (page) => {
       await pasteText(page, conformDoc);
