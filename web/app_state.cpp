@@ -280,6 +280,7 @@ std::vector<std::string> display_cells(std::string_view line) {
 // here, not in every frame), and the whole text when it is small enough to edit on the page.
 void record_refusal(AppState& s, std::string_view text, const Status& problem) {
     s.rejected_message = problem.message;
+    s.rejected_file.clear();  // apply_input names the file after this
     s.rejected_line = problem.line;
     s.rejected_column = problem.column;
     s.rejected_cells.clear();
@@ -435,9 +436,11 @@ void apply_input(AppState& s, std::string bytes, std::string_view file_name) {
         const std::string who = file_name.empty() ? std::string() : std::string(file_name.substr(0, 80)) + ": ";
         // A pasted text stays editable; a binary file's bytes are not worth editing.
         record_refusal(s, file_name.empty() ? std::string_view(bytes) : std::string_view(), Status::failure(who + d.status.message));
+        s.rejected_file = std::string(file_name);
         return;
     }
     apply_paste(s, bytes);
+    if (!s.rejected_message.empty()) s.rejected_file = std::string(file_name);
     if (!d.notice.empty() && s.rejected_message.empty()) set_notice(s, d.notice + (s.notice.empty() ? "" : " " + s.notice));
 }
 

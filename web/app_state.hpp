@@ -73,6 +73,7 @@ struct AppState {
 
     // The last paste that was refused: shown with its message while the previous analysis stays
     std::string rejected_message;
+    std::string rejected_file;       // the file a refused input came from (empty for a paste)
     int rejected_line = 0;
     int rejected_column = 0;                 // the cell the message names (1-based), 0 when none
     std::vector<std::string> rejected_cells;  // the cells of line rejected_line, as shown (split once)

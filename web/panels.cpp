@@ -184,7 +184,7 @@ void draw_rejection_notice(AppState& s, const Theme& t) {
     ImGui::PushStyleColor(ImGuiCol_ChildBg, ImGui::ColorConvertU32ToFloat4(t.warn_bg));
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
     const ImGuiStyle& style = ImGui::GetStyle();
-    const std::string headline = "Paste not used: " + s.rejected_message;
+    const std::string headline = (s.rejected_file.empty() ? "Paste not used: " : "File not used: ") + s.rejected_message;
     const float wrap = ImGui::GetContentRegionAvail().x - style.WindowPadding.x * 2;
     ImGui::PushFont(t.strong);
     float h = ImGui::CalcTextSize(headline.c_str(), nullptr, false, wrap).y + style.ItemSpacing.y;
@@ -206,8 +206,9 @@ void draw_rejection_notice(AppState& s, const Theme& t) {
         if (compact_button("Fix it here", t)) edit_refused_paste(s, true);
         mark_widget("fix it here");
     } else if (s.refused_paste.empty()) {
-        flow_next(ImGui::CalcTextSize("Fix the source and paste again.").x);
-        ImGui::TextUnformatted("Fix the source and paste again.");
+        const char* next = s.rejected_file.empty() ? "Fix the source and paste again." : "Choose another file, or copy the cells and paste them.";
+        flow_next(ImGui::CalcTextSize(next).x);
+        ImGui::TextUnformatted(next);
     }
     flow_next(ImGui::CalcTextSize("Dismiss").x + 2 * ImGui::GetStyle().FramePadding.x);
     if (compact_button("Dismiss", t)) dismiss_refusal(s);
