@@ -122,7 +122,8 @@ void draw_goal_rows(AppState& s, const Theme& t) {
     int goal = c.requested ? 1 : 0;
     bool changed = ImGui::RadioButton("find a departure", &goal, 0);
     mark_widget("find a departure");
-    ImGui::SameLine();
+    flow_next(radio_width("show it conforms within w0"));  // wraps on a phone rather than running past the edge
+    if (ImGui::GetCursorPosX() < 74) ImGui::SetCursorPosX(74);
     changed |= ImGui::RadioButton("show it conforms within w0", &goal, 1);
     mark_widget("show it conforms");
     const double margin = std::isfinite(c.margin_w) ? c.margin_w : 0.1;
@@ -137,7 +138,7 @@ void draw_goal_rows(AppState& s, const Theme& t) {
                                     ImGuiInputTextFlags_CharsScientific | ImGuiInputTextFlags_EnterReturnsTrue) ||
                          ImGui::IsItemDeactivatedAfterEdit();
     mark_widget("margin w0");
-    ImGui::SameLine();
+    flow_next(ImGui::CalcTextSize("margin w0").x);
     ImGui::TextUnformatted("margin w0");
     if (w0_done) {
         char* end = nullptr;

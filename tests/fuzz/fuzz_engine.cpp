@@ -196,9 +196,11 @@ double count_of(Bytes& b) {
     switch (c >> 5) {
         case 0: case 1: case 2: return c & 31;
         case 3: return (c & 31) * 37.0 + b.u8();
-        // Totals stay below about 1e8: far larger statistics hit the known slow effect-size
-        // interval (docs/robustness.md), which would end every run with a timeout.
-        case 4: return static_cast<double>(b.u32() % 1000000);
+        // Up to 1e6, or (issue 15) a count from 2^40 (about 1e12) to just below 2^53: every
+        // computation must stay bounded in time whatever N is.
+        case 4:
+            if (c & 16) return std::floor(std::ldexp(1.0 + b.u32() / 4294967296.0, 40 + (c & 12)));
+            return static_cast<double>(b.u32() % 1000000);
         case 5: return std::ldexp(1.0, 54 + (c & 7));  // 2^54 .. 2^61: beyond 2^53, must be refused
         case 6: return 0;
         default: {
@@ -217,6 +219,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     const std::uint8_t head = b.u8();
     std::size_t k = 2 + b.u8() % 30;
     if (head & 0x80) k = b.u8() % 100;  // including 0 and 1 categories, which must be refused
+    if ((head & 0xC0) == 0x40 && (head & 0x30) == 0x30) k = 1000 + (b.u8() | (b.u8() << 8)) % 9001;  // up to 10,000 (issue 15)
     a.model.kind = kKinds[b.u8() % (sizeof kKinds / sizeof kKinds[0])];
     const bool digit_labels = model_is_digit_law(a.model.kind) || model_is_fitted(a.model.kind);
     if (digit_labels && (head & 1)) {

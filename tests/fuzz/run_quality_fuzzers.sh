@@ -26,12 +26,11 @@ case "$TARGET" in
 esac
 mkdir -p "$OUT/corpus" "$OUT/obj"
 # The core is compiled into $OUT/obj, each file again only when that .cpp changes (other engineers
-# edit headers all day; after a header change that matters, rm -rf "$OUT/obj"). report.cpp, which
-# needs the generated version header, is not used by these targets.
+# edit headers all day; after a header change that matters, rm -rf "$OUT/obj"). The version header
+# that report.cpp and screen_report.cpp include comes from the native build (build/native/core/generated).
 OBJS=""
 for src in "$ROOT"/core/*.cpp; do
   name=$(basename "$src" .cpp)
-  [ "$name" = report ] && continue
   obj="$OUT/obj/$name.o"
   extra=""
   if [ "$KNOWN" = skip ] && [ "$name" = noncentral_chi_square ]; then
@@ -40,7 +39,7 @@ for src in "$ROOT"/core/*.cpp; do
   fi
   if [ ! -f "$obj" ] || [ "$src" -nt "$obj" ]; then
     # shellcheck disable=SC2086
-    "$CXX" $FLAGS $extra -DUTF8PROC_STATIC -I "$ROOT/core" -isystem "$ROOT/.cache/utf8proc" -c "$src" -o "$obj"
+    "$CXX" $FLAGS $extra -DUTF8PROC_STATIC -I "$ROOT/core" -I "$ROOT/build/native/core/generated" -isystem "$ROOT/.cache/utf8proc" -c "$src" -o "$obj"
   fi
   OBJS="$OBJS $obj"
 done
