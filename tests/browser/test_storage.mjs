@@ -1,7 +1,7 @@
 // Storage across tabs and when the browser refuses it: two tabs of one browser make, save and
 // reload analyses in turn and each keeps its own while the shared recent list keeps both; with
 // setItem throwing (private windows, full quota) the page says nothing is kept and offers the download.
-import { assert, lastResult, pasteText, pageUrl, withPage } from './harness.mjs';
+import { assert, clickWidget, lastResult, pasteText, pageUrl, withPage } from './harness.mjs';
 
 async function ready(page) {
   await page.waitForFunction(() => document.getElementById('tp-results')?.dataset.state === 'result', null, { timeout: 20000 });
@@ -15,6 +15,33 @@ async function recentTitles(page) {
 }
 
 export const tests = {
+  async 'titles describe the data: an example keeps its name only while unchanged; an edit and a restore are titled from the data'() {
+    await withPage({}, async (page) => {
+      await page.evaluate(() => globalThis.tallyproofPage.loadDemo(0));
+      await page.waitForFunction(() => (JSON.parse(localStorage.getItem('tallyproof.recent') || '[]')[0] || {}).title?.startsWith('Example: '), null, { timeout: 10000 });
+      const demo = await lastResult(page);
+      let titles = await recentTitles(page);
+      assert(titles[0].includes(demo.categories[0]) && titles[0].includes('N = '), `the example's entry names its data: ${titles[0]}`);
+      // Edit the first count on the canvas: the data are no longer the example's.
+      await clickWidget(page, 'count 1');
+      await page.keyboard.press('End');
+      for (let i = 0; i < 12; i++) await page.keyboard.press('Backspace');
+      const edited = demo.observed[0] + 7;
+      await page.keyboard.type(String(edited), { delay: 20 });
+      await page.keyboard.press('Enter');
+      await page.waitForFunction((v) => JSON.parse(globalThis.tallyproofPage.lastResult).observed[0] === v, edited, { timeout: 10000 });
+      await page.waitForFunction(() => !(JSON.parse(localStorage.getItem('tallyproof.recent') || '[]')[0] || {}).title?.startsWith('Example: '), null, { timeout: 10000 });
+      titles = await recentTitles(page);
+      const n = demo.observed.reduce((a, b) => a + b, 0) + 7;
+      assert(titles[0].startsWith(demo.categories[0]) && titles[0].includes(`N = ${n.toLocaleString('en-US')}`), `the edited entry is titled from its data: ${titles[0]}`);
+      await page.reload();
+      await ready(page);
+      titles = await recentTitles(page);
+      for (const t of titles) assert(t.trim() && !t.includes('restored from') && !t.startsWith('('), `title after a restore: ${t}`);
+      assert(titles[0].startsWith(demo.categories[0]), `the restored analysis keeps its data's title: ${titles}`);
+    });
+  },
+
   async 'two tabs keep their own analyses and share the recent list'() {
     await withPage({}, async (a, context) => {
       const b = await context.newPage();
