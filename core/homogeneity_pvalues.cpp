@@ -121,8 +121,8 @@ Status homogeneity_exact_p(const HomogeneityTable& t, double lambda, double max_
 }
 
 Status homogeneity_monte_carlo_p(const HomogeneityTable& t, double lambda, std::uint64_t replicates, std::uint64_t seed,
-                                 double max_work, HomogeneityMonteCarloResult* out) {
-    *out = HomogeneityMonteCarloResult{};
+                                 double max_work, MonteCarloResult* out) {
+    *out = MonteCarloResult{};
     if (replicates < 1) return Status::failure("Monte Carlo needs at least one replicate.");
     const Margins g = margins_of(t);
     const double work = static_cast<double>(replicates) * g.m;

@@ -10,6 +10,7 @@
 
 #include "chi_square_tail.hpp"
 #include "homogeneity_table.hpp"
+#include "monte_carlo.hpp"
 #include "status.hpp"
 
 namespace tallyproof {
@@ -26,14 +27,9 @@ double homogeneity_table_count(const HomogeneityTable& t);
 // Refuses (naming the number of tables and offering Monte Carlo) above max_tables.
 Status homogeneity_exact_p(const HomogeneityTable& t, double lambda, double max_tables, HomogeneityExactResult* out);
 
-struct HomogeneityMonteCarloResult {
-    double p = 1, standard_error = 0;
-    std::uint64_t replicates = 0, extreme = 0, seed = 0;
-};
-
 // B replicates from `seed` (xoshiro256**, core/random). Refuses when B times the smaller row
 // total exceeds max_work (samples that large are where the asymptotic p-value holds).
 Status homogeneity_monte_carlo_p(const HomogeneityTable& t, double lambda, std::uint64_t replicates, std::uint64_t seed,
-                                 double max_work, HomogeneityMonteCarloResult* out);
+                                 double max_work, MonteCarloResult* out);
 
 }  // namespace tallyproof

@@ -127,13 +127,7 @@ void finish_pvalue_job(const PValueJob& job, Result* r) {
             r->warnings.push_back("The model could not be refitted to " + std::to_string(rr.failed_refits) +
                                   " simulated tables (a parameter at the edge of its range); they are left out of the "
                                   "Monte Carlo p-value.");
-        r->monte_carlo.p = mr.p;
-        r->monte_carlo.standard_error = mr.standard_error;
-        r->monte_carlo.replicates = mr.replicates;
-        r->monte_carlo.hits = mr.extreme;
-        r->monte_carlo.seed = mr.seed;
-        r->method = PValueMethod::monte_carlo;
-        r->p = TailProbability{mr.p, std::log10(mr.p)};
+        record_monte_carlo(mr, r);
     } else {
         return;
     }
@@ -148,6 +142,16 @@ Result analyse_completely(const Analysis& a) {
     while (!job.progress.done && !job.progress.cancelled) step_pvalue_job(&job, 1u << 20);
     finish_pvalue_job(job, &r);
     return r;
+}
+
+void record_monte_carlo(const MonteCarloResult& mr, Result* r) {
+    r->monte_carlo.p = mr.p;
+    r->monte_carlo.standard_error = mr.standard_error;
+    r->monte_carlo.replicates = mr.replicates;
+    r->monte_carlo.hits = mr.extreme;
+    r->monte_carlo.seed = mr.seed;
+    r->method = PValueMethod::monte_carlo;
+    r->p = TailProbability{mr.p, std::log10(mr.p)};
 }
 
 }  // namespace tallyproof

@@ -31,6 +31,8 @@ WorkProgress step_pvalue_job(PValueJob* job, std::uint64_t budget);
 void cancel_pvalue_job(PValueJob* job);
 // Folds a finished (or refused) job into the result: exact / monte_carlo, p, method, reject.
 void finish_pvalue_job(const PValueJob& job, Result* r);
+// A finished Monte Carlo p-value into the Result: its fields, the method and the p used.
+void record_monte_carlo(const MonteCarloResult& mr, Result* r);
 
 // analyse() followed by the whole p-value job, for the command-line tool and tests.
 Result analyse_completely(const Analysis& a);

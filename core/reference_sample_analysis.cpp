@@ -13,6 +13,7 @@
 #include "merge_categories.hpp"
 #include "multiplicity.hpp"
 #include "number_format.hpp"
+#include "pvalue_job.hpp"
 
 namespace tallyproof {
 namespace {
@@ -151,18 +152,12 @@ void analyse_reference_sample(const Analysis& a, Result* r) {
             r->warnings.push_back("Exact p-value not available: " + s.message + " The asymptotic p-value is shown.");
         }
     } else if (r->monte_carlo.requested) {
-        HomogeneityMonteCarloResult mr;
+        MonteCarloResult mr;
         s = homogeneity_monte_carlo_p(table, a.statistic.lambda, a.pvalue.replicates, a.pvalue.seed,
                                       kMaxMonteCarloHomogeneityDraws, &mr);
         if (s.ok) {
             r->monte_carlo.computed = true;
-            r->monte_carlo.p = mr.p;
-            r->monte_carlo.standard_error = mr.standard_error;
-            r->monte_carlo.replicates = mr.replicates;
-            r->monte_carlo.hits = mr.extreme;
-            r->monte_carlo.seed = mr.seed;
-            r->method = PValueMethod::monte_carlo;
-            r->p = TailProbability{mr.p, std::log10(mr.p)};
+            record_monte_carlo(mr, r);
         } else {
             r->monte_carlo.refusal = s.message;
             r->warnings.push_back("Monte Carlo p-value not available: " + s.message + " The asymptotic p-value is shown.");

@@ -130,7 +130,7 @@ TEST_CASE("Monte Carlo agrees with the exact conditional p within four standard 
     REQUIRE(homogeneity_table(cur, prev, 1.0, &t).ok);
     HomogeneityExactResult e;
     REQUIRE(homogeneity_exact_p(t, 1.0, 1e7, &e).ok);
-    HomogeneityMonteCarloResult m1, m2;
+    MonteCarloResult m1, m2;
     REQUIRE(homogeneity_monte_carlo_p(t, 1.0, 40000, 11, 1e9, &m1).ok);
     REQUIRE(homogeneity_monte_carlo_p(t, 1.0, 40000, 11, 1e9, &m2).ok);
     CHECK(m1.extreme == m2.extreme);
