@@ -146,15 +146,20 @@ std::string report_text(const Analysis& a, const Result& r) {
     return s;
 }
 
-std::string report_json(const Analysis& a, const Result& r) {
-    JsonWriter j;
+bool begin_result_document(JsonWriter& j, const Status& status) {
     j.begin_object();
     j.key("format").value("tallyproof/1");
     j.key("version").value(TALLYPROOF_VERSION);
-    if (!r.status.ok) {
-        j.key("error").value(r.status.message);
-        if (r.status.line > 0) j.key("error_line").value(static_cast<double>(r.status.line));
-        if (r.status.column > 0) j.key("error_column").value(static_cast<double>(r.status.column));
+    if (status.ok) return true;
+    j.key("error").value(status.message);
+    if (status.line > 0) j.key("error_line").value(static_cast<double>(status.line));
+    if (status.column > 0) j.key("error_column").value(static_cast<double>(status.column));
+    return false;
+}
+
+std::string report_json(const Analysis& a, const Result& r) {
+    JsonWriter j;
+    if (!begin_result_document(j, r.status)) {
         j.key("warnings").strings(r.warnings);
         j.end_object();
         return j.str();

@@ -4,6 +4,7 @@
 #include <string>
 
 #include "analysis.hpp"
+#include "json_writer.hpp"
 #include "result.hpp"
 
 namespace tallyproof {
@@ -15,5 +16,8 @@ std::string conformity_verdict(const Result& r);
 std::string method_phrase(const Result& r);                    // "asymptotic", "exact", "Monte Carlo, B = ..."
 std::string report_text(const Analysis& a, const Result& r);   // multi-line plain text
 std::string report_json(const Analysis& a, const Result& r);   // result document (one line)
+// Opens a result document: format, version and, for a refusal, its error, line and column.
+// Returns false for a refusal (the caller adds what it wants and closes the object).
+bool begin_result_document(JsonWriter& j, const Status& status);
 
 }  // namespace tallyproof

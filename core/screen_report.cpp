@@ -7,7 +7,7 @@
 
 #include "json_writer.hpp"
 #include "number_format.hpp"
-#include "tallyproof_version.hpp"
+#include "report.hpp"
 
 namespace tallyproof {
 namespace {
@@ -121,13 +121,7 @@ std::string group_table(const ScreenResult& s, const TableExportOptions& o) {
 
 std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s) {
     JsonWriter j;
-    j.begin_object();
-    j.key("format").value("tallyproof/1");
-    j.key("version").value(TALLYPROOF_VERSION);
-    if (!s.status.ok) {
-        j.key("error").value(s.status.message);
-        if (s.status.line > 0) j.key("error_line").value(static_cast<double>(s.status.line));
-        if (s.status.column > 0) j.key("error_column").value(static_cast<double>(s.status.column));
+    if (!begin_result_document(j, s.status)) {
         j.end_object();
         return j.str();
     }
