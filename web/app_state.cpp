@@ -7,6 +7,7 @@
 #include <cmath>
 #include <initializer_list>
 #include <cstdlib>
+#include <cstring>
 
 #include "analysis_document.hpp"
 #include "json_reader.hpp"
@@ -81,7 +82,8 @@ void sync_editor_from_model(AppState& s) {
             if (name == p.name) { p.estimate = false; p.value = value; }
 }
 
-constexpr const char* kRecentKey = "tallyproof.recent";    // shared by the tabs
+constexpr const char* kRecentPrefix = "tallyproof.recent.";  // + id: one key per entry, shared by the tabs
+constexpr const char* kOldRecentKey = "tallyproof.recent";     // the whole list in one key (earlier versions)
 constexpr const char* kLatestKey = "tallyproof.current";   // the latest analysis of any tab: a new tab starts there
 constexpr const char* kTabKey = "tallyproof.tab-current";  // this tab's own (sessionStorage)
 constexpr const char* kTabIdKey = "tallyproof.tab-id";
@@ -127,31 +129,71 @@ std::string saved_title(const AppState& s) {
     return t;
 }
 
-std::vector<SavedAnalysis> read_recent_list() {
-    std::vector<SavedAnalysis> out;
+// One entry of the recent list from its JSON object (false when it is not one).
+bool read_saved_entry(const JsonValue& e, SavedAnalysis* out) {
+    const JsonValue *t = e.find("title"), *w = e.find("when"), *d = e.find("document"), *id = e.find("id"), *ms = e.find("saved_ms");
+    if (!(t && w && d && t->is(JsonValue::Type::string) && w->is(JsonValue::Type::string) && d->is(JsonValue::Type::string)))
+        return false;
+    *out = SavedAnalysis{t->string, w->string, d->string, "", 0};
+    if (id && id->is(JsonValue::Type::string)) out->id = id->string;
+    if (ms && ms->is(JsonValue::Type::number)) out->saved_ms = ms->number;
+    return true;
+}
+
+// Each entry is its own key (kRecentPrefix + id), written only by the tab that changes that
+// analysis: two tabs saving at once never overwrite each other's entries (a shared list written
+// back whole lost one tab's entry when the other read it a moment before).
+bool write_saved_entry(const SavedAnalysis& r) {
+    JsonWriter j;
+    j.begin_object().key("title").value(r.title).key("when").value(r.when).key("document").value(r.document)
+        .key("id").value(r.id).key("saved_ms").value(r.saved_ms).end_object();
+    return storage_set((std::string(kRecentPrefix) + r.id).c_str(), j.str());
+}
+
+void remove_saved_entry(const std::string& id) { storage_remove((std::string(kRecentPrefix) + id).c_str()); }
+
+// A list saved whole by an earlier version (one key) becomes one key per entry, once.
+void move_old_recent_list() {
+    const std::string old = storage_get(kOldRecentKey);
+    if (old.empty()) return;
     JsonValue list;
-    if (!parse_json(storage_get(kRecentKey), &list).ok || !list.is(JsonValue::Type::array)) return out;
-    for (const auto& e : list.array) {
-        const JsonValue *t = e.find("title"), *w = e.find("when"), *d = e.find("document"), *id = e.find("id"), *ms = e.find("saved_ms");
-        if (!(t && w && d && t->is(JsonValue::Type::string) && w->is(JsonValue::Type::string) && d->is(JsonValue::Type::string))) continue;
-        SavedAnalysis a{t->string, w->string, d->string, "", 0};
-        if (id && id->is(JsonValue::Type::string)) a.id = id->string;
-        if (ms && ms->is(JsonValue::Type::number)) a.saved_ms = ms->number;
-        if (a.id.empty()) a.id = "old-" + std::to_string(out.size());  // saved before entries had ids
-        out.push_back(std::move(a));
-        if (out.size() >= kRecentLimit) break;
+    bool moved = true;
+    if (parse_json(old, &list).ok && list.is(JsonValue::Type::array)) {
+        int i = 0;
+        for (const auto& e : list.array) {
+            SavedAnalysis a;
+            if (!read_saved_entry(e, &a)) continue;
+            if (a.id.empty()) a.id = "old-" + std::to_string(i);
+            if (a.saved_ms == 0) a.saved_ms = 1000.0 - i;  // keeps their order, older than anything new
+            ++i;
+            moved = write_saved_entry(a) && moved;
+        }
     }
+    if (moved) storage_remove(kOldRecentKey);
+}
+
+// Every entry in storage, newest first.
+std::vector<SavedAnalysis> read_all_saved_entries() {
+    move_old_recent_list();
+    std::vector<SavedAnalysis> out;
+    for (const std::string& key : storage_keys(kRecentPrefix)) {
+        JsonValue e;
+        SavedAnalysis a;
+        if (parse_json(storage_get(key.c_str()), &e).ok && read_saved_entry(e, &a)) {
+            a.id = key.substr(std::strlen(kRecentPrefix));
+            out.push_back(std::move(a));
+        }
+    }
+    std::stable_sort(out.begin(), out.end(), [](const SavedAnalysis& a, const SavedAnalysis& b) {
+        return a.saved_ms != b.saved_ms ? a.saved_ms > b.saved_ms : a.id > b.id;
+    });
     return out;
 }
 
-bool write_recent_list(const std::vector<SavedAnalysis>& list) {
-    JsonWriter j;
-    j.begin_array();
-    for (const auto& r : list)
-        j.begin_object().key("title").value(r.title).key("when").value(r.when).key("document").value(r.document)
-            .key("id").value(r.id).key("saved_ms").value(r.saved_ms).end_object();
-    j.end_array();
-    return storage_set(kRecentKey, j.str());
+std::vector<SavedAnalysis> read_recent_list() {
+    std::vector<SavedAnalysis> out = read_all_saved_entries();
+    if (out.size() > kRecentLimit) out.resize(kRecentLimit);
+    return out;
 }
 
 void note_storage(AppState& s, bool kept) {
@@ -168,14 +210,13 @@ void remember(AppState& s, const std::string& document) {
     bool kept = tab_storage_set(kTabKey, document);
     kept = tab_storage_set(kTabIdKey, s.analysis_id) && kept;
     kept = storage_set(kLatestKey, document) && kept;
-    std::vector<SavedAnalysis> list = read_recent_list();
-    list.erase(std::remove_if(list.begin(), list.end(), [&](const SavedAnalysis& e) {
-                   return e.id == s.analysis_id || e.document == document;
-               }), list.end());
-    list.push_back(SavedAnalysis{saved_title(s), local_time_text(), document, s.analysis_id, wall_clock_ms()});
-    std::stable_sort(list.begin(), list.end(), [](const SavedAnalysis& a, const SavedAnalysis& b) { return a.saved_ms > b.saved_ms; });
+    // The same data saved under another entry (a restore, another tab) is one analysis: one entry.
+    for (const auto& e : read_all_saved_entries())
+        if (e.id != s.analysis_id && e.document == document) remove_saved_entry(e.id);
+    kept = write_saved_entry(SavedAnalysis{saved_title(s), local_time_text(), document, s.analysis_id, wall_clock_ms()}) && kept;
+    std::vector<SavedAnalysis> list = read_all_saved_entries();
+    for (std::size_t i = kRecentLimit; i < list.size(); ++i) remove_saved_entry(list[i].id);  // the oldest go first
     if (list.size() > kRecentLimit) list.resize(kRecentLimit);
-    kept = write_recent_list(list) && kept;
     s.recent = std::move(list);
     note_storage(s, kept);
 }
@@ -729,7 +770,7 @@ void copy_table(AppState& s) {
 
 void restore_session(AppState& s) {
     s.recent = read_recent_list();
-    watch_storage(kRecentKey);
+    watch_storage(kOldRecentKey);  // and every key it begins
     const std::string fragment = location_fragment();
     if (!fragment.empty()) {
         if (open_share_fragment(s, fragment)) return;
@@ -794,10 +835,8 @@ void open_recent(AppState& s, int index) {
 void remove_recent(AppState& s, int index) {
     if (index < 0 || index >= static_cast<int>(s.recent.size())) return;
     const std::string id = s.recent[index].id;
-    std::vector<SavedAnalysis> list = read_recent_list();
-    list.erase(std::remove_if(list.begin(), list.end(), [&](const SavedAnalysis& e) { return e.id == id; }), list.end());
-    note_storage(s, write_recent_list(list));
-    s.recent = std::move(list);
+    remove_saved_entry(id);
+    s.recent = read_recent_list();
     if (id == s.analysis_id) s.analysis_id = new_analysis_id();  // kept on screen, no longer in the list
     s.frames_to_draw = 3;
 }

@@ -4,6 +4,7 @@
 #include <emscripten.h>
 #include <imgui.h>
 
+#include <algorithm>
 #include <cstdlib>
 
 EM_JS(void, tp_js_publish_result, (const char* text, const char* json, const char* doc), {
@@ -62,10 +63,23 @@ EM_JS(int, tp_js_tab_set, (const char* key, const char* value), {
 EM_JS(void, tp_js_tab_remove, (const char* key), {
     try { window.sessionStorage.removeItem(UTF8ToString(key)); } catch (e) { }
 });
-// Another tab changed `key` in localStorage: the app is told (tp_storage_changed).
-EM_JS(void, tp_js_watch_storage, (const char* key), {
-    var k = UTF8ToString(key);
-    window.addEventListener('storage', function (e) { if (e.key === k || e.key === null) Module._tp_storage_changed(); });
+// Another tab changed a localStorage key that begins with `prefix`: the app is told (tp_storage_changed).
+EM_JS(void, tp_js_watch_storage, (const char* prefix), {
+    var k = UTF8ToString(prefix);
+    window.addEventListener('storage', function (e) { if (e.key === null || e.key.indexOf(k) === 0) Module._tp_storage_changed(); });
+});
+// The localStorage keys that begin with `prefix`, one per line (none when refused).
+EM_JS(char*, tp_js_storage_keys, (const char* prefix), {
+    var k = UTF8ToString(prefix), out = [];
+    try {
+        for (var i = 0; i < window.localStorage.length; i++) {
+            var key = window.localStorage.key(i);
+            if (key !== null && key.indexOf(k) === 0 && key.indexOf('\n') < 0) out.push(key);
+        }
+    } catch (e) { out = []; }
+    var v = out.join('\n'), n = lengthBytesUTF8(v) + 1, p = _malloc(n);
+    stringToUTF8(v, p, n);
+    return p;
 });
 EM_JS(double, tp_js_now_ms, (), { return Date.now(); });
 EM_JS(void, tp_js_storage_remove, (const char* key), {
@@ -142,7 +156,18 @@ bool storage_set(const char* key, const std::string& value) { return tp_js_stora
 std::string tab_storage_get(const char* key) { return take(tp_js_tab_get(key)); }
 bool tab_storage_set(const char* key, const std::string& value) { return tp_js_tab_set(key, value.c_str()) != 0; }
 void tab_storage_remove(const char* key) { tp_js_tab_remove(key); }
-void watch_storage(const char* key) { tp_js_watch_storage(key); }
+void watch_storage(const char* prefix) { tp_js_watch_storage(prefix); }
+std::vector<std::string> storage_keys(const char* prefix) {
+    std::vector<std::string> keys;
+    const std::string all = take(tp_js_storage_keys(prefix));
+    std::size_t start = 0;
+    while (start < all.size()) {
+        const std::size_t end = std::min(all.find('\n', start), all.size());
+        keys.push_back(all.substr(start, end - start));
+        start = end + 1;
+    }
+    return keys;
+}
 double wall_clock_ms() { return tp_js_now_ms(); }
 void storage_remove(const char* key) { tp_js_storage_remove(key); }
 std::string location_fragment() { return take(tp_js_fragment()); }

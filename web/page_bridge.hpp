@@ -2,6 +2,7 @@
 // (results mirrored into the live region; copy; theme; paste and wake-ups coming in).
 #pragma once
 #include <string>
+#include <vector>
 
 namespace tallyproof::web {
 
@@ -26,7 +27,8 @@ void storage_remove(const char* key);
 std::string tab_storage_get(const char* key);
 bool tab_storage_set(const char* key, const std::string& value);
 void tab_storage_remove(const char* key);
-void watch_storage(const char* key);                 // another tab's change of `key` calls tp_storage_changed
+std::vector<std::string> storage_keys(const char* prefix);  // localStorage keys that begin with `prefix`
+void watch_storage(const char* prefix);              // another tab's change of a key beginning `prefix` calls tp_storage_changed
 double wall_clock_ms();                              // ms since 1970 (orders saves across tabs)
 std::string location_fragment();                    // without '#'
 std::string page_address();                         // the page's address without its fragment

@@ -10,15 +10,25 @@ async function pasteAndWait(page, text, first) {
   await pasteText(page, text);
   await page.waitForFunction((f) => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[0] === f, first);
 }
+// The shared recent list as a new tab reads it: one localStorage key per entry, newest first.
+function recentInPage() {
+  const out = [];
+  for (let i = 0; i < localStorage.length; i++) {
+    const k = localStorage.key(i);
+    if (k.startsWith('tallyproof.recent.')) out.push(JSON.parse(localStorage.getItem(k)));
+  }
+  return out.sort((a, b) => b.saved_ms - a.saved_ms);
+}
+const firstRecentTitle = `((${recentInPage})()[0] || {}).title || ''`;
 async function recentTitles(page) {
-  return page.evaluate(() => JSON.parse(localStorage.getItem('tallyproof.recent') || '[]').map((e) => e.title));
+  return (await page.evaluate(`(${recentInPage})()`)).map((e) => e.title);
 }
 
 export const tests = {
   async 'titles describe the data: an example keeps its name only while unchanged; an edit and a restore are titled from the data'() {
     await withPage({}, async (page) => {
       await page.evaluate(() => globalThis.tallyproofPage.loadDemo(0));
-      await page.waitForFunction(() => (JSON.parse(localStorage.getItem('tallyproof.recent') || '[]')[0] || {}).title?.startsWith('Example: '), null, { timeout: 10000 });
+      await page.waitForFunction(`(${firstRecentTitle}).startsWith('Example: ')`, null, { timeout: 10000 });
       const demo = await lastResult(page);
       let titles = await recentTitles(page);
       assert(titles[0].includes(demo.categories[0]) && titles[0].includes('N = '), `the example's entry names its data: ${titles[0]}`);
@@ -30,7 +40,7 @@ export const tests = {
       await page.keyboard.type(String(edited), { delay: 20 });
       await page.keyboard.press('Enter');
       await page.waitForFunction((v) => JSON.parse(globalThis.tallyproofPage.lastResult).observed[0] === v, edited, { timeout: 10000 });
-      await page.waitForFunction(() => !(JSON.parse(localStorage.getItem('tallyproof.recent') || '[]')[0] || {}).title?.startsWith('Example: '), null, { timeout: 10000 });
+      await page.waitForFunction(`!(${firstRecentTitle}).startsWith('Example: ')`, null, { timeout: 10000 });
       titles = await recentTitles(page);
       const n = demo.observed.reduce((a, b) => a + b, 0) + 7;
       assert(titles[0].startsWith(demo.categories[0]) && titles[0].includes(`N = ${n.toLocaleString('en-US')}`), `the edited entry is titled from its data: ${titles[0]}`);
@@ -73,6 +83,25 @@ export const tests = {
       await ready(c);
       r = await lastResult(c);
       assert(r.categories[0] === 'Red', `a new tab starts from the latest: ${r.categories}`);
+    });
+  },
+
+  async 'a recent list kept whole by an earlier version is moved to one key per entry and stays offered'() {
+    await withPage({}, async (page) => {
+      await pasteAndWait(page, 'Left\t14\nRight\t22\n', 'Left');
+      await page.evaluate(() => {
+        const doc = globalThis.tallyproofPage.lastDocument.replace(/14,\s*22/, '15, 21');
+        for (const k of Object.keys(localStorage)) if (k.startsWith('tallyproof.recent.')) localStorage.removeItem(k);
+        localStorage.setItem('tallyproof.recent', JSON.stringify([
+          { title: 'Kept from before · N = 36', when: 'yesterday', document: doc, id: 'before-1', saved_ms: 5 }]));
+      });
+      await page.reload();
+      await ready(page);
+      const titles = await recentTitles(page);
+      assert(titles.includes('Kept from before · N = 36'), `the earlier entry is offered: ${titles}`);
+      assert(titles.filter((t) => t.startsWith('Left, Right')).length <= 1, `one entry for the same data: ${titles}`);
+      const old = await page.evaluate(() => localStorage.getItem('tallyproof.recent'));
+      assert(old === null, `the old single key is gone once moved: ${old}`);
     });
   },
 
