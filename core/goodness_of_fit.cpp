@@ -102,6 +102,10 @@ Result analyse(const Analysis& a) {
     }
     if (n <= 0) return refuse("All counts are zero: there is nothing to test.");
     r.n = n;
+    if (n > 9007199254740992.0)
+        r.warnings.push_back("The counts total more than 2^53 (about 9.007 × 10¹⁵): the total is held to 16 significant "
+                             "digits, so N = " + format_count(n) + " may differ from the exact sum in its last digits "
+                             "(the statistic and p-value are not affected at that precision).");
     if (n == 100 || n == 1)
         r.warnings.push_back("The counts total " + format_count(n) + ": if they are percentages or proportions, enter the "
                              "raw counts instead; a test on percentages is wrong by a factor of N/100.");

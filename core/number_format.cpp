@@ -6,6 +6,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <cstring>
 
 namespace tallyproof {
 
@@ -46,14 +47,18 @@ std::string format_fixed(double x, int decimals) {
     if (!std::isfinite(x)) return "n/a";
     char buf[64];
     std::snprintf(buf, sizeof buf, "%.*f", decimals, x);
+    // A tiny negative value rounds to "-0.00": the sign says nothing at the digits shown.
+    if (buf[0] == '-' && std::strspn(buf + 1, "0.") == std::strlen(buf + 1)) return buf + 1;
     return buf;
 }
 
 std::string format_count(double x) {
     if (!std::isfinite(x)) return "n/a";
     char buf[64];
-    if (x == std::floor(x) && std::fabs(x) < 1e15) std::snprintf(buf, sizeof buf, "%.0f", x);
-    else std::snprintf(buf, sizeof buf, "%.4g", x);
+    // Whole numbers are written out in full (a count of 6000000000000001 is not "6e+15"); every
+    // whole number is exact in a double up to 2^53, and a total beyond it is the double's value.
+    if (x == std::floor(x) && std::fabs(x) < 1e18) std::snprintf(buf, sizeof buf, "%.0f", x);
+    else std::snprintf(buf, sizeof buf, "%.16g", x);
     return buf;
 }
 

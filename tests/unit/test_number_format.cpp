@@ -28,8 +28,12 @@ TEST_CASE("probabilities at every size") {
 
 TEST_CASE("fixed and significant") {
     CHECK(format_fixed(5.2666, 2) == "5.27");
+    CHECK(format_fixed(-0.001, 2) == "0.00");  // no "-0.00"
+    CHECK(format_fixed(-0.006, 2) == "-0.01");
     CHECK(format_significant(0.05, 2) == "0.050");
     CHECK(format_count(120) == "120");
+    CHECK(format_count(6000000000000001.0) == "6000000000000001");  // exact below 2^53 (IEEE 754 double, common practice)
+    CHECK(format_count(9007199254740992.0) == "9007199254740992");
     CHECK(superscript_exponent(-42) == "⁻⁴²");
 }
 
