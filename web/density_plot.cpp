@@ -122,9 +122,22 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
         const float x = px(result.statistic);
         dl->AddLine(ImVec2(x, p0.y + th + 4), ImVec2(x, p1.y), theme.marker, 2.5f);
         dl->AddTriangleFilled(ImVec2(x - 6, p0.y + th + 2), ImVec2(x + 6, p0.y + th + 2), ImVec2(x, p0.y + th + 11), theme.marker);
-        const float w = ImGui::CalcTextSize(stat_label.c_str()).x;
-        const float tx = x + 8 + w > p1.x ? x - 8 - w : x + 8;
-        dl->AddText(ImVec2(tx, p0.y + th + 8), theme.marker, stat_label.c_str());
+        // Right of the marker, else left of it inside the plot (never over the axis's tick
+        // labels, as on a phone), else the same with the short label; first where it does not
+        // cross the critical line's label either.
+        const std::string short_label = stat_label.substr(stat_label.find("χ²"));
+        const float crit_x = std::isfinite(critical) && critical <= xmax ? px(critical) : -1e9f;
+        std::string label = short_label;
+        float tx = p0.x + 4;
+        bool placed = false;
+        for (int pass = 0; pass < 2 && !placed; ++pass)
+            for (const std::string* l : {&stat_label, &short_label}) {
+                const float w = ImGui::CalcTextSize(l->c_str()).x;
+                const auto clear = [&](float left) { return pass == 1 || crit_x < left - 2 || crit_x > left + w + 2; };
+                if (x + 8 + w <= p1.x && clear(x + 8)) { label = *l; tx = x + 8; placed = true; break; }
+                if (x - 8 - w >= p0.x + 4 && clear(x - 8 - w)) { label = *l; tx = x - 8 - w; placed = true; break; }
+            }
+        dl->AddText(ImVec2(tx, p0.y + th + 8), theme.marker, label.c_str());
     } else {
         // Axis break: two slanted strokes, then the statistic on its own short stretch of axis.
         const float bx = p1.x + 14;
