@@ -5,25 +5,9 @@ Usage: test_cli.py PATH_TO_TALLYPROOF"""
 import json
 import os
 import subprocess
-import sys
 import tempfile
 
-TOOL = sys.argv[1]
-failures = []
-
-
-def check(cond, what):
-    if not cond:
-        failures.append(what)
-        print("FAIL:", what)
-
-
-def run(args, stdin=None):
-    return subprocess.run([TOOL] + args, input=stdin, capture_output=True, text=True, timeout=30)
-
-
-def close(a, b, rel):
-    return abs(a - b) <= rel * abs(b)
+from cli_common import TOOL, check, close, finish, run
 
 
 # Four grades of an invented sorting line, pasted as a spreadsheet copies them (TSV, CRLF).
@@ -138,7 +122,4 @@ check(d["intervals"]["goodman_lower"] == [None] * 3 and d["intervals"]["lower"] 
       "not available" in d["intervals"].get("note", ""), f"intervals at alpha 1e-17: {d['intervals']}")
 
 os.unlink(path)
-if failures:
-    print(f"{len(failures)} command-line check(s) failed")
-    sys.exit(1)
-print("command-line tests passed")
+finish("command-line tests passed", "{n} command-line check(s) failed")

@@ -17,23 +17,16 @@ import os
 import re
 import struct
 import subprocess
-import sys
 import tempfile
 import zipfile
 import zlib
 
-TOOL = sys.argv[1]
-failures = []
+from cli_common import TOOL, check, finish
+import cli_common
 
 
-def check(cond, what):
-    if not cond:
-        failures.append(what)
-        print("FAIL:", what)
-
-
-def run(args, stdin=b"", **kw):
-    return subprocess.run([TOOL] + args, input=stdin, capture_output=True, timeout=60, **kw)
+def run(args, stdin=b"", **kw):  # bytes in and out: these tests are about encodings
+    return cli_common.run(args, stdin, **kw)
 
 
 folder = tempfile.mkdtemp()
@@ -188,5 +181,4 @@ if mp is not None:
               f"[{a}, {b}]: log10 p {j['log10_p_value']} vs mpmath {mp.nstr(log10p, 17)}")
     print(f"checked {len(grid)} p-values below the double range against mpmath")
 
-print("all command-line fault tests passed" if not failures else f"{len(failures)} failures")
-sys.exit(1 if failures else 0)
+finish("all command-line fault tests passed", "{n} failures")

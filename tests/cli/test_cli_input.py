@@ -13,21 +13,9 @@ import os
 import random
 import shutil
 import subprocess
-import sys
 import tempfile
 
-TOOL = sys.argv[1]
-failures = []
-
-
-def check(cond, what):
-    if not cond:
-        failures.append(what)
-        print("FAIL:", what)
-
-
-def run(args, stdin):
-    return subprocess.run([TOOL] + args, input=stdin, capture_output=True, text=True, timeout=60)
+from cli_common import check, close, finish, run
 
 
 def doc_of(args, stdin):
@@ -36,10 +24,6 @@ def doc_of(args, stdin):
         return r.returncode, json.loads(r.stdout)
     except ValueError:
         return r.returncode, {"error": r.stderr}
-
-
-def close(a, b, rel=1e-12):
-    return abs(a - b) <= rel * abs(b)
 
 
 try:
@@ -222,7 +206,4 @@ else:
         check(d.get("observed") == [r[1] for r in rows], f"LibreOffice {name} CSV counts {d.get('observed')}")
     shutil.rmtree(work, ignore_errors=True)
 
-if failures:
-    print(f"{len(failures)} input check(s) failed")
-    sys.exit(1)
-print("command-line input tests passed")
+finish("command-line input tests passed", "{n} input check(s) failed")

@@ -6,25 +6,13 @@ Per-group values are checked live against SciPy (chisquare, chi2_contingency(cor
 and statsmodels (multipletests) from Debian's python3-scipy / python3-statsmodels.
 Usage: test_cli_screen.py PATH_TO_TALLYPROOF"""
 import json
-import subprocess
-import sys
 
-TOOL = sys.argv[1]
-failures = []
-
-
-def check(cond, what):
-    if not cond:
-        failures.append(what)
-        print("FAIL:", what)
-
-
-def run(args, stdin):
-    return subprocess.run([TOOL] + args, input=stdin, capture_output=True, text=True, timeout=60)
+from cli_common import check, finish, run
+import cli_common
 
 
 def close(a, b, rel=1e-10):
-    return abs(a - b) <= rel * abs(b)
+    return cli_common.close(a, b, rel)
 
 
 # Fixed test counts (no source): six readers, last digits 0-9; reader "F" prefers 0 and 5.
@@ -158,5 +146,4 @@ check(r.returncode == 2, "unknown --adjust is a usage error")
 r = run(["--by", "reader", "--json"], "reader\tdigit\tcount\nA\t0\t3\nB\t1\tmany\n")
 check(r.returncode == 1 and "error" in json.loads(r.stdout), "JSON error form")
 
-print(f"{len(failures)} failure(s)")
-sys.exit(1 if failures else 0)
+finish("0 failure(s)", "{n} failure(s)")
