@@ -233,7 +233,8 @@ bool number_field(const char* id, double* value, const char* format, FieldKeys k
 
 void draw_counts_panel(AppState& s, const Theme& t) {
     section_title("Counts", t);
-    muted_wrapped(t, "Paste label ⇥ count lines from a spreadsheet (Ctrl+V / ⌘V) anywhere on the page, or edit the table.");
+    muted_wrapped(t, t.touch ? "Paste label ⇥ count lines from a spreadsheet with Paste, open a file, or edit the table."
+                             : "Paste label ⇥ count lines from a spreadsheet (Ctrl+V / ⌘V) anywhere on the page, or edit the table.");
     const Result& r = s.result;
     const int k = static_cast<int>(s.analysis.observed.size());
     const ImGuiTableFlags flags = ImGuiTableFlags_RowBg | ImGuiTableFlags_BordersInnerH | ImGuiTableFlags_BordersOuter |
@@ -513,8 +514,16 @@ void draw_test_panel(AppState& s, const Theme& t) {
     const char* rules[] = {"no merging", "until all expected ≥ 5", "until Cochran's rule holds", "until all expected ≥ minimum"};
     int rule = static_cast<int>(a.merge.rule);
     ImGui::SetNextItemWidth(-1);
-    if (ImGui::Combo("##merge", &rule, rules, 4)) {
-        if (rule != static_cast<int>(a.merge.rule)) merge_thin_cells(s, static_cast<MergeRule>(rule));
+    const bool merge_open = ImGui::BeginCombo("##merge", rules[rule]);  // not ImGui::Combo: its items would sit closer than 44 px on touch
+    mark_widget("merge rule");
+    if (merge_open) {
+        begin_menu_items(t);
+        for (int i = 0; i < 4; ++i) {
+            if (ImGui::Selectable(rules[i], i == rule) && i != rule) merge_thin_cells(s, static_cast<MergeRule>(i));
+            mark_widget(rules[i]);
+        }
+        end_menu_items(t);
+        ImGui::EndCombo();
     }
     if (a.merge.rule == MergeRule::custom_minimum) {
         ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);

@@ -163,19 +163,18 @@ void draw_categories_table(AppState& s, const Theme& t) {
     const auto& cats = r.diagnostics.categories;
     if (cats.empty()) { muted_wrapped(t, "No per-category diagnostics for this analysis."); return; }
     coloured_wrapped(r.diagnostics.drivers.empty() ? t.muted : t.ink, r.diagnostics.summary.c_str());
+    // Too narrow for eight columns (a phone): each column keeps the width of its contents and the
+    // table scrolls sideways under a finger, the category column staying in view.
+    const bool narrow = ImGui::GetContentRegionAvail().x < 36 * ImGui::GetFontSize();
     const ImGuiTableFlags flags = ImGuiTableFlags_RowBg | ImGuiTableFlags_BordersInnerH | ImGuiTableFlags_BordersOuter |
-                                  ImGuiTableFlags_ScrollY | ImGuiTableFlags_Sortable | ImGuiTableFlags_SizingStretchProp |
-                                  ImGuiTableFlags_Resizable;
+                                  ImGuiTableFlags_ScrollY | ImGuiTableFlags_Sortable | ImGuiTableFlags_Resizable |
+                                  (narrow ? ImGuiTableFlags_ScrollX | ImGuiTableFlags_SizingFixedFit : ImGuiTableFlags_SizingStretchProp);
     if (!ImGui::BeginTable("diagnostics", 8, flags, ImVec2(0, ImGui::GetContentRegionAvail().y))) return;
     ImGui::TableSetupScrollFreeze(1, 1);
-    ImGui::TableSetupColumn("Category", ImGuiTableColumnFlags_DefaultSort, 2.0f);
-    ImGui::TableSetupColumn("O", 0, 0.8f);
-    ImGui::TableSetupColumn("E", 0, 0.9f);
-    ImGui::TableSetupColumn("O − E", 0, 0.9f);
-    ImGui::TableSetupColumn("χ² share", 0, 0.9f);
-    ImGui::TableSetupColumn("Adj. res.", 0, 0.9f);
-    ImGui::TableSetupColumn("Holm p", 0, 1.3f);
-    ImGui::TableSetupColumn("Direction", 0, 1.9f);
+    const char* heads[] = {"Category", "O", "E", "O − E", "χ² share", "Adj. res.", "Holm p", "Direction"};
+    const float weights[] = {2.0f, 0.8f, 0.9f, 0.9f, 0.9f, 0.9f, 1.3f, 1.9f};
+    for (int c = 0; c < 8; ++c)
+        ImGui::TableSetupColumn(heads[c], c == 0 ? ImGuiTableColumnFlags_DefaultSort : 0, narrow ? 0.0f : weights[c]);
     ImGui::TableHeadersRow();
     std::vector<int> order(cats.size());
     for (std::size_t i = 0; i < order.size(); ++i) order[i] = static_cast<int>(i);
@@ -222,6 +221,7 @@ void draw_categories_table(AppState& s, const Theme& t) {
         ImGui::TextUnformatted(format_probability(d.adjusted).c_str());
         ImGui::TableNextColumn();
         ImGui::TextUnformatted((d.drives_result ? "◆ " + d.direction : d.direction).c_str());
+        if (i == 0) mark_widget("direction 1");
     }
     ImGui::EndTable();
 }

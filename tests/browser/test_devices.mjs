@@ -237,6 +237,33 @@ export const tests = {
     });
   },
 
+  async 'phone: the categories table scrolls sideways under a finger, and the merge rules are 44 px apart'() {
+    await withPage(phone, async (page) => {
+      await tap(page, 'Where it differs');
+      await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['direction 1'], null, { timeout: 5000 });
+      const before = await widget(page, 'direction 1');
+      // Eight columns do not fit in 390 px: the last starts past the screen's right edge until dragged in.
+      assert(before.x + before.w > 390, `the direction column already fits: ${JSON.stringify(before)}`);
+      const y = before.y + before.h / 2;
+      await drag(page, { x: 300, y }, { x: 80, y });
+      const after = await widget(page, 'direction 1');
+      assert(after.x < before.x - 100, `a sideways drag did not scroll the table: x ${before.x.toFixed(0)} -> ${after.x.toFixed(0)}`);
+      assert(Math.abs(after.y - before.y) < 2, `the sideways drag moved the page up or down: y ${before.y.toFixed(0)} -> ${after.y.toFixed(0)}`);
+      await screenshot(page, 'devices-phone-table-scrolled');
+      // The merge rule's list: each item a 44 px tap target.
+      for (let i = 0; i < 12; i++) {
+        const r = await widget(page, 'merge rule');
+        if (r && r.y > 80 && r.y + r.h < 760) break;
+        await drag(page, { x: 370, y: 700 }, { x: 370, y: 400 });
+      }
+      await tap(page, 'merge rule');
+      await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['until Cochran\'s rule holds'], null, { timeout: 5000 });
+      const open = await page.evaluate(() => globalThis.tallyproofPage.widgets);
+      for (const item of ['no merging', 'until all expected ≥ 5', 'until Cochran\'s rule holds', 'until all expected ≥ minimum'])
+        assert(open[item] && open[item].h >= 44 - 0.5, `merge rule item ${item} is ${open[item]?.h?.toFixed(1)} px tall`);
+      await screenshot(page, 'devices-phone-merge-rules');
+    });
+  },
   async 'phones, tablet and laptop: no control past the screen edge'() {
     const sizes = [[360, 640, true], [390, 844, true], [820, 1180, true], [1366, 768, false]];
     for (const [width, height, touch] of sizes) {
