@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <iterator>
 #include <string>
 #include <vector>
 
@@ -169,11 +170,13 @@ void draw_categories_table(AppState& s, const Theme& t) {
     const ImGuiTableFlags flags = ImGuiTableFlags_RowBg | ImGuiTableFlags_BordersInnerH | ImGuiTableFlags_BordersOuter |
                                   ImGuiTableFlags_ScrollY | ImGuiTableFlags_Sortable | ImGuiTableFlags_Resizable |
                                   (narrow ? ImGuiTableFlags_ScrollX | ImGuiTableFlags_SizingFixedFit : ImGuiTableFlags_SizingStretchProp);
-    if (!ImGui::BeginTable("diagnostics", 8, flags, ImVec2(0, ImGui::GetContentRegionAvail().y))) return;
-    ImGui::TableSetupScrollFreeze(1, 1);
     const char* heads[] = {"Category", "O", "E", "O − E", "χ² share", "Adj. res.", "Holm p", "Direction"};
     const float weights[] = {2.0f, 0.8f, 0.9f, 0.9f, 0.9f, 0.9f, 1.3f, 1.9f};
-    for (int c = 0; c < 8; ++c)
+    constexpr int columns = static_cast<int>(std::size(heads));
+    static_assert(std::size(weights) == std::size(heads), "one weight per column");
+    if (!ImGui::BeginTable("diagnostics", columns, flags, ImVec2(0, ImGui::GetContentRegionAvail().y))) return;
+    ImGui::TableSetupScrollFreeze(1, 1);
+    for (int c = 0; c < columns; ++c)
         ImGui::TableSetupColumn(heads[c], c == 0 ? ImGuiTableColumnFlags_DefaultSort : 0, narrow ? 0.0f : weights[c]);
     ImGui::TableHeadersRow();
     std::vector<int> order(cats.size());
