@@ -92,7 +92,7 @@ Status noncentrality_interval(double chi_square, double df, double level, double
         *lambda_high = solve_falling(lower_tail, tail, chi_square);
     }
     if (std::isnan(*lambda_low) || std::isnan(*lambda_high))
-        return Status::failure("The noncentrality interval could not be found for X2 = " + number(chi_square) + ".");
+        return Status::failure("The noncentrality interval could not be found for χ² = " + number(chi_square) + ".");
     return Status::success();
 }
 

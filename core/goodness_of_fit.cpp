@@ -31,7 +31,7 @@ Result refuse(std::string message, int line = 0) {
 
 std::string statistic_name(double lambda, bool williams) {
     const std::string named = power_lambda_name(lambda);
-    if (lambda == 1) return "Pearson X²";
+    if (lambda == 1) return "Pearson χ²";
     if (lambda == 0) return williams ? "G² (likelihood ratio, Williams-corrected)" : "G² (likelihood ratio)";
     if (!named.empty()) return named + " (power divergence, λ = " + format_significant(lambda, 3) + ")";
     return "power divergence, λ = " + format_significant(lambda, 4);
@@ -106,9 +106,10 @@ Result analyse(const Analysis& a) {
         r.warnings.push_back("The counts total more than 2^53 (about 9.007 × 10¹⁵): the total is held to 16 significant "
                              "digits, so N = " + format_count(n) + " may differ from the exact sum in its last digits "
                              "(the statistic and p-value are not affected at that precision).");
-    if (n == 100 || n == 1)
-        r.warnings.push_back("The counts total " + format_count(n) + ": if they are percentages or proportions, enter the "
-                             "raw counts instead; a test on percentages is wrong by a factor of N/100.");
+    // Whole counts that total 100 are counts far more often than percentages (decimals, % signs
+    // and a percent header are caught where the paste is read): a quiet question, not a warning.
+    if (n == 100)
+        r.questions.push_back("The counts total 100: are they counts of items, not percentages? A test needs the counts.");
 
     if (a.model.kind == ModelKind::reference_sample) {  // 2 x k homogeneity: core/reference_sample_analysis
         analyse_reference_sample(a, &r);

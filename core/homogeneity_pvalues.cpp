@@ -127,8 +127,8 @@ Status homogeneity_monte_carlo_p(const HomogeneityTable& t, double lambda, std::
     const Margins g = margins_of(t);
     const double work = static_cast<double>(replicates) * g.m;
     if (work > max_work || g.n > 50000000)
-        return Status::failure("Monte Carlo would draw " + format_significant(work, 2) + " observations (B = " +
-                               format_count(static_cast<double>(replicates)) + " tables of " + format_count(g.m) +
+        return Status::failure("Monte Carlo would draw " + format_significant(work, 2) + " observations (" +
+                               format_count(static_cast<double>(replicates)) + " replicate tables of " + format_count(g.m) +
                                "), beyond the limit of " + format_significant(max_work, 2) +
                                ". Samples this large are where the asymptotic p-value holds (see its validity), or ask for fewer replicates.");
     const std::size_t k = g.c.size();

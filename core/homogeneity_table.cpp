@@ -47,7 +47,7 @@ Status homogeneity_table(const std::vector<double>& current, const std::vector<d
         const double term = power_divergence_term(current[j], e1, lambda) + power_divergence_term(reference[j], e2, lambda);
         if (!std::isfinite(term))
             return Status::failure("The statistic with λ = " + format_plain(lambda) + " is undefined when a cell is empty "
-                                   "(category " + std::to_string(j + 1) + "); use Pearson's X² or G².");
+                                   "(category " + std::to_string(j + 1) + "); use Pearson's χ² or G².");
         t.contributions.push_back(term);
         t.statistic += term;
         const double d = current[j] - e1;

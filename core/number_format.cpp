@@ -81,9 +81,15 @@ std::string format_significant(double x, int digits) {
     return (x < 0 ? "-" : "") + format_power_of_ten(std::log10(ax), digits);
 }
 
+std::string format_grouped(std::uint64_t v) {
+    std::string s = std::to_string(v);
+    for (int i = static_cast<int>(s.size()) - 3; i > 0; i -= 3) s.insert(static_cast<std::size_t>(i), ",");
+    return s;
+}
+
 std::string format_probability(const TailProbability& p) {
     if (std::isnan(p.p) || std::isnan(p.log10_p)) return "n/a";
-    if (p.p >= 1) return "1";
+    if (p.p >= 1) return "1.000";  // as many decimals as a p just below 1 ("0.9996" is "1.000"); never a bare "1"
     if (p.p > 0 && p.p >= 1e-3) return format_significant(p.p, 3);
     if (std::isinf(p.log10_p)) return "0";  // a true zero (lower tail at x = 0)
     return format_power_of_ten(p.log10_p, p.log10_p < -300 ? 2 : 3);

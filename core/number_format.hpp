@@ -1,6 +1,7 @@
 // How numbers are written for people: statistics, counts and probabilities at every size.
 // A probability is never written as 0: below the double range it is written from its log10.
 #pragma once
+#include <cstdint>
 #include <string>
 
 #include "chi_square_tail.hpp"
@@ -9,6 +10,7 @@ namespace tallyproof {
 
 std::string format_fixed(double x, int decimals);        // "5.27"; "n/a" when not finite
 std::string format_count(double x);                       // "1234" (whole) or "12.5"
+std::string format_grouped(std::uint64_t v);              // 100000 -> "100,000" (replicates, hits)
 std::string format_plain(double x);                       // shortest form: "0.05", "1e-06"
 std::string format_significant(double x, int digits);     // "0.0431", "3.21 × 10⁻⁵"
 std::string format_probability(const TailProbability& p); // 3 significant digits at any size

@@ -31,8 +31,8 @@ double centred_term(double o, double e, double lambda) {
 std::string lambda_text(double lambda) {
     const char* name = power_lambda_name(lambda);
     char buf[80];
-    if (*name) std::snprintf(buf, sizeof buf, "lambda = %g (%s)", lambda, name);
-    else std::snprintf(buf, sizeof buf, "lambda = %g", lambda);
+    if (*name) std::snprintf(buf, sizeof buf, "λ = %g (%s)", lambda, name);
+    else std::snprintf(buf, sizeof buf, "λ = %g", lambda);
     return buf;
 }
 
@@ -40,7 +40,7 @@ std::string lambda_text(double lambda) {
 
 const char* power_lambda_name(double lambda) {
     if (lambda == power_lambda::pearson) return "Pearson";
-    if (lambda == power_lambda::log_likelihood) return "log-likelihood G^2";
+    if (lambda == power_lambda::log_likelihood) return "log-likelihood G²";
     if (lambda == power_lambda::freeman_tukey) return "Freeman-Tukey";
     if (lambda == power_lambda::mod_log_likelihood) return "modified log-likelihood";
     if (lambda == power_lambda::neyman) return "Neyman";
@@ -68,9 +68,9 @@ Status power_divergence(const std::vector<double>& observed, const std::vector<d
         return Status::failure(buf);
     }
     if (!std::isfinite(lambda))
-        return Status::failure("The power-divergence parameter lambda must be a finite number.");
+        return Status::failure("The power-divergence parameter λ must be a finite number.");
     if (options.williams_correction && lambda != 0.0)
-        return Status::failure("Williams' correction applies to the log-likelihood statistic G^2 (lambda = 0) only; "
+        return Status::failure("Williams' correction applies to the log-likelihood statistic G² (λ = 0) only; "
                                "here " + lambda_text(lambda) + ".");
     double n_obs = 0, n_exp = 0;
     std::size_t k_used = 0;
@@ -93,8 +93,8 @@ Status power_divergence(const std::vector<double>& observed, const std::vector<d
         if (e > 0 && o == 0 && lambda <= -1.0) {
             std::snprintf(buf, sizeof buf,
                           "Category %zu has an observed count of 0: with %s the statistic is undefined there "
-                          "(its term involves %s, infinite at O = 0). Choose lambda > -1, e.g. G^2 or Pearson.",
-                          i + 1, lambda_text(lambda).c_str(), lambda == -1.0 ? "E log(E/O)" : "E (E/O)^(-lambda-1)");
+                          "(its term involves %s, infinite at O = 0). Choose λ > −1, e.g. G² or Pearson χ².",
+                          i + 1, lambda_text(lambda).c_str(), lambda == -1.0 ? "E log(E/O)" : "E (E/O)^(−λ−1)");
             return Status::failure(buf);
         }
         n_obs += o;

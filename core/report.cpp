@@ -6,6 +6,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "glossary.hpp"
 #include "json_writer.hpp"
 #include "number_format.hpp"
 #include "tallyproof_version.hpp"
@@ -24,11 +25,7 @@ std::string interval_text(const EffectSizeInterval& iv) {
     return ", 95% CI [" + format_fixed(iv.lower, 3) + ", " + format_fixed(iv.upper, 3) + "]";
 }
 
-std::string grouped(std::uint64_t v) {  // 100000 -> "100,000"
-    std::string s = std::to_string(v);
-    for (int i = static_cast<int>(s.size()) - 3; i > 0; i -= 3) s.insert(static_cast<std::size_t>(i), ",");
-    return s;
-}
+std::string grouped(std::uint64_t v) { return format_grouped(v); }
 
 void write_tail(JsonWriter& j, const char* key, const TailProbability& t) { j.key(key).value(t.p); }
 
@@ -62,7 +59,7 @@ std::string method_phrase(const Result& r) {
     switch (r.method) {
         case PValueMethod::exact: return "exact";
         case PValueMethod::monte_carlo:
-            return "Monte Carlo, B = " + grouped(r.monte_carlo.replicates) + ", seed " + std::to_string(r.monte_carlo.seed);
+            return "Monte Carlo, " + grouped(r.monte_carlo.replicates) + " replicates, seed " + std::to_string(r.monte_carlo.seed);
         case PValueMethod::asymptotic: break;
     }
     return "asymptotic";
@@ -77,7 +74,7 @@ std::string report_text(const Analysis& a, const Result& r) {
              format_count(r.reference->n_reference) + "\n";
     else s += "Chi-square goodness of fit: " + r.statistic_name + ", " + r.model_description + "\n";
     s += "N = " + format_count(r.n) + (r.reference ? " (both samples " + format_count(r.reference->n_total) + ")" : "") +
-         ", k = " + std::to_string(r.observed.size());
+         ", k = " + std::to_string(r.observed.size()) + " categories";
     if (r.merged) s += " (" + std::to_string(r.tested_categories.size()) + " after merging)";
     s += "\n";
     s += r.statistic_symbol + " = " + format_fixed(r.statistic, 2) + ", df = " + format_count(r.df) + ", p = " + format_probability(r.p) +
@@ -94,7 +91,7 @@ std::string report_text(const Analysis& a, const Result& r) {
     s += "Effect size: w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ", from the noncentrality)" +
          interval_text(r.effect.w_interval) + "; Cohen's w = √(" + r.statistic_symbol + "/N) = " + format_fixed(r.effect.w, 3) +
          ", which averages about √(df/N) = " + format_fixed(std::sqrt(r.df / r.n), 3) + " even when the mix holds";
-    if (r.effect.fei_defined) s += "; Fei = " + format_fixed(r.effect.fei, 3) + interval_text(r.effect.fei_interval);
+    if (r.effect.fei_defined) s += "; Fei (w rescaled to run from 0 to 1 for these expected shares) = " + format_fixed(r.effect.fei, 3) + interval_text(r.effect.fei_interval);
     s += "\n";
     s += "Validity: " + r.validity.summary + "\n";
     if (r.df_range.shown) s += r.df_range.note + " p at df " + format_count(r.df_range.upper_df) + ": " +
@@ -129,6 +126,7 @@ std::string report_text(const Analysis& a, const Result& r) {
         }
     }
     for (const auto& w : r.warnings) s += "Note: " + w + "\n";
+    for (const auto& q : r.questions) s += "Check: " + q + "\n";
     for (const auto& c : r.cautions) s += "Caution: " + c + "\n";
 
     std::size_t wl = 8;
@@ -338,7 +336,13 @@ std::string report_json(const Analysis& a, const Result& r) {
             .key("cochran").value(r.validity_before_merge.cochran_holds).end_object()
         .end_object();
     j.key("warnings").strings(r.warnings);
+    j.key("questions").strings(r.questions);
     j.key("cautions").strings(r.cautions);
+    // What each abbreviation and symbol of the report text means (the form view lists them).
+    j.key("glossary").begin_array();
+    for (const GlossaryEntry* e : glossary_terms_in(report_text(a, r)))
+        j.begin_object().key("term").value(std::string(e->term)).key("meaning").value(std::string(e->meaning)).end_object();
+    j.end_array();
     j.end_object();
     return j.str();
 }

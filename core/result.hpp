@@ -135,6 +135,7 @@ struct Result {
     std::optional<ConformityResult> conformity;  // when asked for (ok or refused, with its reason)
 
     std::vector<std::string> warnings;      // plain-language notes about this analysis
+    std::vector<std::string> questions;     // quiet checks a user may dismiss ("counts, or percentages?"), not warnings
     std::vector<std::string> cautions;      // the usual cautions that apply to it
 };
 

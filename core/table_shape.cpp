@@ -304,9 +304,12 @@ bool read_count_cell(const Entry& e, DecimalMark mark, ParsedInput* out, double*
     if (n.out_of_range && std::isinf(n.value)) fault = " is too large; expected a count below 2^53.";
     else if (n.out_of_range) fault = " is too small to be read as a number; counts must be whole numbers.";
     else if (!n.ok) fault = " is not a count; expected a non-negative whole number.";
-    else if (n.percent) fault = " is a percentage; counts must be non-negative whole numbers.";
+    else if (n.percent) fault = " is a percentage; counts must be non-negative whole numbers. Enter how many items fell in "
+                                "each category: a test on percentages is wrong by a factor of N/100.";
     else if (n.negative && n.value != 0) fault = " is negative; counts must be non-negative whole numbers.";
-    else if (n.value != std::floor(n.value)) fault = " is not a whole number; counts must be whole numbers.";
+    else if (n.value != std::floor(n.value))
+        fault = " is not a whole number; counts must be whole numbers. If the column holds percentages or shares, enter how "
+                "many items fell in each category instead: a test on percentages is wrong by a factor of N/100.";
     else if (n.value >= kMaxCount) fault = " is too large; expected a count below 2^53.";
     if (fault != nullptr) {
         add_problem(out, e.line, e.count_column, where + quote_cell(e.count) + fault);
@@ -419,6 +422,23 @@ void classify_expected(const TableCells& entries, bool any_percent, ParsedInput*
 
 }  // namespace
 
+// Whole counts under a header that names percentages ("%", "Percent", "Share") and totalling 100
+// (or 1) are most likely percentages: a note says so (the counts are still read).
+void note_percent_header(int count_column, ParsedInput* out) {
+    if (count_column < 1 || static_cast<std::size_t>(count_column) > out->column_names.size()) return;
+    const std::string& head = out->column_names[static_cast<std::size_t>(count_column) - 1];
+    const std::string h = lower_ascii(head);
+    const bool percent_like = h.find('%') != std::string::npos || h.find("percent") != std::string::npos ||
+                              h.find("pct") != std::string::npos || h.find("share") != std::string::npos ||
+                              h.find("proportion") != std::string::npos;
+    double total = 0;
+    for (double o : out->observed) total += o;
+    if (!percent_like || !(total == 100 || total == 1)) return;
+    out->notes.push_back("The count column is headed \"" + head + "\" and its values total " + plain(total) +
+                         ": if they are percentages or proportions, enter the raw counts instead; a test on "
+                         "percentages is wrong by a factor of N/100.");
+}
+
 void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, ParsedInput* out) {
     const TableCells entries = read_shape(rows, out->shape, out);
     if (entries.size() > kMaxCategories) {
@@ -443,6 +463,7 @@ void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, 
         return;
     }
     classify_expected(entries, any_percent, out);
+    note_percent_header(entries.front().count_column, out);
 }
 
 }  // namespace tallyproof

@@ -96,7 +96,7 @@ std::string method_text(const Result& r, const Style& st) {
     switch (r.method) {
         case PValueMethod::exact: return "exact";
         case PValueMethod::monte_carlo:
-            return "Monte Carlo" + list_sep(st) + "B = " + grouped(static_cast<double>(r.monte_carlo.replicates), st) +
+            return "Monte Carlo" + list_sep(st) + grouped(static_cast<double>(r.monte_carlo.replicates), st) + " replicates" +
                    list_sep(st) + "seed " + std::to_string(r.monte_carlo.seed);
         case PValueMethod::asymptotic: break;
     }
@@ -239,7 +239,7 @@ std::string tsv_block(const Analysis& a, const Result& r, const WriteupOptions& 
     rows.push_back({text_cell("p-value method"), text_cell(method_text(r, st))});
     rows.push_back({text_cell("Lower-tail p (fit too good?)"), probability_cell(r.exact_lower_computed ? r.exact_lower : r.lower)});
     rows.push_back({text_cell("w (from the noncentrality)"), fixed_cell(r.effect.estimate, 2)});
-    rows.push_back({text_cell("Cohen's w = sqrt(X2/N), biased up by about df/N"), fixed_cell(r.effect.w, 2)});
+    rows.push_back({text_cell("Cohen's w = √(χ²/N), biased up by about df/N"), fixed_cell(r.effect.w, 2)});
     rows.push_back({text_cell("w, 95% CI lower"), fixed_cell(iv.lower, 2)});
     rows.push_back({text_cell("w, 95% CI upper"), fixed_cell(iv.upper, 2)});
     rows.push_back({text_cell("Conclusion"), text_cell((r.reject ? "not consistent with " : "no evidence against ") + mix_phrase(a))});

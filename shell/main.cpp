@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "analysis_document.hpp"
+#include "glossary.hpp"
 #include "group_screen.hpp"
 #include "grouped_table.hpp"
 #include "paste_parser.hpp"
@@ -69,13 +70,17 @@ const char* kUsage =
     "  --extra-params M       parameters estimated elsewhere from raw data (each costs one df)\n"
     "test:\n"
     "  --alpha A              significance level of the decision (default 0.05)\n"
-    "  --lambda L             power-divergence lambda: 1 Pearson, 0 G2, 0.6667 Cressie-Read,\n"
-    "                         -0.5 Freeman-Tukey, -1 modified G2, -2 Neyman\n"
-    "  --williams             Williams' correction of G2 (with --lambda 0)\n"
+    "  --lambda L             which statistic of the power-divergence family: 1 Pearson's\n"
+    "                         chi-square, 0 likelihood ratio (G2), 0.6667 Cressie-Read,\n"
+    "                         -0.5 Freeman-Tukey, -1 modified likelihood ratio, -2 Neyman\n"
+    "  --williams             Williams' correction of the likelihood ratio (with --lambda 0)\n"
     "  --method M             asymptotic (default), exact or monte-carlo\n"
-    "  --ordering O           exact and Monte Carlo: statistic (default) or probability\n"
-    "  --replicates B         Monte Carlo replicates (default 100000)\n"
-    "  --seed S               Monte Carlo seed (default 1)\n"
+    "  --ordering O           exact and Monte Carlo: which outcomes count as at least as extreme:\n"
+    "                         statistic (default; a statistic at least the observed one) or\n"
+    "                         probability (outcomes no more probable than the observed counts)\n"
+    "  --replicates N         Monte Carlo: how many samples to simulate (default 100000 replicates)\n"
+    "  --seed S               Monte Carlo: the random generator's seed; the same seed repeats\n"
+    "                         the same p-value (default 1)\n"
     "  --merge RULE           merge thin categories: none, all-5, cochran, minimum\n"
     "  --min-expected X       the minimum for --merge minimum\n"
     "planning:\n"
@@ -99,6 +104,7 @@ const char* kUsage =
     "  --q Q                  flag groups whose adjusted p is at most Q (default 0.05)\n"
     "                         (--table and --writeup then give the groups table and summary)\n"
     "other:\n"
+    "  --glossary             print what each abbreviation and symbol on screen means\n"
     "  --version, --help\n"
     "\n"
     "exit status: 0 analysed, 1 input refused, 2 usage error or input that cannot be read,\n"
@@ -213,6 +219,7 @@ int main(int argc, char** argv) {
         } else if (arg == "--output-decimal-comma") out_decimal_comma = true;
         else if (arg == "--version") return write_output(std::string("tallyproof ") + TALLYPROOF_VERSION + "\n", "the version");
         else if (arg == "--help" || arg == "-h") return write_output(kUsage, "the help text");
+        else if (arg == "--glossary") return write_output(tallyproof::glossary_markdown(), "the glossary");
         else if (arg == "--ordered" || arg == "--williams") opts.emplace_back(arg, "");
         else if (arg == "--raw") input.raw = true;
         else if (arg == "--case-fold") input.case_fold = true;

@@ -241,6 +241,10 @@ bool recompute(AppState& s) {
     }
     s.input_error.clear();
     s.result = std::move(next);
+    auto& q = s.result.questions;  // questions the user has answered are not asked again
+    q.erase(std::remove_if(q.begin(), q.end(), [&](const std::string& x) {
+                return std::find(s.dismissed_questions.begin(), s.dismissed_questions.end(), x) != s.dismissed_questions.end();
+            }), q.end());
     if (s.result.conformity && s.result.conformity->status.ok)  // the curve of "departs by exactly w0"
         s.curve = noncentral_density_curve(s.result.df, s.result.conformity->noncentrality,
                                            s.result.conformity->critical_value, s.result.statistic);
@@ -369,6 +373,13 @@ void apply_fixed_paste(AppState& s) {
 }
 
 void dismiss_refusal(AppState& s) { clear_refusal(s); }
+
+void dismiss_question(AppState& s, int index) {
+    if (index < 0 || static_cast<std::size_t>(index) >= s.result.questions.size()) return;
+    s.dismissed_questions.push_back(s.result.questions[static_cast<std::size_t>(index)]);
+    s.result.questions.erase(s.result.questions.begin() + index);
+    publish(s);  // the report and the form lose the question too
+}
 
 bool open_document(AppState& s, std::string_view json) {
     Analysis a;

@@ -60,6 +60,7 @@ struct AppState {
     std::string source_name;         // where the counts came from
     ModelEditor model_editor;
     std::string input_error;         // why the latest edit was not applied (the previous result stays)
+    std::vector<std::string> dismissed_questions;  // quiet checks the user answered ("they are counts"), this session
 
     // Outputs, recomputed by recompute()
     Result result;
@@ -122,6 +123,7 @@ constexpr std::size_t kFixableBytes = 1u << 20;               // refused pastes 
 void edit_refused_paste(AppState& s, bool open);             // show or hide the editor of the refused paste
 void apply_fixed_paste(AppState& s);                         // read the edited paste as a new paste
 void dismiss_refusal(AppState& s);                           // forget the refused paste and its message
+void dismiss_question(AppState& s, int index);                 // the result's question `index` answered: not asked again
 void reread_paste(AppState& s, int shape, int digit_test = -1);  // the last paste again, read as InputShape `shape`
                                                                  // (raw_digits: DigitTest `digit_test`)
 void read_paste_into_bins(AppState& s, BinChoice::Kind kind, ModelKind model = ModelKind::normal);

@@ -60,7 +60,8 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
         const float w = ImGui::CalcTextSize(s.c_str()).x;
         dl->AddText(ImVec2(p0.x - w - 6, y - th / 2), theme.muted, s.c_str());
     }
-    const char* xlabel = "χ² value";
+    const std::string xlabel_text = "value of " + result.statistic_symbol;
+    const char* xlabel = xlabel_text.c_str();
     dl->AddText(ImVec2((p0.x + p1.x) / 2 - ImGui::CalcTextSize(xlabel).x / 2, p1.y + 9 + th), theme.muted, xlabel);
 
     // Shaded areas: rejection region beyond the critical value, observed tail beyond the statistic.
@@ -117,7 +118,7 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     }
 
     ImGui::PushFont(theme.strong);
-    const std::string stat_label = "observed χ² = " + (result.statistic < 1e5 ? format_fixed(result.statistic, 2) : format_significant(result.statistic, 4));
+    const std::string stat_label = "observed " + result.statistic_symbol + " = " + (result.statistic < 1e5 ? format_fixed(result.statistic, 2) : format_significant(result.statistic, 4));
     if (!broken) {
         const float x = px(result.statistic);
         dl->AddLine(ImVec2(x, p0.y + th + 4), ImVec2(x, p1.y), theme.marker, 2.5f);
@@ -125,7 +126,7 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
         // Right of the marker, else left of it inside the plot (never over the axis's tick
         // labels, as on a phone), else the same with the short label; first where it does not
         // cross the critical line's label either.
-        const std::string short_label = stat_label.substr(stat_label.find("χ²"));
+        const std::string short_label = stat_label.substr(std::string("observed ").size());
         const float crit_x = std::isfinite(critical) && critical <= xmax ? px(critical) : -1e9f;
         std::string label = short_label;
         float tx = p0.x + 4;
@@ -152,7 +153,8 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
         const std::string v = format_significant(result.statistic, 4);
         dl->AddText(ImVec2(sx - ImGui::CalcTextSize(v.c_str()).x / 2, p1.y + 7), theme.marker, v.c_str());
         ImGui::PopFont();
-        const char* l1 = "observed χ²,";
+        const std::string l1_text = "observed " + result.statistic_symbol + ",";
+        const char* l1 = l1_text.c_str();
         const char* l2 = "far beyond the curve";
         dl->AddText(ImVec2(ex - ImGui::CalcTextSize(l1).x, p0.y), theme.marker, l1);
         dl->AddText(ImVec2(ex - ImGui::CalcTextSize(l2).x, p0.y + th), theme.marker, l2);
@@ -164,13 +166,14 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
         const double x = xmin + (ImGui::GetIO().MousePos.x - p0.x) / (p1.x - p0.x) * (xmax - xmin);
         if (x >= xmin && x <= xmax) {
             ImGui::BeginTooltip();
-            ImGui::Text("χ² = %s", format_significant(x, 4).c_str());
+            const char* sym = result.statistic_symbol.c_str();
+            ImGui::Text("%s = %s", sym, format_significant(x, 4).c_str());
             if (conform) {
                 ImGui::Text("density %s", format_significant(noncentral_chi_square_density(x, result.df, lambda), 3).c_str());
-                ImGui::Text("P(χ² ≤ x) = %s", format_significant(noncentral_chi_square_lower_tail(x, result.df, lambda), 3).c_str());
+                ImGui::Text("chance of %s at most this: %s", sym, format_significant(noncentral_chi_square_lower_tail(x, result.df, lambda), 3).c_str());
             } else {
                 ImGui::Text("density %s", format_significant(chi_square_density(x, result.df), 3).c_str());
-                ImGui::Text("P(χ² ≥ x) = %s", format_probability(chi_square_upper_tail(x, result.df)).c_str());
+                ImGui::Text("chance of %s at least this: %s", sym, format_probability(chi_square_upper_tail(x, result.df)).c_str());
             }
             ImGui::EndTooltip();
         }

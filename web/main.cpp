@@ -21,6 +21,7 @@
 #include "app_state.hpp"
 #include "bar_chart.hpp"
 #include "density_plot.hpp"
+#include "glossary.hpp"
 #include "merge_categories.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
@@ -89,7 +90,9 @@ void handle_shortcuts(Page& p) {
 // The text of the print layout: the write-up sentence over the full results block.
 std::string print_text(const tallyproof::web::AppState& s) {
     const tallyproof::WriteupOptions o;
-    return tallyproof::writeup_sentence(s.analysis, s.result, o) + "\n\n" + s.report;
+    const std::string text = tallyproof::writeup_sentence(s.analysis, s.result, o) + "\n\n" + s.report;
+    const std::string notes = tallyproof::glossary_notes(text);  // the footnote: what the symbols mean
+    return notes.empty() ? text : text + "\nSymbols and abbreviations\n" + notes + "\n";
 }
 std::string print_title(const tallyproof::web::AppState& s) { return s.source_name + " · Tallyproof " TALLYPROOF_VERSION; }
 

@@ -37,6 +37,13 @@ EM_JS(void, tp_js_mark, (const char* name, float x, float y, float w, float h), 
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.widgets[UTF8ToString(name)] = { x: x, y: y, w: w, h: h };
 });
 
+EM_JS(void, tp_js_explained, (const char* name, const char* shown), {
+    if (globalThis.tallyproofPage) (globalThis.tallyproofPage.explained = globalThis.tallyproofPage.explained || {})[UTF8ToString(name)] = UTF8ToString(shown);
+});
+EM_JS(void, tp_js_tooltip, (const char* text), {
+    if (globalThis.tallyproofPage) globalThis.tallyproofPage.tooltip = UTF8ToString(text);
+});
+
 EM_JS(char*, tp_js_storage_get, (const char* key), {
     var v = null;
     try { v = window.localStorage.getItem(UTF8ToString(key)); } catch (e) { v = null; }
@@ -149,6 +156,17 @@ void start_work_loop() { tp_js_start_work(); }
 void mark_widget(const char* name) {
     const ImVec2 a = ImGui::GetItemRectMin(), b = ImGui::GetItemRectMax();
     tp_js_mark(name, a.x, a.y, b.x - a.x, b.y - a.y);
+}
+
+void mark_explained(const char* name, const std::string& shown) {
+    mark_widget(name);
+    tp_js_explained(name, shown.c_str());
+}
+void note_tooltip(const std::string& text) {
+    static std::string last;
+    if (text == last) return;
+    last = text;
+    tp_js_tooltip(text.c_str());
 }
 
 std::string storage_get(const char* key) { return take(tp_js_storage_get(key)); }

@@ -18,6 +18,10 @@ void start_work_loop();                              // starts the page's task l
 // Records where the last ImGui item sits (CSS pixels) under `name`, so keyboard-less tests and
 // assistive tools can find controls on the canvas (tallyproofPage.widgets).
 void mark_widget(const char* name);
+// mark_widget, and the text the item shows (tallyproofPage.explained[name]) for an item whose
+// abbreviations the glossary explains in its tooltip; note_tooltip records the tooltip shown.
+void mark_explained(const char* name, const std::string& shown);
+void note_tooltip(const std::string& text);
 
 // Browser storage (localStorage, shared by the tabs; empty string when absent or refused; set is
 // false when refused or full), this tab's own storage (sessionStorage), and the URL fragment.

@@ -11,6 +11,7 @@
 #include <string>
 
 #include "conformity.hpp"
+#include "glossary.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
@@ -51,7 +52,7 @@ const char* kind_label(ModelKind k) {
 
 struct LambdaChoice { double lambda; const char* label; };
 constexpr LambdaChoice kLambdas[] = {
-    {1.0, "Pearson X² (λ = 1)"},
+    {1.0, "Pearson χ² (λ = 1)"},
     {0.0, "Likelihood ratio G² (λ = 0)"},
     {2.0 / 3.0, "Cressie-Read (λ = 2/3)"},
     {-0.5, "Freeman-Tukey (λ = −1/2)"},
@@ -194,6 +195,24 @@ void wrapped_text(const char* text) {
         p = end + 1;
     }
     ImGui::TextUnformatted(out.c_str());
+}
+
+void explain_item(const char* name, const std::string& shown) {
+    mark_explained(name, shown);
+    if (!ImGui::IsItemHovered()) return;  // a tap leaves the pointer there: the tooltip stays until the next tap
+    const std::string notes = glossary_notes(shown);
+    if (notes.empty()) return;
+    ImGui::BeginTooltip();
+    ImGui::PushTextWrapPos(ImGui::GetFontSize() * 26);
+    ImGui::TextUnformatted(notes.c_str());
+    ImGui::PopTextWrapPos();
+    ImGui::EndTooltip();
+    note_tooltip(notes);
+}
+
+void explained_text(const char* name, const std::string& text) {
+    wrapped_text(text.c_str());
+    explain_item(name, text);
 }
 
 // Menu and list items: 44 px apart on touch screens (a Selectable's target spans its spacing).

@@ -46,18 +46,20 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
     ImGui::PushFont(t.heading);
     const std::string statistic = r.statistic_symbol + " = " + format_fixed(r.statistic, 2), p = p_line(r);
     ImGui::TextUnformatted(statistic.c_str());
+    explain_item("verdict statistic", statistic);
     if (ImGui::GetItemRectMax().x + 18 + ImGui::CalcTextSize(p.c_str()).x <= ImGui::GetWindowPos().x + ImGui::GetWindowContentRegionMax().x)
         ImGui::SameLine(0, 18);
     ImGui::TextUnformatted(p.c_str());
+    explain_item("verdict p", p);
     ImGui::PopFont();
-    wrapped_text(("df = " + format_count(r.df) + "   ·   N = " + format_count(r.n) + "   ·   " + r.statistic_name + "   ·   p-value: " +
-                  method_phrase(r)).c_str());
-    wrapped_text(("Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3)).c_str());
+    explained_text("verdict details", "df = " + format_count(r.df) + "   ·   N = " + format_count(r.n) + "   ·   " + r.statistic_name +
+                                          "   ·   p-value: " + method_phrase(r));
+    explained_text("critical value", "Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3));
     if (r.method != PValueMethod::asymptotic) {
         const std::string asymptotic = "asymptotic p = " + format_probability(r.upper);
         flow_next(ImGui::CalcTextSize(asymptotic.c_str()).x + 9);
         ImGui::PushStyleColor(ImGuiCol_Text, ImGui::GetStyleColorVec4(ImGuiCol_TextDisabled));
-        wrapped_text(asymptotic.c_str());
+        explained_text("asymptotic p", asymptotic);
         ImGui::PopStyleColor();
     }
     ImGui::PushFont(t.strong);
@@ -66,31 +68,37 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
     else coloured_wrapped(r.reject ? t.warn_ink : t.accent, verdict_sentence(r).c_str());
     ImGui::PopFont();
     if (r.conformity && !r.conformity->status.ok) coloured_wrapped(t.warn_ink, conformity_verdict(r).c_str());
+    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
     if (r.conformity && r.conformity->status.ok) {
         const ConformityResult& c = *r.conformity;
-        muted_wrapped(t, "Conformity is shown when %s is below %s, the α quantile of the noncentral chi-square with df %s and "
-                         "noncentrality N·w0² = %s. Departure test: %s",
-                      r.statistic_symbol.c_str(), format_fixed(c.critical_value, 3).c_str(), format_count(c.df).c_str(),
-                      format_significant(c.noncentrality, 4).c_str(), verdict_sentence(r).c_str());
+        explained_text("conformity rule", "Conformity is shown when " + r.statistic_symbol + " is below " + format_fixed(c.critical_value, 3) +
+                                              ", the α quantile of the noncentral chi-square with df " + format_count(c.df) +
+                                              " and noncentrality N·w0² = " + format_significant(c.noncentrality, 4) +
+                                              ". Departure test: " + verdict_sentence(r));
         if (c.plan.computed)
-            muted_wrapped(t, "To show conformity within w0 = %s with power %s when the mix is exactly as stated: N = %s.",
-                          format_fixed(c.margin_w, 2).c_str(), format_fixed(c.plan.target_power, 2).c_str(),
-                          format_count(c.plan.n_required).c_str());
+            explained_text("conformity plan", "To show conformity within w0 = " + format_fixed(c.margin_w, 2) + " with power " +
+                                                  format_fixed(c.plan.target_power, 2) + " when the mix is exactly as stated: N = " +
+                                                  format_count(c.plan.n_required) + ".");
     }
-    std::string effect = "Effect size w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ")";
+    ImGui::PopStyleColor();
+    // One w leads (corrected for chance); Cohen's uncorrected w follows, named as such.
+    std::string effect = "Effect size w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ", corrected for chance)";
     if (std::isfinite(r.effect.w_interval.lower))
         effect += ", 95% CI " + format_fixed(r.effect.w_interval.lower, 3) + " to " + format_fixed(r.effect.w_interval.upper, 3);
-    effect += "; Cohen's w = " + format_fixed(r.effect.w, 3) + " (biased up by about df/N)";
-    effect += ";  lower-tail p = " + format_probability(r.exact_lower_computed ? r.exact_lower : r.lower) +
-              (r.exact_lower_computed ? " (exact)" : "");
-    if (r.effect.fei_defined) effect += ";  Fei = " + format_fixed(r.effect.fei, 3);
-    wrapped_text(effect.c_str());
-    if (r.df_range.shown && r.estimated_parameters > 0) muted_wrapped(t, "%s", r.df_range.note.c_str());
-    if (r.exact.computed) muted_wrapped(t, "Exact p-value, error bound %s.", format_significant(r.exact.error_bound, 2).c_str());
+    if (r.effect.fei_defined) effect += ";  Fei (w rescaled to run from 0 to 1 for these expected shares) = " + format_fixed(r.effect.fei, 3);
+    explained_text("effect sizes", effect);
+    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
+    explained_text("uncorrected w", "Cohen's w before the correction, √(" + r.statistic_symbol + "/N) = " + format_fixed(r.effect.w, 3) +
+                                        ";  lower-tail p = " + format_probability(r.exact_lower_computed ? r.exact_lower : r.lower) +
+                                        (r.exact_lower_computed ? " (exact)" : " (asymptotic)"));
+    if (r.df_range.shown && r.estimated_parameters > 0) wrapped_text(r.df_range.note.c_str());
+    if (r.exact.computed) wrapped_text(("Exact p-value, error bound " + format_significant(r.exact.error_bound, 2) + ".").c_str());
     if (r.monte_carlo.computed)
-        muted_wrapped(t, "Monte Carlo: %llu of %llu replicates at least as extreme; standard error %s.",
-                      static_cast<unsigned long long>(r.monte_carlo.hits), static_cast<unsigned long long>(r.monte_carlo.replicates),
-                      format_significant(r.monte_carlo.standard_error, 2).c_str());
+        explained_text("monte carlo counts", "Monte Carlo: " + format_grouped(r.monte_carlo.hits) + " of " +
+                                                 format_grouped(r.monte_carlo.replicates) +
+                                                 " replicates at least as extreme; standard error " +
+                                                 format_significant(r.monte_carlo.standard_error, 2) + ".");
+    ImGui::PopStyleColor();
 
     if (s.job_running) {
         const char* what = s.analysis.pvalue.method == PValueMethod::exact ? "Exact p-value" : "Monte Carlo p-value";
@@ -178,7 +186,13 @@ void draw_categories_table(AppState& s, const Theme& t) {
     ImGui::TableSetupScrollFreeze(1, 1);
     for (int c = 0; c < columns; ++c)
         ImGui::TableSetupColumn(heads[c], c == 0 ? ImGuiTableColumnFlags_DefaultSort : 0, narrow ? 0.0f : weights[c]);
-    ImGui::TableHeadersRow();
+    // The header row drawn cell by cell: each short head explains itself on hover or tap.
+    ImGui::TableNextRow(ImGuiTableRowFlags_Headers);
+    for (int c = 0; c < columns; ++c) {
+        if (!ImGui::TableSetColumnIndex(c)) continue;
+        ImGui::TableHeader(heads[c]);
+        explain_item((std::string("head ") + heads[c]).c_str(), heads[c]);
+    }
     std::vector<int> order(cats.size());
     for (std::size_t i = 0; i < order.size(); ++i) order[i] = static_cast<int>(i);
     if (ImGuiTableSortSpecs* spec = ImGui::TableGetSortSpecs(); spec && spec->SpecsCount > 0) {
@@ -223,8 +237,10 @@ void draw_categories_table(AppState& s, const Theme& t) {
         ImGui::TableNextColumn();
         ImGui::TextUnformatted(format_probability(d.adjusted).c_str());
         ImGui::TableNextColumn();
-        ImGui::TextUnformatted((d.drives_result ? "◆ " + d.direction : d.direction).c_str());
-        if (i == 0) mark_widget("direction 1");
+        const std::string direction = d.drives_result ? "◆ " + d.direction : d.direction;
+        ImGui::TextUnformatted(direction.c_str());
+        if (d.drives_result) explain_item(("direction " + std::to_string(i + 1)).c_str(), direction);
+        else if (i == 0) mark_widget("direction 1");
     }
     ImGui::EndTable();
 }

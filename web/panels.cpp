@@ -253,9 +253,10 @@ void draw_inputs(AppState& s, const Theme& t, float height) {
 void draw_view(AppState& s, const Theme& t) {
     const ImVec2 avail = ImGui::GetContentRegionAvail();
     float cautions_h = 0;  // room for the notes and cautions under the view
-    for (const auto* list : {&s.result.warnings, &s.result.cautions})
+    for (const auto* list : {&s.result.warnings, &s.result.cautions, &s.result.questions})
         for (const auto& w : *list)
             cautions_h += ImGui::CalcTextSize(("Caution: " + w).c_str(), nullptr, false, avail.x).y + ImGui::GetStyle().ItemSpacing.y;
+    cautions_h += ImGui::GetFrameHeightWithSpacing() * static_cast<float>(s.result.questions.size());  // "They are counts"
     const ImVec2 area(avail.x, std::max(200.0f, avail.y - cautions_h));
     switch (s.tab) {
         case ResultTab::curve: draw_density_plot(s.curve, s.result, area, t); break;
@@ -315,6 +316,13 @@ void draw_results(AppState& s, const Theme& t, float height) {
         draw_view(s, t);
     }
     for (const auto& w : s.result.warnings) muted_wrapped(t, "Note: %s", w.c_str());
+    for (std::size_t i = 0; i < s.result.questions.size(); ++i) {  // a quiet question, answered with one tap
+        ImGui::PushID(static_cast<int>(i));
+        muted_wrapped(t, "%s", s.result.questions[i].c_str());
+        if (ImGui::Button("They are counts")) { dismiss_question(s, static_cast<int>(i)); ImGui::PopID(); break; }
+        mark_widget("They are counts");
+        ImGui::PopID();
+    }
     for (const auto& c : s.result.cautions) muted_wrapped(t, "Caution: %s", c.c_str());
     ImGui::EndChild();
 }

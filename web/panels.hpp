@@ -27,6 +27,10 @@ void draw_writeup_panel(AppState& state, const Theme& theme);
 void section_title(const char* title, const Theme& theme);
 void muted_wrapped(const Theme& theme, const char* fmt, ...);
 void wrapped_text(const char* text);                          // wrapped to the window, only at spaces
+// The last item's abbreviations and symbols (glossary terms in `shown`) explained in a tooltip on
+// hover or tap; the item is marked `name` (mark_explained) so tests can find it.
+void explain_item(const char* name, const std::string& shown);
+void explained_text(const char* name, const std::string& text);  // wrapped_text + explain_item
 bool compact_button(const char* label, const Theme& theme);   // SmallButton; a 44 px target on touch screens
 void begin_menu_items(const Theme& theme);                    // popup and combo items 44 px apart on touch screens...
 void end_menu_items(const Theme& theme);                      // ...until here

@@ -23,7 +23,7 @@ TEST_CASE("probabilities at every size") {
     CHECK(format_probability({3.2149e-5, -4.49285}) == "3.21 × 10⁻⁵");
     // 10^-1082.5 = 3.16 x 10^-1083: below the double range, written from log10 alone.
     CHECK(format_probability({0.0, -1082.5}) == "3.2 × 10⁻¹⁰⁸³");
-    CHECK(format_probability({1.0, 0.0}) == "1");
+    CHECK(format_probability({1.0, 0.0}) == "1.000");  // a capped adjusted p: three decimals, like 0.9996
 }
 
 TEST_CASE("fixed and significant") {

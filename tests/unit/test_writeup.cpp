@@ -69,7 +69,7 @@ TEST_CASE("the sentence in reporting style") {
     r.method = PValueMethod::monte_carlo;
     r.monte_carlo.replicates = 100000;
     r.monte_carlo.seed = 7;
-    CHECK(writeup_sentence(a, r, o).find("(Monte Carlo, B = 100,000, seed 7).") != std::string::npos);
+    CHECK(writeup_sentence(a, r, o).find("(Monte Carlo, 100,000 replicates, seed 7).") != std::string::npos);
 
     // Not rejected: "no evidence against", never "consistent with" or "proves"; a non-default alpha is named.
     r.reject = false;
@@ -112,7 +112,7 @@ TEST_CASE("decimal comma") {
     o.decimal_comma = true;
     CHECK(writeup_sentence(a, r, o) ==
           "A chi-square goodness-of-fit test found that the counts were not consistent with the stated mix, "
-          "χ²(3, N = 12\u202F345) = 12,84; p = ,005; w = 0,41; 95% CI [0,22; 0,62] (Monte Carlo; B = 100\u202F000; seed 7).");
+          "χ²(3, N = 12\u202F345) = 12,84; p = ,005; w = 0,41; 95% CI [0,22; 0,62] (Monte Carlo; 100\u202F000 replicates; seed 7).");
     o.decimal_comma = false;
     CHECK(writeup_sentence(a, r, o).find("χ²(3, N = 12,345) = 12.84, p = .005,") != std::string::npos);
 }
@@ -185,7 +185,7 @@ TEST_CASE("TSV block pastes into cells") {
     const std::string s = writeup(a, r, o);
     CHECK(s.rfind("Test\tchi-square goodness-of-fit test\nStatistic\tχ²\nValue\t20.00\ndf\t3\nN\t100\np\t0.0001697\n"
                   "p-value method\tasymptotic\nLower-tail p (fit too good?)\t0.9998\nw (from the noncentrality)\t0.41\n"
-                  "Cohen's w = sqrt(X2/N), biased up by about df/N\t0.45\nw, 95% CI lower\t0.22\nw, 95% CI upper\t0.62\n"
+                  "Cohen's w = √(χ²/N), biased up by about df/N\t0.45\nw, 95% CI lower\t0.22\nw, 95% CI upper\t0.62\n"
                   "Conclusion\tnot consistent with the stated mix\nSentence\tA chi-square", 0) == 0);
     CHECK(s.find("\n\nCategory\tObserved\tExpected\tContribution\tAdjusted residual\tAdjusted p\tDirection\n") != std::string::npos);
     CHECK(s.find("\n'=cmd|' /C calc'!A0\t20\t25.00\t1.00\t-1.73\t0.5\tfewer than expected\n") != std::string::npos);
