@@ -30,7 +30,7 @@ std::vector<double> sparse_table(int k) {
 
 int main() {
     std::printf("equal shares, X^2, mean 5 per cell (target: 1 s natively)\n");
-    std::printf("%5s %6s %12s %10s %12s %10s %12s %14s\n", "k", "N", "p (DP)", "DP s", "bound", "estimate", "p (walk)", "walk s");
+    std::printf("%5s %6s %20s %10s %12s %10s %20s %10s\n", "k", "N", "p (DP)", "DP s", "bound", "estimate", "p (walk)", "walk s");
     for (int k : {10, 20, 30, 50, 70, 100}) {
         MultinomialTestSpec spec;
         spec.observed = sparse_table(k);
@@ -54,7 +54,7 @@ int main() {
             if (exact_multinomial_p_value(spec, o, &w).ok) walk_p = w.p.p;
             walk_sec = seconds_since(t0);
         }
-        std::printf("%5d %6d %12.6g %10.3f %12.3g %10.3g %12.6g %14.3f%s\n", k, sc.n, r.p.p, sec, r.error_bound,
+        std::printf("%5d %6d %20.15g %10.3f %12.3g %10.3g %20.15g %10.3f%s\n", k, sc.n, r.p.p, sec, r.error_bound,
                     st.estimated_work, walk_p, walk_sec, s.ok ? "" : " (failed)");
     }
     std::printf("\nany shares, grid bracket (targets: k <= 30 at bound 1e-6, first-two-digit law k = 90 at N <= 300, 1e-4)\n");
