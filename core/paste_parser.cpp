@@ -80,8 +80,24 @@ const char* expected_kind_name(ExpectedKind kind) {
         case ExpectedKind::percentages: return "percentages";
         case ExpectedKind::ratios: return "ratios";
         case ExpectedKind::counts: return "counts";
+        case ExpectedKind::previous_sample: return "previous-sample";
     }
     return "none";
+}
+
+const char* third_column_name(ThirdColumn choice) {
+    switch (choice) {
+        case ThirdColumn::automatic: return "auto";
+        case ThirdColumn::expected: return "expected";
+        case ThirdColumn::previous_sample: return "previous";
+    }
+    return "auto";
+}
+
+bool third_column_from_name(const std::string& name, ThirdColumn* choice) {
+    for (ThirdColumn c : {ThirdColumn::automatic, ThirdColumn::expected, ThirdColumn::previous_sample})
+        if (name == third_column_name(c)) { *choice = c; return true; }
+    return false;
 }
 
 ParsedInput parse_input(std::string_view text, const ParseOptions& options) {
@@ -158,7 +174,9 @@ ParsedInput parse_input(std::string_view text, const ParseOptions& options) {
         read_table(words ? grouped : rows, options, &out);
         if (out.status.ok)
             out.notes.insert(out.notes.begin(), "Read " + std::to_string(out.categories.size()) + " categories as " +
-                                                    shape_words(shape) + " (" + separated(sep) + ", " +
+                                                    (out.expected_kind == ExpectedKind::previous_sample
+                                                         ? "label, observed and a previous sample's count"
+                                                         : shape_words(shape)) + " (" + separated(sep) + ", " +
                                                     decimal_mark_name(out.decimal) + ").");
         return out;
     }

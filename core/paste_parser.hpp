@@ -30,8 +30,16 @@ enum class InputShape {
 const char* input_shape_name(InputShape shape);                           // "label-count", ...
 bool input_shape_from_name(const std::string& name, InputShape* shape);  // false if unknown
 
-enum class ExpectedKind { none, shares, percentages, ratios, counts };
-const char* expected_kind_name(ExpectedKind kind);  // "shares", "percentages", ...
+// What a third column (label, observed, third) holds: expected values of four kinds, or a
+// previous sample's counts (model kind reference-sample: a 2 x k test of homogeneity).
+enum class ExpectedKind { none, shares, percentages, ratios, counts, previous_sample };
+const char* expected_kind_name(ExpectedKind kind);  // "shares", "percentages", ..., "previous-sample"
+
+// How the third column is read: automatic (a previous sample when its header names one, see
+// previous_sample_header.hpp; else expected values), or as chosen.
+enum class ThirdColumn { automatic, expected, previous_sample };
+const char* third_column_name(ThirdColumn choice);                           // "auto", "expected", "previous"
+bool third_column_from_name(const std::string& name, ThirdColumn* choice);  // false if unknown
 
 struct BinChoice {
     enum class Kind { none, edges, equal_width, equal_probability } kind = Kind::none;
@@ -53,6 +61,7 @@ struct ParseOptions {
     bool sorted = false;                   // raw text: categories in sorted, not first-seen, order
     std::optional<DecimalMark> decimal;    // override the detected decimal mark
     std::optional<Separator> separator;    // override the detected separator
+    ThirdColumn third_column = ThirdColumn::automatic;  // label, observed, third: what the third holds
 };
 
 struct CellProblem {
@@ -65,7 +74,8 @@ struct ParsedInput {
     Status status;                          // !ok: the first problem, naming line and column
     std::vector<std::string> categories;
     std::vector<double> observed;           // non-negative whole counts
-    std::vector<double> expected;           // empty unless an expected column was read
+    std::vector<double> expected;           // empty unless a third column was read (expected values or
+                                            // the previous sample's whole counts, as expected_kind says)
     ExpectedKind expected_kind = ExpectedKind::none;
     std::vector<std::string> column_names;  // from a header row, when there is one
     InputShape shape = InputShape::label_count;

@@ -13,9 +13,10 @@ bool take_paste(const ParsedInput& parsed, Analysis* a) {
     a->ordered = parsed.ordered;
     if (!parsed.expected.empty() && parsed.expected_kind != ExpectedKind::none) {
         a->model = Model{};
-        a->model.kind = parsed.expected_kind == ExpectedKind::ratios   ? ModelKind::ratio
-                        : parsed.expected_kind == ExpectedKind::counts ? ModelKind::counts
-                                                                       : ModelKind::shares;
+        a->model.kind = parsed.expected_kind == ExpectedKind::ratios            ? ModelKind::ratio
+                        : parsed.expected_kind == ExpectedKind::counts          ? ModelKind::counts
+                        : parsed.expected_kind == ExpectedKind::previous_sample ? ModelKind::reference_sample
+                                                                                : ModelKind::shares;
         a->model.values = parsed.expected;
         return true;
     }

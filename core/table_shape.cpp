@@ -1,13 +1,17 @@
 // Reads tables of counts. A header row is a first row whose count cell is not a number; a
 // totals row is a last row labelled Total (or Sum, ...) equal to the sum above it; expected
 // values are shares when they add to 1, percentages when written with % or adding to 100,
-// counts when they add to the observed total, ratio terms otherwise. Common practice.
+// counts when they add to the observed total, ratio terms otherwise; a third column headed as
+// an earlier sample (previous_sample_header.hpp), or chosen so, is a previous sample's whole
+// counts instead. Common practice.
 #include "table_shape.hpp"
 
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <unordered_map>
+
+#include "previous_sample_header.hpp"
 
 namespace tallyproof {
 namespace {
@@ -45,6 +49,16 @@ struct Entry {
 };
 
 constexpr double kMaxCount = 9007199254740992.0;  // 2^53: larger counts are not exact in a double
+
+// Whether the third column is read as a previous sample's counts, and why.
+struct ThirdColumnReading {
+    bool previous = false;
+    bool chosen = false;  // by ParseOptions::third_column, not by its header
+    std::string head;     // the third column's header, empty when there is none
+    std::string described() const {  // "the third column, headed "Last month"," for sentences
+        return head.empty() ? std::string("the third column") : "the third column, headed " + quote_cell(head) + ",";
+    }
+};
 
 }  // namespace
 
@@ -319,8 +333,31 @@ bool read_count_cell(const Entry& e, DecimalMark mark, ParsedInput* out, double*
     return true;
 }
 
-// The labels, counts and expected values of the entries into `out`; false when none may be used.
-bool read_entries(const TableCells& entries, DecimalMark mark, ParsedInput* out, bool* any_percent) {
+// A previous sample's cell as a count, or a located problem (false).
+bool read_previous_cell(const Entry& e, DecimalMark mark, const ThirdColumnReading& third, ParsedInput* out, double* count) {
+    const NumberReading n = read_number(e.expected, mark);
+    const char* fault = nullptr;
+    if (n.out_of_range && std::isinf(n.value)) fault = " is too large; expected a count below 2^53";
+    else if (!n.ok) fault = " is not a count";
+    else if (n.percent) fault = " is a percentage";
+    else if (n.negative && n.value != 0) fault = " is negative";
+    else if (n.value != std::floor(n.value)) fault = " is not a whole number";
+    else if (n.value >= kMaxCount) fault = " is too large; expected a count below 2^53";
+    if (fault == nullptr) {
+        *count = n.value;
+        return true;
+    }
+    add_problem(out, e.line, e.expected_column,
+                cell_location(e.line, e.expected_column) + quote_cell(e.expected) + fault + "; " + third.described() +
+                    " is read as a previous sample's counts, which must be non-negative whole numbers. If it holds "
+                    "expected values, read the third column as expected values instead.");
+    return false;
+}
+
+// The labels, counts and expected values (or previous sample's counts) of the entries into
+// `out`; false when none may be used.
+bool read_entries(const TableCells& entries, DecimalMark mark, const ThirdColumnReading& third, ParsedInput* out,
+                  bool* any_percent) {
     std::unordered_map<std::string, int> seen;  // label -> line
     for (const Entry& e : entries) {
         double count = 0;
@@ -339,7 +376,9 @@ bool read_entries(const TableCells& entries, DecimalMark mark, ParsedInput* out,
             continue;
         }
         double x = 0;
-        if (e.expected_column) {
+        if (e.expected_column && third.previous) {
+            if (!read_previous_cell(e, mark, third, out, &x)) continue;
+        } else if (e.expected_column) {
             const NumberReading m = read_number(e.expected, mark);
             const std::string ewhere = cell_location(e.line, e.expected_column);
             if (!m.ok) {
@@ -394,9 +433,36 @@ bool drop_totals_row(const TableCells& entries, ParsedInput* out) {
     return true;
 }
 
+// A third column read as a previous sample's counts: its kind and the notes saying why.
+void note_previous_sample(const TableCells& entries, const ThirdColumnReading& third, ParsedInput* out) {
+    double sum = 0;
+    for (double v : out->expected) sum += v;
+    if (!(sum > 0)) {
+        const Entry& e = entries.front();
+        add_problem(out, e.line, e.expected_column,
+                    cell_location(e.line, e.expected_column) + "the previous sample's counts are all zero; a previous "
+                                                                "sample needs at least one count.");
+        return;
+    }
+    out->expected_kind = ExpectedKind::previous_sample;
+    std::string sentence = third.described();
+    sentence[0] = 'T';
+    out->notes.push_back(sentence + " is read as a previous sample's counts (" +
+                         (third.chosen ? std::string("as chosen") : std::string("its header names an earlier sample")) +
+                         "): the two samples are compared by a test of homogeneity, N = " + plain(sum) +
+                         " in the previous sample.");
+    if (!third.chosen)
+        out->alternatives.push_back("If the third column holds expected counts, shares or ratios rather than a previous "
+                                    "sample, read the third column as expected values.");
+}
+
 // What the expected column holds: shares, percentages, expected counts or ratio terms.
-void classify_expected(const TableCells& entries, bool any_percent, ParsedInput* out) {
+void classify_expected(const TableCells& entries, bool any_percent, const ThirdColumnReading& third, ParsedInput* out) {
     if (out->expected.empty()) return;
+    if (third.previous) {
+        note_previous_sample(entries, third, out);
+        return;
+    }
     const std::size_t k = out->observed.size();
     double sum = 0, total = 0;
     for (double v : out->expected) sum += v;
@@ -447,9 +513,16 @@ void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, 
                         " categories; expected a table of at most that many.");
         return;
     }
+    ThirdColumnReading third;
+    if (out->shape == InputShape::label_observed_expected && options.third_column != ThirdColumn::expected) {
+        if (out->column_names.size() >= 3) third.head = out->column_names[2];
+        const std::string count_head = out->column_names.size() >= 2 ? out->column_names[1] : std::string();
+        third.chosen = options.third_column == ThirdColumn::previous_sample;
+        third.previous = third.chosen || (!third.head.empty() && names_previous_sample(third.head, count_head));
+    }
     out->decimal = table_decimal_mark(entries, options, out);
     bool any_percent = false;
-    if (!read_entries(entries, out->decimal, out, &any_percent)) return;
+    if (!read_entries(entries, out->decimal, third, out, &any_percent)) return;
     if (!drop_totals_row(entries, out)) return;
     if (out->observed.empty()) {
         out->status = Status::failure("No counts found: paste lines of label and count.");
@@ -462,7 +535,7 @@ void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, 
                                       e.line, e.count_column);
         return;
     }
-    classify_expected(entries, any_percent, out);
+    classify_expected(entries, any_percent, third, out);
     note_percent_header(entries.front().count_column, out);
 }
 

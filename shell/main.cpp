@@ -47,6 +47,10 @@ const char* kUsage =
     "  --shape S              override the detected shape: label-count, label-observed-expected,\n"
     "                         counts-column, counts-row, raw-text, raw-whole-numbers,\n"
     "                         raw-digits, raw-bins\n"
+    "  --third-column C       what a third column (label, observed, third) holds: auto (default;\n"
+    "                         a previous sample when its header names one, such as Last month,\n"
+    "                         Baseline or Control; else expected values), expected, or previous\n"
+    "                         (a previous sample's counts: test of homogeneity of the two samples)\n"
     "output:\n"
     "  --json                 print the result document as JSON\n"
     "  --table csv|tsv        print the per-category table for a spreadsheet (formulas neutralised)\n"
@@ -248,7 +252,7 @@ int main(int argc, char** argv) {
                 screen.q = q;
             }
         }
-        else if (arg == "--digits" || arg == "--bins" || arg == "--shape") {
+        else if (arg == "--digits" || arg == "--bins" || arg == "--shape" || arg == "--third-column") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             const std::string val = argv[++i];
             if (arg == "--digits") {
@@ -257,6 +261,9 @@ int main(int argc, char** argv) {
                 else if (val == "first-two") input.digits = DigitTest::first_two;
                 else if (val == "last") input.digits = DigitTest::last;
                 else return usage_error("--digits must be first, second, first-two or last");
+            } else if (arg == "--third-column") {
+                if (!third_column_from_name(val, &input.third_column))
+                    return usage_error("--third-column must be auto, expected or previous");
             } else if (arg == "--shape") {
                 InputShape shape;
                 if (!input_shape_from_name(val, &shape)) return usage_error("unknown shape " + val);
