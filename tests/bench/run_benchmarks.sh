@@ -1,8 +1,10 @@
 #!/usr/bin/env bash
 # Builds the benchmark programs (Release, build/bench), runs them and the same workloads through
 # R 4.2 (Rscript) and SciPy 1.10 (/usr/bin/python3), and writes docs/benchmarks.md. Not a test.
-# Usage: tests/bench/run_benchmarks.sh [--quick]   (JOBS=N for the build, default 1; --quick runs
-# the R and NumPy Monte Carlo at a tenth of the replicates, for trying the script out)
+# Usage: tests/bench/run_benchmarks.sh [--quick | --exact-only]   (JOBS=N for the build, default 1;
+# --quick runs the R and NumPy Monte Carlo at a tenth of the replicates, for trying the script out;
+# --exact-only runs only bench_exact_dp, numpy_exact_dp.py, bench_monte_carlo and numpy_monte_carlo.py
+# and rewrites only their section of docs/benchmarks.md, keeping the others)
 set -euo pipefail
 top=$(cd "$(dirname "$0")/../.." && pwd)
 dir="$top/build/bench"
@@ -11,12 +13,30 @@ jobs=${JOBS:-1}
 quick=${1:-}
 mkdir -p "$out"
 [ -f "$dir/CMakeCache.txt" ] || cmake -S "$top" -B "$dir" -DCMAKE_BUILD_TYPE=Release >/dev/null
-targets="bench_tails bench_pvalues bench_tail_grid tallyproof"
+bin="$dir/tests"
+# The polynomial exact methods and Monte Carlo at many categories (issues 13, 15), each beside its
+# NumPy reference; its own load average, since --exact-only runs this part alone.
+exact_and_many_categories() {
+    echo "== exact p-values, equal shares and grid bracket (bench_exact_dp), beside the NumPy DP"
+    "$bin/bench_exact_dp" | tee "$out/bench_exact_dp.txt"
+    /usr/bin/python3 "$top/tests/bench/numpy_exact_dp.py" | tee "$out/numpy_exact_dp.txt"
+    echo "== Monte Carlo at many categories (bench_monte_carlo), beside NumPy"
+    "$bin/bench_monte_carlo" | tee "$out/bench_monte_carlo.txt"
+    /usr/bin/python3 "$top/tests/bench/numpy_monte_carlo.py" | tee "$out/numpy_monte_carlo.txt"
+    cat /proc/loadavg > "$out/loadavg_exact.txt"
+}
+if [ "$quick" = "--exact-only" ]; then
+    for t in bench_exact_dp bench_monte_carlo; do cmake --build "$dir" -j"$jobs" --target "$t" >/dev/null; done
+    exact_and_many_categories
+    /usr/bin/python3 "$top/tests/bench/write_benchmarks_md.py" "$out" "$top/docs/benchmarks.md" --exact-section-only
+    echo "rewrote the exact and many-categories section of $top/docs/benchmarks.md"
+    exit 0
+fi
+targets="bench_tails bench_pvalues bench_tail_grid bench_exact_dp bench_monte_carlo tallyproof"
 help=$(cmake --build "$dir" --target help)
 case "$help" in *bench_parse*) targets="$targets bench_parse" ;; esac
 # shellcheck disable=SC2086
 for t in $targets; do cmake --build "$dir" -j"$jobs" --target "$t" >/dev/null; done
-bin="$dir/tests"
 echo "== bench_tails";   "$bin/bench_tails"   | tee "$out/bench_tails.txt"
 echo "== bench_pvalues"; "$bin/bench_pvalues" | tee "$out/bench_pvalues.txt"
 if [ -x "$bin/bench_parse" ]; then
@@ -24,6 +44,7 @@ if [ -x "$bin/bench_parse" ]; then
 else
     rm -f "$out/bench_parse.txt"
 fi
+exact_and_many_categories
 echo "== one million raw values, whole process, beside R and NumPy/SciPy"
 /usr/bin/python3 "$top/tests/bench/parse_reference.py" "$dir/shell/tallyproof" | tee "$out/parse_reference.txt"
 echo "== screening 10,000 groups, whole process, beside NumPy/SciPy/statsmodels"
