@@ -4,6 +4,7 @@
 // of each count against its share, adjusted as R's p.adjust. Flags use the adjusted p-value.
 #include "category_diagnostics.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
@@ -113,7 +114,9 @@ Status category_diagnostics(const std::vector<std::string>& labels, const std::v
         d.goodman = gm.ok ? goodman[i] : ProportionInterval{NAN, NAN};
         d.sison_glaz = sg.ok ? sison[i] : ProportionInterval{NAN, NAN};
         d.drives_result = adjusted[i] < options.alpha;
-        d.direction = d.difference > 0 ? "more than expected" : (d.difference < 0 ? "fewer than expected" : "as expected");
+        // Expected counts carry rounding (100 × 0.4 is 40.000000000000007): a gap within 1e-9 of E is none.
+        const double tie = 1e-9 * std::max(1.0, d.expected);
+        d.direction = d.difference > tie ? "more than expected" : (d.difference < -tie ? "fewer than expected" : "as expected");
         d.description = d.label + ": " + d.direction + " (" + format_count(d.observed) + " observed vs " +
                         format_significant(d.expected, 3) + " expected; " + adjustment_phrase(options.adjustment) +
                         " p = " + format_probability(d.adjusted) + ")";

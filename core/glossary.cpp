@@ -76,6 +76,8 @@ const std::vector<GlossaryEntry> kEntries = {
     {"TSV", "Tab-separated values: text that pastes into a spreadsheet as rows and columns."},
     {"CSV", "Comma-separated values: a spreadsheet saved as plain text."},
     {"JSON", "A plain-text data format: the analysis file, which reopens the same analysis in Tallyproof."},
+    {"PNG", "An image file of the chart, for a slide or a document."},
+    {"PDF", "A document file that prints the same everywhere; the browser's print dialog saves one."},
 };
 
 bool word_byte(unsigned char c) { return (c >= '0' && c <= '9') || (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || c == '_'; }

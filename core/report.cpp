@@ -88,9 +88,9 @@ std::string report_text(const Analysis& a, const Result& r) {
          format_probability(r.exact_lower_computed ? r.exact_lower : r.lower) + (r.exact_lower_computed ? " (exact)\n" : " (asymptotic)\n");
     s += "Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3) + "\n";
     s += verdict_sentence(r) + "\n";
-    s += "Effect size: w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ", from the noncentrality)" +
-         interval_text(r.effect.w_interval) + "; Cohen's w = √(" + r.statistic_symbol + "/N) = " + format_fixed(r.effect.w, 3) +
-         ", which averages about √(df/N) = " + format_fixed(std::sqrt(r.df / r.n), 3) + " even when the mix holds";
+    s += "Effect size: w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ", corrected for chance)" +
+         interval_text(r.effect.w_interval) + "; Cohen's w before the correction, √(" + r.statistic_symbol + "/N) = " +
+         format_fixed(r.effect.w, 3) + ", averages about √(df/N) = " + format_fixed(std::sqrt(r.df / r.n), 3) + " even when the mix holds";
     if (r.effect.fei_defined) s += "; Fei (w rescaled to run from 0 to 1 for these expected shares) = " + format_fixed(r.effect.fei, 3) + interval_text(r.effect.fei_interval);
     s += "\n";
     s += "Validity: " + r.validity.summary + "\n";

@@ -238,8 +238,8 @@ std::string tsv_block(const Analysis& a, const Result& r, const WriteupOptions& 
     rows.push_back({text_cell("p"), probability_cell(r.p)});
     rows.push_back({text_cell("p-value method"), text_cell(method_text(r, st))});
     rows.push_back({text_cell("Lower-tail p (fit too good?)"), probability_cell(r.exact_lower_computed ? r.exact_lower : r.lower)});
-    rows.push_back({text_cell("w (from the noncentrality)"), fixed_cell(r.effect.estimate, 2)});
-    rows.push_back({text_cell("Cohen's w = √(χ²/N), biased up by about df/N"), fixed_cell(r.effect.w, 2)});
+    rows.push_back({text_cell("w (corrected for chance)"), fixed_cell(r.effect.estimate, 2)});
+    rows.push_back({text_cell("Cohen's w before the correction, √(χ²/N)"), fixed_cell(r.effect.w, 2)});
     rows.push_back({text_cell("w, 95% CI lower"), fixed_cell(iv.lower, 2)});
     rows.push_back({text_cell("w, 95% CI upper"), fixed_cell(iv.upper, 2)});
     rows.push_back({text_cell("Conclusion"), text_cell((r.reject ? "not consistent with " : "no evidence against ") + mix_phrase(a))});

@@ -242,8 +242,11 @@ bool recompute(AppState& s) {
     s.input_error.clear();
     s.result = std::move(next);
     auto& q = s.result.questions;  // questions the user has answered are not asked again
+    const auto answered = std::make_pair(std::string(), s.analysis.observed);
     q.erase(std::remove_if(q.begin(), q.end(), [&](const std::string& x) {
-                return std::find(s.dismissed_questions.begin(), s.dismissed_questions.end(), x) != s.dismissed_questions.end();
+                auto key = answered;
+                key.first = x;
+                return std::find(s.dismissed_questions.begin(), s.dismissed_questions.end(), key) != s.dismissed_questions.end();
             }), q.end());
     if (s.result.conformity && s.result.conformity->status.ok)  // the curve of "departs by exactly w0"
         s.curve = noncentral_density_curve(s.result.df, s.result.conformity->noncentrality,
@@ -376,7 +379,7 @@ void dismiss_refusal(AppState& s) { clear_refusal(s); }
 
 void dismiss_question(AppState& s, int index) {
     if (index < 0 || static_cast<std::size_t>(index) >= s.result.questions.size()) return;
-    s.dismissed_questions.push_back(s.result.questions[static_cast<std::size_t>(index)]);
+    s.dismissed_questions.emplace_back(s.result.questions[static_cast<std::size_t>(index)], s.analysis.observed);
     s.result.questions.erase(s.result.questions.begin() + index);
     publish(s);  // the report and the form lose the question too
 }

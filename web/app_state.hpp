@@ -60,7 +60,8 @@ struct AppState {
     std::string source_name;         // where the counts came from
     ModelEditor model_editor;
     std::string input_error;         // why the latest edit was not applied (the previous result stays)
-    std::vector<std::string> dismissed_questions;  // quiet checks the user answered ("they are counts"), this session
+    // Quiet checks the user answered ("they are counts"), each for the counts it was answered for.
+    std::vector<std::pair<std::string, std::vector<double>>> dismissed_questions;
 
     // Outputs, recomputed by recompute()
     Result result;

@@ -395,7 +395,8 @@ EMSCRIPTEN_KEEPALIVE void tp_prepare_print() {
 // The page's HTML form (shell.html), for screen readers, switch access and keyboard users: each
 // action goes through the same AppState transition as the canvas control it stands for, and a
 // refused value is announced (the live region) like a refused paste.
-enum class FormAction { counts = 0, model = 1, values = 2, alpha = 3, method = 4, merge = 5, copy_writeup = 6, copy_table = 7, download = 8 };
+enum class FormAction { counts = 0, model = 1, values = 2, alpha = 3, method = 4, merge = 5, copy_writeup = 6, copy_table = 7, download = 8,
+                        answer_question = 9 };
 EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
     if (!g_page || !text) return;
     using namespace tallyproof::web;
@@ -426,6 +427,7 @@ EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
         case FormAction::copy_writeup: copy_writeup(s, false); break;
         case FormAction::copy_table: copy_table(s); break;
         case FormAction::download: download_document(s); break;
+        case FormAction::answer_question: dismiss_question(s, 0); break;  // "They are counts"
     }
     if (!s.input_error.empty()) publish_error(s.input_error);
     want_frames(*g_page, 3);

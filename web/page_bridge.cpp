@@ -162,12 +162,7 @@ void mark_explained(const char* name, const std::string& shown) {
     mark_widget(name);
     tp_js_explained(name, shown.c_str());
 }
-void note_tooltip(const std::string& text) {
-    static std::string last;
-    if (text == last) return;
-    last = text;
-    tp_js_tooltip(text.c_str());
-}
+void note_tooltip(const std::string& text) { tp_js_tooltip(text.c_str()); }  // each frame it shows
 
 std::string storage_get(const char* key) { return take(tp_js_storage_get(key)); }
 bool storage_set(const char* key, const std::string& value) { return tp_js_storage_set(key, value.c_str()) != 0; }

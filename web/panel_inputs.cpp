@@ -126,7 +126,7 @@ void draw_goal_rows(AppState& s, const Theme& t) {
     flow_next(radio_width("show it conforms within w0"));  // wraps on a phone rather than running past the edge
     if (ImGui::GetCursorPosX() < 74) ImGui::SetCursorPosX(74);
     changed |= ImGui::RadioButton("show it conforms within w0", &goal, 1);
-    mark_widget("show it conforms");
+    explain_item("show it conforms", "show it conforms within w0");
     const double margin = std::isfinite(c.margin_w) ? c.margin_w : 0.1;
     if (changed) set_test_goal(s, goal == 1, margin);
     if (!c.requested) return;
@@ -138,9 +138,10 @@ void draw_goal_rows(AppState& s, const Theme& t) {
     const bool w0_done = text_field("##margin-w0", &w0_text, FieldKeys::decimal,
                                     ImGuiInputTextFlags_CharsScientific | ImGuiInputTextFlags_EnterReturnsTrue) ||
                          ImGui::IsItemDeactivatedAfterEdit();
-    mark_widget("margin w0");
+    explain_item("margin w0", "margin w0");
     flow_next(ImGui::CalcTextSize("margin w0").x);
     ImGui::TextUnformatted("margin w0");
+    explain_item("margin w0 label", "margin w0");
     if (w0_done) {
         char* end = nullptr;
         const double w0 = std::strtod(w0_text.c_str(), &end);
@@ -464,10 +465,14 @@ void draw_test_panel(AppState& s, const Theme& t) {
     for (const auto& c : kLambdas) if (c.lambda == a.statistic.lambda) current = c.label;
     std::string custom = "Power divergence, λ = " + format_significant(a.statistic.lambda, 3);
     ImGui::SetNextItemWidth(-1);
-    if (ImGui::BeginCombo("##statistic", current ? current : custom.c_str())) {
+    const bool statistic_open = ImGui::BeginCombo("##statistic", current ? current : custom.c_str());
+    explain_item("statistic", current ? current : custom);
+    if (statistic_open) {
         begin_menu_items(t);
         for (const auto& c : kLambdas) {
-            if (ImGui::Selectable(c.label, c.lambda == a.statistic.lambda)) {
+            const bool chosen = ImGui::Selectable(c.label, c.lambda == a.statistic.lambda);
+            explain_item(c.label, c.label);
+            if (chosen) {
                 a.statistic.lambda = c.lambda;
                 if (c.lambda != 0) a.statistic.williams = false;
                 recompute(s);
@@ -481,6 +486,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
     }
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("α");
+    explain_item("alpha label", "α");
     ImGui::SameLine(74);
     std::string alpha = format_plain(a.alpha);
     ImGui::SetNextItemWidth(100);
@@ -493,13 +499,13 @@ void draw_test_panel(AppState& s, const Theme& t) {
     ImGui::SameLine(74);
     int m = static_cast<int>(a.pvalue.method);
     bool method_changed = ImGui::RadioButton("asymptotic", &m, 0);
-    mark_widget("asymptotic");
+    explain_item("asymptotic", "asymptotic");
     flow_next(radio_width("exact"));
     method_changed |= ImGui::RadioButton("exact", &m, 1);
     mark_widget("exact");
     flow_next(radio_width("Monte Carlo"));
     method_changed |= ImGui::RadioButton("Monte Carlo", &m, 2);
-    mark_widget("Monte Carlo");
+    explain_item("Monte Carlo", "Monte Carlo");
     if (method_changed) set_pvalue_method(s, static_cast<PValueMethod>(m));
     if (a.pvalue.method == PValueMethod::monte_carlo) {
         ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
@@ -510,6 +516,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
         }
         ImGui::SameLine(0, ImGui::GetStyle().ItemInnerSpacing.x);
         ImGui::TextUnformatted("replicates");
+        explain_item("replicates label", "replicates");
         flow_next(80 + ImGui::CalcTextSize("seed").x + ImGui::GetStyle().ItemInnerSpacing.x);
         ImGui::SetNextItemWidth(80);
         if (number_field("##seed", &seed, "%.0f", FieldKeys::whole)) {
@@ -517,13 +524,16 @@ void draw_test_panel(AppState& s, const Theme& t) {
         }
         ImGui::SameLine(0, ImGui::GetStyle().ItemInnerSpacing.x);
         ImGui::TextUnformatted("seed");
+        explain_item("seed label", "seed");
     }
     if (a.pvalue.method != PValueMethod::asymptotic) {
         ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
         int ord = a.pvalue.ordering == ExactOrdering::statistic ? 0 : 1;
         bool ch = ImGui::RadioButton("by statistic", &ord, 0);
+        explain_item("by statistic", "by statistic");
         flow_next(radio_width("by probability"));
         ch |= ImGui::RadioButton("by probability", &ord, 1);
+        explain_item("by probability", "by probability");
         if (ch) { a.pvalue.ordering = ord == 0 ? ExactOrdering::statistic : ExactOrdering::probability; recompute(s); }
     }
     draw_goal_rows(s, t);
@@ -539,7 +549,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
         begin_menu_items(t);
         for (int i = 0; i < 4; ++i) {
             if (ImGui::Selectable(rules[i], i == rule) && i != rule) merge_thin_cells(s, static_cast<MergeRule>(i));
-            mark_widget(rules[i]);
+            explain_item(rules[i], rules[i]);
         }
         end_menu_items(t);
         ImGui::EndCombo();

@@ -179,7 +179,7 @@ void draw_categories_table(AppState& s, const Theme& t) {
                                   ImGuiTableFlags_ScrollY | ImGuiTableFlags_Sortable | ImGuiTableFlags_Resizable |
                                   (narrow ? ImGuiTableFlags_ScrollX | ImGuiTableFlags_SizingFixedFit : ImGuiTableFlags_SizingStretchProp);
     const char* heads[] = {"Category", "O", "E", "O − E", "χ² share", "Adj. res.", "Holm p", "Direction"};
-    const float weights[] = {2.0f, 0.8f, 0.9f, 0.9f, 0.9f, 0.9f, 1.3f, 1.9f};
+    const float weights[] = {1.8f, 0.8f, 0.9f, 0.9f, 1.1f, 1.1f, 1.1f, 1.9f};  // the heads "χ² share" and "Adj. res." stay whole
     constexpr int columns = static_cast<int>(std::size(heads));
     static_assert(std::size(weights) == std::size(heads), "one weight per column");
     if (!ImGui::BeginTable("diagnostics", columns, flags, ImVec2(0, ImGui::GetContentRegionAvail().y))) return;
@@ -281,7 +281,7 @@ void draw_writeup_panel(AppState& s, const Theme& t) {
     mark_widget("Markdown");
     flow_next(radio_width("Spreadsheet (TSV)"));
     ImGui::RadioButton("Spreadsheet (TSV)", &s.writeup_style, 2);
-    mark_widget("Spreadsheet (TSV)");
+    explain_item("Spreadsheet (TSV)", "Spreadsheet (TSV)");
     flow_next(radio_width("decimal comma"));
     ImGui::Checkbox("decimal comma", &s.decimal_comma);
     mark_widget("decimal comma");
@@ -297,7 +297,7 @@ void draw_writeup_panel(AppState& s, const Theme& t) {
     mark_widget("Copy block");
     flow_next(ImGui::CalcTextSize("Copy table (TSV)").x + pad);
     if (ImGui::Button("Copy table (TSV)")) copy_table(s);
-    mark_widget("Copy table");
+    explain_item("Copy table", "Copy table (TSV)");
     flow_next(ImGui::CalcTextSize("Copy full report").x + pad);
     if (ImGui::Button("Copy full report")) copy_text(s.report);
     mark_widget("Copy full report");

@@ -68,7 +68,7 @@ void draw_title(AppState& s, const Theme& t) {
                               {"Save curve as PNG", 3}, {"Save bars as PNG", 4}, {"Copy chart image", 5}, {"Print or save as PDF", 6}};
         for (const auto& it : items) {
             const bool chosen = ImGui::Selectable(it.label);
-            mark_widget(it.label);
+            explain_item(it.label, it.label);  // JSON, CSV, PNG, PDF
             if (!chosen) continue;
             switch (it.action) {
                 case 0: copy_share_link(s); break;

@@ -199,6 +199,10 @@ TEST_CASE("a perfect fit flags nothing and says so") {
     CHECK(d.drivers.empty());
     CHECK(d.categories[0].direction == "as expected");
     CHECK(d.categories[0].contribution_share == 0);
+    // An expected count with rounding in it: 100 x 0.4 = 40.000000000000007 in doubles is still "as expected".
+    CategoryDiagnostics r;
+    REQUIRE(category_diagnostics({"x", "y"}, {40, 60}, {100 * 0.4, 100 * 0.6}, {}, &r).ok);
+    CHECK(r.categories[0].direction == "as expected");
     CHECK(d.categories[0].binomial.p == 1.0);
     CHECK(d.summary.find("No single category") != std::string::npos);
 }

@@ -184,8 +184,8 @@ TEST_CASE("TSV block pastes into cells") {
     o.style = WriteupStyle::tsv;
     const std::string s = writeup(a, r, o);
     CHECK(s.rfind("Test\tchi-square goodness-of-fit test\nStatistic\tχ²\nValue\t20.00\ndf\t3\nN\t100\np\t0.0001697\n"
-                  "p-value method\tasymptotic\nLower-tail p (fit too good?)\t0.9998\nw (from the noncentrality)\t0.41\n"
-                  "Cohen's w = √(χ²/N), biased up by about df/N\t0.45\nw, 95% CI lower\t0.22\nw, 95% CI upper\t0.62\n"
+                  "p-value method\tasymptotic\nLower-tail p (fit too good?)\t0.9998\nw (corrected for chance)\t0.41\n"
+                  "Cohen's w before the correction, √(χ²/N)\t0.45\nw, 95% CI lower\t0.22\nw, 95% CI upper\t0.62\n"
                   "Conclusion\tnot consistent with the stated mix\nSentence\tA chi-square", 0) == 0);
     CHECK(s.find("\n\nCategory\tObserved\tExpected\tContribution\tAdjusted residual\tAdjusted p\tDirection\n") != std::string::npos);
     CHECK(s.find("\n'=cmd|' /C calc'!A0\t20\t25.00\t1.00\t-1.73\t0.5\tfewer than expected\n") != std::string::npos);
