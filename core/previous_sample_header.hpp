@@ -1,8 +1,9 @@
 // Previous-sample headers: whether the header of a pasted table's third column (label,
 // observed, third) names an earlier sample of the same categories, such as "Last month",
 // "Baseline" or "Control", rather than expected values. The words are listed in
-// previous_sample_header.cpp and in docs/analysis-document.md ("Pasted text"); matching is by
-// whole words, ASCII case-insensitive. Common practice for spreadsheet headers, not a standard.
+// previous_sample_header.cpp and in docs/analysis-document.md ("Comparison with a previous
+// sample"); matching is by whole words, ASCII case-insensitive. Common practice for spreadsheet
+// headers, not a standard.
 #pragma once
 #include <string>
 
