@@ -21,7 +21,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
             case 3: o.bins.kind = BinChoice::Kind::edges; o.bins.edges = {-HUGE_VAL, 0, 10, 100, HUGE_VAL}; break;
             case 4: o.raw = true; o.case_fold = b & 8; o.sorted = b & 16; break;
             case 5: o.decimal = (b & 8) ? DecimalMark::comma : DecimalMark::point; break;
-            case 6: o.shape = static_cast<InputShape>(b % 8); break;
+            case 6: o.shape = static_cast<InputShape>(b % 8); o.third_column = static_cast<ThirdColumn>((b >> 3) % 3); break;
             case 7: o.separator = static_cast<Separator>(b % 4); break;
             default:  // 0x08, 0x10, 0x18: equal-probability bins under the normal, lognormal, exponential
                 if (b) {

@@ -12,7 +12,7 @@ CXX=${CXX:-clang++-14}
 mkdir -p "$OUT/corpus"
 case "$TARGET" in
   paste_parser)
-    SOURCES="paste_parser number_reading delimited_text table_shape raw_observations binning equal_probability_bins analysis digit_extraction digit_laws"
+    SOURCES="paste_parser number_reading delimited_text table_shape previous_sample_header raw_observations binning equal_probability_bins analysis digit_extraction digit_laws number_format"
     SEEDS="$HERE/corpus_paste" ;;
   share_link)
     # the decoder reads the document back, so it links the whole core
