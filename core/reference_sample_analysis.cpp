@@ -213,13 +213,17 @@ void analyse_reference_sample(const Analysis& a, Result* r) {
                     : std::to_string(d.drivers.size()) + " of " + std::to_string(cells) + " categories differ from the previous sample (" +
                           test + "): " + drivers + ".";
 
-    // Effect size over both samples (w = Cramér's V for a 2 x k table)
+    // Effect size over both samples (w = Cramér's V for a 2 x k table), set as the one-sample
+    // path sets it (goodness_of_fit.cpp): w, its chance-corrected estimate, labels and interval.
     r->effect.w = cohens_w(r->statistic, out.n_total);
     r->effect.w_label = cohens_w_label(r->effect.w);
+    r->effect.estimate = noncentral_w(r->statistic, out.n_total, r->df);
+    r->effect.label = cohens_w_label(r->effect.estimate);
     if (!cohens_w_interval(r->statistic, out.n_total, r->df, 0.95, &r->effect.w_interval).ok)
         r->effect.w_interval = {r->effect.w, NAN, NAN, 0.95};
-    if (r->reject && r->effect.w < 0.1)
-        r->warnings.push_back("The change is statistically significant but very small (w = " + format_fixed(r->effect.w, 3) +
+    r->effect.w_interval.estimate = r->effect.estimate;
+    if (r->reject && r->effect.estimate < 0.1)
+        r->warnings.push_back("The change is statistically significant but very small (w = " + format_fixed(r->effect.estimate, 3) +
                               "): with " + format_count(out.n_total) + " observations in the two samples, even a negligible change is detected.");
     if (!out.validity_reference.all_at_least_5 && out.validity_current.all_at_least_5)
         r->warnings.push_back("The previous sample's row has small expected counts (smallest " +

@@ -90,7 +90,7 @@ std::string report_text(const Analysis& a, const Result& r) {
     s += verdict_sentence(r) + "\n";
     s += "Effect size: w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ", corrected for chance)" +
          interval_text(r.effect.w_interval) + "; Cohen's w before the correction, √(" + r.statistic_symbol + "/N) = " +
-         format_fixed(r.effect.w, 3) + ", averages about √(df/N) = " + format_fixed(std::sqrt(r.df / r.n), 3) + " even when the mix holds";
+         format_fixed(r.effect.w, 3) + ", averages about √(df/N) = " + format_fixed(std::sqrt(r.df / (r.reference ? r.reference->n_total : r.n)), 3) + " even when the mix holds";
     if (r.effect.fei_defined) s += "; Fei (w rescaled to run from 0 to 1 for these expected shares) = " + format_fixed(r.effect.fei, 3) + interval_text(r.effect.fei_interval);
     s += "\n";
     s += "Validity: " + r.validity.summary + "\n";

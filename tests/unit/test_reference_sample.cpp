@@ -75,7 +75,7 @@ double brute_force_p(const std::vector<int>& cur, const std::vector<int>& prev) 
 TEST_CASE("reference_sample.csv: statistic, p, expected counts and adjusted residuals (SciPy 1.10, R 4.2)") {
     int rows = 0;
     for (const auto& f : reference_rows("reference_sample.csv")) {
-        REQUIRE(f.size() == 6);
+        REQUIRE(f.size() == 13);
         CAPTURE(f[0]);
         const std::vector<double> cur = split_numbers(f[0]), prev = split_numbers(f[1]);
         const Result r = analyse(comparison(cur, prev));
@@ -94,6 +94,25 @@ TEST_CASE("reference_sample.csv: statistic, p, expected counts and adjusted resi
         double total = 0;
         for (double v : r.contributions) total += v;
         CHECK(total == doctest::Approx(r.statistic).epsilon(1e-12));
+        // R 4.2 chisq.test(m, correct = FALSE): the same statistic, p and expected row.
+        CHECK(r.statistic == doctest::Approx(std::stod(f[6])).epsilon(1e-10));  // R chisq.test
+        CHECK(r.p.p == doctest::Approx(std::stod(f[7])).epsilon(1e-10));        // R chisq.test
+        const std::vector<double> r_expected = split_numbers(f[8]);
+        REQUIRE(r_expected.size() == r.tested_expected.size());
+        for (std::size_t j = 0; j < r_expected.size(); ++j)
+            CHECK(r.tested_expected[j] == doctest::Approx(r_expected[j]).epsilon(1e-12));  // R chisq.test $expected
+        // Effect size over both samples, as in the one-sample path: w, the chance-corrected
+        // estimate and the 95% interval (SciPy ncx2 roots), each with its Cohen (1988) label.
+        CHECK(r.effect.w == doctest::Approx(std::stod(f[9])).epsilon(1e-12));
+        CHECK(r.effect.estimate == doctest::Approx(std::stod(f[10])).epsilon(1e-12));
+        CHECK(r.effect.w_interval.estimate == r.effect.estimate);
+        CHECK(r.effect.w_interval.lower == doctest::Approx(std::stod(f[11])).epsilon(1e-7).scale(1e-9));  // SciPy ncx2.sf root
+        CHECK(r.effect.w_interval.upper == doctest::Approx(std::stod(f[12])).epsilon(1e-7));             // SciPy ncx2.cdf root
+        const double est = std::stod(f[10]);  // Cohen 1988: .1 small, .3 medium, .5 large
+        const std::string want = est < 0.1 ? "very small" : est < 0.3 ? "small" : est < 0.5 ? "medium" : "large";
+        CHECK(r.effect.label == want);
+        CHECK(r.effect.w_label == std::string(std::stod(f[9]) < 0.1 ? "very small" : std::stod(f[9]) < 0.3 ? "small"
+                                              : std::stod(f[9]) < 0.5 ? "medium" : "large"));
         ++rows;
     }
     CHECK(rows >= 7);
@@ -210,4 +229,12 @@ TEST_CASE("document, report and write-up of a comparison with a previous sample"
     CHECK(sentence.find("N = 1,600") != std::string::npos);
     CHECK(report_json(a, r).find("\"reference_sample\":{") != std::string::npos);
     CHECK(verdict_sentence(r).find("previous sample") != std::string::npos);
+    // The effect-size line once read "w = 0.000 (, corrected for chance)": the estimate and its
+    // label were left unset on this path. X² = 5.2655 (SciPy, reference_sample.csv row 1), df 3,
+    // N = 1600: sqrt((X² - 3)/1600) = 0.0376, very small (Cohen 1988); sqrt(df/N) = 0.043.
+    const std::string text = report_text(a, r);
+    CHECK(text.find("(, ") == std::string::npos);
+    CHECK(text.find("Effect size: w = 0.038 (very small, corrected for chance), 95% CI [0.000, 0.098]") != std::string::npos);
+    CHECK(text.find("averages about √(df/N) = 0.043") != std::string::npos);
+    CHECK(sentence.find("w = 0.04") != std::string::npos);
 }
