@@ -68,7 +68,12 @@ bool group_cell(const TableRow& row, std::size_t column, GroupedCounts* out, std
         return true;
     }
     const int col = static_cast<int>(column) + 1;
-    add_group_problem(out, row.line, col, cell_location(row.line, col) + "the group cell is empty; every row needs the name of its group.");
+    if (column >= row.cells.size())  // a short row: the group column is missing, not empty
+        add_group_problem(out, row.line, col, cell_location(row.line, col) + "the row has only " + std::to_string(row.cells.size()) +
+                                                  (row.cells.size() == 1 ? " cell" : " cells") + ", so the group column (" +
+                                                  std::to_string(col) + ") is missing; every row needs the name of its group.");
+    else
+        add_group_problem(out, row.line, col, cell_location(row.line, col) + "the group cell is empty; every row needs the name of its group.");
     return false;
 }
 
@@ -148,12 +153,16 @@ void read_long_rows(const std::vector<TableRow>& rows, std::size_t first, std::s
         if (seen[at] && repeated++ == 0) first_repeat = rows[first + i].line;
         seen[at] = 1;
     }
-    std::size_t missing = 0;
-    for (unsigned char s : seen) missing += s == 0;
+    std::size_t missing = 0, first_missing = 0;
+    for (std::size_t i = 0; i < seen.size(); ++i)
+        if (seen[i] == 0 && missing++ == 0) first_missing = i;
     out->notes.push_back("Read a long table of " + std::to_string(cells.size()) + " rows: " + std::to_string(out->groups.size()) +
                          " groups, " + std::to_string(k) + " categories.");
     if (missing > 0)
-        out->notes.push_back(std::to_string(missing) + " combinations of group and category do not appear in the table: read as zero counts.");
+        out->notes.push_back(std::to_string(missing) + " combinations of group and category do not appear in the table: read as zero counts "
+                             "(the first: group " + quote_cell(out->groups[first_missing / k]) + ", first on line " +
+                             std::to_string(out->group_lines[first_missing / k]) + ", has no row for category " +
+                             quote_cell(out->categories[first_missing % k]) + ").");
     if (repeated > 0)
         out->notes.push_back(std::to_string(repeated) + " rows repeat a group and category already seen (first on line " +
                              std::to_string(first_repeat) + "): their counts were added together.");
@@ -454,7 +463,7 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
     out.notes.insert(out.notes.begin(), std::string("Groups read from ") + (header ? "column " + std::to_string(out.group_column) + " (" + quote_cell(out.group_column_name) + ")"
                                                                                       : out.group_column_name) +
                                             " as a " + group_shape_name(shape) + " table" +
-                                            (options.by.empty() ? " (detected; choose another group column with --by)." : "."));
+                                            (options.by.empty() ? " (detected; another group column can be chosen)." : "."));
     if (out.groups.size() < 2) {
         out.status = Status::failure("Only one group (" + quote_cell(out.groups.empty() ? "" : out.groups[0]) +
                                          "): screening compares two or more groups; test a single sample without --by.",

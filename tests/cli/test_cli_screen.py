@@ -1,6 +1,6 @@
 #!/usr/bin/python3
 """Command-line tests of screening many groups (`--by`, `--against`, `--adjust`, `--q`): each
-input shape (long, wide, raw with a group column, raw digits), the JSON, table and write-up
+input shape (long, wide, raw with a group column: text, digits, bins), the JSON, table and write-up
 outputs, the analysis document's `groups` and `screen`, and refusals naming the line.
 Per-group values are checked live against SciPy (chisquare, chi2_contingency(correction=False))
 and statsmodels (multipletests) from Debian's python3-scipy / python3-statsmodels.
@@ -96,6 +96,65 @@ doc = json.loads(r.stdout)
 check(r.returncode == 0 and doc["categories"] == ["scratch", "dent", "stain"], f"raw text categories: {r.stdout[:200]}")
 check([g["observed"] for g in doc["groups"]] == [[20, 0, 0], [0, 20, 0], [0, 0, 20]], "raw text tallied per group")
 
+# Raw text with a group column, tallied per group, each group's p against SciPy 1.10 chisquare
+# (equal shares); the tallies counted here by brute force from the lines written.
+import random
+rng = random.Random(1402)
+words = ["scratch", "dent", "stain", "crack"]
+lines = [(f"L{rng.randint(1, 4)}", rng.choice(words[:3] if rng.random() < 0.8 else words)) for _ in range(400)]
+r = run(["--by", "line", "--json"], "line,defect\n" + "".join(f"{g},{w}\n" for g, w in lines))
+check(r.returncode == 0, f"raw text per group exits 0 ({r.stderr})")
+doc = json.loads(r.stdout)
+seen_groups = list(dict.fromkeys(g for g, _ in lines))
+seen_words = list(dict.fromkeys(w for _, w in lines))
+check(doc["categories"] == seen_words and [g["name"] for g in doc["groups"]] == seen_groups, "raw text: categories and groups in first-seen order")
+for g in doc["groups"]:
+    tally = [sum(1 for n, w in lines if n == g["name"] and w == c) for c in seen_words]
+    check(g["observed"] == tally, f"raw text {g['name']}: tallied as counted here {tally}")
+    if have_scipy:
+        check(close(g["p_value"], chisquare(tally).pvalue), f"raw text {g['name']}: p vs scipy chisquare")
+
+# Raw numbers with a group column counted into --bins per group: the bins counted here by brute
+# force ([a, b), the last bin closed, as the labels say), each group's p against SciPy chisquare.
+values = [(f"S{rng.randint(1, 3)}", rng.choice([rng.uniform(0, 60), rng.uniform(0, 30)])) for _ in range(300)]
+values += [("S1", 20.0), ("S2", 60.0), ("S3", 0.0)]  # on the edges
+edges = [0, 20, 40, 60]
+r = run(["--by", "supplier", "--bins", "0,20,40,60", "--json"], "supplier\tamount\n" + "".join(f"{g}\t{v:.3f}\n" for g, v in values))
+check(r.returncode == 0, f"--bins per group exits 0 ({r.stderr})")
+doc = json.loads(r.stdout)
+check(doc["categories"] == ["[0, 20)", "[20, 40)", "[40, 60]"], f"--bins labels: {doc['categories']}")
+
+
+def bin_of(v):
+    v = float(f"{v:.3f}")
+    return 2 if v >= 40 else 1 if v >= 20 else 0
+
+
+for g in doc["groups"]:
+    tally = [sum(1 for n, v in values if n == g["name"] and bin_of(v) == b) for b in range(3)]
+    check(g["observed"] == tally, f"--bins {g['name']}: {g['observed']} vs counted here {tally}")
+    if have_scipy:
+        sp = chisquare(tally)  # equal shares: the default model
+        check(close(g["statistic"], sp.statistic, 1e-12) and close(g["p_value"], sp.pvalue), f"--bins {g['name']}: vs scipy chisquare")
+if have_scipy:
+    ps = [chisquare([sum(1 for n, v in values if n == g["name"] and bin_of(v) == b) for b in range(3)]).pvalue for g in doc["groups"]]
+    for g, q in zip(doc["groups"], multipletests(ps, method="fdr_bh")[1]):
+        check(close(g["q_value"], q), f"--bins {g['name']}: q vs statsmodels fdr_bh")
+
+# A long table whose groups list different categories: the missing combinations are zero counts,
+# said in a note naming the group, its line and the category; p of the zero-filled row vs SciPy.
+uneven = "reader\tdigit\tcount\nA\t0\t12\nA\t1\t9\nA\t2\t10\nB\t0\t14\nB\t2\t3\nC\t1\t8\nC\t2\t11\nC\t0\t7\n"
+r = run(["--by", "reader", "--json"], uneven)
+check(r.returncode == 0, f"uneven long table exits 0 ({r.stderr})")
+doc = json.loads(r.stdout)
+check([g["observed"] for g in doc["groups"]] == [[12, 9, 10], [14, 0, 3], [7, 8, 11]], f"uneven: zero filled {[g['observed'] for g in doc['groups']]}")
+r = run(["--by", "reader"], uneven)
+check("1 combinations of group and category do not appear in the table: read as zero counts" in r.stderr and
+      'group "B", first on line 5, has no row for category "1"' in r.stderr, f"uneven: note names the group and line: {r.stderr!r}")
+if have_scipy:
+    doc_p = json.loads(run(["--by", "reader", "--json"], uneven).stdout)["groups"][1]["p_value"]
+    check(close(doc_p, chisquare([14, 0, 3]).pvalue), "uneven: B's p vs scipy chisquare of (14, 0, 3)")
+
 # The analysis document's groups and screen members.
 document = json.dumps({"format": "tallyproof/1", "categories": ["A", "B", "C"], "model": {"kind": "shares", "values": [0.5, 0.3, 0.2]},
                        "groups": [{"name": "lot 1", "observed": [50, 30, 20]}, {"name": "lot 2", "observed": [20, 50, 30]},
@@ -132,6 +191,14 @@ if have_scipy:
 # Refusals: exit 1 with the line and the group.
 r = run(["--by", "reader"], "reader\tdigit\tcount\nA\t0\t3\n\t1\t2\nB\t0\t1\nB\t1\t1\nA\t1\t4\n")
 check(r.returncode == 1 and "Line 3, column 1" in r.stderr and "group cell is empty" in r.stderr, f"empty group cell: {r.stderr!r}")
+r = run(["--by", "reader"], "digit\tcount\treader\n0\t3\tA\n1\t2\tA\n0\t1\n1\t4\tB\n")
+check(r.returncode == 1 and "Line 4, column 3: the row has only 2 cells, so the group column (3) is missing" in r.stderr,
+      f"group column missing from a row: {r.stderr!r}")
+r = run(["--by", "reader"], "reader;value\nA;x\nA;y\n;x\nB;y\n")
+check(r.returncode == 1 and "Line 4, column 1: the group cell is empty" in r.stderr, f"raw: empty group cell: {r.stderr!r}")
+r = run(["--by", "reader"], "reader\t0\t1\nA\t3\t4\nB\t2\n")
+check(r.returncode == 0 and json.loads(run(["--by", "reader", "--json"], "reader\t0\t1\nA\t3\t4\nB\t2\n").stdout)["groups"][1]["observed"] == [2, 0],
+      f"wide: a short row's missing cells are zero counts: {r.stderr!r}")
 r = run(["--by", "reader"], "reader\tdigit\tcount\nA\t0\t3\nA\t1\t2\n")
 check(r.returncode == 1 and "Only one group" in r.stderr, f"one group: {r.stderr!r}")
 r = run(["--by", "supplier"], long_text)

@@ -211,6 +211,10 @@ TEST_CASE("long, wide and raw tables with a group column give the same counts") 
     bool said_zero = false;
     for (const auto& n : l.notes) said_zero = said_zero || n.find("1 combinations of group and category do not appear") != std::string::npos;
     CHECK(said_zero);
+    // The note names the first missing combination: Cy (first on line 6) has no row for "0".
+    bool named = false;
+    for (const auto& n : l.notes) named = named || n.find("group \"Cy\", first on line 6, has no row for category \"0\"") != std::string::npos;
+    CHECK(named);
     // Detected without --by: column 1, as the notes say.
     const GroupedCounts d = read_grouped_text(long_text);
     REQUIRE(d.status.ok);
@@ -241,6 +245,13 @@ TEST_CASE("grouped tables: refusals name the line and the group") {
     CHECK_FALSE(g.status.ok);
     CHECK(g.status.line == 3);
     CHECK(g.status.message.find("group cell is empty") != std::string::npos);
+    GroupReadOptions third;  // the group column missing from a short row, not merely empty
+    third.by = "3";
+    g = read_grouped_text("A\t3\tAnn\nB\t1\tAnn\nA\t2\nB\t4\tBob\n", third);
+    CHECK_FALSE(g.status.ok);
+    CHECK(g.status.line == 3);
+    CHECK(g.status.column == 3);
+    CHECK(g.status.message.find("the row has only 2 cells, so the group column (3) is missing") != std::string::npos);
     g = read_grouped_text("Ann\tA\t3\nAnn\tB\t1\n");
     CHECK_FALSE(g.status.ok);
     CHECK(g.status.message.find("Only one group (\"Ann\")") != std::string::npos);
