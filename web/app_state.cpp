@@ -71,6 +71,8 @@ std::vector<ModelEditor::Parameter> parameters_of(ModelKind kind) {
     }
 }
 
+}  // namespace
+
 void sync_editor_from_model(AppState& s) {
     ModelEditor& e = s.model_editor;
     const Model& m = s.analysis.model;
@@ -81,6 +83,8 @@ void sync_editor_from_model(AppState& s) {
         for (const auto& [name, value] : m.parameters)
             if (name == p.name) { p.estimate = false; p.value = value; }
 }
+
+namespace {
 
 constexpr const char* kRecentPrefix = "tallyproof.recent.";  // + id: one key per entry, shared by the tabs
 constexpr const char* kOldRecentKey = "tallyproof.recent";     // the whole list in one key (earlier versions)
@@ -224,7 +228,8 @@ void remember(AppState& s, const std::string& document) {
 void publish(AppState& s) {
     s.report = report_text(s.analysis, s.result);
     const std::string document = write_analysis_document(s.analysis);
-    publish_result(s.report, report_json(s.analysis, s.result), document);
+    // While the Groups view shows the screen, the live region carries the screen's report (recompute_groups).
+    if (!(s.groups.open && s.groups.opened < 0)) publish_result(s.report, report_json(s.analysis, s.result), document);
     remember(s, document);
 }
 
@@ -259,6 +264,7 @@ bool recompute(AppState& s) {
         if (!s.job_running) finish_pvalue_job(s.job, &s.result);
     }
     publish(s);
+    if (s.groups.open && s.groups.opened < 0) recompute_groups(s);  // the screen follows the settings
     return true;
 }
 
@@ -536,6 +542,8 @@ namespace {
 void read_paste(AppState& s, std::string_view text, const ParseOptions& options) {
     const ParsedInput parsed = parse_input(text, options);
     Status problem = parsed.status;
+    GroupsView previous_groups = std::move(s.groups);  // a new one-sample reading closes the screen...
+    s.groups = GroupsView{};
     const Analysis previous = s.analysis;
     std::vector<std::string> label_notes;  // labels written in two Unicode forms, joined
     const std::string previous_id = s.analysis_id;
@@ -584,13 +592,32 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
         return;
     }
     if (!problem.ok) {
+        // Not one sample, but perhaps many: a long, wide or raw table with a group column.
+        std::string why;
+        GroupReadOptions read;
+        read.parse = options;
+        if (parsed.shape != InputShape::raw_bins && open_groups(s, std::string(text), read, &why)) {
+            clear_refusal(s);
+            std::string notes;
+            for (const auto& n : s.groups.counts.notes) notes += (notes.empty() ? "" : " ") + n;
+            set_notice(s, notes);
+            return;
+        }
+        s.groups = std::move(previous_groups);  // ...a refused one leaves it as it was
         record_refusal(s, text, problem);
         return;
+    }
+    // The same text may also read as groups (a wide table of two categories): offered, not chosen.
+    if (text.size() <= (1u << 20)) {
+        const GroupedCounts as_groups = read_grouped_text(text, GroupReadOptions{});
+        s.groups.offered = as_groups.status.ok && as_groups.groups.size() >= 2;
+        if (s.groups.offered) s.groups.text.assign(text.data(), text.size());
     }
     s.source_name = "pasted text";
     s.demo_index = -1;
     s.merge_undo.clear();
     clear_refusal(s);
+    if (previous_groups.open) show_groups_place(s);  // the form view leaves the screen too
     std::string notes;
     for (const auto& n : parsed.notes) notes += (notes.empty() ? "" : " ") + n;
     for (const auto& n : label_notes) notes += (notes.empty() ? "" : " ") + n;

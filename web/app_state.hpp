@@ -9,6 +9,7 @@
 
 #include "analysis.hpp"
 #include "density_curve.hpp"
+#include "groups_state.hpp"
 #include "paste_parser.hpp"
 #include "pvalue_job.hpp"
 #include "result.hpp"
@@ -89,6 +90,9 @@ struct AppState {
     BinChoice pasted_bins;           // the bins of the last reading (kind none unless it counted into bins)
     BinEditor bin_editor;
 
+    // Many groups at once: the screen read from the last paste, and the group opened from it
+    GroupsView groups;
+
     // Merge undo: the rules in force before each one-click merge
     std::vector<MergeChoice> merge_undo;
 
@@ -149,6 +153,7 @@ void copy_writeup(AppState& s, bool sentence_only);          // the write-up in 
 void copy_table(AppState& s);                                 // the per-category table as TSV
 // The test's goal: find a departure (false) or show the mix conforms within w0 (true, 0 < margin_w <= 1).
 void set_test_goal(AppState& s, bool show_conformity, double margin_w);
+void sync_editor_from_model(AppState& s);                    // the model editor shows s.analysis.model
 bool recompute(AppState& s);                                 // false: input_error set, old result kept
 void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work
 void cancel_job(AppState& s);

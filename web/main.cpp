@@ -12,6 +12,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdlib>
 #include <string>
 #include <string_view>
 
@@ -396,7 +397,7 @@ EMSCRIPTEN_KEEPALIVE void tp_prepare_print() {
 // action goes through the same AppState transition as the canvas control it stands for, and a
 // refused value is announced (the live region) like a refused paste.
 enum class FormAction { counts = 0, model = 1, values = 2, alpha = 3, method = 4, merge = 5, copy_writeup = 6, copy_table = 7, download = 8,
-                        answer_question = 9 };
+                        answer_question = 9, sort_groups = 10, open_group = 11, back_to_groups = 12, one_sample = 13 };
 EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
     if (!g_page || !text) return;
     using namespace tallyproof::web;
@@ -428,6 +429,17 @@ EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
         case FormAction::copy_table: copy_table(s); break;
         case FormAction::download: download_document(s); break;
         case FormAction::answer_question: dismiss_question(s, 0); break;  // "They are counts"
+        case FormAction::sort_groups: {  // "q,1": the column's name as the screen document spells it, then 1 ascending / 0 descending
+            const std::string name = value.substr(0, value.find(','));
+            const bool ascending = value.size() > name.size() + 1 && value[name.size() + 1] == '1';
+            const char* names[] = {"name", "n", "statistic", "df", "p_value", "q_value", "w", "flagged"};
+            for (int c = 0; c < 8; ++c)
+                if (name == names[c]) sort_groups(s, static_cast<GroupColumn>(c), ascending);
+            break;
+        }
+        case FormAction::open_group: open_group(s, std::atoi(value.c_str())); break;
+        case FormAction::back_to_groups: back_to_groups(s); break;
+        case FormAction::one_sample: leave_groups(s); break;
     }
     if (!s.input_error.empty()) publish_error(s.input_error);
     want_frames(*g_page, 3);

@@ -44,6 +44,11 @@ EM_JS(void, tp_js_tooltip, (const char* text), {
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.tooltip = UTF8ToString(text);
 });
 
+EM_JS(void, tp_js_groups_view, (int shown, const char* order, const char* banner), {
+    if (globalThis.tallyproofPage && globalThis.tallyproofPage.showGroupsView)
+        globalThis.tallyproofPage.showGroupsView(!!shown, UTF8ToString(order), UTF8ToString(banner));
+});
+
 EM_JS(char*, tp_js_storage_get, (const char* key), {
     var v = null;
     try { v = window.localStorage.getItem(UTF8ToString(key)); } catch (e) { v = null; }
@@ -158,9 +163,13 @@ void mark_widget(const char* name) {
     tp_js_mark(name, a.x, a.y, b.x - a.x, b.y - a.y);
 }
 
+void mark_area(const char* name, float x0, float y0, float x1, float y1) { tp_js_mark(name, x0, y0, x1 - x0, y1 - y0); }
 void mark_explained(const char* name, const std::string& shown) {
     mark_widget(name);
     tp_js_explained(name, shown.c_str());
+}
+void publish_groups_view(bool screen_shown, const std::string& order_json, const std::string& banner) {
+    tp_js_groups_view(screen_shown ? 1 : 0, order_json.c_str(), banner.c_str());
 }
 void note_tooltip(const std::string& text) { tp_js_tooltip(text.c_str()); }  // each frame it shows
 

@@ -18,10 +18,14 @@ void start_work_loop();                              // starts the page's task l
 // Records where the last ImGui item sits (CSS pixels) under `name`, so keyboard-less tests and
 // assistive tools can find controls on the canvas (tallyproofPage.widgets).
 void mark_widget(const char* name);
+void mark_area(const char* name, float x0, float y0, float x1, float y1);  // the same for a drawn shape
 // mark_widget, and the text the item shows (tallyproofPage.explained[name]) for an item whose
 // abbreviations the glossary explains in its tooltip; note_tooltip records the tooltip shown.
 void mark_explained(const char* name, const std::string& shown);
 void note_tooltip(const std::string& text);
+// The Groups view's place, mirrored into the form view: whether the screen is shown, the order
+// of its table (group indices, as JSON), and the banner of a group opened from it ("" when none).
+void publish_groups_view(bool screen_shown, const std::string& order_json, const std::string& banner);
 
 // Browser storage (localStorage, shared by the tabs; empty string when absent or refused; set is
 // false when refused or full), this tab's own storage (sessionStorage), and the URL fragment.

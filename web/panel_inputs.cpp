@@ -198,6 +198,12 @@ void wrapped_text(const char* text) {
     ImGui::TextUnformatted(out.c_str());
 }
 
+void coloured_text(ImU32 colour, const char* text) {
+    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(colour));
+    wrapped_text(text);
+    ImGui::PopStyleColor();
+}
+
 void explain_item(const char* name, const std::string& shown) {
     mark_explained(name, shown);
     if (!ImGui::IsItemHovered()) return;  // a tap leaves the pointer there: the tooltip stays until the next tap
@@ -253,8 +259,14 @@ bool number_field(const char* id, double* value, const char* format, FieldKeys k
 
 void draw_counts_panel(AppState& s, const Theme& t) {
     section_title("Counts", t);
-    muted_wrapped(t, t.touch ? "Paste label ⇥ count lines from a spreadsheet with Paste, open a file, or edit the table."
-                             : "Paste label ⇥ count lines from a spreadsheet (Ctrl+V / ⌘V) anywhere on the page, or edit the table.");
+    if (s.groups.open && s.groups.opened < 0)
+        coloured_text(t.accent, ("All " + std::to_string(s.groups.counts.groups.size()) +
+                                 " groups added together. Each group is tested on its own in the screen; open one from its table or chart.").c_str());
+    else if (s.groups.open)
+        coloured_text(t.accent, ("The counts of group " + s.groups.counts.groups[static_cast<std::size_t>(s.groups.opened)] + ".").c_str());
+    else
+        muted_wrapped(t, t.touch ? "Paste label ⇥ count lines from a spreadsheet with Paste, open a file, or edit the table."
+                                 : "Paste label ⇥ count lines from a spreadsheet (Ctrl+V / ⌘V) anywhere on the page, or edit the table.");
     const Result& r = s.result;
     const int k = static_cast<int>(s.analysis.observed.size());
     const ImGuiTableFlags flags = ImGuiTableFlags_RowBg | ImGuiTableFlags_BordersInnerH | ImGuiTableFlags_BordersOuter |
@@ -370,7 +382,10 @@ void draw_counts_panel(AppState& s, const Theme& t) {
         ImGui::TextUnformatted("Read as");
         ImGui::SameLine();
         ImGui::SetNextItemWidth(-1);
-        if (ImGui::BeginCombo("##shape", current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.pasted_shape)),
+        const char* preview = s.groups.open ? "groups: one test per group"
+                              : current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.pasted_shape));
+        if (s.groups.open) current = -1;
+        if (ImGui::BeginCombo("##shape", preview,
                               ImGuiComboFlags_HeightLargest)) {  // every reading in view, none behind a scroll
             begin_menu_items(t);
             for (int i = 0; i < count; ++i) {
@@ -379,6 +394,11 @@ void draw_counts_panel(AppState& s, const Theme& t) {
                     else reread_paste(s, static_cast<int>(readings[i].shape), readings[i].digits);
                 }
                 mark_widget(readings[i].name);
+            }
+            if (s.groups.offered) {  // the same text as a table of many groups, one test per group
+                const std::string text = s.groups.text;
+                if (ImGui::Selectable("groups: one test per group")) open_groups(s, text, GroupReadOptions{});
+                mark_widget("groups: one test per group");
             }
             end_menu_items(t);
             ImGui::EndCombo();

@@ -281,6 +281,12 @@ void draw_view(AppState& s, const Theme& t) {
 
 void draw_results(AppState& s, const Theme& t, float height) {
     ImGui::BeginChild("results", ImVec2(0, height), true, ImGuiWindowFlags_NavFlattened);
+    if (s.groups.open && s.groups.opened < 0) {  // many groups: the screen in place of one result
+        draw_groups_view(s, t);
+        ImGui::EndChild();
+        return;
+    }
+    if (s.groups.open) draw_group_banner(s, t);
     draw_verdict_panel(s, t);
     ImGui::Spacing();
     draw_validity_panel(s, t);

@@ -23,10 +23,15 @@ void draw_categories_table(AppState& state, const Theme& theme);
 void draw_planning_panel(AppState& state, const Theme& theme);
 void draw_writeup_panel(AppState& state, const Theme& theme);
 
+// panel_groups.cpp: the screen of many groups, and the banner over a group opened from it
+void draw_groups_view(AppState& state, const Theme& theme);
+void draw_group_banner(AppState& state, const Theme& theme);
+
 // Helpers shared by the panels
 void section_title(const char* title, const Theme& theme);
 void muted_wrapped(const Theme& theme, const char* fmt, ...);
 void wrapped_text(const char* text);                          // wrapped to the window, only at spaces
+void coloured_text(ImU32 colour, const char* text);           // wrapped_text in a theme colour
 // The last item's abbreviations and symbols (glossary terms in `shown`) explained in a tooltip on
 // hover or tap; the item is marked `name` (mark_explained) so tests can find it.
 void explain_item(const char* name, const std::string& shown);

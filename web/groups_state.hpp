@@ -1,0 +1,51 @@
+// The Groups view's state: a screen of many groups read from one paste (a long, wide or raw
+// table with a group column), its results, the order the table shows, and the group opened as a
+// single analysis. Changed only by the transitions below, which the canvas and the form view
+// both call (one state, two views).
+#pragma once
+#include <string>
+#include <vector>
+
+#include "analysis.hpp"
+#include "group_screen.hpp"
+#include "grouped_table.hpp"
+#include "screen_funnel.hpp"
+
+namespace tallyproof::web {
+
+struct AppState;
+
+enum class GroupColumn { name, n, statistic, df, p, q, w, flag };  // the table's sortable columns
+
+struct GroupsView {
+    bool open = false;             // the results area shows the screen (or one of its groups)
+    std::string text;              // the paste it was read from (read again when the reading changes)
+    GroupReadOptions read;         // the group column and shape chosen ("" and none: detected)
+    GroupedCounts counts;
+    Analysis base;                 // model, statistic and p-value settings every group is tested with
+    ScreenChoice choice;
+    ScreenResult result;
+    ScreenFunnel funnel;
+    std::string report;            // screen_report_text, mirrored into the page
+    GroupColumn sort = GroupColumn::q;
+    bool ascending = true;
+    std::vector<int> order;        // group indices in the order shown
+    int opened = -1;               // the group shown as a single analysis, -1: the screen itself
+    bool offered = false;          // the last one-sample paste also reads as groups: offer it
+};
+
+// Reads `text` as groups (options: the group column and shape; empty: detected) and opens the
+// screen, testing each group with the analysis on screen's model and settings. False (nothing
+// changed) when the text does not read as at least two groups; `why` then says why.
+bool open_groups(AppState& s, const std::string& text, const GroupReadOptions& options, std::string* why = nullptr);
+bool open_groups_document(AppState& s, const GroupedCounts& counts, const ScreenChoice& choice);
+void set_screen_choice(AppState& s, const ScreenChoice& choice);  // against, adjustment, q
+void sort_groups(AppState& s, GroupColumn column, bool ascending);
+void open_group(AppState& s, int group);      // its full single analysis, the screen kept
+void back_to_groups(AppState& s);             // from an opened group to the screen
+void leave_groups(AppState& s);               // back to one sample (the screen is dropped)
+void recompute_groups(AppState& s);           // after a change of the base analysis's settings
+std::string group_banner(const AppState& s);
+void show_groups_place(const AppState& s);    // mirrors the view's place into the form view  // "Group Ben (2 of 40): flagged, q = 0.0012"
+
+}  // namespace tallyproof::web
