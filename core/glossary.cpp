@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cstddef>
+#include <utility>
 
 namespace tallyproof {
 namespace {
@@ -26,6 +27,8 @@ const std::vector<GlossaryEntry> kEntries = {
               "it has fewer."},
     {"χ² share", "This category's part of the statistic, as a percentage of the whole: the categories with the largest "
                  "shares drive the result."},
+    {"Contribution", "This category's term of the statistic, (O − E)²/E for χ²: the terms add up to the statistic, and "
+                     "the categories with the largest terms drive the result."},
     {"Adj. res.", "Adjusted residual: O − E divided by its standard error if the mix were right. Beyond about ±2 a category "
                   "departs by more than chance usually allows; the sign gives the direction."},
     {"Holm p", "The category's own p-value (this category against all the others together), adjusted by Holm's method "
@@ -80,6 +83,13 @@ const std::vector<GlossaryEntry> kEntries = {
     {"PDF", "A document file that prints the same everywhere; the browser's print dialog saves one."},
 };
 
+// Other spellings of a term in the report and the tables: explained by the same entry.
+const std::vector<std::pair<std::string_view, std::string_view>> kAliases = {
+    {"Adj. residual", "Adj. res."},       {"Adjusted residual", "Adj. res."}, {"adjusted residual", "Adj. res."},
+    {"Lower-tail p", "lower-tail p"},     {"Asymptotic p", "asymptotic"},     {"Holm-adjusted p", "Holm p"},
+    {"Cohen's w before the correction", "Cohen's w"},
+};
+
 bool word_byte(unsigned char c) { return (c >= '0' && c <= '9') || (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || c == '_'; }
 
 // The term starts at `at` in `text` and stands on its own there.
@@ -112,20 +122,22 @@ const GlossaryEntry* glossary_entry(std::string_view term) {
 }
 
 std::vector<const GlossaryEntry*> glossary_terms_in(std::string_view text) {
-    static const std::vector<const GlossaryEntry*> longest_first = [] {
-        std::vector<const GlossaryEntry*> v;
-        for (const auto& e : kEntries) v.push_back(&e);
-        std::stable_sort(v.begin(), v.end(), [](const GlossaryEntry* a, const GlossaryEntry* b) { return a->term.size() > b->term.size(); });
+    struct Spelling { std::string_view text; const GlossaryEntry* entry; };
+    static const std::vector<Spelling> longest_first = [] {
+        std::vector<Spelling> v;
+        for (const auto& e : kEntries) v.push_back({e.term, &e});
+        for (const auto& [alias, term] : kAliases) v.push_back({alias, glossary_entry(term)});
+        std::stable_sort(v.begin(), v.end(), [](const Spelling& a, const Spelling& b) { return a.text.size() > b.text.size(); });
         return v;
     }();
     std::vector<const GlossaryEntry*> found;
     for (std::size_t at = 0; at < text.size();) {
-        const GlossaryEntry* hit = nullptr;
-        for (const GlossaryEntry* e : longest_first)
-            if (stands_at(text, at, e->term)) { hit = e; break; }
+        const Spelling* hit = nullptr;
+        for (const Spelling& sp : longest_first)
+            if (sp.entry && stands_at(text, at, sp.text)) { hit = &sp; break; }
         if (!hit) { ++at; continue; }
-        if (std::find(found.begin(), found.end(), hit) == found.end()) found.push_back(hit);
-        at += hit->term.size();
+        if (std::find(found.begin(), found.end(), hit->entry) == found.end()) found.push_back(hit->entry);
+        at += hit->text.size();
     }
     return found;
 }

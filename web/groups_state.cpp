@@ -11,6 +11,7 @@
 #include "page_bridge.hpp"
 #include "pasted_analysis.hpp"
 #include "screen_report.hpp"
+#include "table_export.hpp"
 
 namespace tallyproof::web {
 namespace {
@@ -192,6 +193,24 @@ void leave_groups(AppState& s) {
     s.groups = GroupsView{};
     recompute(s);
     show_groups_place(s);
+}
+
+void copy_screen_summary(AppState& s) {
+    if (!s.groups.result.status.ok) return;
+    copy_text(screen_writeup(s.groups.result));
+    publish_notice("Screen summary copied.");
+}
+
+void copy_groups_table(AppState& s) {
+    if (!s.groups.result.status.ok) return;
+    copy_text(group_table(s.groups.result, TableExportOptions{TableFormat::tsv, s.decimal_comma, false}));
+    publish_notice("Groups table copied (TSV).");
+}
+
+void download_groups_table(AppState& s) {
+    if (!s.groups.result.status.ok) return;
+    download_text("tallyproof-groups.csv", "text/csv", group_table(s.groups.result, TableExportOptions{TableFormat::csv, s.decimal_comma, false}));
+    publish_notice("Groups table downloaded (CSV).");
 }
 
 std::string group_banner(const AppState& s) {

@@ -45,6 +45,9 @@ void open_group(AppState& s, int group);      // its full single analysis, the s
 void back_to_groups(AppState& s);             // from an opened group to the screen
 void leave_groups(AppState& s);               // back to one sample (the screen is dropped)
 void recompute_groups(AppState& s);           // after a change of the base analysis's settings
+void copy_screen_summary(AppState& s);        // the write-up of the screen: summary and cautions
+void copy_groups_table(AppState& s);          // one row per group, TSV for a spreadsheet
+void download_groups_table(AppState& s);      // the same as a CSV file
 std::string group_banner(const AppState& s);
 void show_groups_place(const AppState& s);    // mirrors the view's place into the form view  // "Group Ben (2 of 40): flagged, q = 0.0012"
 

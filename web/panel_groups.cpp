@@ -298,6 +298,18 @@ void draw_groups_view(AppState& s, const Theme& t) {
     }
     if (ImGui::Button("Read as one sample instead")) leave_groups(s);
     mark_widget("Read as one sample");
+    if (r.status.ok) {  // what leaves the page: the summary to paste, the table for a spreadsheet
+        const float pad = 2 * ImGui::GetStyle().FramePadding.x;
+        flow_next(ImGui::CalcTextSize("Copy summary").x + pad);
+        if (ImGui::Button("Copy summary")) copy_screen_summary(s);
+        mark_widget("Copy summary");
+        flow_next(ImGui::CalcTextSize("Copy table (TSV)").x + pad);
+        if (ImGui::Button("Copy table (TSV)")) copy_groups_table(s);
+        explain_item("Copy groups table", "Copy table (TSV)");
+        flow_next(ImGui::CalcTextSize("Download table (CSV)").x + pad);
+        if (ImGui::Button("Download table (CSV)")) download_groups_table(s);
+        explain_item("Download groups table", "Download table (CSV)");
+    }
     if (!s.input_error.empty()) {
         ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
         wrapped_text(("Not applied: " + s.input_error).c_str());

@@ -66,6 +66,9 @@ TEST_CASE("glossary: terms are found where they stand on their own, the longest 
     CHECK(terms("χ² share and χ²") == std::vector<std::string>{"χ² share", "χ²"});
     CHECK(terms("Cohen's w") == std::vector<std::string>{"Cohen's w"});
     CHECK(terms("GM² and G²") == std::vector<std::string>{"GM²", "G²"});
+    // Other spellings in the report and the tables are explained by the same entry.
+    CHECK(terms("Category  Observed  Contribution  Adj. residual") == std::vector<std::string>{"Contribution", "Adj. res."});
+    CHECK(terms("Lower-tail p (a fit closer than chance allows?)") == std::vector<std::string>{"lower-tail p"});
     CHECK(glossary_notes("nothing to explain here").empty());
     CHECK(glossary_notes("df = 3").rfind("df: Degrees of freedom", 0) == 0);
 }
