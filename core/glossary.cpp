@@ -142,11 +142,15 @@ std::vector<const GlossaryEntry*> glossary_terms_in(std::string_view text) {
     return found;
 }
 
-std::string glossary_notes(std::string_view text) {
+std::string glossary_notes(std::string_view text, bool brief) {
     std::string out;
     for (const GlossaryEntry* e : glossary_terms_in(text)) {
         if (!out.empty()) out += '\n';
-        out.append(e->term).append(": ").append(e->meaning);
+        std::string_view meaning = e->meaning;
+        if (brief)  // up to the first full stop that ends a sentence (". " or the end), not "e.g."
+            for (std::size_t at = meaning.find(". "); at != std::string_view::npos; at = meaning.find(". ", at + 1))
+                if (at > 3 && meaning.substr(at - 3, 3) != "e.g") { meaning = meaning.substr(0, at + 1); break; }
+        out.append(e->term).append(": ").append(meaning);
     }
     return out;
 }

@@ -28,8 +28,9 @@ const GlossaryEntry* glossary_entry(std::string_view term);
 // the longest term wins where two start at the same place ("O − E" over "O", "w0" over "w").
 std::vector<const GlossaryEntry*> glossary_terms_in(std::string_view text);
 
-// "term: meaning" lines, one per term found in `text`; empty when there is none.
-std::string glossary_notes(std::string_view text);
+// "term: meaning" lines, one per term found in `text`; empty when there is none. `brief`: each
+// meaning's first sentence only (the print layout's footnote).
+std::string glossary_notes(std::string_view text, bool brief = false);
 
 // The whole glossary as a Markdown table (docs/glossary.md).
 std::string glossary_markdown();

@@ -321,9 +321,7 @@ bool read_count_cell(const Entry& e, DecimalMark mark, ParsedInput* out, double*
     else if (n.percent) fault = " is a percentage; counts must be non-negative whole numbers. Enter how many items fell in "
                                 "each category: a test on percentages is wrong by a factor of N/100.";
     else if (n.negative && n.value != 0) fault = " is negative; counts must be non-negative whole numbers.";
-    else if (n.value != std::floor(n.value))
-        fault = " is not a whole number; counts must be whole numbers. If the column holds percentages or shares, enter how "
-                "many items fell in each category instead: a test on percentages is wrong by a factor of N/100.";
+    else if (n.value != std::floor(n.value)) fault = " is not a whole number; counts must be whole numbers.";
     else if (n.value >= kMaxCount) fault = " is too large; expected a count below 2^53.";
     if (fault != nullptr) {
         add_problem(out, e.line, e.count_column, where + quote_cell(e.count) + fault);
@@ -488,6 +486,20 @@ void classify_expected(const TableCells& entries, bool any_percent, const ThirdC
 
 }  // namespace
 
+// Decimals in a count column that adds up to about 100 (or 1) are most likely percentages (or
+// shares): the refusal says so. Other decimals (measurements pasted as counts) get no such note.
+void note_percent_refusal(const TableCells& entries, DecimalMark mark, ParsedInput* out) {
+    if (out->status.message.find("is not a whole number") == std::string::npos) return;
+    double sum = 0;
+    for (const Entry& e : entries)
+        if (const NumberReading n = read_number(e.count, mark); n.ok && !n.out_of_range) sum += n.value;
+    if (std::fabs(sum - 100) > 1 && std::fabs(sum - 1) > 0.01) return;
+    const std::string note = " They add up to " + plain(sum) + ": if they are percentages or shares, enter how many items fell in "
+                             "each category instead; a test on percentages is wrong by a factor of N/100.";
+    out->status.message += note;
+    if (!out->problems.empty()) out->problems.front().message += note;
+}
+
 // Whole counts under a header that names percentages ("%", "Percent", "Share") and totalling 100
 // (or 1) are most likely percentages: a note says so (the counts are still read).
 void note_percent_header(int count_column, ParsedInput* out) {
@@ -522,7 +534,10 @@ void read_table(const std::vector<TableRow>& rows, const ParseOptions& options, 
     }
     out->decimal = table_decimal_mark(entries, options, out);
     bool any_percent = false;
-    if (!read_entries(entries, out->decimal, third, out, &any_percent)) return;
+    if (!read_entries(entries, out->decimal, third, out, &any_percent)) {
+        note_percent_refusal(entries, out->decimal, out);
+        return;
+    }
     if (!drop_totals_row(entries, out)) return;
     if (out->observed.empty()) {
         out->status = Status::failure("No counts found: paste lines of label and count.");

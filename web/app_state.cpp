@@ -505,11 +505,12 @@ void apply_input(AppState& s, std::string bytes, std::string_view file_name) {
     if (!d.notice.empty() && s.rejected_message.empty()) set_notice(s, d.notice + (s.notice.empty() ? "" : " " + s.notice));
 }
 
-void reread_paste(AppState& s, int shape, int digit_test) {
+void reread_paste(AppState& s, int shape, int digit_test, int third_column) {
     if (s.pasted_text.empty()) return;
     ParseOptions o;
     o.shape = static_cast<InputShape>(shape);
     if (digit_test >= 0) o.digits = static_cast<DigitTest>(digit_test);
+    if (third_column >= 0) o.third_column = third_column == 1 ? ThirdColumn::previous_sample : ThirdColumn::expected;
     read_paste(s, s.pasted_text, o);  // read_paste does not change pasted_text while reading it
 }
 
@@ -577,6 +578,7 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     if (text.size() <= (8u << 20)) {
         if (text.data() != s.pasted_text.data()) s.pasted_text.assign(text.data(), text.size());
         s.pasted_shape = static_cast<int>(parsed.shape);
+        s.pasted_previous = parsed.expected_kind == ExpectedKind::previous_sample;
     } else {
         s.pasted_text.clear();
         s.pasted_shape = -1;
@@ -592,11 +594,13 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
         return;
     }
     if (!problem.ok) {
-        // Not one sample, but perhaps many: a long, wide or raw table with a group column.
-        std::string why;
+        // Not one sample, but perhaps many: a long or wide table of groups. Raw values with a group
+        // column are only offered (a typo in a count column would otherwise read as text to tally).
         GroupReadOptions read;
         read.parse = options;
-        if (parsed.shape != InputShape::raw_bins && open_groups(s, std::string(text), read, &why)) {
+        GroupedCounts probe = parsed.shape == InputShape::raw_bins ? GroupedCounts{} : read_grouped_text(text, read);
+        if (probe.status.ok && probe.groups.size() >= 2 && probe.shape != GroupShape::raw_values &&
+            open_groups_read(s, std::string(text), read, std::move(probe))) {
             clear_refusal(s);
             std::string notes;
             for (const auto& n : s.groups.counts.notes) notes += (notes.empty() ? "" : " ") + n;

@@ -87,6 +87,7 @@ struct AppState {
     // The last paste that was read, so the user can have it read as another shape
     std::string pasted_text;
     int pasted_shape = -1;           // InputShape as detected (or chosen), -1 when nothing pasted
+    bool pasted_previous = false;    // its third column was read as a previous sample's counts
     BinChoice pasted_bins;           // the bins of the last reading (kind none unless it counted into bins)
     BinEditor bin_editor;
 
@@ -129,7 +130,9 @@ void edit_refused_paste(AppState& s, bool open);             // show or hide the
 void apply_fixed_paste(AppState& s);                         // read the edited paste as a new paste
 void dismiss_refusal(AppState& s);                           // forget the refused paste and its message
 void dismiss_question(AppState& s, int index);                 // the result's question `index` answered: not asked again
-void reread_paste(AppState& s, int shape, int digit_test = -1);  // the last paste again, read as InputShape `shape`
+// The last paste again, read as InputShape `shape` (a digit test; for label, observed and a third
+// column: 0 expected values, 1 a previous sample's counts, -1 decided from its header).
+void reread_paste(AppState& s, int shape, int digit_test = -1, int third_column = -1);
                                                                  // (raw_digits: DigitTest `digit_test`)
 void read_paste_into_bins(AppState& s, BinChoice::Kind kind, ModelKind model = ModelKind::normal);
                                                              // the last paste as measurements in bins, with the

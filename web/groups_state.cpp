@@ -112,6 +112,11 @@ bool open_groups(AppState& s, const std::string& text, const GroupReadOptions& o
         if (why) *why = counts.status.ok ? "Only one group was found: a screen needs at least two." : counts.status.message;
         return false;
     }
+    return open_groups_read(s, text, options, std::move(counts));
+}
+
+bool open_groups_read(AppState& s, const std::string& text, const GroupReadOptions& options, GroupedCounts counts) {
+    if (!counts.status.ok || counts.groups.size() < 2) return false;
     s.groups.text = text;
     s.groups.read = options;
     s.source_name = "pasted groups";

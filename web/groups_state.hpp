@@ -38,6 +38,7 @@ struct GroupsView {
 // screen, testing each group with the analysis on screen's model and settings. False (nothing
 // changed) when the text does not read as at least two groups; `why` then says why.
 bool open_groups(AppState& s, const std::string& text, const GroupReadOptions& options, std::string* why = nullptr);
+bool open_groups_read(AppState& s, const std::string& text, const GroupReadOptions& options, GroupedCounts counts);  // already read
 bool open_groups_document(AppState& s, const GroupedCounts& counts, const ScreenChoice& choice);
 void set_screen_choice(AppState& s, const ScreenChoice& choice);  // against, adjustment, q
 void sort_groups(AppState& s, GroupColumn column, bool ascending);

@@ -91,9 +91,7 @@ void handle_shortcuts(Page& p) {
 // The text of the print layout: the write-up sentence over the full results block.
 std::string print_text(const tallyproof::web::AppState& s) {
     const tallyproof::WriteupOptions o;
-    const std::string text = tallyproof::writeup_sentence(s.analysis, s.result, o) + "\n\n" + s.report;
-    const std::string notes = tallyproof::glossary_notes(text);  // the footnote: what the symbols mean
-    return notes.empty() ? text : text + "\nSymbols and abbreviations\n" + notes + "\n";
+    return tallyproof::writeup_sentence(s.analysis, s.result, o) + "\n\n" + s.report;
 }
 std::string print_title(const tallyproof::web::AppState& s) { return s.source_name + " · Tallyproof " TALLYPROOF_VERSION; }
 
@@ -276,7 +274,7 @@ void frame() {
         render_chart_export(p, e);
         if (p.state.exports.empty() && p.state.print_pending) {
             p.state.print_pending = false;
-            tallyproof::web::print_report(print_text(p.state), print_title(p.state), true);
+            tallyproof::web::print_report(print_text(p.state), print_title(p.state), true, tallyproof::glossary_notes(print_text(p.state), true));
         }
         p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
     }
@@ -390,14 +388,15 @@ EMSCRIPTEN_KEEPALIVE void tp_prepare_print() {
     using namespace tallyproof::web;
     render_chart_export(*g_page, ChartExport{ResultTab::curve, static_cast<int>(ImagePurpose::print)});
     render_chart_export(*g_page, ChartExport{ResultTab::bars, static_cast<int>(ImagePurpose::print)});
-    print_report(print_text(g_page->state), print_title(g_page->state), false);
+    print_report(print_text(g_page->state), print_title(g_page->state), false, tallyproof::glossary_notes(print_text(g_page->state), true));
     want_frames(*g_page, 2);
 }
 // The page's HTML form (shell.html), for screen readers, switch access and keyboard users: each
 // action goes through the same AppState transition as the canvas control it stands for, and a
 // refused value is announced (the live region) like a refused paste.
 enum class FormAction { counts = 0, model = 1, values = 2, alpha = 3, method = 4, merge = 5, copy_writeup = 6, copy_table = 7, download = 8,
-                        answer_question = 9, sort_groups = 10, open_group = 11, back_to_groups = 12, one_sample = 13 };
+                        answer_question = 9, sort_groups = 10, open_group = 11, back_to_groups = 12, one_sample = 13,
+                        goal = 14 };
 EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
     if (!g_page || !text) return;
     using namespace tallyproof::web;
@@ -440,6 +439,13 @@ EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
         case FormAction::open_group: open_group(s, std::atoi(value.c_str())); break;
         case FormAction::back_to_groups: back_to_groups(s); break;
         case FormAction::one_sample: leave_groups(s); break;
+        case FormAction::goal: {  // "": find a departure; a margin w0: show conformity within it
+            if (value.empty()) { set_test_goal(s, false, s.analysis.conformity.margin_w); break; }
+            char* end = nullptr;
+            const double w0 = std::strtod(value.c_str(), &end);
+            set_test_goal(s, true, end && *end == '\0' ? w0 : std::nan(""));
+            break;
+        }
     }
     if (!s.input_error.empty()) publish_error(s.input_error);
     want_frames(*g_page, 3);

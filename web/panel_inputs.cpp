@@ -349,10 +349,11 @@ void draw_counts_panel(AppState& s, const Theme& t) {
     if (read_as) {
         // What the last paste was read as, and the other readings on offer.
         using Bins = BinChoice::Kind;
-        struct Reading { InputShape shape; int digits; Bins bins; ModelKind model; const char* name; };
+        struct Reading { InputShape shape; int digits; Bins bins; ModelKind model; const char* name; int third = -1; };
         const Reading readings[] = {
             {InputShape::label_count, -1, Bins::none, ModelKind::equal, "label and count"},
-            {InputShape::label_observed_expected, -1, Bins::none, ModelKind::equal, "label, observed, expected"},
+            {InputShape::label_observed_expected, -1, Bins::none, ModelKind::equal, "label, observed, expected", 0},
+            {InputShape::label_observed_expected, -1, Bins::none, ModelKind::equal, "label, observed, previous sample", 1},
             {InputShape::counts_column, -1, Bins::none, ModelKind::equal, "one column of counts"},
             {InputShape::counts_row, -1, Bins::none, ModelKind::equal, "one row of counts"},
             {InputShape::raw_text, -1, Bins::none, ModelKind::equal, "raw values to tally"},
@@ -376,7 +377,8 @@ void draw_counts_panel(AppState& s, const Theme& t) {
         for (int i = 0; i < count; ++i) {
             const bool same_digits = readings[i].digits < 0 || (digit_model && readings[i].digits == static_cast<int>(shown));
             const bool same_bins = readings[i].bins == bins && (bins != Bins::equal_probability || readings[i].model == bin_model);
-            if (static_cast<int>(readings[i].shape) == s.pasted_shape && same_digits && same_bins) current = i;
+            const bool same_third = readings[i].third < 0 || (readings[i].third == 1) == s.pasted_previous;
+            if (static_cast<int>(readings[i].shape) == s.pasted_shape && same_digits && same_bins && same_third) current = i;
         }
         ImGui::AlignTextToFramePadding();
         ImGui::TextUnformatted("Read as");
@@ -389,9 +391,11 @@ void draw_counts_panel(AppState& s, const Theme& t) {
                               ImGuiComboFlags_HeightLargest)) {  // every reading in view, none behind a scroll
             begin_menu_items(t);
             for (int i = 0; i < count; ++i) {
+                // A previous sample's column is offered where a third column was read.
+                if (readings[i].third == 1 && s.pasted_shape != static_cast<int>(InputShape::label_observed_expected)) continue;
                 if (ImGui::Selectable(readings[i].name, i == current) && i != current) {
                     if (readings[i].bins != Bins::none) read_paste_into_bins(s, readings[i].bins, readings[i].model);
-                    else reread_paste(s, static_cast<int>(readings[i].shape), readings[i].digits);
+                    else reread_paste(s, static_cast<int>(readings[i].shape), readings[i].digits, readings[i].third);
                 }
                 mark_widget(readings[i].name);
             }

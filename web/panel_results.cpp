@@ -268,7 +268,10 @@ void draw_planning_panel(AppState& s, const Theme& t) {
     if (st.ok) ImGui::Text("N needed for power %s: %s", format_fixed(s.plan_target, 2).c_str(), format_count(need).c_str());
     else wrapped_text(st.message.c_str());
     ImGui::PopFont();
-    muted_wrapped(t, "This analysis observed w = %s with N = %s.", format_fixed(r.effect.w, 3).c_str(), format_count(r.n).c_str());
+    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
+    explained_text("planning observed w", "This analysis observed Cohen's w = " + format_fixed(r.effect.w, 3) + " (before the correction for chance) with N = " +
+                                              format_count(r.n) + ".");
+    ImGui::PopStyleColor();
     if (ImGui::Button("Use the observed N")) s.plan_n = r.n;
 }
 

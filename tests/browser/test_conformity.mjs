@@ -76,6 +76,48 @@ export const tests = {
     });
   },
 
+  async 'a pasted third column headed "Last month" is the previous sample; Read as turns it into expected counts'() {
+    await withPage({}, async (page) => {
+      await pasteText(page, 'Defect,This month,Last month\nScratch,150,140\nDent,420,390\nCrack,190,230\nOther,40,40\n');
+      await waitFor(page, 'compared with the previous sample of N = 800');
+      let r = await lastResult(page);
+      // SciPy 1.10: chi2_contingency([[150,420,190,40],[140,390,230,40]], correction=False) -> 5.265462506841817.
+      assert(Math.abs(r.statistic - 5.265462506841817) < 1e-9 && r.reference_sample, `statistic ${r.statistic}`);
+      await clickWidget(page, 'Read as');
+      await clickWidget(page, 'label, observed, expected');
+      await page.waitForFunction(() => !document.getElementById('tp-results').textContent.includes('previous sample'), null, { timeout: 5000 });
+      r = await lastResult(page);
+      // SciPy 1.10: chisquare([150,420,190,40], f_exp=[140,390,230,40]) -> 9.978499761108456, p 0.018749782273771807.
+      assert(Math.abs(r.statistic - 9.978499761108456) < 1e-9 && !r.reference_sample, `as expected counts: ${r.statistic}`);
+      await clickWidget(page, 'Read as');
+      await clickWidget(page, 'label, observed, previous sample');
+      await waitFor(page, 'compared with the previous sample of N = 800');
+      await screenshot(page, 'previous-sample-pasted');
+    });
+  },
+
+  async 'the form view sets the goal: conformity within w0, a refused margin, and back to a departure'() {
+    await withPage({}, async (page) => {
+      await pasteText(page, 'A\t330\nB\t352\nC\t338\n');
+      await waitFor(page, 'No evidence against');
+      await page.evaluate(() => globalThis.tallyproofPage.showForm(true));
+      const goal = page.getByRole('combobox', { name: 'Goal of the test' });
+      await goal.selectOption('conform');
+      await waitFor(page, 'conform to the stated mix within w < 0.10');
+      const r = await lastResult(page);
+      assert(Math.abs(r.conformity.p_value - 0.004061303243092804) < 1e-9, `p ${r.conformity.p_value}`);  // SciPy ncx2.cdf(0.72941, 2, 10.2)
+      const margin = page.getByRole('textbox', { name: /Conformity margin w0/ });
+      assert(await margin.inputValue() === '0.1', `margin ${await margin.inputValue()}`);
+      await margin.fill('1.5');
+      await margin.press('Tab');
+      await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'error', null, { timeout: 5000 });
+      assert((await page.getByRole('status').textContent()).includes('must lie in (0, 1]'), await page.getByRole('status').textContent());
+      await goal.selectOption('departure');
+      await page.waitForFunction(() => !JSON.parse(globalThis.tallyproofPage.lastResult).conformity, null, { timeout: 5000 });
+      await screenshot(page, 'conformity-form-goal');
+    });
+  },
+
   async 'comparison with a previous sample from a document'() {
     await withPage({}, async (page) => {
       await pasteText(page, JSON.stringify({

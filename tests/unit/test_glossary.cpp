@@ -71,6 +71,7 @@ TEST_CASE("glossary: terms are found where they stand on their own, the longest 
     CHECK(terms("Lower-tail p (a fit closer than chance allows?)") == std::vector<std::string>{"lower-tail p"});
     CHECK(glossary_notes("nothing to explain here").empty());
     CHECK(glossary_notes("df = 3").rfind("df: Degrees of freedom", 0) == 0);
+    CHECK(glossary_notes("p = .04", true) == "p: p-value: if the stated mix were right, the chance of counts departing from it at least as far as these do.");
 }
 
 TEST_CASE("glossary: one entry per term, each with a meaning, and a Markdown table of them all") {

@@ -54,7 +54,7 @@ TEST_CASE("bad input names line and column") {
 
     p = parse_counts("A\t4\nB\t2.5\n");
     CHECK(p.status.line == 2);
-    CHECK(p.status.message == "Line 2, column 2: \"2.5\" is not a whole number; counts must be whole numbers. If the column holds percentages or shares, enter how many items fell in each category instead: a test on percentages is wrong by a factor of N/100.");
+    CHECK(p.status.message == "Line 2, column 2: \"2.5\" is not a whole number; counts must be whole numbers.");
 
     p = parse_counts("A\t4\nA\t5\n");
     CHECK(p.status.line == 2);

@@ -243,7 +243,7 @@ TEST_CASE("number formats in count columns, and ambiguous 1,234 decided from the
     CHECK(p.decimal == DecimalMark::comma);
     CHECK(p.observed == D{1234, 2500});
     p = parse_input("a\t1.234\nb\t12.5\n");  // one cell settles it: decimal point, so 1.234 is not whole
-    CHECK(p.status.message == "Line 1, column 2: \"1.234\" is not a whole number; counts must be whole numbers. If the column holds percentages or shares, enter how many items fell in each category instead: a test on percentages is wrong by a factor of N/100.");
+    CHECK(p.status.message == "Line 1, column 2: \"1.234\" is not a whole number; counts must be whole numbers.");
     ParseOptions o;
     o.decimal = DecimalMark::comma;
     p = with("a\t1.234\nb\t12\n", o);
@@ -261,7 +261,7 @@ TEST_CASE("bad input: each refusal names line and column, quotes the cell, says 
         {"Only\t7\n", "Only one category (\"Only\"): a goodness-of-fit test needs at least two.", 1, 2},
         {"A\t4\nB\t-2\n", "Line 2, column 2: \"-2\" is negative; counts must be non-negative whole numbers.", 2, 2},
         {"A\t4\nB\t(3)\n", "Line 2, column 2: \"(3)\" is negative; counts must be non-negative whole numbers.", 2, 2},
-        {"A\t4\nB\t12.5\n", "Line 2, column 2: \"12.5\" is not a whole number; counts must be whole numbers. If the column holds percentages or shares, enter how many items fell in each category instead: a test on percentages is wrong by a factor of N/100.", 2, 2},
+        {"A\t4\nB\t12.5\n", "Line 2, column 2: \"12.5\" is not a whole number; counts must be whole numbers.", 2, 2},
         {"A\t4\nB\t40%\n", "Line 2, column 2: \"40%\" is a percentage; counts must be non-negative whole numbers. Enter how many items fell in each category: a test on percentages is wrong by a factor of N/100.", 2, 2},
         {"A\t4\nB\tlots\n", "Line 2, column 2: \"lots\" is not a count; expected a non-negative whole number.", 2, 2},
         {"A\t4\nB\t1e300\n", "Line 2, column 2: \"1e300\" is too large; expected a count below 2^53.", 2, 2},
@@ -275,7 +275,7 @@ TEST_CASE("bad input: each refusal names line and column, quotes the cell, says 
         {"A\t4\t0.5\nB\t6\t-0.5\n", "Line 2, column 3: \"-0.5\" is negative; expected values must be zero or more.", 2, 3},
         {"A\t4\t0\nB\t6\t0\n", "Line 1, column 3: the expected values are all zero; expected shares, percentages, ratio terms or counts.", 1, 3},
         {"A\t1\t2\t3\nB\t4\t5\n", "Line 1, column 4: found 4 cells; expected a label, a count and an expected value.", 1, 4},
-        {"12\n15\n9.5\n", "Line 3, column 1: \"9.5\" is not a whole number; counts must be whole numbers. If the column holds percentages or shares, enter how many items fell in each category instead: a test on percentages is wrong by a factor of N/100.", 3, 1},
+        {"12\n15\n9.5\n", "Line 3, column 1: \"9.5\" is not a whole number; counts must be whole numbers.", 3, 1},
     };
     for (const Case& c : cases) {
         const ParsedInput p = parse_input(c.text);
@@ -347,4 +347,16 @@ TEST_CASE("parse_counts is parse_input with default options") {
     CHECK(c.categories == p.categories);
     CHECK(c.observed == p.observed);
     CHECK(c.notes == p.notes);
+}
+
+TEST_CASE("decimals in a count column: the percentages note only where they add up to about 100 or 1") {
+    // Common practice: counts, not percentages, go into a chi-square test (the statistic scales with N).
+    const ParsedInput pct = parse_input("A\t25.5\nB\t74.5\n");
+    CHECK_FALSE(pct.status.ok);
+    CHECK(pct.status.message.find("a test on percentages is wrong by a factor of N/100") != std::string::npos);
+    const ParsedInput shares = parse_input("A\t0.25\nB\t0.75\n");
+    CHECK(shares.status.message.find("percentages or shares") != std::string::npos);
+    const ParsedInput weights = parse_input("517.1\n498.3\n502.9\n");  // measurements, not counts
+    CHECK_FALSE(weights.status.ok);
+    CHECK(weights.status.message.find("percentages") == std::string::npos);
 }
