@@ -44,7 +44,7 @@ void draw_screen_settings(AppState& s, const Theme& t) {
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("Adjusted by");
     ImGui::SameLine();
-    ImGui::SetNextItemWidth(std::min(240.0f, ImGui::GetContentRegionAvail().x * 0.5f));
+    ImGui::SetNextItemWidth(std::min(240.0f, ImGui::GetContentRegionAvail().x - 8));
     const bool open = ImGui::BeginCombo("##adjust", adjust_label(c.adjust));
     explain_item("adjustment", adjust_label(c.adjust));
     if (open) {
@@ -57,7 +57,8 @@ void draw_screen_settings(AppState& s, const Theme& t) {
         end_menu_items(t);
         ImGui::EndCombo();
     }
-    ImGui::SameLine();
+    flow_next(ImGui::CalcTextSize("flag at q ≤").x + 90 + ImGui::GetStyle().ItemSpacing.x);  // wraps on a phone
+    ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("flag at q ≤");
     explain_item("q label", "flag at q ≤");
     ImGui::SameLine();
@@ -269,7 +270,8 @@ void draw_groups_view(AppState& s, const Theme& t) {
                           ImGui::IsItemDeactivatedAfterEdit();
         mark_widget("group column");
         if (ImGui::IsItemHovered()) ImGui::SetTooltip("The header name or the number (1 = first) of the column naming the groups");
-        ImGui::SameLine();
+        flow_next(ImGui::CalcTextSize("as a").x + 160 + ImGui::GetStyle().ItemSpacing.x);
+        ImGui::AlignTextToFramePadding();
         ImGui::TextUnformatted("as a");
         ImGui::SameLine();
         GroupShape shape = v.read.shape.value_or(v.counts.shape);
@@ -294,7 +296,7 @@ void draw_groups_view(AppState& s, const Theme& t) {
                 publish_error(why);
             }
         }
-        ImGui::SameLine();
+        flow_next(ImGui::CalcTextSize("Read as one sample instead").x + 2 * ImGui::GetStyle().FramePadding.x);
     }
     if (ImGui::Button("Read as one sample instead")) leave_groups(s);
     mark_widget("Read as one sample");

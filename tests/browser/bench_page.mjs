@@ -80,6 +80,41 @@ await page.waitForFunction(() => { const r = JSON.parse(globalThis.tallyproofPag
 const mcSeconds = (Date.now() - mc0) / 1000;
 const mcWork = await page.evaluate(() => globalThis.__work);
 
+// Exact p-values in the page (issue 13), the native bench_exact_dp workloads: equal shares with the
+// table pattern 5,8,2,6,4,9,3,5,1,7 repeated (mean 5 per cell), and any shares 1..k (the grid
+// bracket); timed from the paste to the finished exact result, with the time inside work tasks.
+const pattern = [5, 8, 2, 6, 4, 9, 3, 5, 1, 7];
+const exactTimes = [];
+for (const [k, shares] of [[10, false], [30, false], [100, false], [10, true], [20, true]]) {
+  const doc = { categories: Array.from({ length: k }, (_, i) => `c${i + 1}`), observed: Array.from({ length: k }, (_, i) => pattern[i % 10]),
+    model: shares ? { kind: 'ratio', values: Array.from({ length: k }, (_, i) => i + 1) } : { kind: 'equal' }, pvalue: { method: 'exact' } };
+  await page.evaluate(() => { globalThis.__work.ms = 0; globalThis.__work.calls = 0; });
+  const e0 = Date.now();
+  await page.evaluate((d) => globalThis.tallyproofPage.paste(JSON.stringify(d)), doc);
+  await page.waitForFunction(() => { const r = JSON.parse(globalThis.tallyproofPage.lastResult); return !!(r.exact && (typeof r.exact.p_value === 'number' || r.exact.refusal)); },
+    null, { timeout: 120000, polling: 20 });
+  const r = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
+  const work = await page.evaluate(() => globalThis.__work);
+  exactTimes.push(`${shares ? 'shares 1..k' : 'equal shares'}, k = ${k}, N = ${doc.observed.reduce((a, b) => a + b, 0)}: ` +
+    `${((Date.now() - e0) / 1000).toFixed(2)} s wall, ${(work.ms / 1000).toFixed(2)} s in ${work.calls} work tasks; ` +
+    (r.exact.refusal ? `refused: ${r.exact.refusal.slice(0, 80)}` : `p = ${r.exact.p_value}, error bound ${r.exact.error_bound} (${r.exact.method})`));
+}
+
+// Screening 10,000 groups of 10 categories pasted as a 100,000-row long table (issue 12): from the
+// paste to the screen's report, in one task (not sliced).
+const screenMs = await page.evaluate(async () => {
+  let seed = 7;
+  const rnd = () => { seed = (Math.imul(seed, 1103515245) + 12345) >>> 0; return seed / 4294967296; };
+  const rows = ['group,category,count'];
+  for (let g = 0; g < 10000; g++) for (let c = 0; c < 10; c++) rows.push(`G${g},${c},${5 + Math.floor(rnd() * 10)}`);
+  const text = rows.join('\n') + '\n';
+  const t0 = performance.now();
+  globalThis.tallyproofPage.paste(text);
+  return { ms: performance.now() - t0, bytes: text.length, ok: document.getElementById('tp-results').textContent.includes('of 10000 groups') };
+});
+await page.evaluate(() => globalThis.tallyproofPage.loadDemo(0));
+await page.waitForTimeout(200);
+
 // One million raw amounts (~7 MB; invented, log-uniform over 1..100000 with two decimals so
 // first digits follow Benford's law), made in the page by a fixed LCG, pasted through a real
 // paste event. Read as counts first (refused: decimals), then "Read as" first digits: timed
@@ -125,5 +160,8 @@ console.log(`1e6 raw amounts (${(rawTimes.bytes / 1e6).toFixed(1)} MB) by a past
   `"${rawTimes.refusal.slice(0, 40)}..."): ${rawTimes.pasteMs.toFixed(0)} ms`);
 console.log(`1e6 raw amounts, "Read as" first digits: parse, tally and Benford test in the frame that re-reads the ` +
   `paste, ${rereadFrame.toFixed(0)} ms (target 300 ms); ${rawN} digits tallied into ${rawResult.observed.length} categories`);
+for (const line of exactTimes) console.log(`exact p in the page, ${line}`);
+console.log(`screen of 10,000 groups x 10 categories (${(screenMs.bytes / 1e6).toFixed(2)} MB long table) by paste: ` +
+  `${screenMs.ms.toFixed(0)} ms from the paste call to the screen's report${screenMs.ok ? '' : ' (THE SCREEN DID NOT OPEN)'}`);
 console.log(`network requests attempted: ${requests}`);
 await browser.close();
