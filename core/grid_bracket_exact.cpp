@@ -289,7 +289,13 @@ Status grid_bracket_start(const OutcomeScores& sc, const GridBracketOptions& opt
     }
     st->h = span / kInitialCells;
     const double unit = pearson_lattice_unit(sc);
-    if (unit > 0 && span / unit <= 4e6) {
+    // The lattice closes the bracket in one round, but that round is not bounded by max_work as the
+    // refinements are: taken only when its estimated state updates (cells x categories x the count
+    // pairs of a level) fit the budget; otherwise the grid brackets p within it (a 6 s lattice run
+    // at k = 10, N = 50 with shares 1..10 had been chosen for a 1 s budget).
+    const double lattice_work = span / std::max(unit, 1e-300) * static_cast<double>(sc.shares.size()) *
+                                (sc.n + 1.0) * (sc.n + 2.0) / 2;
+    if (unit > 0 && span / unit <= 4e6 && lattice_work <= options.max_work) {
         st->lattice = true;
         st->h = unit;
     }

@@ -96,6 +96,9 @@ void start(AppState& s, GroupedCounts counts, const ScreenChoice& choice) {
     v.opened = -1;
     v.offered = false;
     s.analysis.merge = MergeChoice{};
+    // Each group by the asymptotic p-value (a thin group still gets an exact or simulated one,
+    // screen_groups): an exact p for each of thousands of groups would hold the page for seconds.
+    s.analysis.pvalue.method = PValueMethod::asymptotic;
     share_categories(v.counts, &s.analysis);
     s.analysis.observed = pooled(v.counts);
     s.demo_index = -1;

@@ -101,7 +101,9 @@ for (const [k, shares] of [[10, false], [30, false], [100, false], [10, true], [
 }
 
 // Screening 10,000 groups of 10 categories pasted as a 100,000-row long table (issue 12): from the
-// paste to the screen's report, in one task (not sliced).
+// paste to the screen's report, in one task (not sliced). From an example's settings (asymptotic).
+await page.evaluate(() => globalThis.tallyproofPage.loadDemo(0));
+await page.waitForTimeout(200);
 const screenMs = await page.evaluate(async () => {
   let seed = 7;
   const rnd = () => { seed = (Math.imul(seed, 1103515245) + 12345) >>> 0; return seed / 4294967296; };
