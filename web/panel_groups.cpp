@@ -33,7 +33,7 @@ void draw_screen_settings(AppState& s, const Theme& t) {
     bool changed = false;
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("Each group against");
-    ImGui::SameLine();
+    flow_next(radio_width("the expected mix"));
     int against = c.against == ScreenAgainst::rest ? 1 : 0;
     changed |= ImGui::RadioButton("the expected mix", &against, 0);
     mark_widget("against the model");

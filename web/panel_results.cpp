@@ -21,12 +21,6 @@
 namespace tallyproof::web {
 namespace {
 
-void coloured_wrapped(ImU32 colour, const char* text) {
-    ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(colour));
-    wrapped_text(text);
-    ImGui::PopStyleColor();
-}
-
 const double kWMin = 0.02, kWMax = 1.0, kPowerMin = 0.5, kPowerMax = 0.99;
 
 std::string p_line(const Result& r) {
@@ -64,10 +58,10 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
     }
     ImGui::PushFont(t.strong);
     if (r.conformity && r.conformity->status.ok)  // the goal is conformity: its verdict leads
-        coloured_wrapped(r.conformity->conforms ? t.accent : t.warn_ink, conformity_verdict(r).c_str());
-    else coloured_wrapped(r.reject ? t.warn_ink : t.accent, verdict_sentence(r).c_str());
+        coloured_text(r.conformity->conforms ? t.accent : t.warn_ink, conformity_verdict(r).c_str());
+    else coloured_text(r.reject ? t.warn_ink : t.accent, verdict_sentence(r).c_str());
     ImGui::PopFont();
-    if (r.conformity && !r.conformity->status.ok) coloured_wrapped(t.warn_ink, conformity_verdict(r).c_str());
+    if (r.conformity && !r.conformity->status.ok) coloured_text(t.warn_ink, conformity_verdict(r).c_str());
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
     if (r.conformity && r.conformity->status.ok) {
         const ConformityResult& c = *r.conformity;
@@ -143,9 +137,9 @@ void draw_validity_panel(AppState& s, const Theme& t) {
         h += ImGui::GetFrameHeightWithSpacing() * static_cast<float>(lines);
     }
     ImGui::BeginChild("validity", ImVec2(0, h), true, ImGuiWindowFlags_NoScrollbar);
-    coloured_wrapped(ink, head.c_str());
+    coloured_text(ink, head.c_str());
     if (r.merged) {
-        coloured_wrapped(ink, r.merge_note.c_str());
+        coloured_text(ink, r.merge_note.c_str());
     }
     if (buttons) {
         if (!ok && s.analysis.merge.rule == MergeRule::none) {
@@ -171,7 +165,7 @@ void draw_categories_table(AppState& s, const Theme& t) {
     const Result& r = s.result;
     const auto& cats = r.diagnostics.categories;
     if (cats.empty()) { muted_wrapped(t, "No per-category diagnostics for this analysis."); return; }
-    coloured_wrapped(r.diagnostics.drivers.empty() ? t.muted : t.ink, r.diagnostics.summary.c_str());
+    coloured_text(r.diagnostics.drivers.empty() ? t.muted : t.ink, r.diagnostics.summary.c_str());
     // Too narrow for eight columns (a phone): each column keeps the width of its contents and the
     // table scrolls sideways under a finger, the category column staying in view.
     const bool narrow = ImGui::GetContentRegionAvail().x < 36 * ImGui::GetFontSize();

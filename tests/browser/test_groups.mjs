@@ -70,6 +70,38 @@ export const tests = {
     });
   },
 
+  async 'phones: the Groups view, its table and its chart stay inside the screen'() {
+    for (const [width, height] of [[360, 640], [390, 844]]) {
+      await withPage({ viewport: { width, height }, hasTouch: true, isMobile: true, deviceScaleFactor: 2 }, async (page) => {
+        await pasteText(page, longTable());
+        await page.waitForFunction(() => document.getElementById('tp-results').textContent.includes('of 12 groups depart'), null, { timeout: 15000 });
+        await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['Read as one sample'], null, { timeout: 5000 });
+        await screenshot(page, `groups-phone-${width}`);
+        // The groups table scrolls sideways on a phone (its cells beyond the edge are clipped, by
+        // design, as in "Where it differs"); every other control must lie inside the screen.
+        const past = (w) => Object.entries(w).filter(([n, r]) => !/^group (head|row) /.test(n) && (r.x < -0.5 || r.x + r.w > width + 0.5)).map(([n]) => n);
+        const widgets = await page.evaluate(() => globalThis.tallyproofPage.widgets);
+        for (const n of ['Read as one sample', 'screen q', 'group shape', 'Copy summary', 'Download groups table', 'Groups table', 'Funnel chart'])
+          assert(widgets[n], `${width}x${height}: ${n} not shown`);
+        assert(past(widgets).length === 0, `${width}x${height}: past the edge: ${past(widgets).join('; ')}`);
+        assert(widgets['Read as one sample'].h >= 43.5, `${width}: a 44 px target on touch (${widgets['Read as one sample'].h})`);
+        await page.mouse.move(width / 2, height * 0.7);  // the results scroll under a finger (here the wheel) to the tabs
+        for (let i = 0; i < 16; i++) {
+          const tab = await page.evaluate(() => globalThis.tallyproofPage.widgets['Funnel chart']);
+          if (tab.y > 60 && tab.y < height - 120) break;
+          await page.mouse.wheel(0, 240);
+          await page.waitForTimeout(150);
+        }
+        await clickWidget(page, 'Funnel chart');
+        await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['funnel chart'], null, { timeout: 5000 });
+        await screenshot(page, `groups-phone-${width}-funnel`);
+        const after = await page.evaluate(() => globalThis.tallyproofPage.widgets);
+        assert(past(after).length === 0, `${width}x${height} funnel: past the edge: ${past(after).join('; ')}`);
+        assert(after['funnel chart'].w >= width * 0.6, `the chart takes the width: ${after['funnel chart'].w}`);
+      });
+    }
+  },
+
   async 'the form view shows the same screen: sort with a column button, open a group by name, back'() {
     await withPage({}, async (page) => {
       await pasteText(page, longTable());
