@@ -37,7 +37,7 @@ Status category_diagnostics(const std::vector<std::string>& labels, const std::v
                                std::to_string(expected.size()) + " expected counts and " +
                                std::to_string(labels.size()) + " labels; they must match.");
     if (!(options.alpha > 0 && options.alpha < 1))
-        return Status::failure("The significance level alpha must lie between 0 and 1.");
+        return Status::failure("The significance level α must lie between 0 and 1.");
     double n = 0, e_total = 0;
     for (std::size_t i = 0; i < k; ++i) {
         const double o = observed[i], e = expected[i];
@@ -94,9 +94,9 @@ Status category_diagnostics(const std::vector<std::string>& labels, const std::v
     // kMaxSisonGlazTotal only Goodman's intervals are given, so every analysis stays bounded in time.
     std::vector<ProportionInterval> goodman, sison;
     const bool alpha_usable = options.alpha >= kMinIntervalAlpha;
-    Status gm = Status::failure("the significance level " + format_significant(options.alpha, 3) +
+    Status gm = Status::failure("the significance level α = " + format_significant(options.alpha, 3) +
                                 " is below " + format_significant(kMinIntervalAlpha, 1) +
-                                ", where 1 - alpha cannot be held in double precision; choose a larger alpha for intervals.");
+                                ", where 1 − α cannot be held in double precision; choose a larger α for intervals.");
     if (alpha_usable) gm = goodman_intervals(observed, 1 - options.alpha, &goodman);
     if (!gm.ok) r.warnings.push_back("Simultaneous intervals are not available: " + gm.message);
     Status sg = gm;

@@ -33,7 +33,7 @@ double log10_lower_tail_mixture(double x, double df, double lambda) {
 Status check_common(double n, double df, double alpha, double margin_w) {
     if (!(margin_w > 0 && margin_w <= 1))
         return Status::failure("The conformity margin w0 = " + format_plain(margin_w) + " must lie in (0, 1]; Cohen's w of 0.1 is a small departure.");
-    if (!(alpha > 0 && alpha < 1)) return Status::failure("The significance level alpha must lie between 0 and 1.");
+    if (!(alpha > 0 && alpha < 1)) return Status::failure("The significance level α must lie between 0 and 1.");
     if (!(df >= 1) || std::isinf(df)) return Status::failure("Conformity needs at least one degree of freedom.");
     if (!(n > 0) || std::isinf(n)) return Status::failure("Conformity needs a positive sample size N.");
     return Status::success();

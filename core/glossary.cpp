@@ -35,14 +35,14 @@ const std::vector<GlossaryEntry> kEntries = {
                "because every category is tested at once. Adjusted p-values are capped at 1, which means no evidence "
                "against this category."},
     {"◆", "Marks a category that drives the result: its Holm-adjusted p is below α."},
-    {"G²", "Likelihood-ratio statistic, 2 Σ O ln(O/E): an alternative to χ² (λ = 0 in the power-divergence family), "
+    {"G²", "Likelihood ratio G², 2 Σ O ln(O/E): an alternative to χ² (λ = 0 in the power-divergence family), "
            "compared with the same chi-square distribution."},
-    {"T²", "Freeman-Tukey statistic: λ = −1/2 in the power-divergence family."},
-    {"GM²", "Modified likelihood-ratio statistic, 2 Σ E ln(E/O): λ = −1 in the power-divergence family."},
-    {"NM²", "Neyman's modified chi-square statistic, Σ (O − E)²/O: λ = −2 in the power-divergence family."},
-    {"CR", "The Cressie-Read power-divergence statistic at the chosen λ (Cressie and Read recommend λ = 2/3)."},
-    {"λ", "Lambda picks one statistic of the power-divergence family: λ = 1 is Pearson's χ², 0 the likelihood ratio G², "
-          "2/3 the Cressie-Read statistic. All of them are compared with the same chi-square distribution."},
+    {"T²", "Freeman-Tukey T², 4 Σ (√O − √E)²: λ = −1/2 in the power-divergence family."},
+    {"GM²", "Modified likelihood ratio GM², 2 Σ E ln(E/O): λ = −1 in the power-divergence family."},
+    {"NM²", "Neyman NM², Σ (O − E)²/O (Neyman's modified chi-square): λ = −2 in the power-divergence family."},
+    {"CR", "Cressie-Read CR: the power-divergence statistic at the chosen λ (Cressie and Read recommend λ = 2/3)."},
+    {"λ", "Lambda picks one statistic of the power-divergence family: λ = 1 is Pearson χ², 0 the likelihood ratio G², "
+          "2/3 Cressie-Read CR, −1/2 Freeman-Tukey T², −1 the modified likelihood ratio GM², −2 Neyman NM². All of them are compared with the same chi-square distribution."},
     {"w", "Effect size w: how far the true mix seems to lie from the stated one, on Cohen's scale (0.1 small, 0.3 medium, "
           "0.5 large). It is estimated from the noncentrality, √(max(0, χ² − df)/N), so counts that fit as well as "
           "chance allows give 0."},

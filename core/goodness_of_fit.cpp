@@ -32,9 +32,9 @@ Result refuse(std::string message, int line = 0) {
 std::string statistic_name(double lambda, bool williams) {
     const std::string named = power_lambda_name(lambda);
     if (lambda == 1) return "Pearson χ²";
-    if (lambda == 0) return williams ? "G² (likelihood ratio, Williams-corrected)" : "G² (likelihood ratio)";
-    if (!named.empty()) return named + " (power divergence, λ = " + format_significant(lambda, 3) + ")";
-    return "power divergence, λ = " + format_significant(lambda, 4);
+    if (lambda == 0) return williams ? "likelihood ratio G² (Williams-corrected)" : "likelihood ratio G²";
+    if (!named.empty()) return named + " (power divergence, λ = " + lambda_value_text(lambda) + ")";
+    return "power divergence, λ = " + lambda_value_text(lambda);
 }
 
 // Labels of merged whole-number cells from their integer ranges ("2 or more", "3–4").
@@ -73,7 +73,7 @@ void add_plan(const Analysis& a, double n, Result* r) {
     pl.power = gof_power(pl.w, pl.n, pl.alpha, pl.df);
     pl.status = gof_sample_size(pl.w, pl.target_power, pl.alpha, pl.df, &pl.n_required);
     if (!pl.status.ok) pl.n_required = NAN;
-    if (std::isnan(pl.power)) pl.status = Status::failure("Power needs w > 0, N > 0, 0 < alpha < 1 and df >= 1.");
+    if (std::isnan(pl.power)) pl.status = Status::failure("Power needs w > 0, N > 0, 0 < α < 1 and df ≥ 1.");
 }
 
 }  // namespace
@@ -84,7 +84,7 @@ Result analyse(const Analysis& a) {
     if (a.categories.size() != k)
         return refuse("There are " + std::to_string(a.categories.size()) + " labels but " + std::to_string(k) + " counts.");
     if (k < 2) return refuse("Only one category (\"" + a.categories[0] + "\"): a goodness-of-fit test needs at least two.");
-    if (!(a.alpha > 0 && a.alpha < 1)) return refuse("The significance level alpha must lie between 0 and 1.");
+    if (!(a.alpha > 0 && a.alpha < 1)) return refuse("The significance level α must lie between 0 and 1.");
     if (!std::isfinite(a.statistic.lambda)) return refuse("The power-divergence λ must be a finite number.");
 
     Result r;

@@ -30,22 +30,27 @@ double centred_term(double o, double e, double lambda) {
 
 std::string lambda_text(double lambda) {
     const char* name = power_lambda_name(lambda);
-    char buf[80];
-    if (*name) std::snprintf(buf, sizeof buf, "λ = %g (%s)", lambda, name);
-    else std::snprintf(buf, sizeof buf, "λ = %g", lambda);
-    return buf;
+    return "λ = " + lambda_value_text(lambda) + (*name ? std::string(" (") + name + ")" : std::string());
 }
 
 }  // namespace
 
 const char* power_lambda_name(double lambda) {
-    if (lambda == power_lambda::pearson) return "Pearson";
-    if (lambda == power_lambda::log_likelihood) return "log-likelihood G²";
-    if (lambda == power_lambda::freeman_tukey) return "Freeman-Tukey";
-    if (lambda == power_lambda::mod_log_likelihood) return "modified log-likelihood";
-    if (lambda == power_lambda::neyman) return "Neyman";
-    if (lambda == power_lambda::cressie_read) return "Cressie-Read";
+    if (lambda == power_lambda::pearson) return "Pearson χ²";
+    if (lambda == power_lambda::log_likelihood) return "likelihood ratio G²";
+    if (lambda == power_lambda::freeman_tukey) return "Freeman-Tukey T²";
+    if (lambda == power_lambda::mod_log_likelihood) return "modified likelihood ratio GM²";
+    if (lambda == power_lambda::neyman) return "Neyman NM²";
+    if (lambda == power_lambda::cressie_read) return "Cressie-Read CR";
     return "";
+}
+
+std::string lambda_value_text(double lambda) {
+    if (lambda == power_lambda::cressie_read) return "2/3";
+    if (lambda == power_lambda::freeman_tukey) return "−1/2";
+    char buf[40];
+    std::snprintf(buf, sizeof buf, "%.4g", std::fabs(lambda));
+    return (lambda < 0 ? "−" : "") + std::string(buf);  // a true minus sign, as the page's list writes it
 }
 
 double power_divergence_term(double o, double e, double lambda) {
@@ -70,7 +75,7 @@ Status power_divergence(const std::vector<double>& observed, const std::vector<d
     if (!std::isfinite(lambda))
         return Status::failure("The power-divergence parameter λ must be a finite number.");
     if (options.williams_correction && lambda != 0.0)
-        return Status::failure("Williams' correction applies to the log-likelihood statistic G² (λ = 0) only; "
+        return Status::failure("Williams' correction applies to the likelihood ratio G² (λ = 0) only; "
                                "here " + lambda_text(lambda) + ".");
     double n_obs = 0, n_exp = 0;
     std::size_t k_used = 0;

@@ -21,10 +21,16 @@ constexpr double neyman = -2.0;                // Neyman's modified X^2 = sum (O
 constexpr double cressie_read = 2.0 / 3.0;     // Cressie & Read's recommended compromise
 }  // namespace power_lambda
 
+// The one name each named statistic goes by on the page, in the report and in the glossary:
+// "Pearson χ²", "likelihood ratio G²", "Freeman-Tukey T²", "modified likelihood ratio GM²",
+// "Neyman NM²", "Cressie-Read CR"; "" for an unnamed lambda.
 const char* power_lambda_name(double lambda);
+// Lambda as the page's statistic list writes it: "2/3", "−1/2", "−1", "−2", else up to four
+// significant digits, negative values with a true minus sign.
+std::string lambda_value_text(double lambda);
 // The statistic's own symbol: "χ²" (Pearson), "G²" (likelihood ratio), "T²" (Freeman-Tukey),
 // "GM²" (modified likelihood ratio), "NM²" (Neyman), "CR" (any other power-divergence lambda).
-std::string statistic_symbol(double lambda);  // "Pearson", ..., or "" for an unnamed lambda
+std::string statistic_symbol(double lambda);
 
 struct PowerDivergenceOptions {
     double lambda = power_lambda::pearson;

@@ -100,7 +100,7 @@ struct Result {
     CategoryDiagnostics diagnostics;        // residuals, per-cell binomial p, intervals, drivers
 
     // Statistic and p-values
-    std::string statistic_name;             // "Pearson X²", "G² (likelihood ratio)", ...
+    std::string statistic_name;             // "Pearson χ²", "likelihood ratio G²", ...
     std::string statistic_symbol;           // statistic_symbol(lambda): "χ²", "G²", "T²", "GM²", "NM²", "CR"
     double lambda = 1;
     double williams_q = 1;

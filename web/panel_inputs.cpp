@@ -54,10 +54,10 @@ struct LambdaChoice { double lambda; const char* label; };
 constexpr LambdaChoice kLambdas[] = {
     {1.0, "Pearson χ² (λ = 1)"},
     {0.0, "Likelihood ratio G² (λ = 0)"},
-    {2.0 / 3.0, "Cressie-Read (λ = 2/3)"},
-    {-0.5, "Freeman-Tukey (λ = −1/2)"},
-    {-1.0, "Modified G² (λ = −1)"},
-    {-2.0, "Neyman (λ = −2)"},
+    {2.0 / 3.0, "Cressie-Read CR (λ = 2/3)"},
+    {-0.5, "Freeman-Tukey T² (λ = −1/2)"},
+    {-1.0, "Modified likelihood ratio GM² (λ = −1)"},
+    {-2.0, "Neyman NM² (λ = −2)"},
 };
 
 bool parse_count_cell(const std::string& text, double* v) {
@@ -564,7 +564,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("Merge");
     ImGui::SameLine(74);
-    const char* rules[] = {"no merging", "until all expected ≥ 5", "until Cochran's rule holds", "until all expected ≥ minimum"};
+    const char* rules[] = {"no merging", "until every expected count is at least 5", "until Cochran's rule holds", "until every expected count reaches a minimum"};
     int rule = static_cast<int>(a.merge.rule);
     ImGui::SetNextItemWidth(-1);
     const bool merge_open = ImGui::BeginCombo("##merge", rules[rule]);  // not ImGui::Combo: its items would sit closer than 44 px on touch

@@ -259,7 +259,7 @@ export const tests = {
       await tap(page, 'merge rule');
       await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['until Cochran\'s rule holds'], null, { timeout: 5000 });
       const open = await page.evaluate(() => globalThis.tallyproofPage.widgets);
-      for (const item of ['no merging', 'until all expected ≥ 5', 'until Cochran\'s rule holds', 'until all expected ≥ minimum'])
+      for (const item of ['no merging', 'until every expected count is at least 5', 'until Cochran\'s rule holds', 'until every expected count reaches a minimum'])
         assert(open[item] && open[item].h >= 44 - 0.5, `merge rule item ${item} is ${open[item]?.h?.toFixed(1)} px tall`);
       await screenshot(page, 'devices-phone-merge-rules');
     });

@@ -89,7 +89,7 @@ export const tests = {
       assert(seen.has('Download analysis (JSON)') && seen.has('Download table (CSV)') && seen.has('Print or save as PDF'), `menu walked: ${[...seen].join(', ')}`);
       await page.keyboard.press('Escape');
       await clickWidget(page, 'statistic');
-      await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['Neyman (λ = −2)'], null, { timeout: 5000 });
+      await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['Neyman NM² (λ = −2)'], null, { timeout: 5000 });
       await walkCanvas(page, seen);
       assert(seen.has('Likelihood ratio G² (λ = 0)') && seen.has('statistic'), `statistic list walked: ${[...seen].join(', ')}`);
       await page.keyboard.press('Escape');

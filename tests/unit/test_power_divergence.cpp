@@ -111,7 +111,12 @@ TEST_CASE("closed forms of named members") {
     // Continuity at the limits lambda -> 0 and -1 (Cressie & Read 1984, section 2): within ~|lambda| * stat.
     CHECK(run(obs, exp, 1e-12).statistic == doctest::Approx(g2).epsilon(1e-10));
     CHECK(run(obs, exp, -1 + 1e-12).statistic == doctest::Approx(kl).epsilon(1e-10));
-    CHECK(std::string(power_lambda_name(2.0 / 3)) == "Cressie-Read");
+    CHECK(std::string(power_lambda_name(2.0 / 3)) == "Cressie-Read CR");
+    CHECK(std::string(power_lambda_name(-1)) == "modified likelihood ratio GM²");
+    CHECK(lambda_value_text(-0.5) == "−1/2");
+    CHECK(lambda_value_text(2.0 / 3) == "2/3");
+    CHECK(lambda_value_text(-2) == "−2");
+    CHECK(lambda_value_text(0.3) == "0.3");
     CHECK(std::string(power_lambda_name(0.3)).empty());
 }
 

@@ -164,7 +164,7 @@ TEST_CASE("properties: random analyses meet every invariant") {
             // Poisson fit on too few cells, no df left, or no observations at all.
             const std::string& m = r.status.message;
             CAPTURE(m);
-            CHECK((m.find("has an observed count of 0: with λ = -") != std::string::npos ||
+            CHECK((m.find("has an observed count of 0: with λ = −") != std::string::npos ||
                    m.find("Merging cannot satisfy") != std::string::npos ||
                    m.find("estimates 1 parameter(s)") != std::string::npos ||
                    m.find("No degrees of freedom are left") != std::string::npos ||
