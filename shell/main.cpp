@@ -12,7 +12,7 @@
 
 #include "analysis_document.hpp"
 #include "glossary.hpp"
-#include "group_screen.hpp"
+#include "screen_groups.hpp"
 #include "grouped_table.hpp"
 #include "paste_parser.hpp"
 #include "pasted_analysis.hpp"

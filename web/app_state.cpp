@@ -18,7 +18,7 @@
 #include "table_export.hpp"
 #include "demo_library.hpp"
 #include "goodness_of_fit.hpp"
-#include "noncentral_density_curve.hpp"
+#include "noncentral_chi_square_density_curve.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "paste_parser.hpp"

@@ -8,7 +8,7 @@
 #include <vector>
 
 #include "analysis.hpp"
-#include "density_curve.hpp"
+#include "chi_square_density_curve.hpp"
 #include "groups_state.hpp"
 #include "paste_parser.hpp"
 #include "pvalue_job.hpp"

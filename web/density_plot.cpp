@@ -12,7 +12,7 @@
 #include "axis_ticks.hpp"
 #include "chi_square_tail.hpp"
 #include "noncentral_chi_square.hpp"
-#include "noncentral_density_curve.hpp"
+#include "noncentral_chi_square_density_curve.hpp"
 #include "number_format.hpp"
 
 namespace tallyproof::web {

@@ -3,7 +3,7 @@
 #pragma once
 #include <imgui.h>
 
-#include "density_curve.hpp"
+#include "chi_square_density_curve.hpp"
 #include "result.hpp"
 #include "theme.hpp"
 

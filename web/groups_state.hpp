@@ -7,7 +7,7 @@
 #include <vector>
 
 #include "analysis.hpp"
-#include "group_screen.hpp"
+#include "screen_groups.hpp"
 #include "grouped_table.hpp"
 #include "screen_funnel.hpp"
 

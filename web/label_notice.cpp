@@ -1,4 +1,4 @@
-// Draws the look-alike labels notice; the groups come from the Result (core/label_text.hpp) and
+// Draws the look-alike labels notice; the groups come from the Result (core/text/label_text.hpp) and
 // the merge is the AppState transition merge_look_alike_labels.
 #include "label_notice.hpp"
 

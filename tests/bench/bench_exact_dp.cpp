@@ -6,9 +6,9 @@
 #include <cstdio>
 #include <vector>
 
-#include "equal_shares_exact.hpp"
+#include "exact_equal_shares.hpp"
 #include "exact_multinomial.hpp"
-#include "grid_bracket_exact.hpp"
+#include "exact_grid_bracket.hpp"
 
 using namespace tallyproof;
 

@@ -1,6 +1,6 @@
 // Benchmark (not a test): times the Monte Carlo and exact p-values against their targets.
-// Build by hand: g++ -std=c++17 -O2 -I core tests/bench/bench_pvalues.cpp core/monte_carlo.cpp
-//   core/random.cpp core/exact_multinomial.cpp core/power_divergence.cpp -o bench_pvalues
+// Build by hand: g++ -std=c++17 -O2 -I core tests/bench/bench_pvalues.cpp core/exact/monte_carlo.cpp
+//   core/numerics/random.cpp core/exact/exact_multinomial.cpp core/statistics/power_divergence.cpp -o bench_pvalues
 // Run `bench_pvalues --verify` to also enumerate all 96.5 million N = 100, k = 6 outcomes plainly.
 #include <chrono>
 #include <cmath>

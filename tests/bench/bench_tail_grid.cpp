@@ -1,7 +1,7 @@
 // Benchmark helper (not a test): prints Tallyproof's chi-square upper tail p and log10 p for every
 // (df, x) row of a grid file, for tests/bench/tail_accuracy.py to compare with mpmath (50 digits),
 // R and SciPy. Build: g++ -std=c++17 -O2 -I core tests/bench/bench_tail_grid.cpp
-//   core/chi_square_tail.cpp core/log_incomplete_gamma.cpp -o bench_tail_grid
+//   core/numerics/chi_square_tail.cpp core/numerics/log_incomplete_gamma.cpp -o bench_tail_grid
 // Usage: bench_tail_grid GRID.csv   (rows "df,x,..."; lines starting with # or "df" are skipped)
 #include <chrono>
 #include <cstdio>

@@ -1,7 +1,7 @@
 // Benchmark (not a test): worst relative error of the chi-square tails against the 50-digit
 // mpmath grid tests/reference/chi_square_tails.csv, next to Boost 1.74's gamma_q / gamma_p, and
 // evaluation speed. Build: g++ -std=c++17 -O2 -Icore -DTALLYPROOF_REFERENCE_DIR=\"$PWD/tests/reference\"
-//   tests/bench/bench_tails.cpp core/chi_square_tail.cpp core/log_incomplete_gamma.cpp -o /tmp/bench_tails
+//   tests/bench/bench_tails.cpp core/numerics/chi_square_tail.cpp core/numerics/log_incomplete_gamma.cpp -o /tmp/bench_tails
 #include <algorithm>
 #include <chrono>
 #include <cmath>

@@ -1,7 +1,7 @@
 #!/usr/bin/python3
 """Independent NumPy reference for bench_exact_dp: the exact p-value of Pearson's X^2 against
 equal shares (N balls into k equally likely cells), by dynamic programming. Not a port of
-core/equal_shares_exact.cpp; written from the maths below.
+core/exact/exact_equal_shares.cpp; written from the maths below.
 
 With equal shares e = N/k, X^2 = sum (x_i - e)^2 / e = (k/N) S - N with S = sum x_i^2, an integer,
 so p = P(X^2 >= X^2_obs) = P(S >= S_obs): only the sum of squares matters.

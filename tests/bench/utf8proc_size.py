@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""What utf8proc (label normalisation, core/label_text.cpp) costs the single HTML file: compiles
+"""What utf8proc (label normalisation, core/text/label_text.cpp) costs the single HTML file: compiles
 its one C file for WebAssembly as the page does (emcc -Oz, without LTO so the object can be read),
 prints the object's code and data (Unicode tables) section sizes, and what those bytes become in
 the page (gzip -9 then base64, as web/assemble_page.py packs the module), beside the page's size.

@@ -408,7 +408,7 @@ w("## What utf8proc adds to the single file")
 w("")
 size_txt = read("utf8proc_size.txt")
 if size_txt:
-    w("Labels are normalised to Unicode NFC by utf8proc (core/label_text.cpp), compiled for the page from")
+    w("Labels are normalised to Unicode NFC by utf8proc (core/text/label_text.cpp), compiled for the page from")
     w("Debian's source package; `tests/bench/utf8proc_size.py` compiles it alone as the page does and packs")
     w("its bytes as `web/assemble_page.py` packs the module, in the same run:")
     fenced(size_txt)

@@ -3,8 +3,8 @@
 // refused or decode to a document that re-encodes and decodes to the same bytes, without crash,
 // leak, undefined behaviour or hang. Build (from the repository root):
 //   clang++-14 -g -O1 -fsanitize=fuzzer,address,undefined -fno-sanitize-recover=undefined -std=c++17 -I core \
-//     tests/fuzz/fuzz_share_link.cpp core/share_link.cpp core/analysis_document.cpp core/json_reader.cpp \
-//     core/json_writer.cpp core/analysis.cpp core/merge_categories.cpp core/validity.cpp core/number_format.cpp -o fuzz_share_link
+//     tests/fuzz/fuzz_share_link.cpp core/output/share_link.cpp core/output/analysis_document.cpp core/text/json_reader.cpp \
+//     core/text/json_writer.cpp core/model/analysis.cpp core/model/merge_categories.cpp core/statistics/validity.cpp core/text/number_format.cpp -o fuzz_share_link
 #include <cstddef>
 #include <cstdint>
 #include <cstdlib>

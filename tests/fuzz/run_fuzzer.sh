@@ -12,23 +12,26 @@ CXX=${CXX:-clang++-14}
 mkdir -p "$OUT/corpus"
 case "$TARGET" in
   paste_parser)
-    SOURCES="paste_parser number_reading delimited_text table_shape previous_sample_header raw_observations binning equal_probability_bins analysis digit_extraction digit_laws number_format"
+    SOURCES="input/paste_parser input/parsed_input text/number_reading text/delimited_text input/table_shape input/previous_sample_header input/raw_observations input/binning input/equal_probability_bins model/analysis input/digit_extraction statistics/digit_laws text/number_format"
     SEEDS="$HERE/corpus_paste" ;;
   share_link)
     # the decoder reads the document back, so it links the whole core
-    SOURCES=$(cd "$ROOT/core" && ls *.cpp | sed 's/\.cpp$//')
+    SOURCES=$(cd "$ROOT/core" && ls */*.cpp | sed 's/\.cpp$//')
     SEEDS="$HERE/corpus_share_link" ;;
   *) echo "unknown target $TARGET" >&2; exit 2 ;;
 esac
 mkdir -p "$SEEDS"
 FILES=""
 for s in $SOURCES; do FILES="$FILES $ROOT/core/$s.cpp"; done
-# utf8proc (core/label_text.cpp), a C file from .ci/bootstrap's .cache, compiled as C
+# every layer folder of core/ on the include path (includes are bare file names)
+CORE_INCLUDES=""
+for d in "$ROOT"/core/*/; do CORE_INCLUDES="$CORE_INCLUDES -I ${d%/}"; done
+# utf8proc (core/text/label_text.cpp), a C file from .ci/bootstrap's .cache, compiled as C
 UTF8PROC="$ROOT/.cache/utf8proc"
 "${CC:-clang-14}" -O1 -g -fsanitize=fuzzer-no-link,address -DUTF8PROC_STATIC -c "$UTF8PROC/utf8proc.c" -o "$OUT/utf8proc.o"
 # shellcheck disable=SC2086
 "$CXX" -std=c++17 -O1 -g -fsanitize=fuzzer,address,undefined -fno-sanitize-recover=undefined -DUTF8PROC_STATIC \
-  -I "$ROOT/core" -I "$ROOT/build/native/core/generated" -isystem "$UTF8PROC" "$HERE/fuzz_$TARGET.cpp" $FILES "$OUT/utf8proc.o" -o "$OUT/fuzz_$TARGET"
+  $CORE_INCLUDES -I "$ROOT/build/native/core/generated" -isystem "$UTF8PROC" "$HERE/fuzz_$TARGET.cpp" $FILES "$OUT/utf8proc.o" -o "$OUT/fuzz_$TARGET"
 cd "$OUT"
 # The working corpus grows in $OUT/corpus; the starting corpus in the repository is only read.
 exec ./"fuzz_$TARGET" -max_total_time="$SECONDS_TO_RUN" -timeout=10 -rss_limit_mb=2048 -max_len=65536 \

@@ -13,7 +13,7 @@ ROOT=$(cd "$HERE/../.." && pwd)
 OUT=${OUT:-${TMPDIR:-/tmp}/tallyproof_fuzz_$TARGET}
 CXX=${CXX:-clang++-14}
 # KNOWN=skip (default) lets a run go past the two known defects of docs/robustness.md, so that it can
-# find others: Boost's signed overflow in non_central_chi_squared.hpp (core/noncentral_chi_square.cpp
+# find others: Boost's signed overflow in non_central_chi_squared.hpp (core/numerics/noncentral_chi_square.cpp
 # alone is compiled without the signed-overflow check; every other UB still halts) and the slow
 # effect-size interval at huge statistics (timeouts are counted, not fatal, through -fork=1).
 # KNOWN=stop: the first finding of any kind ends the run.
@@ -29,7 +29,9 @@ mkdir -p "$OUT/corpus" "$OUT/obj"
 # edit headers all day; after a header change that matters, rm -rf "$OUT/obj"). The version header
 # that report.cpp and screen_report.cpp include comes from the native build (build/native/core/generated).
 OBJS=""
-for src in "$ROOT"/core/*.cpp; do
+CORE_INCLUDES=""  # every layer folder of core/ (includes are bare file names)
+for d in "$ROOT"/core/*/; do CORE_INCLUDES="$CORE_INCLUDES -I ${d%/}"; done
+for src in "$ROOT"/core/*/*.cpp; do
   name=$(basename "$src" .cpp)
   obj="$OUT/obj/$name.o"
   extra=""
@@ -39,15 +41,15 @@ for src in "$ROOT"/core/*.cpp; do
   fi
   if [ ! -f "$obj" ] || [ "$src" -nt "$obj" ]; then
     # shellcheck disable=SC2086
-    "$CXX" $FLAGS $extra -DUTF8PROC_STATIC -I "$ROOT/core" -I "$ROOT/build/native/core/generated" -isystem "$ROOT/.cache/utf8proc" -c "$src" -o "$obj"
+    "$CXX" $FLAGS $extra -DUTF8PROC_STATIC $CORE_INCLUDES -I "$ROOT/build/native/core/generated" -isystem "$ROOT/.cache/utf8proc" -c "$src" -o "$obj"
   fi
   OBJS="$OBJS $obj"
 done
-# utf8proc (core/label_text.cpp), a C file from .ci/bootstrap's .cache, compiled as C
+# utf8proc (core/text/label_text.cpp), a C file from .ci/bootstrap's .cache, compiled as C
 "${CC:-clang-14}" -O1 -g -fsanitize=fuzzer-no-link,address -DUTF8PROC_STATIC -c "$ROOT/.cache/utf8proc/utf8proc.c" -o "$OUT/obj/utf8proc.o"
 OBJS="$OBJS $OUT/obj/utf8proc.o"
 # shellcheck disable=SC2086
-"$CXX" $FLAGS -fsanitize=fuzzer -I "$ROOT/core" "$HERE/fuzz_$TARGET.cpp" $OBJS -o "$OUT/fuzz_$TARGET"
+"$CXX" $FLAGS -fsanitize=fuzzer $CORE_INCLUDES "$HERE/fuzz_$TARGET.cpp" $OBJS -o "$OUT/fuzz_$TARGET"
 cd "$OUT"
 if [ "$KNOWN" = skip ]; then
   export UBSAN_OPTIONS="halt_on_error=1:print_stacktrace=1"

@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""Reference p-values for the exact two-sided binomial test (core/binomial_test.cpp).
+"""Reference p-values for the exact two-sided binomial test (core/statistics/binomial_test.cpp).
 
 Run: /usr/bin/python3 tests/reference/generate_binomial_test.py > tests/reference/binomial_test.csv
 Column p_value is R 4.2's binom.test(x, n, p)$p.value printed with %.17g (Rscript).

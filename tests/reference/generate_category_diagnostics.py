@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""Reference per-category diagnostics (core/category_diagnostics.cpp, core/multiplicity.cpp).
+"""Reference per-category diagnostics (core/statistics/category_diagnostics.cpp, core/statistics/multiplicity.cpp).
 
 Run: /usr/bin/python3 tests/reference/generate_category_diagnostics.py > tests/reference/category_diagnostics.csv
 Every number is from R 4.2 (Rscript), printed with %.17g, for x and p given as below:

@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""Reference values for screening many groups (core/group_screen.cpp).
+"""Reference values for screening many groups (core/screening/screen_groups.cpp).
 
 Run: /usr/bin/python3 tests/reference/generate_group_screen.py > tests/reference/group_screen.csv
 Per group, against the model: scipy.stats.chisquare(observed, expected) (statistic, p), with

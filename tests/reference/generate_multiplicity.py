@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""Reference multiplicity adjustments (core/multiplicity.cpp).
+"""Reference multiplicity adjustments (core/statistics/multiplicity.cpp).
 
 Run: /usr/bin/python3 tests/reference/generate_multiplicity.py > tests/reference/multiplicity.csv
 adjusted = R 4.2 p.adjust(p, method) for method in holm, bonferroni, BH, printed with %.17g;

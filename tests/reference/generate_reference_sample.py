@@ -43,7 +43,7 @@ print("# r_statistic, r_p, r_expected: R 4.2 chisq.test(m, correct = FALSE)$stat
 print("# w = sqrt(X2/N), w_estimate = sqrt(max(0, X2 - df)/N), N both samples; w_low, w_high: 95% interval from")
 print("# SciPy 1.10 ncx2.sf / ncx2.cdf roots by brentq (xtol 1e-14), sqrt(lambda/N).")
 print("# Lists are separated by ';'. Tolerance used by the test: 1e-10 relative (1e-12 absolute for residuals),")
-print("# 1e-7 relative on the interval ends (the roots' bisection tolerance in core/effect_size.cpp).")
+print("# 1e-7 relative on the interval ends (the roots' bisection tolerance in core/statistics/effect_size.cpp).")
 print("current,previous,statistic,p,expected,stdres,r_statistic,r_p,r_expected,w,w_estimate,w_low,w_high")
 for cur, prev in cases:
     stat, p, df, exp = chi2_contingency(np.array([cur, prev]), correction=False)

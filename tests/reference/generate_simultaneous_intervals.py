@@ -1,6 +1,6 @@
 #!/usr/bin/python3
 """Reference simultaneous confidence intervals for multinomial proportions
-(core/simultaneous_intervals.cpp).
+(core/statistics/simultaneous_intervals.cpp).
 
 Run: /usr/bin/python3 tests/reference/generate_simultaneous_intervals.py > tests/reference/simultaneous_intervals.csv
 

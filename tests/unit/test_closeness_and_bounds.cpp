@@ -24,7 +24,7 @@ Analysis equal_counts(std::vector<double> observed) {
 }
 
 // P(X2 <= x2_obs) summed over every outcome by brute force: nested counts, multinomial pmf from
-// lgamma, Pearson X2 written out (no code shared with core/exact_lower_tail).
+// lgamma, Pearson X2 written out (no code shared with core/exact/exact_lower_tail).
 double brute_force_lower(const std::vector<double>& observed, const std::vector<double>& shares) {
     const std::size_t k = observed.size();
     double n = 0, x2_obs = 0;

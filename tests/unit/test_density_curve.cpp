@@ -1,11 +1,11 @@
 // Density curve samples: values from the closed form of the df-2 density (exp(-x/2)/2) and
-// the chart range rules stated in core/density_curve.hpp.
+// the chart range rules stated in core/numerics/chi_square_density_curve.hpp.
 #include <doctest/doctest.h>
 
 #include <cmath>
 
 #include "chi_square_tail.hpp"
-#include "density_curve.hpp"
+#include "chi_square_density_curve.hpp"
 
 using namespace tallyproof;
 

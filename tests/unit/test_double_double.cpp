@@ -1,4 +1,4 @@
-// Double-double arithmetic (core/double_double.hpp) against mpmath. Every reference value is
+// Double-double arithmetic (core/base/double_double.hpp) against mpmath. Every reference value is
 // mpmath 1.2.1 at 50 digits, split into hi = the nearest double and lo = the nearest double to the
 // rest, for the exact double (or double-double) inputs shown.
 #include <doctest/doctest.h>

@@ -8,10 +8,10 @@
 #include <string>
 #include <vector>
 
-#include "equal_shares_exact.hpp"
+#include "exact_equal_shares.hpp"
 #include "exact_choice.hpp"
 #include "exact_multinomial.hpp"
-#include "grid_bracket_exact.hpp"
+#include "exact_grid_bracket.hpp"
 
 using namespace tallyproof;
 

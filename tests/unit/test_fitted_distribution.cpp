@@ -11,7 +11,7 @@
 
 #include "fit_binned_continuous.hpp"
 #include "fit_discrete.hpp"
-#include "fitted_distribution.hpp"
+#include "fit_distribution.hpp"
 
 using namespace tallyproof;
 

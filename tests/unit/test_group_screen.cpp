@@ -10,7 +10,7 @@
 #include <map>
 
 #include "goodness_of_fit.hpp"
-#include "group_screen.hpp"
+#include "screen_groups.hpp"
 #include "grouped_table.hpp"
 #include "pvalue_job.hpp"
 #include "screen_document.hpp"

@@ -1,4 +1,4 @@
-// Noncentral chi-square at very large noncentrality, where core/noncentral_chi_square switches to
+// Noncentral chi-square at very large noncentrality, where core/numerics/noncentral_chi_square switches to
 // the normal approximation (it must stay fast and close to the true tails).
 #include <doctest/doctest.h>
 

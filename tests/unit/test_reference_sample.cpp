@@ -11,7 +11,7 @@
 
 #include "analysis_document.hpp"
 #include "goodness_of_fit.hpp"
-#include "homogeneity_pvalues.hpp"
+#include "exact_homogeneity.hpp"
 #include "homogeneity_table.hpp"
 #include "pvalue_job.hpp"
 #include "reference_csv.hpp"

@@ -1,0 +1,293 @@
+// The goodness-of-fit analysis: null model, merging of thin cells on expected counts, the
+// power-divergence statistic (Cressie and Read 1984; Pearson 1900 for lambda = 1) referred to
+// chi2(k - 1 - m) in complement form, with validity (Cochran 1954), diagnostics (Haberman 1973),
+// effect sizes (Cohen 1988; Ben-Shachar et al. 2023) and power (Cohen 1988, ch. 7).
+#include "goodness_of_fit.hpp"
+
+#include <cmath>
+#include <cstdio>
+
+#include "fit_category_values.hpp"
+#include "conformity_analysis.hpp"
+#include "digit_laws.hpp"
+#include "exact_lower_tail.hpp"
+#include "mean_absolute_deviation.hpp"
+#include "label_text.hpp"
+#include "merge_categories.hpp"
+#include "null_model.hpp"
+#include "number_format.hpp"
+#include "power_analysis.hpp"
+#include "power_divergence.hpp"
+#include "reference_sample_analysis.hpp"
+
+namespace tallyproof {
+namespace {
+
+Result refuse(std::string message, int line = 0) {
+    Result r;
+    r.status = Status::failure(std::move(message), line);
+    return r;
+}
+
+std::string statistic_name(double lambda, bool williams) {
+    const std::string named = power_lambda_name(lambda);
+    if (lambda == 1) return "Pearson χ²";
+    if (lambda == 0) return williams ? "likelihood ratio G² (Williams-corrected)" : "likelihood ratio G²";
+    if (!named.empty()) return named + " (power divergence, λ = " + lambda_value_text(lambda) + ")";
+    return "power divergence, λ = " + lambda_value_text(lambda);
+}
+
+// Labels of merged whole-number cells from their integer ranges ("2 or more", "3–4").
+void relabel_integer_groups(const std::vector<std::string>& original, const std::vector<std::vector<std::size_t>>& groups,
+                            std::vector<std::string>* labels) {
+    std::vector<IntegerBin> bins;
+    if (!integer_bins_from_labels(original, &bins).ok) return;
+    for (std::size_t g = 0; g < groups.size() && g < labels->size(); ++g) {
+        if (groups[g].size() < 2) continue;
+        const double lo = bins[groups[g].front()].lo, hi = bins[groups[g].back()].hi;
+        if (std::isinf(hi)) (*labels)[g] = format_plain(lo) + " or more";
+        else if (std::isinf(lo)) (*labels)[g] = format_plain(hi) + " or fewer";
+        else (*labels)[g] = format_plain(lo) + "–" + format_plain(hi);
+    }
+}
+
+void add_cautions(const Analysis& a, Result* r) {
+    r->cautions.push_back("The test assumes independent observations from a random sample, and counts, not percentages or rates.");
+    if (model_is_digit_law(a.model.kind))
+        r->cautions.push_back("A digit test that fails is a reason to look closer, never proof of fabrication: many genuine "
+                              "data sets do not follow these laws (rounding, thresholds, assigned numbers, small ranges).");
+    r->cautions.push_back("Decisions that affect people or suppliers (rejecting a lot, questioning a source) should follow "
+                          "your local rules and professional review, not this test alone.");
+}
+
+// Planning: power and sample size (Cohen 1988, ch. 7; the same for a 2 x k table, with N both samples).
+void add_plan(const Analysis& a, double n, Result* r) {
+    if (!a.plan.requested) return;
+    PlanOutcome& pl = r->plan;
+    pl.requested = true;
+    pl.w = std::isfinite(a.plan.w) ? a.plan.w : r->effect.w;
+    pl.alpha = std::isfinite(a.plan.alpha) ? a.plan.alpha : a.alpha;
+    pl.df = std::isfinite(a.plan.df) ? a.plan.df : r->df;
+    pl.n = std::isfinite(a.plan.n) ? a.plan.n : n;
+    pl.target_power = std::isfinite(a.plan.target_power) ? a.plan.target_power : 0.8;
+    pl.power = gof_power(pl.w, pl.n, pl.alpha, pl.df);
+    pl.status = gof_sample_size(pl.w, pl.target_power, pl.alpha, pl.df, &pl.n_required);
+    if (!pl.status.ok) pl.n_required = NAN;
+    if (std::isnan(pl.power)) pl.status = Status::failure("Power needs w > 0, N > 0, 0 < α < 1 and df ≥ 1.");
+}
+
+}  // namespace
+
+Result analyse(const Analysis& a) {
+    const std::size_t k = a.observed.size();
+    if (k == 0) return refuse("There are no categories: paste lines of label and count.");
+    if (a.categories.size() != k)
+        return refuse("There are " + std::to_string(a.categories.size()) + " labels but " + std::to_string(k) + " counts.");
+    if (k < 2) return refuse("Only one category (\"" + a.categories[0] + "\"): a goodness-of-fit test needs at least two.");
+    if (!(a.alpha > 0 && a.alpha < 1)) return refuse("The significance level α must lie between 0 and 1.");
+    if (!std::isfinite(a.statistic.lambda)) return refuse("The power-divergence λ must be a finite number.");
+
+    Result r;
+    r.categories = a.categories;
+    r.look_alike_labels = look_alike_groups(a.categories);
+    if (!r.look_alike_labels.empty()) r.warnings.push_back(look_alike_warning(a.categories, r.look_alike_labels));
+    r.observed = a.observed;
+    r.alpha = a.alpha;
+    double n = 0;
+    for (std::size_t i = 0; i < k; ++i) {
+        const double o = a.observed[i];
+        if (!std::isfinite(o) || o < 0 || o != std::floor(o) || o >= 9007199254740992.0)
+            return refuse("The count for \"" + a.categories[i] + "\" must be a non-negative whole number.");
+        n += o;
+    }
+    if (n <= 0) return refuse("All counts are zero: there is nothing to test.");
+    r.n = n;
+    if (n > 9007199254740992.0)
+        r.warnings.push_back("The counts total more than 2^53 (about 9.007 × 10¹⁵): the total is held to 16 significant "
+                             "digits, so N = " + format_count(n) + " may differ from the exact sum in its last digits "
+                             "(the statistic and p-value are not affected at that precision).");
+    // Whole counts that total 100 are counts far more often than percentages (decimals, % signs
+    // and a percent header are caught where the paste is read): a quiet question, not a warning.
+    if (n == 100)
+        r.questions.push_back("The counts total 100: are they counts of items, not percentages? A test needs the counts.");
+
+    if (a.model.kind == ModelKind::reference_sample) {  // 2 x k homogeneity: core/analysis/reference_sample_analysis
+        analyse_reference_sample(a, &r);
+        if (!r.status.ok) return r;
+        r.statistic_name = statistic_name(a.statistic.lambda, false);
+        r.statistic_symbol = statistic_symbol(a.statistic.lambda);
+        add_plan(a, r.reference->n_total, &r);
+        add_conformity(a, &r);
+        add_cautions(a, &r);
+        return r;
+    }
+
+    // Null model and expected counts
+    NullModel model;
+    Status s = null_model(a, n, &model);
+    if (!s.ok) { r.status = s; return r; }
+    r.expected_shares = model.shares;
+    r.expected_counts.resize(k);
+    for (std::size_t i = 0; i < k; ++i) r.expected_counts[i] = n * model.shares[i];
+    r.model_description = model.description;
+    r.estimates = model.parameters;
+    r.estimated_parameters = model.estimated_parameters + a.extra_estimated_parameters;
+    r.warnings.insert(r.warnings.end(), model.warnings.begin(), model.warnings.end());
+
+    // Structural zeros: a category the model rules out must not be observed; if it is not, it is dropped.
+    std::vector<std::string> labels;
+    std::vector<double> obs, exp;
+    std::vector<std::size_t> kept;
+    for (std::size_t i = 0; i < k; ++i) {
+        if (!(r.expected_counts[i] > 0)) {
+            if (a.observed[i] > 0)
+                return refuse("Category \"" + a.categories[i] + "\" has an expected share of zero but was observed " +
+                              format_count(a.observed[i]) + " times: the stated mix rules it out.");
+            r.warnings.push_back("Category \"" + a.categories[i] + "\" has an expected share of zero and no observations; it is left out of the test.");
+            continue;
+        }
+        labels.push_back(a.categories[i]);
+        obs.push_back(a.observed[i]);
+        exp.push_back(r.expected_counts[i]);
+        kept.push_back(i);
+    }
+    if (labels.size() < 2) return refuse("Fewer than two categories have a positive expected share.");
+
+    s = check_validity(exp, &r.validity_before_merge);
+    if (!s.ok) { r.status = s; return r; }
+
+    // Merging of thin cells (expected counts only)
+    if (a.merge.rule != MergeRule::none) {
+        MergeOptions mo;
+        mo.rule = a.merge.rule;
+        mo.minimum = a.merge.minimum;
+        mo.ordered = a.ordered || model_is_fitted(a.model.kind) || model_is_digit_law(a.model.kind);
+        MergeResult mr;
+        s = merge_categories(labels, obs, exp, mo, &mr);
+        if (!s.ok) { r.status = s; return r; }
+        r.merged = mr.merged;
+        r.merge_note = mr.note;
+        for (const auto& g : mr.groups) {
+            std::vector<std::size_t> orig;
+            for (std::size_t j : g) orig.push_back(kept[j]);
+            r.merge_map.push_back(orig);
+        }
+        labels = mr.labels;
+        const bool whole_numbers = model_is_fitted(a.model.kind) && a.model.kind != ModelKind::normal &&
+                                   a.model.kind != ModelKind::lognormal && a.model.kind != ModelKind::exponential;
+        if (whole_numbers) relabel_integer_groups(a.categories, r.merge_map, &labels);
+        obs = mr.observed;
+        exp = mr.expected;
+    } else {
+        for (std::size_t j : kept) r.merge_map.push_back({j});
+    }
+    r.tested_categories = labels;
+    r.tested_observed = obs;
+    r.tested_expected = exp;
+    s = check_validity(exp, &r.validity);
+    if (!s.ok) { r.status = s; return r; }
+
+    // Statistic and asymptotic p-value
+    const double cells = static_cast<double>(labels.size());
+    r.df = cells - 1 - r.estimated_parameters;
+    if (r.df < 1)
+        return refuse("No degrees of freedom are left: " + format_count(cells) + " cells less 1 less " +
+                      std::to_string(r.estimated_parameters) + " estimated parameter(s) gives " + format_count(r.df) +
+                      ". Use more categories or give the parameters.");
+    PowerDivergenceOptions po;
+    po.lambda = a.statistic.lambda;
+    po.williams_correction = a.statistic.williams;
+    PowerDivergence pd;
+    s = power_divergence(obs, exp, po, &pd);
+    if (!s.ok) { r.status = s; return r; }
+    r.lambda = pd.lambda;
+    r.williams_q = pd.williams_q;
+    r.statistic = pd.statistic;
+    r.contributions = pd.contributions;
+    r.statistic_name = statistic_name(a.statistic.lambda, a.statistic.williams);
+    r.statistic_symbol = statistic_symbol(a.statistic.lambda);
+    r.upper = chi_square_upper_tail(r.statistic, r.df);
+    r.lower = chi_square_lower_tail(r.statistic, r.df);
+    r.critical_value = chi_square_critical_value(a.alpha, r.df);
+    r.method = PValueMethod::asymptotic;
+    r.p = r.upper;
+    r.reject = r.p.p <= a.alpha;
+    r.exact.requested = a.pvalue.method == PValueMethod::exact;
+    r.monte_carlo.requested = a.pvalue.method == PValueMethod::monte_carlo;
+
+    if (r.estimated_parameters > 0) {
+        r.df_range.lower_df = r.df;
+        r.df_range.upper_df = cells - 1 - model.estimated_parameters;
+        r.df_range.p_at_lower_df = r.upper;
+        if (a.extra_estimated_parameters > 0) {
+            r.df_range.shown = true;
+            r.df_range.p_at_upper_df = chi_square_upper_tail(r.statistic, r.df_range.upper_df);
+            r.df_range.note = "Parameters estimated from the raw data put the true p-value between the p at df " +
+                              format_count(r.df_range.lower_df) + " and at df " + format_count(r.df_range.upper_df) +
+                              " (Chernoff and Lehmann 1954).";
+        } else {
+            // Estimated from these grouped counts by maximum likelihood: df = k - 1 - m exactly
+            // (asymptotically); the range is shown for reference if they had come from raw data.
+            r.df_range.shown = true;
+            r.df_range.upper_df = cells - 1;
+            r.df_range.p_at_upper_df = chi_square_upper_tail(r.statistic, r.df_range.upper_df);
+            r.df_range.note = "The parameters were fitted to these grouped counts, so df = k − 1 − m = " + format_count(r.df) +
+                              ". Had they been estimated from the raw values, the p-value would lie between this and the p at df " +
+                              format_count(r.df_range.upper_df) + " (Chernoff and Lehmann 1954).";
+        }
+    }
+
+    // Diagnostics per tested cell
+    CategoryDiagnosticsOptions dopt;
+    dopt.alpha = a.alpha;
+    s = category_diagnostics(labels, obs, exp, dopt, &r.diagnostics);
+    if (!s.ok) r.warnings.push_back("Per-category diagnostics were not computed: " + s.message);
+    r.warnings.insert(r.warnings.end(), r.diagnostics.warnings.begin(), r.diagnostics.warnings.end());
+
+    // Effect sizes (95% intervals by inverting the noncentral chi-square)
+    r.effect.w = cohens_w(r.statistic, n);
+    r.effect.w_label = cohens_w_label(r.effect.w);
+    r.effect.estimate = noncentral_w(r.statistic, n, r.df);
+    r.effect.label = cohens_w_label(r.effect.estimate);
+    if (!cohens_w_interval(r.statistic, n, r.df, 0.95, &r.effect.w_interval).ok) r.effect.w_interval = {r.effect.w, NAN, NAN, 0.95};
+    r.effect.w_interval.estimate = r.effect.estimate;
+    double p_min = 1;
+    for (double e : exp) p_min = std::min(p_min, e / n);
+    if (p_min > 0 && p_min < 1) {
+        r.effect.fei_defined = true;
+        r.effect.fei = fei(r.statistic, n, p_min);
+        if (!fei_interval(r.statistic, n, r.df, p_min, 0.95, &r.effect.fei_interval).ok)
+            r.effect.fei_interval = {r.effect.fei, NAN, NAN, 0.95};
+    }
+    // A fit closer than chance allows (lower tail; Fisher's remark on Mendel's data is the classic case).
+    // At small N the chi-square lower tail is far off (X² = 0 at N = 15 has exact probability 0.053,
+    // chi2 gives 0), so the exact P(T <= statistic) decides there; otherwise it is named asymptotic.
+    r.exact_lower_computed = r.lambda > -1 && exact_lower_tail(obs, exp, r.lambda, &r.exact_lower).ok;
+    const TailProbability& closeness = r.exact_lower_computed ? r.exact_lower : r.lower;
+    if (closeness.p < 0.001 && r.df >= 2)
+        r.warnings.push_back(std::string("The counts sit closer to the stated mix than chance usually allows (") +
+                             (r.exact_lower_computed ? "exact" : "asymptotic") + " lower-tail p = " +
+                             format_probability(closeness) + "): check how the counts were recorded before relying on them.");
+    if (r.reject && r.effect.estimate < 0.1)
+        r.warnings.push_back("The departure is statistically significant but very small (w = " + format_fixed(r.effect.estimate, 3) +
+                             "): with N = " + format_count(n) + ", even a negligible difference is detected.");
+
+    add_plan(a, n, &r);
+
+    // Digit laws: mean absolute deviation with Nigrini's bands
+    DigitTest test;
+    if (digit_test_of(a.model.kind, &test) && !r.merged) {
+        const MeanAbsoluteDeviation mad = mean_absolute_deviation(a.observed, test);
+        if (mad.status.ok) {
+            r.digits.computed = true;
+            r.digits.mad = mad.mad;
+            r.digits.band = mad.band == Conformity::not_applicable ? "" : mad.label;
+        }
+    }
+
+    add_conformity(a, &r);
+    add_cautions(a, &r);
+    return r;
+}
+
+}  // namespace tallyproof

@@ -1,0 +1,481 @@
+// Reads grouped tables (long, wide, raw with a group column) into a groups x categories matrix.
+// Which column holds the groups: the one named by `by`, else the first. Which shape: a group
+// named on several lines means a long table (two further columns: category and count) or raw
+// values (one further column); every group on one line means a wide table. A first row whose
+// count cells are not numbers is a header row. Common practice for spreadsheet exports.
+#include "grouped_table.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <unordered_map>
+
+#include "paste_parser.hpp"  // parse_input
+#include "table_shape.hpp"  // TableRow, looks_numeric
+
+namespace tallyproof {
+namespace {
+
+constexpr double kMaxCount = 9007199254740992.0;  // 2^53
+
+std::string lower_ascii(std::string s) {
+    for (char& c : s)
+        if (c >= 'A' && c <= 'Z') c = static_cast<char>(c - 'A' + 'a');
+    return s;
+}
+
+void add_group_problem(GroupedCounts* out, int line, int column, const std::string& message) {
+    if (out->status.ok) out->status = Status::failure(message, line, column);
+    if (out->problems.size() < kMaxProblems) out->problems.push_back(CellProblem{line, column, message});
+}
+
+// The cell at 0-based `column` of a row, or "" when the row is shorter.
+const std::string& cell_at(const TableRow& row, std::size_t column) {
+    static const std::string empty;
+    return column < row.cells.size() ? row.cells[column] : empty;
+}
+
+// A count cell as a count, or a located problem (false).
+bool read_count(const std::string& cell, int line, int column, DecimalMark mark, GroupedCounts* out, double* count) {
+    const NumberReading n = read_number(cell, mark);
+    const char* fault = nullptr;
+    if (cell.empty()) fault = "the count cell is empty; expected a non-negative whole number.";
+    else if (!n.ok || n.percent) fault = " is not a count; expected a non-negative whole number.";
+    else if (n.negative && n.value != 0) fault = " is negative; counts must be non-negative whole numbers.";
+    else if (n.value != std::floor(n.value)) fault = " is not a whole number; counts must be whole numbers.";
+    else if (n.value >= kMaxCount) fault = " is too large; expected a count below 2^53.";
+    if (fault != nullptr) {
+        add_group_problem(out, line, column, cell_location(line, column) + (cell.empty() ? "" : quote_cell(cell)) + fault);
+        return false;
+    }
+    *count = n.value;
+    return true;
+}
+
+// Group names in first-seen order, with the line each first appears on.
+struct GroupIndex {
+    std::unordered_map<std::string, std::size_t> index;
+    std::size_t find_or_add(const std::string& name, int line, GroupedCounts* out) {
+        const auto [it, fresh] = index.emplace(name, out->groups.size());
+        if (fresh) { out->groups.push_back(name); out->group_lines.push_back(line); }
+        return it->second;
+    }
+};
+
+// The group cell of a data row, or a located problem when it is empty (false).
+bool group_cell(const TableRow& row, std::size_t column, GroupedCounts* out, std::string* name) {
+    *name = cell_at(row, column);
+    if (!name->empty()) {
+        if (!valid_utf8(*name)) *name = utf8_or_replacement(*name);
+        return true;
+    }
+    const int col = static_cast<int>(column) + 1;
+    if (column >= row.cells.size())  // a short row: the group column is missing, not empty
+        add_group_problem(out, row.line, col, cell_location(row.line, col) + "the row has only " + std::to_string(row.cells.size()) +
+                                                  (row.cells.size() == 1 ? " cell" : " cells") + ", so the group column (" +
+                                                  std::to_string(col) + ") is missing; every row needs the name of its group.");
+    else
+        add_group_problem(out, row.line, col, cell_location(row.line, col) + "the group cell is empty; every row needs the name of its group.");
+    return false;
+}
+
+bool whole_number_labels(const std::vector<std::string>& labels, std::vector<double>* values) {
+    values->clear();
+    for (const auto& s : labels) {
+        const NumberReading n = read_number(s, DecimalMark::point);
+        if (!n.ok || n.percent || n.value != std::floor(n.value)) return false;
+        values->push_back(n.value);
+    }
+    return true;
+}
+
+// Long table: group, category, count on every line (in the columns found by the caller).
+void read_long_rows(const std::vector<TableRow>& rows, std::size_t first, std::size_t group_col, std::size_t category_col,
+                    std::size_t count_col, DecimalMark mark, GroupedCounts* out) {
+    GroupIndex groups;
+    std::unordered_map<std::string, std::size_t> categories;
+    struct Cell { std::size_t group, category; double count; };
+    std::vector<Cell> cells;
+    cells.reserve(rows.size() - first);
+    std::size_t repeated = 0;
+    int first_repeat = 0;
+    for (std::size_t r = first; r < rows.size(); ++r) {
+        const TableRow& row = rows[r];
+        std::string name;
+        if (!group_cell(row, group_col, out, &name)) continue;
+        const std::string& label = cell_at(row, category_col);
+        if (label.empty()) {
+            const int col = static_cast<int>(category_col) + 1;
+            add_group_problem(out, row.line, col, cell_location(row.line, col) + "the category cell of group " + quote_cell(name) + " is empty.");
+            continue;
+        }
+        double count = 0;
+        if (!read_count(cell_at(row, count_col), row.line, static_cast<int>(count_col) + 1, mark, out, &count)) continue;
+        if (row.cells.size() > std::max({group_col, category_col, count_col}) + 1) {
+            const int col = static_cast<int>(std::max({group_col, category_col, count_col})) + 2;
+            add_group_problem(out, row.line, col, cell_location(row.line, col) + "found " + std::to_string(row.cells.size()) +
+                                                      " cells; expected group, category and count on every line.");
+            continue;
+        }
+        const std::size_t g = groups.find_or_add(name, row.line, out);
+        const auto [it, fresh] = categories.emplace(label, out->categories.size());
+        if (fresh) out->categories.push_back(label);
+        cells.push_back(Cell{g, it->second, count});
+        if (out->groups.size() > kMaxGroups || out->categories.size() > kMaxCategories) {
+            add_group_problem(out, row.line, 0, cell_location(row.line, 0) + "more than " + std::to_string(kMaxGroups) +
+                                                    " groups or " + std::to_string(kMaxCategories) + " categories; expected fewer.");
+            return;
+        }
+    }
+    if (!out->status.ok) return;
+    const std::size_t k = out->categories.size();
+    if (out->groups.size() * k > kMaxGroupCells) {
+        out->status = Status::failure(std::to_string(out->groups.size()) + " groups of " + std::to_string(k) +
+                                      " categories are more than " + std::to_string(kMaxGroupCells) + " cells; screen fewer at once.");
+        return;
+    }
+    // Whole-number categories (digits, scores) are put in numeric order.
+    std::vector<double> values;
+    std::vector<std::size_t> order(k);
+    for (std::size_t i = 0; i < k; ++i) order[i] = i;
+    if (whole_number_labels(out->categories, &values)) {
+        std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return values[a] < values[b]; });
+        out->ordered = true;
+    }
+    std::vector<std::size_t> position(k);
+    for (std::size_t i = 0; i < k; ++i) position[order[i]] = i;
+    std::vector<std::string> sorted(k);
+    for (std::size_t i = 0; i < k; ++i) sorted[position[i]] = out->categories[i];
+    out->categories = std::move(sorted);
+    out->counts.assign(out->groups.size() * k, 0.0);
+    std::vector<unsigned char> seen(out->groups.size() * k, 0);
+    for (std::size_t i = 0; i < cells.size(); ++i) {
+        const std::size_t at = cells[i].group * k + position[cells[i].category];
+        out->counts[at] += cells[i].count;
+        if (seen[at] && repeated++ == 0) first_repeat = rows[first + i].line;
+        seen[at] = 1;
+    }
+    std::size_t missing = 0, first_missing = 0;
+    for (std::size_t i = 0; i < seen.size(); ++i)
+        if (seen[i] == 0 && missing++ == 0) first_missing = i;
+    out->notes.push_back("Read a long table of " + std::to_string(cells.size()) + " rows: " + std::to_string(out->groups.size()) +
+                         " groups, " + std::to_string(k) + " categories.");
+    if (missing > 0)
+        out->notes.push_back(std::to_string(missing) + " combinations of group and category do not appear in the table: read as zero counts "
+                             "(the first: group " + quote_cell(out->groups[first_missing / k]) + ", first on line " +
+                             std::to_string(out->group_lines[first_missing / k]) + ", has no row for category " +
+                             quote_cell(out->categories[first_missing % k]) + ").");
+    if (repeated > 0)
+        out->notes.push_back(std::to_string(repeated) + " rows repeat a group and category already seen (first on line " +
+                             std::to_string(first_repeat) + "): their counts were added together.");
+}
+
+// Wide table: a header row naming the categories, then one row per group.
+void read_wide_rows(const std::vector<TableRow>& rows, std::size_t first, std::size_t group_col, DecimalMark mark,
+                    GroupedCounts* out) {
+    std::size_t width = 0;
+    for (const auto& r : rows) width = std::max(width, r.cells.size());
+    std::vector<std::size_t> count_cols;
+    for (std::size_t c = 0; c < width; ++c)
+        if (c != group_col) count_cols.push_back(c);
+    for (std::size_t i = 0; i < count_cols.size(); ++i) {
+        std::string label = first == 1 ? cell_at(rows[0], count_cols[i]) : "";
+        if (label.empty()) label = "Category " + std::to_string(i + 1);
+        out->categories.push_back(label);
+    }
+    const std::size_t k = out->categories.size();
+    if (k > kMaxCategories) { out->status = Status::failure("More than " + std::to_string(kMaxCategories) + " category columns."); return; }
+    GroupIndex groups;
+    for (std::size_t r = first; r < rows.size(); ++r) {
+        const TableRow& row = rows[r];
+        std::string name;
+        if (!group_cell(row, group_col, out, &name)) continue;
+        const std::size_t before = out->groups.size();
+        const std::size_t g = groups.find_or_add(name, row.line, out);
+        if (out->groups.size() == before) {
+            add_group_problem(out, row.line, static_cast<int>(group_col) + 1,
+                              cell_location(row.line, static_cast<int>(group_col) + 1) + "the group " + quote_cell(name) +
+                                  " appears again (first on line " + std::to_string(out->group_lines[g]) +
+                                  "); a wide table has one row per group.");
+            continue;
+        }
+        if (out->groups.size() > kMaxGroups || out->groups.size() * k > kMaxGroupCells) {
+            add_group_problem(out, row.line, 0, cell_location(row.line, 0) + "too many groups; screen fewer at once.");
+            return;
+        }
+        out->counts.resize(out->groups.size() * k, 0.0);
+        for (std::size_t i = 0; i < k; ++i) {
+            const std::string& cell = cell_at(row, count_cols[i]);
+            double count = 0;
+            if (cell.empty()) continue;  // an empty cell is a zero count (noted below)
+            if (read_count(cell, row.line, static_cast<int>(count_cols[i]) + 1, mark, out, &count)) out->counts[g * k + i] = count;
+        }
+    }
+    if (!out->status.ok) return;
+    std::vector<double> values;
+    out->ordered = whole_number_labels(out->categories, &values);
+    out->notes.push_back("Read a wide table: " + std::to_string(out->groups.size()) + " groups (one per row), " +
+                         std::to_string(k) + " categories (one per column" + (first == 1 ? ", named by the header row" : "") + ").");
+}
+
+// A message about the values read one per line, with "line N" (and its "column 1") turned into
+// the line and column of the pasted table each value came from.
+std::string original_lines(const std::string& message, const std::vector<int>& lines, int value_column) {
+    std::string out;
+    std::size_t i = 0;
+    while (i < message.size()) {
+        const bool at_line = (message.compare(i, 5, "line ") == 0 || message.compare(i, 5, "Line ") == 0) &&
+                             i + 5 < message.size() && message[i + 5] >= '0' && message[i + 5] <= '9';
+        if (!at_line) { out += message[i++]; continue; }
+        std::size_t j = i + 5;
+        std::size_t n = 0;
+        while (j < message.size() && message[j] >= '0' && message[j] <= '9' && n < 100000000) n = n * 10 + static_cast<std::size_t>(message[j++] - '0');
+        out += message.substr(i, 5);
+        out += n >= 1 && n <= lines.size() ? std::to_string(lines[n - 1]) : message.substr(i + 5, j - i - 5);
+        i = j;
+        if (message.compare(i, 10, ", column 1") == 0 && (i + 10 == message.size() || message[i + 10] < '0' || message[i + 10] > '9')) {
+            out += ", column " + std::to_string(value_column);
+            i += 10;
+        }
+    }
+    return out;
+}
+
+// Raw values with a group column: each group's values tallied as the one-sample reader tallies
+// raw observations; the categories (and bin edges) are those of all values pooled, so that
+// every group is counted into the same categories.
+void read_raw_rows(const std::vector<TableRow>& rows, std::size_t first, std::size_t group_col, std::size_t value_col,
+                   const ParseOptions& parse, GroupedCounts* out) {
+    GroupIndex groups;
+    std::vector<std::string> texts;  // the values of each group, one per line
+    std::vector<std::vector<int>> lines;  // original line of each value, per group
+    std::string pooled;
+    std::vector<int> pooled_lines;
+    for (std::size_t r = first; r < rows.size(); ++r) {
+        const TableRow& row = rows[r];
+        std::string name;
+        if (!group_cell(row, group_col, out, &name)) continue;
+        const std::size_t g = groups.find_or_add(name, row.line, out);
+        if (out->groups.size() > kMaxGroups) { add_group_problem(out, row.line, 0, cell_location(row.line, 0) + "too many groups."); return; }
+        if (texts.size() < out->groups.size()) { texts.emplace_back(); lines.emplace_back(); }
+        std::string value = cell_at(row, value_col);
+        for (char& c : value)
+            if (c == '\n' || c == '\r') c = ' ';
+        texts[g] += value + "\n";
+        lines[g].push_back(row.line);
+        pooled += value + "\n";
+        pooled_lines.push_back(row.line);
+    }
+    if (!out->status.ok) return;
+    ParseOptions options = parse;
+    options.raw = parse.digits || parse.bins.kind != BinChoice::Kind::none ? parse.raw : true;
+    options.separator = Separator::tab;  // one value per line
+    const int value_column = static_cast<int>(value_col) + 1;
+    auto located = [&](const Status& s, const std::vector<int>& at) {
+        Status t = s;
+        t.message = original_lines(s.message, at, value_column);
+        if (s.line >= 1 && static_cast<std::size_t>(s.line) <= at.size()) {
+            t.line = at[s.line - 1];
+            t.column = value_column;
+        }
+        return t;
+    };
+    const ParsedInput all = parse_input(pooled, options);
+    if (!all.status.ok) { out->status = located(all.status, pooled_lines); return; }
+    out->categories = all.categories;
+    out->ordered = all.ordered;
+    out->digit_test = all.digit_test;
+    out->edges = all.edges;
+    const std::size_t k = out->categories.size();
+    if (out->groups.size() * k > kMaxGroupCells) { out->status = Status::failure("Too many groups x categories; screen fewer at once."); return; }
+    std::unordered_map<std::string, std::size_t> category;
+    for (std::size_t i = 0; i < k; ++i) category.emplace(out->categories[i], i);
+    ParseOptions each = options;
+    each.shape = all.shape;
+    if (!all.edges.empty()) { each.bins.kind = BinChoice::Kind::edges; each.bins.edges = all.edges; }
+    out->counts.assign(out->groups.size() * k, 0.0);
+    for (std::size_t g = 0; g < out->groups.size(); ++g) {
+        const ParsedInput one = parse_input(texts[g], each);
+        if (!one.status.ok && one.categories.empty()) {
+            // A group whose values all fall outside the tally (no digit, ...) has zero counts.
+            if (all.shape == InputShape::raw_digits || all.shape == InputShape::raw_bins) continue;
+            Status s = located(one.status, lines[g]);
+            s.message = "Group " + quote_cell(out->groups[g]) + ": " + s.message;
+            out->status = s;
+            return;
+        }
+        for (std::size_t i = 0; i < one.categories.size(); ++i) {
+            const auto it = category.find(one.categories[i]);
+            if (it != category.end()) out->counts[g * k + it->second] += one.observed[i];
+        }
+    }
+    for (const auto& note : all.notes) out->notes.push_back("All values pooled: " + original_lines(note, pooled_lines, value_column));
+    out->notes.insert(out->notes.begin(), "Read raw values with a group column: " + std::to_string(pooled_lines.size()) +
+                                              " values in " + std::to_string(out->groups.size()) + " groups, tallied into " +
+                                              std::to_string(k) + " categories shared by every group.");
+}
+
+}  // namespace
+
+const char* group_shape_name(GroupShape shape) {
+    switch (shape) {
+        case GroupShape::long_table: return "long";
+        case GroupShape::wide_table: return "wide";
+        case GroupShape::raw_values: return "raw";
+    }
+    return "long";
+}
+
+bool group_shape_from_name(const std::string& name, GroupShape* shape) {
+    if (name == "long") *shape = GroupShape::long_table;
+    else if (name == "wide") *shape = GroupShape::wide_table;
+    else if (name == "raw") *shape = GroupShape::raw_values;
+    else return false;
+    return true;
+}
+
+GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& options) {
+    GroupedCounts out;
+    if (text.size() > kMaxInputBytes) {
+        out.status = Status::failure("The pasted text has more than " + std::to_string(kMaxInputBytes >> 20) + " MB.");
+        return out;
+    }
+    text = skip_byte_order_mark(text);
+    const ParseOptions& parse = options.parse;
+    const Separator sep = parse.separator ? *parse.separator : detect_separator(text);
+    std::vector<TableRow> rows;
+    {
+        DelimitedReader reader(text, sep);
+        Record rec;
+        while (reader.next(&rec)) {
+            if (rec.blank()) continue;
+            if (rows.size() == kMaxGroupRows) {
+                out.status = Status::failure(cell_location(rec.line, 0) + "more than " + std::to_string(kMaxGroupRows) +
+                                                 " rows; screen at most that many rows at once.", rec.line, 0);
+                return out;
+            }
+            TableRow row;
+            row.line = rec.line;
+            row.cells.reserve(rec.cells.size());
+            for (auto c : rec.cells) row.cells.emplace_back(c);
+            rows.push_back(std::move(row));
+        }
+        if (!reader.status().ok) {
+            add_group_problem(&out, reader.status().line, reader.status().column, reader.status().message);
+            return out;
+        }
+    }
+    if (rows.empty()) { out.status = Status::failure("Nothing to read: the pasted text is empty."); return out; }
+    std::size_t width = 0;
+    for (const auto& r : rows) width = std::max(width, r.cells.size());
+    if (width < 2) {
+        out.status = Status::failure("Line " + std::to_string(rows[0].line) +
+                                     ": only one column; screening needs a group column beside the categories or values.", rows[0].line, 0);
+        return out;
+    }
+
+    // The group column: named by `by` (a header cell or a number), else the first.
+    std::size_t group_col = 0;
+    bool header_named = false;
+    if (!options.by.empty()) {
+        const NumberReading n = read_number(options.by, DecimalMark::point);
+        if (n.ok && n.value == std::floor(n.value) && n.value >= 1 && !n.percent) {
+            if (n.value > static_cast<double>(width)) {
+                out.status = Status::failure("The group column " + options.by + " does not exist: the table has " +
+                                             std::to_string(width) + " columns.");
+                return out;
+            }
+            group_col = static_cast<std::size_t>(n.value) - 1;
+        } else {
+            const auto& head = rows[0].cells;
+            std::size_t i = 0;
+            while (i < head.size() && lower_ascii(head[i]) != lower_ascii(options.by)) ++i;
+            if (i == head.size()) {
+                std::string names;
+                for (const auto& h : head) names += (names.empty() ? "" : ", ") + quote_cell(h);
+                out.status = Status::failure("No column is named " + quote_cell(options.by) + "; the first line has " + names +
+                                                 " (or give the column's number).", rows[0].line, 0);
+                return out;
+            }
+            group_col = i;
+            header_named = true;
+        }
+    }
+    // A header row: named by `by`, or a first row without numbers above rows with some.
+    auto numeric_outside_group = [&](const TableRow& row) {
+        std::size_t n = 0;
+        for (std::size_t c = 0; c < row.cells.size(); ++c) n += c != group_col && looks_numeric(row.cells[c]);
+        return n;
+    };
+    const bool header = header_named || (rows.size() >= 2 && numeric_outside_group(rows[0]) == 0 && numeric_outside_group(rows[1]) > 0);
+    const std::size_t first = header ? 1 : 0;
+    if (rows.size() <= first) { out.status = Status::failure("Only a header row: no groups to read."); return out; }
+    out.group_column = static_cast<int>(group_col) + 1;
+    out.group_column_name = header ? cell_at(rows[0], group_col) : "";
+    if (out.group_column_name.empty()) out.group_column_name = "column " + std::to_string(out.group_column);
+
+    // The shape: groups repeated over lines are a long table or raw values, else a wide table.
+    GroupShape shape;
+    if (options.shape) shape = *options.shape;
+    else if (parse.digits || parse.bins.kind != BinChoice::Kind::none || parse.raw) shape = GroupShape::raw_values;
+    else {
+        std::unordered_map<std::string, int> seen;
+        bool repeats = false;
+        for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.emplace(cell_at(rows[r], group_col), 0).second;
+        // A wide table holds only counts beside the group names; text there makes it long.
+        bool counts_only = true;
+        for (std::size_t r = first; r < rows.size() && r < first + 200 && counts_only; ++r)
+            for (std::size_t c = 0; c < rows[r].cells.size(); ++c)
+                if (c != group_col && !rows[r].cells[c].empty() && !looks_numeric(rows[r].cells[c])) counts_only = false;
+        if (!repeats && width >= 3 && counts_only) shape = GroupShape::wide_table;
+        else if (width == 2) shape = GroupShape::raw_values;
+        else shape = GroupShape::long_table;
+    }
+    out.shape = shape;
+    const DecimalMark mark = parse.decimal ? *parse.decimal : sep == Separator::semicolon ? DecimalMark::comma : DecimalMark::point;
+    std::vector<std::size_t> others;
+    for (std::size_t c = 0; c < width; ++c)
+        if (c != group_col) others.push_back(c);
+    switch (shape) {
+        case GroupShape::long_table: {
+            if (others.size() < 2) { out.status = Status::failure("A long table needs three columns: group, category and count."); return out; }
+            // The count column: the last of the two further columns unless only the other holds numbers.
+            std::size_t category_col = others[0], count_col = others[1];
+            std::size_t numeric0 = 0, numeric1 = 0;
+            for (std::size_t r = first; r < rows.size() && r < first + 200; ++r) {
+                numeric0 += looks_numeric(cell_at(rows[r], others[0]));
+                numeric1 += looks_numeric(cell_at(rows[r], others[1]));
+            }
+            if (numeric1 == 0 && numeric0 > 0) std::swap(category_col, count_col);
+            read_long_rows(rows, first, group_col, category_col, count_col, mark, &out);
+            break;
+        }
+        case GroupShape::wide_table: read_wide_rows(rows, first, group_col, mark, &out); break;
+        case GroupShape::raw_values:
+            if (others.size() != 1) {
+                out.status = Status::failure("Raw values with a group column need two columns: group and value (found " +
+                                             std::to_string(width) + ").");
+                return out;
+            }
+            read_raw_rows(rows, first, group_col, others[0], parse, &out);
+            break;
+    }
+    if (!out.status.ok) return out;
+    if (header) out.notes.insert(out.notes.begin(), "Line " + std::to_string(rows[0].line) + " read as a header row.");
+    out.notes.insert(out.notes.begin(), std::string("Groups read from ") + (header ? "column " + std::to_string(out.group_column) + " (" + quote_cell(out.group_column_name) + ")"
+                                                                                      : out.group_column_name) +
+                                            " as a " + group_shape_name(shape) + " table" +
+                                            (options.by.empty() ? " (detected; another group column can be chosen)." : "."));
+    if (out.groups.size() < 2) {
+        out.status = Status::failure("Only one group (" + quote_cell(out.groups.empty() ? "" : out.groups[0]) +
+                                         "): screening compares two or more groups; test a single sample without --by.",
+                                     out.group_lines.empty() ? 0 : out.group_lines[0], out.group_column);
+        return out;
+    }
+    if (out.categories.size() < 2) {
+        out.status = Status::failure("Only one category: a goodness-of-fit test needs at least two.");
+        return out;
+    }
+    return out;
+}
+
+}  // namespace tallyproof

@@ -1,0 +1,301 @@
+// Screening of many groups. Against the model: each group is one analyse() (goodness_of_fit.cpp),
+// so statistic, df (minus parameters fitted per group), p, w, MAD and drivers are exactly those
+// of the single analysis. Against the rest: the group and the pooled other groups form a 2 x k
+// table, expected counts row total x column total / N, Pearson's (or the chosen power-divergence)
+// statistic on chi2(k' - 1) for the k' categories seen at all (Agresti 2013, Categorical Data
+// Analysis, 3rd ed., sect. 3.2), w = sqrt(X2 / N) over the table (Cohen 1988, ch. 7) and
+// drivers by adjusted residuals (Haberman 1973) beyond the Bonferroni critical z over k'.
+// Multiplicity across groups: Benjamini and Hochberg (1995), Holm (1979), Bonferroni.
+#include "screen_groups.hpp"
+
+#include <boost/math/distributions/normal.hpp>
+#include <cmath>
+
+#include "effect_size.hpp"
+#include "goodness_of_fit.hpp"
+#include "math_policy.hpp"
+#include "mean_absolute_deviation.hpp"
+#include "null_model.hpp"
+#include "number_format.hpp"
+#include "power_divergence.hpp"
+#include "pvalue_job.hpp"
+#include "validity.hpp"
+
+namespace tallyproof {
+namespace {
+
+// One group against the model: the single analysis, with an exact (or Monte Carlo) p-value
+// when the group is too thin for the asymptotic one.
+void test_against_model(const Analysis& base, const std::vector<std::string>& categories, const double* row, GroupRow* g) {
+    Analysis a = base;
+    a.categories = categories;
+    a.observed.assign(row, row + categories.size());
+    a.plan = PlanChoice{};
+    Result r = analyse(a);
+    if (!r.status.ok) { g->note = "not tested: " + r.status.message; return; }
+    const bool thin = !r.validity.cochran_holds && base.pvalue.method == PValueMethod::asymptotic;
+    if (thin || base.pvalue.method != PValueMethod::asymptotic) {
+        if (thin) a.pvalue.method = PValueMethod::exact;
+        PValueJob job;
+        start_pvalue_job(a, r, &job);
+        if (!job.status.ok && thin) {  // exact enumeration too costly: Monte Carlo
+            a.pvalue.method = PValueMethod::monte_carlo;
+            job = PValueJob{};
+            start_pvalue_job(a, r, &job);
+        }
+        while (job.status.ok && !job.progress.done && !job.progress.cancelled) step_pvalue_job(&job, 1u << 20);
+        finish_pvalue_job(job, &r);
+    }
+    g->tested = true;
+    g->thin = thin;
+    g->statistic = r.statistic;
+    g->df = r.df;
+    g->p = r.p;
+    g->method = r.method;
+    g->w = r.effect.w;
+    g->digits = r.digits.computed;
+    g->mad = r.digits.mad;
+    g->band = r.digits.band;
+    if (thin)
+        g->note = "thin: smallest expected count " + format_significant(r.validity.min_expected, 3) + "; " +
+                  (r.method == PValueMethod::exact ? "exact" : r.method == PValueMethod::monte_carlo ? "Monte Carlo" : "asymptotic") +
+                  " p-value";
+    for (std::size_t i : r.diagnostics.drivers) {
+        const CategoryDiagnostic& d = r.diagnostics.categories[i];
+        g->drivers.push_back(GroupDriver{d.label, d.direction, d.observed, d.expected, d.adjusted_residual});
+    }
+}
+
+// The shares a stated model gives every group alike (equal, shares, ratio, digit laws), when the
+// settings let a group be tested without the whole single analysis: no merging, no fitted
+// parameters, asymptotic p-values. Empty when each group needs analyse().
+std::vector<double> shared_shares(const Analysis& base, const std::vector<std::string>& categories, const std::vector<double>& pooled,
+                                  std::string* description) {
+    const ModelKind kind = base.model.kind;
+    if (model_is_fitted(kind) || kind == ModelKind::counts || base.merge.rule != MergeRule::none ||
+        base.pvalue.method != PValueMethod::asymptotic)
+        return {};
+    Analysis a = base;
+    a.categories = categories;
+    a.observed = pooled;
+    double n = 0;
+    for (double c : pooled) n += c;
+    NullModel model;
+    if (!null_model(a, n, &model).ok) return {};
+    *description = model.description;
+    return model.shares;
+}
+
+// One group against stated shares, as analyse() computes it (same functions, same order), for
+// speed with many groups. Returns false when the group needs the whole analysis instead: a thin
+// group (exact p), a share of zero, a refused statistic.
+bool quick_test_against_shares(const Analysis& base, const std::vector<double>& shares, const double* row, GroupRow* g) {
+    const std::size_t k = shares.size();
+    std::vector<double> obs(k), exp(k);
+    std::size_t below_5 = 0, below_1 = 0;
+    for (std::size_t i = 0; i < k; ++i) {
+        if (!(shares[i] > 0)) return false;
+        obs[i] = row[i];
+        exp[i] = g->n * shares[i];
+        below_5 += exp[i] < 5;
+        below_1 += exp[i] < 1;
+    }
+    if (!cochran_rule_holds(k, below_5, below_1)) return false;
+    PowerDivergenceOptions po;
+    po.lambda = base.statistic.lambda;
+    po.williams_correction = base.statistic.williams;
+    PowerDivergence pd;
+    if (!power_divergence(obs, exp, po, &pd).ok) return false;
+    g->df = static_cast<double>(k) - 1 - base.extra_estimated_parameters;
+    if (g->df < 1) return false;
+    g->tested = true;
+    g->statistic = pd.statistic;
+    g->p = chi_square_upper_tail(pd.statistic, g->df);
+    g->method = PValueMethod::asymptotic;
+    g->w = cohens_w(pd.statistic, g->n);
+    DigitTest test;
+    if (digit_test_of(base.model.kind, &test)) {
+        const MeanAbsoluteDeviation mad = mean_absolute_deviation(obs, test);
+        if (mad.status.ok) {
+            g->digits = true;
+            g->mad = mad.mad;
+            g->band = mad.band == Conformity::not_applicable ? "" : mad.label;
+        }
+    }
+    return true;
+}
+
+// One group against the pooled other groups: a 2 x k' table over the categories seen at all.
+void test_against_rest(const StatisticChoice& statistic, const std::vector<std::string>& categories, const double* row,
+                       const std::vector<double>& pooled, double total, GroupRow* g) {
+    const std::size_t k = categories.size();
+    const double rest = total - g->n;
+    if (!(rest > 0)) { g->note = "not tested: the other groups have no counts"; return; }
+    std::vector<double> observed, expected;
+    std::vector<std::size_t> used;
+    observed.reserve(2 * k);
+    expected.reserve(2 * k);
+    for (std::size_t j = 0; j < k; ++j) {
+        if (!(pooled[j] > 0)) continue;
+        used.push_back(j);
+        observed.push_back(row[j]);
+        expected.push_back(g->n * pooled[j] / total);
+    }
+    const std::size_t kk = used.size();
+    for (std::size_t i = 0; i < kk; ++i) {
+        observed.push_back(pooled[used[i]] - row[used[i]]);
+        expected.push_back(rest * pooled[used[i]] / total);
+    }
+    if (kk < 2) { g->note = "not tested: fewer than two categories have counts"; return; }
+    PowerDivergenceOptions options;
+    options.lambda = statistic.lambda;
+    PowerDivergence pd;
+    if (Status s = power_divergence(observed, expected, options, &pd); !s.ok) { g->note = "not tested: " + s.message; return; }
+    ValidityReport validity;
+    check_validity(expected, &validity);
+    g->tested = true;
+    g->statistic = pd.statistic;
+    g->df = static_cast<double>(kk - 1);
+    g->p = chi_square_upper_tail(pd.statistic, g->df);
+    g->method = PValueMethod::asymptotic;
+    g->w = cohens_w(pd.statistic, total);
+    g->thin = !validity.cochran_holds;
+    if (g->thin)
+        g->note = "thin: smallest expected count " + format_significant(validity.min_expected, 3) +
+                  "; asymptotic p-value, treat with care";
+    // Adjusted residuals of the group's row, (O - E) / sqrt(E (1 - n/N) (1 - c/N)).
+    const boost::math::normal_distribution<double, quiet_policy> z;
+    const double critical = boost::math::quantile(boost::math::complement(z, 0.05 / (2.0 * static_cast<double>(kk))));
+    for (std::size_t i = 0; i < kk; ++i) {
+        const double e = expected[i];
+        const double v = e * (1 - g->n / total) * (1 - pooled[used[i]] / total);
+        if (!(v > 0)) continue;
+        const double residual = (observed[i] - e) / std::sqrt(v);
+        if (std::fabs(residual) >= critical)
+            g->drivers.push_back(GroupDriver{categories[used[i]], residual > 0 ? "more than expected" : "fewer than expected",
+                                             observed[i], e, residual});
+    }
+}
+
+}  // namespace
+
+const char* screen_against_name(ScreenAgainst against) { return against == ScreenAgainst::rest ? "rest" : "model"; }
+
+bool screen_against_from_name(const std::string& name, ScreenAgainst* against) {
+    if (name == "model") *against = ScreenAgainst::model;
+    else if (name == "rest") *against = ScreenAgainst::rest;
+    else return false;
+    return true;
+}
+
+ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, const ScreenChoice& choice) {
+    ScreenResult s;
+    s.choice = choice;
+    s.categories = counts.categories;
+    const std::size_t k = counts.categories.size(), groups = counts.groups.size();
+    if (!counts.status.ok) { s.status = counts.status; return s; }
+    if (!(choice.q > 0 && choice.q < 1)) { s.status = Status::failure("The false discovery rate q must lie between 0 and 1."); return s; }
+    if (groups < 2) { s.status = Status::failure("Only one group: screening compares two or more groups."); return s; }
+    if (k < 2) { s.status = Status::failure("Only one category: a goodness-of-fit test needs at least two."); return s; }
+    if (counts.counts.size() != groups * k) { s.status = Status::failure("The counts do not fill groups x categories."); return s; }
+
+    std::vector<double> pooled(k, 0.0);
+    double total = 0;
+    s.groups.resize(groups);
+    for (std::size_t g = 0; g < groups; ++g) {
+        GroupRow& row = s.groups[g];
+        row.name = counts.groups[g];
+        row.line = g < counts.group_lines.size() ? counts.group_lines[g] : 0;
+        for (std::size_t j = 0; j < k; ++j) {
+            const double c = counts.counts[g * k + j];
+            if (!std::isfinite(c) || c < 0 || c != std::floor(c)) {
+                s.status = Status::failure("Group " + quote_cell(row.name) + ": the count for " + quote_cell(counts.categories[j]) +
+                                           " must be a non-negative whole number.", row.line, 0);
+                return s;
+            }
+            row.n += c;
+            pooled[j] += c;
+        }
+        total += row.n;
+    }
+    if (!(total > 0)) { s.status = Status::failure("Every group has a total of zero: there is nothing to test."); return s; }
+
+    std::string shared_description;
+    const std::vector<double> shares = choice.against == ScreenAgainst::model
+                                           ? shared_shares(base, counts.categories, pooled, &shared_description)
+                                           : std::vector<double>{};
+    std::vector<bool> quick(groups, false);
+    for (std::size_t g = 0; g < groups; ++g) {
+        GroupRow& row = s.groups[g];
+        if (!(row.n > 0)) {
+            row.note = "not tested: the group has no counts";
+            s.notes.push_back("Group " + quote_cell(row.name) + (row.line ? " (line " + std::to_string(row.line) + ")" : "") +
+                              " has a total of zero: it is listed but not tested.");
+            continue;
+        }
+        const double* cells = counts.counts.data() + g * k;
+        if (choice.against == ScreenAgainst::model && !shares.empty() && quick_test_against_shares(base, shares, cells, &row))
+            quick[g] = true;
+        else if (choice.against == ScreenAgainst::model) test_against_model(base, counts.categories, cells, &row);
+        else test_against_rest(base.statistic, counts.categories, cells, pooled, total, &row);
+        if (!row.tested && row.n > 0)
+            s.notes.push_back("Group " + quote_cell(row.name) + " was " + row.note + ".");
+    }
+
+    // Multiplicity across the tested groups, on log10 p so that tiny p-values keep their order.
+    std::vector<double> log10_p;
+    std::vector<std::size_t> at;
+    for (std::size_t g = 0; g < groups; ++g)
+        if (s.groups[g].tested) { log10_p.push_back(s.groups[g].p.log10_p); at.push_back(g); }
+    s.tested = at.size();
+    if (s.tested == 0) {
+        std::string why = s.groups[0].note;
+        if (why.rfind("not tested: ", 0) == 0) why = why.substr(12);
+        s.status = Status::failure("No group could be tested (group " + quote_cell(s.groups[0].name) + ": " + why + ").");
+        return s;
+    }
+    std::vector<double> adjusted;
+    if (Status st = adjust_log10_p_values(log10_p, choice.adjust, &adjusted); !st.ok) { s.status = st; return s; }
+    const double log10_q = std::log10(choice.q);
+    for (std::size_t i = 0; i < at.size(); ++i) {
+        GroupRow& row = s.groups[at[i]];
+        row.q.log10_p = adjusted[i];
+        row.q.p = std::pow(10.0, adjusted[i]);
+        row.flagged = adjusted[i] <= log10_q;
+        if (!row.flagged) row.drivers.clear();
+        if (row.flagged && quick[at[i]]) {  // the drivers come from the whole single analysis
+            GroupRow full = row;
+            full.drivers.clear();
+            test_against_model(base, counts.categories, counts.counts.data() + at[i] * k, &full);
+            row.drivers = full.drivers;
+        }
+        s.flagged += row.flagged;
+        s.thin += row.thin;
+    }
+
+    if (choice.against == ScreenAgainst::rest) s.model_description = "the other groups pooled";
+    else if (model_is_fitted(base.model.kind))  // one fit per group: the pooled fit would mislead
+        s.model_description = (base.model.kind == ModelKind::poisson ? std::string("Poisson") : model_kind_name(base.model.kind)) +
+                              std::string(" (parameters estimated per group)");
+    else if (Result r0 = [&] { Analysis a = base; a.categories = counts.categories; a.observed = pooled; a.plan = PlanChoice{}; return analyse(a); }();
+             r0.status.ok) s.model_description = r0.model_description;
+    else s.model_description = model_kind_name(base.model.kind);
+    s.statistic_symbol = statistic_symbol(base.statistic.lambda);
+    if (s.thin > 0)
+        s.notes.push_back(std::to_string(s.thin) + (s.thin == 1 ? " group is" : " groups are") + " too thin for the asymptotic test (Cochran's rule)" +
+                          (choice.against == ScreenAgainst::model ? ": exact or Monte Carlo p-values were used." : ": marked thin; treat their p-values with care."));
+    s.cautions.push_back("A flag is a reason to look closer at a group, never proof of error or misconduct: groups differ for many genuine reasons.");
+    if (choice.adjust == MultiplicityMethod::benjamini_hochberg)
+        s.cautions.push_back("A false discovery rate of " + format_plain(100 * choice.q) +
+                             "% means that, on average, about that share of the flagged groups would be flagged by chance alone; it does not say which ones.");
+    else if (choice.adjust == MultiplicityMethod::none)
+        s.cautions.push_back("The p-values are not adjusted for testing many groups: at q = " + format_significant(choice.q, 3) +
+                             ", about that share of groups that follow the model are flagged by chance alone.");
+    else
+        s.cautions.push_back("The adjustment keeps the chance of flagging any group that follows the model at most " +
+                             format_plain(100 * choice.q) + "%.");
+    s.cautions.push_back("Decisions that affect people or suppliers should follow your local rules and professional review, not this screen alone.");
+    return s;
+}
+
+}  // namespace tallyproof

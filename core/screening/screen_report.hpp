@@ -1,0 +1,24 @@
+// Reports of a ScreenResult: the summary sentence ("3 of 40 groups depart from ... at a false
+// discovery rate of 5%: ..."), the plain-text report with the groups table and cautions, the
+// groups table for spreadsheets (CSV/TSV, formulas neutralised as table_export.hpp) and the
+// screening section of the result document (docs/analysis-document.md, "Screening").
+#pragma once
+#include <string>
+
+#include "analysis.hpp"
+#include "screen_groups.hpp"
+#include "table_export.hpp"
+
+namespace tallyproof {
+
+// "false discovery rate of 5%" / "family-wise error rate of 5% (Holm)" / "unadjusted level of 5%".
+std::string screen_level_phrase(const ScreenChoice& choice);
+// The one-sentence summary of the screen, naming the flagged groups (at most ten, by q).
+std::string screen_summary(const ScreenResult& s);
+std::string screen_report_text(const ScreenResult& s);                    // summary, table, notes, cautions
+std::string screen_writeup(const ScreenResult& s);                        // summary and cautions, to paste
+std::string group_table(const ScreenResult& s, const TableExportOptions& o);  // one row per group
+// The result document of a screen: input echo (categories, groups with observed) and output.
+std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s);
+
+}  // namespace tallyproof
