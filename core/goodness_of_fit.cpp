@@ -260,10 +260,10 @@ void suggest_count_models(const Analysis& a, Result* r) {
     if (a.model.kind != ModelKind::equal) return;
     std::vector<IntegerBin> bins;
     if (!integer_bins_from_labels(a.categories, &bins).ok || bins.size() < 3) return;
-    r->questions.push_back("The categories are whole numbers in order (" + a.categories.front() + " to " + a.categories.back() +
-                           "): counts per unit such as these (defects per item, events per day, plants per plot) are "
-                           "usually tested against a count model fitted to them (Poisson, binomial or negative "
-                           "binomial), not against equal shares. Choose one under the expected mix.");
+    r->model_suggestion = "The categories are whole numbers in order (" + a.categories.front() + " to " + a.categories.back() +
+                          "): counts per unit such as these (defects per item, events per day, plants per plot) are "
+                          "usually tested against a count model fitted to them (Poisson, binomial or negative "
+                          "binomial), not against equal shares. Choose one under the expected mix.";
 }
 
 }  // namespace

@@ -104,6 +104,7 @@ std::string report_text(const Analysis& a, const Result& r) {
          format_probability(r.exact_lower_computed ? r.exact_lower : r.lower) + (r.exact_lower_computed ? " (exact)\n" : " (asymptotic)\n");
     s += "Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3) + "\n";
     s += verdict_sentence(r) + "\n";
+    if (!r.model_suggestion.empty()) s += "Suggestion: " + r.model_suggestion + "\n";
     s += "Effect size: w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ", corrected for chance)" +
          interval_text(r.effect.w_interval) + "; Cohen's w before the correction, √(" + r.statistic_symbol + "/N) = " +
          format_fixed(r.effect.w, 3) + ", averages about √(df/N) = " + format_fixed(std::sqrt(r.df / (r.reference ? r.reference->n_total : r.n)), 3) + " even when the mix holds";
@@ -302,7 +303,10 @@ void write_pvalue_methods(JsonWriter& j, const Analysis& a, const Result& r) {
         if (r.exact.computed) j.key("p_value").value(r.exact.p.p).key("log10_p_value").value(r.exact.p.log10_p)
                                   .key("error_bound").value(r.exact.error_bound).key("work_units").value(r.exact.work_units)
                                   .key("method").value(r.exact.method);
-        else j.key("refusal").value(r.exact.refusal);
+        else {
+            j.key("refusal").value(r.exact.refusal);
+            if (!r.exact.method.empty()) j.key("method").value(r.exact.method);
+        }
         j.end_object();
     }
     if (r.monte_carlo.requested) {
@@ -418,6 +422,7 @@ std::string report_json(const Analysis& a, const Result& r) {
     write_validity(j, r);
     j.key("warnings").strings(r.warnings);
     j.key("questions").strings(r.questions);
+    if (!r.model_suggestion.empty()) j.key("model_suggestion").value(r.model_suggestion);
     j.key("cautions").strings(r.cautions);
     // What each abbreviation and symbol of the report text means (the form view lists them).
     j.key("glossary").begin_array();

@@ -125,6 +125,7 @@ struct Result {
 
     std::vector<std::string> warnings;      // plain-language notes about this analysis
     std::vector<std::string> questions;     // quiet checks a user may dismiss ("counts, or percentages?"), not warnings
+    std::string model_suggestion;           // a model these data are usually tested against, shown with the verdict ("" if none)
     std::vector<std::string> cautions;      // the usual cautions that apply to it
 };
 

@@ -67,6 +67,7 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
     const bool good = conformity ? r.conformity->conforms : !r.reject;
     coloured_text(good ? t.accent : t.warn_ink, headline_verdict(r).c_str());  // the goal's answer leads
     ImGui::PopFont();
+    if (!r.model_suggestion.empty()) wrapped_text(r.model_suggestion.c_str());
     if (r.conformity && !r.conformity->status.ok) coloured_text(t.warn_ink, conformity_verdict(r).c_str());
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
     if (r.conformity && r.conformity->status.ok) {
