@@ -116,13 +116,30 @@ const char* kUsage =
 
 constexpr int kRefused = 1, kUsageError = 2, kCannotRead = 2, kCannotWrite = 3;
 
+bool g_json = false;  // --json anywhere on the command line: every refusal is also a result document
+
+// With --json, the error form of the result document on standard output (docs/analysis-document.md),
+// so a script reading standard output always has a document to parse.
+void print_error_document(const std::string& message) {
+    if (!g_json) return;
+    tallyproof::JsonWriter j;
+    tallyproof::begin_result_document(j, tallyproof::Status::failure(message));
+    j.key("warnings").strings({});
+    j.end_object();
+    std::fputs((j.str() + "\n").c_str(), stdout);
+    std::fflush(stdout);
+}
+
 int usage_error(const std::string& msg) {
     std::fprintf(stderr, "tallyproof: %s\n(see tallyproof --help)\n", msg.c_str());
+    print_error_document(msg);
     return kUsageError;
 }
 
 int cannot_read(const std::string& what, int error) {
-    std::fprintf(stderr, "tallyproof: cannot read %s: %s\n", what.c_str(), std::strerror(error));
+    const std::string msg = "cannot read " + what + ": " + std::strerror(error);
+    std::fprintf(stderr, "tallyproof: %s\n", msg.c_str());
+    print_error_document(msg);
     return kCannotRead;
 }
 
@@ -204,12 +221,13 @@ int main(int argc, char** argv) {
     const std::vector<std::string> with_value = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
                                                  "--lambda", "--method", "--ordering", "--replicates", "--seed", "--merge",
                                                  "--min-expected", "--plan-w", "--plan-n", "--target-power",
-                                                 "--conformity", "--conformity-true-w", "--conformity-power"};
+                                                 "--conformity", "--conformity-points", "--conformity-true-w", "--conformity-power"};
     ParseOptions input;  // input options, used when the text is pasted text rather than a document
     // Screening many groups: on with --by, --group-shape, --against, --adjust or --q, or a document with "groups".
     bool screening = false;
     GroupReadOptions group_input;
     ScreenChoice screen;
+    for (int i = 1; i < argc; ++i) g_json = g_json || std::strcmp(argv[i], "--json") == 0;
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (arg == "--json") json = true;
@@ -313,6 +331,7 @@ int main(int argc, char** argv) {
     const TextDecoding decoded = decode_text(&text);  // UTF-8 without a mark, or refused as not text
     if (!decoded.status.ok) {
         std::fprintf(stderr, "tallyproof: %s\n", decoded.status.message.c_str());
+        print_error_document(decoded.status.message);
         return kRefused;
     }
     if (!decoded.notice.empty() && !json) std::fprintf(stderr, "note: %s\n", decoded.notice.c_str());
@@ -420,6 +439,12 @@ int main(int argc, char** argv) {
                 if (!(v > 0 && v <= 1)) return usage_error("--conformity needs a margin w0 in (0, 1], such as 0.1");
                 analysis.conformity.requested = true;
                 analysis.conformity.margin_w = v;
+                analysis.conformity.margin_points = NAN;
+            } else if (opt == "--conformity-points") {
+                if (!(v > 0 && v <= 100)) return usage_error("--conformity-points needs a shift in percentage points above 0, at most 100, such as 2");
+                analysis.conformity.requested = true;
+                analysis.conformity.margin_points = v;
+                analysis.conformity.margin_w = NAN;
             } else if (opt == "--conformity-true-w") analysis.conformity.true_w = v;
             else if (opt == "--conformity-power") analysis.conformity.target_power = v;
         }
@@ -437,7 +462,7 @@ int main(int argc, char** argv) {
                                           table_format == "csv" ? "the groups table (--table csv)" : "the groups table (--table tsv)");
         else if (s.status.ok && !writeup_style.empty()) screen_written = write_output(screen_writeup(s), "the screening write-up (--writeup)");
         else if (s.status.ok) screen_written = write_output(screen_report_text(s), "the screening report");
-        else std::fprintf(stderr, "tallyproof: %s\n", s.status.message.c_str());
+        if (!s.status.ok) std::fprintf(stderr, "tallyproof: %s\n", s.status.message.c_str());
         if (screen_written != 0) return screen_written;
         return s.status.ok ? 0 : kRefused;
     }
@@ -455,7 +480,7 @@ int main(int argc, char** argv) {
         o.decimal_comma = out_decimal_comma;
         written = write_output(writeup(analysis, result, o), ("the write-up (--writeup " + writeup_style + ")").c_str());
     } else if (result.status.ok) written = write_output(report_text(analysis, result), "the report");
-    else std::fprintf(stderr, "tallyproof: %s\n", result.status.message.c_str());
+    if (!result.status.ok) std::fprintf(stderr, "tallyproof: %s\n", result.status.message.c_str());
     if (written != 0) return written;
     return result.status.ok ? 0 : kRefused;
 }

@@ -633,12 +633,31 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
 void set_test_goal(AppState& s, bool show_conformity, double margin_w) {
     ConformityChoice& c = s.analysis.conformity;
     if (show_conformity && !(margin_w > 0 && margin_w <= 1)) {
-        s.input_error = "The conformity margin w0 must lie in (0, 1]; 0.1 is Cohen's small effect.";
+        s.input_error = "The conformity margin w0 must lie in (0, 1]; 0.1 is Cohen's small effect. A margin in percentage "
+                        "points is typed with pp, such as 2 pp.";
         publish_error(s.input_error);
         return;
     }
     c.requested = show_conformity;
-    if (show_conformity) c.margin_w = margin_w;
+    if (show_conformity) {
+        c.margin_w = margin_w;
+        c.margin_points = NAN;
+    }
+    recompute(s);
+}
+
+void set_conformity_margin_text(AppState& s, const std::string& text) {
+    double w0 = NAN, points = NAN;
+    if (!read_conformity_margin(text, &w0, &points) || !std::isfinite(points)) return set_test_goal(s, true, w0);
+    if (!(points > 0 && points <= 100)) {
+        s.input_error = "A conformity margin in percentage points must lie above 0 and at most 100, such as 2 pp.";
+        publish_error(s.input_error);
+        return;
+    }
+    ConformityChoice& c = s.analysis.conformity;
+    c.requested = true;
+    c.margin_points = points;
+    c.margin_w = NAN;
     recompute(s);
 }
 

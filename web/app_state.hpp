@@ -156,6 +156,8 @@ void copy_writeup(AppState& s, bool sentence_only);          // the write-up in 
 void copy_table(AppState& s);                                 // the per-category table as TSV
 // The test's goal: find a departure (false) or show the mix conforms within w0 (true, 0 < margin_w <= 1).
 void set_test_goal(AppState& s, bool show_conformity, double margin_w);
+// The margin as typed ("0.1" is w0, "2 pp" a shift in percentage points; core/conformity read_conformity_margin).
+void set_conformity_margin_text(AppState& s, const std::string& text);
 void sync_editor_from_model(AppState& s);                    // the model editor shows s.analysis.model
 bool recompute(AppState& s);                                 // false: input_error set, old result kept
 void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work

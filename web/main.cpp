@@ -441,9 +441,7 @@ EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
         case FormAction::one_sample: leave_groups(s); break;
         case FormAction::goal: {  // "": find a departure; a margin w0: show conformity within it
             if (value.empty()) { set_test_goal(s, false, s.analysis.conformity.margin_w); break; }
-            char* end = nullptr;
-            const double w0 = std::strtod(value.c_str(), &end);
-            set_test_goal(s, true, end && *end == '\0' ? w0 : std::nan(""));
+            set_conformity_margin_text(s, value);  // "0.1" is w0, "2 pp" percentage points
             break;
         }
     }

@@ -127,27 +127,33 @@ void draw_goal_rows(AppState& s, const Theme& t) {
     if (ImGui::GetCursorPosX() < 74) ImGui::SetCursorPosX(74);
     changed |= ImGui::RadioButton("show it conforms within w0", &goal, 1);
     explain_item("show it conforms", "show it conforms within w0");
+    const bool in_points = std::isfinite(c.margin_points);
     const double margin = std::isfinite(c.margin_w) ? c.margin_w : 0.1;
-    if (changed) set_test_goal(s, goal == 1, margin);
+    if (changed) {
+        if (goal == 1 && in_points) set_conformity_margin_text(s, format_plain(c.margin_points) + " pp");
+        else set_test_goal(s, goal == 1, margin);
+    }
     if (!c.requested) return;
     ImGui::SetCursorPosX(74 + ImGui::GetStyle().WindowPadding.x);
-    std::string w0_text = format_plain(margin);
+    const std::string shown = in_points ? format_plain(c.margin_points) + " pp" : format_plain(margin);
+    std::string w0_text = shown;
     ImGui::SetNextItemWidth(100);
     // A text field like α's, so a touch screen's keyboard opens (text_entry.hpp); a value that
     // cannot be read goes to set_test_goal as NaN and is refused there with its message.
-    const bool w0_done = text_field("##margin-w0", &w0_text, FieldKeys::decimal,
-                                    ImGuiInputTextFlags_CharsScientific | ImGuiInputTextFlags_EnterReturnsTrue) ||
+    const bool w0_done = text_field("##margin-w0", &w0_text, FieldKeys::text,  // "2 pp" needs letters
+                                    ImGuiInputTextFlags_EnterReturnsTrue) ||
                          ImGui::IsItemDeactivatedAfterEdit();
     explain_item("margin w0", "margin w0");
-    flow_next(ImGui::CalcTextSize("margin w0").x);
-    ImGui::TextUnformatted("margin w0");
+    // Each form of the margin shown with the other: w0 and the shift in percentage points.
+    const Result& r = s.result;
+    std::string other = "margin w0";
+    if (r.conformity && std::isfinite(r.conformity->margin_points) && std::isfinite(r.conformity->margin_w))
+        other = in_points ? "margin, w0 = " + format_fixed(r.conformity->margin_w, 3)
+                          : "margin w0 (" + format_significant(r.conformity->margin_points, 2) + " pp)";
+    flow_next(ImGui::CalcTextSize(other.c_str()).x);
+    ImGui::TextUnformatted(other.c_str());
     explain_item("margin w0 label", "margin w0");
-    if (w0_done) {
-        char* end = nullptr;
-        const double w0 = std::strtod(w0_text.c_str(), &end);
-        const bool read = !w0_text.empty() && end && *end == '\0';
-        if (!read || w0 != margin) set_test_goal(s, true, read ? w0 : std::nan(""));
-    }
+    if (w0_done && w0_text != shown) set_conformity_margin_text(s, w0_text);
     muted_wrapped(t, "%s", conformity_margin_guidance());
 }
 
@@ -309,7 +315,7 @@ void draw_counts_panel(AppState& s, const Theme& t) {
                 std::string count = format_count(s.analysis.observed[i]);
                 ImGui::SetNextItemWidth(-1);
                 const bool count_done = text_field("##count", &count, FieldKeys::decimal,
-                                                   ImGuiInputTextFlags_CharsScientific | ImGuiInputTextFlags_EnterReturnsTrue) ||
+                                                   ImGuiInputTextFlags_EnterReturnsTrue) ||
                                         ImGui::IsItemDeactivatedAfterEdit();
                 mark_widget(("count " + std::to_string(i + 1)).c_str());
                 if (count_done) {

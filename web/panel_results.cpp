@@ -23,11 +23,15 @@ namespace {
 
 const double kWMin = 0.02, kWMax = 1.0, kPowerMin = 0.5, kPowerMax = 0.99;
 
-std::string p_line(const Result& r) {
-    std::string s = "p " + format_p_report(r.p);
-    if (r.p.p < 0.001) s += "  (" + format_probability(r.p) + ")";
+std::string p_line(const TailProbability& p) {
+    std::string s = "p " + format_p_report(p);
+    if (p.p < 0.001) s += "  (" + format_probability(p) + ")";
     return s;
 }
+
+// The headline answers the goal chosen: the conformity p when the goal is conformity (the
+// departure test's p then follows in the details line), else the departure test's.
+bool conformity_leads(const Result& r) { return r.conformity && r.conformity->status.ok; }
 
 }  // namespace
 
@@ -38,7 +42,9 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
         return;
     }
     ImGui::PushFont(t.heading);
-    const std::string statistic = r.statistic_symbol + " = " + format_fixed(r.statistic, 2), p = p_line(r);
+    const bool conformity = conformity_leads(r);
+    const std::string statistic = r.statistic_symbol + " = " + format_fixed(r.statistic, 2);
+    const std::string p = conformity ? "conformity " + p_line(r.conformity->p_value) : p_line(r.p);
     ImGui::TextUnformatted(statistic.c_str());
     explain_item("verdict statistic", statistic);
     if (ImGui::GetItemRectMax().x + 18 + ImGui::CalcTextSize(p.c_str()).x <= ImGui::GetWindowPos().x + ImGui::GetWindowContentRegionMax().x)
@@ -47,7 +53,8 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
     explain_item("verdict p", p);
     ImGui::PopFont();
     explained_text("verdict details", "df = " + format_count(r.df) + "   ·   N = " + format_count(r.n) + "   ·   " + r.statistic_name +
-                                          "   ·   p-value: " + method_phrase(r));
+                                          (conformity ? "   ·   departure test, second: " + p_line(r.p) + " (" + method_phrase(r) + ")"
+                                                      : "   ·   p-value: " + method_phrase(r)));
     explained_text("critical value", "Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3));
     if (r.method != PValueMethod::asymptotic) {
         const std::string asymptotic = "asymptotic p = " + format_probability(r.upper);
@@ -57,10 +64,10 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
         ImGui::PopStyleColor();
     }
     ImGui::PushFont(t.strong);
-    if (r.conformity && r.conformity->status.ok)  // the goal is conformity: its verdict leads
-        coloured_text(r.conformity->conforms ? t.accent : t.warn_ink, conformity_verdict(r).c_str());
-    else coloured_text(r.reject ? t.warn_ink : t.accent, verdict_sentence(r).c_str());
+    const bool good = conformity ? r.conformity->conforms : !r.reject;
+    coloured_text(good ? t.accent : t.warn_ink, headline_verdict(r).c_str());  // the goal's answer leads
     ImGui::PopFont();
+    if (!r.model_suggestion.empty()) wrapped_text(r.model_suggestion.c_str());
     if (r.conformity && !r.conformity->status.ok) coloured_text(t.warn_ink, conformity_verdict(r).c_str());
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
     if (r.conformity && r.conformity->status.ok) {
@@ -241,7 +248,7 @@ void draw_categories_table(AppState& s, const Theme& t) {
 
 void draw_planning_panel(AppState& s, const Theme& t) {
     const Result& r = s.result;
-    section_title("How many items must I inspect?", t);
+    section_title("How large a sample do I need? (items to inspect, complaints, survey replies)", t);
     muted_wrapped(t, "Power is the chance the test detects a departure of size w (Cohen's w: 0.1 small, 0.3 medium, 0.5 large) "
                      "at α = %s with df = %s.", format_plain(r.alpha).c_str(), format_count(r.df).c_str());
     if (s.plan_n <= 0) s.plan_n = r.n;

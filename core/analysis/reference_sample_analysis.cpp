@@ -29,6 +29,110 @@ std::vector<double> flat(const std::vector<double>& a, const std::vector<double>
     return v;
 }
 
+// Why the previous sample cannot be compared ("" when it can), and its total.
+std::string previous_sample_problem(const Analysis& a, double* n_ref) {
+    const std::vector<double>& ref = a.model.values;
+    for (std::size_t i = 0; i < ref.size(); ++i) {
+        const double v = ref[i];
+        if (!std::isfinite(v) || v < 0 || v != std::floor(v) || v >= 9007199254740992.0)
+            return "The previous sample's count for \"" + a.categories[i] + "\" (" + format_plain(v) +
+                   ") must be a non-negative whole number: give its counts, not shares or percentages.";
+        *n_ref += v;
+    }
+    if (!(*n_ref > 0)) return "All counts of the previous sample are zero: there is nothing to compare with.";
+    if (a.statistic.williams) return "Williams' correction is for one sample against a stated mix; compare with a previous sample without it.";
+    if (a.extra_estimated_parameters > 0)
+        return "A comparison with a previous sample estimates the shares from both samples (df = k − 1); "
+               "extra estimated parameters do not apply.";
+    return "";
+}
+
+// The exact or Monte Carlo conditional p-value when asked for (ordered by the statistic or by
+// the tables' probability), else the asymptotic one stays.
+void add_conditional_pvalue(const Analysis& a, const HomogeneityTable& table, Result* r, ReferenceSampleOutcome* out) {
+    r->exact.requested = a.pvalue.method == PValueMethod::exact;
+    r->monte_carlo.requested = a.pvalue.method == PValueMethod::monte_carlo;
+    const bool by_probability = a.pvalue.ordering == ExactOrdering::probability;
+    if (r->exact.requested) {
+        HomogeneityExactResult er;
+        const Status s = homogeneity_exact_p(table, a.statistic.lambda, kMaxExactHomogeneityTables, &er, by_probability);
+        r->exact.method = "table-enumeration";  // every table with the margins; exact.ordering says how they are ranked
+        if (s.ok) {
+            r->exact.computed = true;
+            r->exact.p = er.p;
+            r->exact.work_units = er.tables;
+            out->exact_tables = er.tables;
+            r->method = PValueMethod::exact;
+            r->p = er.p;
+        } else {
+            r->exact.refusal = s.message;
+            r->warnings.push_back("Exact p-value not available: " + s.message + " The asymptotic p-value is shown.");
+        }
+    } else if (r->monte_carlo.requested) {
+        MonteCarloResult mr;
+        const Status s = homogeneity_monte_carlo_p(table, a.statistic.lambda, a.pvalue.replicates, a.pvalue.seed,
+                                      kMaxMonteCarloHomogeneityDraws, &mr, by_probability);
+        if (s.ok) {
+            r->monte_carlo.computed = true;
+            record_monte_carlo(mr, r);
+        } else {
+            r->monte_carlo.refusal = s.message;
+            r->warnings.push_back("Monte Carlo p-value not available: " + s.message + " The asymptotic p-value is shown.");
+        }
+    }
+}
+
+// Per category: the 2 x 2 table of this category against the rest (X² = adjusted residual², df 1),
+// Holm-adjusted; a category drives the result when that p is below alpha (the one rule).
+void add_category_tests(const Analysis& a, const HomogeneityTable& table, const std::vector<std::string>& labels, Result* r,
+                        ReferenceSampleOutcome* out_ptr) {
+    ReferenceSampleOutcome& out = *out_ptr;
+    const std::size_t cells = labels.size();
+    std::vector<double> p_values(cells);
+    for (std::size_t j = 0; j < cells; ++j) {
+        const double z = table.adjusted_residuals[j];
+        out.category_p.push_back(chi_square_upper_tail(z * z, 1));
+        p_values[j] = out.category_p.back().p;
+    }
+    if (!adjust_p_values(p_values, MultiplicityMethod::holm, &out.category_p_adjusted).ok)
+        out.category_p_adjusted.assign(cells, NAN);
+    CategoryDiagnostics& d = r->diagnostics;
+    d.alpha = a.alpha;
+    d.statistic = r->statistic;
+    std::string drivers;
+    for (std::size_t j = 0; j < cells; ++j) {
+        CategoryDiagnostic c;
+        c.label = labels[j];
+        c.observed = table.current[j];
+        c.expected = table.expected_current[j];
+        c.difference = c.observed - c.expected;
+        c.observed_share = c.observed / table.n_current;
+        c.expected_share = table.pooled_shares[j];
+        c.contribution = table.contributions[j];
+        c.contribution_share = r->statistic > 0 ? c.contribution / r->statistic : 0.0;
+        c.pearson_residual = table.pearson_residuals[j];
+        c.adjusted_residual = table.adjusted_residuals[j];
+        // The one-sample binomial test and share intervals do not apply; `adjusted` is the 2 x 2 test's Holm p.
+        c.binomial = TailProbability{NAN, NAN};
+        c.adjusted = TailProbability{out.category_p_adjusted[j], std::log10(out.category_p_adjusted[j])};
+        c.goodman = c.sison_glaz = ProportionInterval{NAN, NAN};
+        c.drives_result = out.category_p_adjusted[j] < a.alpha;
+        c.direction = c.difference > 0 ? "more than in the previous sample" : c.difference < 0 ? "fewer than in the previous sample" : "as in the previous sample";
+        c.description = c.label + ": " + c.direction + " (" + format_count(c.observed) + " observed vs " +
+                        format_significant(c.expected, 3) + " expected from both samples; Holm-adjusted p = " +
+                        format_significant(out.category_p_adjusted[j], 2) + ")";
+        if (c.drives_result) {
+            d.drivers.push_back(j);
+            drivers += (drivers.empty() ? "" : "; ") + c.description;
+        }
+        d.categories.push_back(c);
+    }
+    const std::string test = "Holm-adjusted p below " + format_plain(a.alpha) + " for the category against the rest";
+    d.rule = test + " (2 × 2 table)";
+    d.summary = drivers_summary(d.drivers.size(), cells, test, drivers, "differs clearly from the previous sample's share");
+
+}
+
 }  // namespace
 
 void analyse_reference_sample(const Analysis& a, Result* r) {
@@ -38,18 +142,7 @@ void analyse_reference_sample(const Analysis& a, Result* r) {
         return refuse(r, "The previous sample has " + std::to_string(ref.size()) + " counts but there are " + std::to_string(k) +
                              " categories; give one count of the previous sample per category, in the same order.");
     double n_ref = 0;
-    for (std::size_t i = 0; i < k; ++i) {
-        const double v = ref[i];
-        if (!std::isfinite(v) || v < 0 || v != std::floor(v) || v >= 9007199254740992.0)
-            return refuse(r, "The previous sample's count for \"" + a.categories[i] + "\" (" + format_plain(v) +
-                                 ") must be a non-negative whole number: give its counts, not shares or percentages.");
-        n_ref += v;
-    }
-    if (!(n_ref > 0)) return refuse(r, "All counts of the previous sample are zero: there is nothing to compare with.");
-    if (a.statistic.williams) return refuse(r, "Williams' correction is for one sample against a stated mix; compare with a previous sample without it.");
-    if (a.extra_estimated_parameters > 0)
-        return refuse(r, "A comparison with a previous sample estimates the shares from both samples (df = k − 1); "
-                         "extra estimated parameters do not apply.");
+    if (const std::string why = previous_sample_problem(a, &n_ref); !why.empty()) return refuse(r, why);
 
     ReferenceSampleOutcome out;
     out.reference = ref;
@@ -135,93 +228,14 @@ void analyse_reference_sample(const Analysis& a, Result* r) {
     r->critical_value = chi_square_critical_value(a.alpha, r->df);
     r->method = PValueMethod::asymptotic;
     r->p = r->upper;
-    r->exact.requested = a.pvalue.method == PValueMethod::exact;
-    r->monte_carlo.requested = a.pvalue.method == PValueMethod::monte_carlo;
-    if (r->exact.requested) {
-        HomogeneityExactResult er;
-        s = homogeneity_exact_p(table, a.statistic.lambda, kMaxExactHomogeneityTables, &er);
-        if (s.ok) {
-            r->exact.computed = true;
-            r->exact.p = er.p;
-            r->exact.work_units = er.tables;
-            out.exact_tables = er.tables;
-            r->method = PValueMethod::exact;
-            r->p = er.p;
-        } else {
-            r->exact.refusal = s.message;
-            r->warnings.push_back("Exact p-value not available: " + s.message + " The asymptotic p-value is shown.");
-        }
-    } else if (r->monte_carlo.requested) {
-        MonteCarloResult mr;
-        s = homogeneity_monte_carlo_p(table, a.statistic.lambda, a.pvalue.replicates, a.pvalue.seed,
-                                      kMaxMonteCarloHomogeneityDraws, &mr);
-        if (s.ok) {
-            r->monte_carlo.computed = true;
-            record_monte_carlo(mr, r);
-        } else {
-            r->monte_carlo.refusal = s.message;
-            r->warnings.push_back("Monte Carlo p-value not available: " + s.message + " The asymptotic p-value is shown.");
-        }
-    }
+    add_conditional_pvalue(a, table, r, &out);
     r->reject = r->p.p <= a.alpha;
 
-    // Per category: the 2 x 2 table of this category against the rest (X² = adjusted residual², df 1)
-    const std::size_t cells = labels.size();
-    std::vector<double> p_values(cells);
-    for (std::size_t j = 0; j < cells; ++j) {
-        const double z = table.adjusted_residuals[j];
-        out.category_p.push_back(chi_square_upper_tail(z * z, 1));
-        p_values[j] = out.category_p.back().p;
-    }
-    if (!adjust_p_values(p_values, MultiplicityMethod::holm, &out.category_p_adjusted).ok)
-        out.category_p_adjusted.assign(cells, NAN);
-    CategoryDiagnostics& d = r->diagnostics;
-    d.alpha = a.alpha;
-    d.statistic = r->statistic;
-    std::string drivers;
-    for (std::size_t j = 0; j < cells; ++j) {
-        CategoryDiagnostic c;
-        c.label = labels[j];
-        c.observed = table.current[j];
-        c.expected = table.expected_current[j];
-        c.difference = c.observed - c.expected;
-        c.observed_share = c.observed / table.n_current;
-        c.expected_share = table.pooled_shares[j];
-        c.contribution = table.contributions[j];
-        c.contribution_share = r->statistic > 0 ? c.contribution / r->statistic : 0.0;
-        c.pearson_residual = table.pearson_residuals[j];
-        c.adjusted_residual = table.adjusted_residuals[j];
-        // The one-sample binomial test and share intervals do not apply; `adjusted` is the 2 x 2 test's Holm p.
-        c.binomial = TailProbability{NAN, NAN};
-        c.adjusted = TailProbability{out.category_p_adjusted[j], std::log10(out.category_p_adjusted[j])};
-        c.goodman = c.sison_glaz = ProportionInterval{NAN, NAN};
-        c.drives_result = out.category_p_adjusted[j] < a.alpha;
-        c.direction = c.difference > 0 ? "more than in the previous sample" : c.difference < 0 ? "fewer than in the previous sample" : "as in the previous sample";
-        c.description = c.label + ": " + c.direction + " (" + format_count(c.observed) + " observed vs " +
-                        format_significant(c.expected, 3) + " expected from both samples; Holm-adjusted p = " +
-                        format_significant(out.category_p_adjusted[j], 2) + ")";
-        if (c.drives_result) {
-            d.drivers.push_back(j);
-            drivers += (drivers.empty() ? "" : "; ") + c.description;
-        }
-        d.categories.push_back(c);
-    }
-    const std::string test = "Holm-adjusted p below " + format_plain(a.alpha) + " for the category against the rest";
-    d.summary = d.drivers.empty()
-                    ? "No single category's share differs clearly from the previous sample's (" + test + " for none of the " +
-                          std::to_string(cells) + " categories)."
-                    : std::to_string(d.drivers.size()) + " of " + std::to_string(cells) + " categories differ from the previous sample (" +
-                          test + "): " + drivers + ".";
+    add_category_tests(a, table, labels, r, &out);
 
     // Effect size over both samples (w = Cramér's V for a 2 x k table), set as the one-sample
     // path sets it (goodness_of_fit.cpp): w, its chance-corrected estimate, labels and interval.
-    r->effect.w = cohens_w(r->statistic, out.n_total);
-    r->effect.w_label = cohens_w_label(r->effect.w);
-    r->effect.estimate = noncentral_w(r->statistic, out.n_total, r->df);
-    r->effect.label = cohens_w_label(r->effect.estimate);
-    if (!cohens_w_interval(r->statistic, out.n_total, r->df, 0.95, &r->effect.w_interval).ok)
-        r->effect.w_interval = {r->effect.w, NAN, NAN, 0.95};
-    r->effect.w_interval.estimate = r->effect.estimate;
+    r->effect = effect_outcome(r->statistic, out.n_total, r->df, NAN);
     if (r->reject && r->effect.estimate < 0.1)
         r->warnings.push_back("The change is statistically significant but very small (w = " + format_fixed(r->effect.estimate, 3) +
                               "): with " + format_count(out.n_total) + " observations in the two samples, even a negligible change is detected.");

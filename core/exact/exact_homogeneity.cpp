@@ -45,6 +45,8 @@ struct Enumeration {
     std::vector<std::vector<double>> term, log_weight;  // [j][x]: score and -log x! - log (c_j - x)!
     std::vector<int> rest_capacity;                     // sum over columns >= j of min(c_j, m)
     double threshold = 0, log_max = -HUGE_VAL, sum = 0, tables = 0;
+    bool by_probability = false;
+    double log_p_threshold = 0;  // by probability: log of the observed table's probability times 1 + 1e-7
 
     void add(double log_p) {
         if (log_p > log_max) { sum = sum * std::exp(log_max - log_p) + 1; log_max = log_p; }
@@ -54,7 +56,8 @@ struct Enumeration {
         const std::size_t k = g->c.size();
         if (j + 1 == k) {
             ++tables;
-            if (score + term[j][rem] >= threshold) add(log_w + log_weight[j][rem]);
+            const double log_p = log_w + log_weight[j][rem];
+            if (by_probability ? log_p <= log_p_threshold : score + term[j][rem] >= threshold) add(log_p);
             return;
         }
         const int lo = std::max(0, rem - rest_capacity[j + 1]), hi = std::min(g->c[j], rem);
@@ -83,7 +86,8 @@ double homogeneity_table_count(const HomogeneityTable& t) {
     return ways[static_cast<std::size_t>(g.m)];
 }
 
-Status homogeneity_exact_p(const HomogeneityTable& t, double lambda, double max_tables, HomogeneityExactResult* out) {
+Status homogeneity_exact_p(const HomogeneityTable& t, double lambda, double max_tables, HomogeneityExactResult* out,
+                           bool by_probability) {
     *out = HomogeneityExactResult{};
     const double count = homogeneity_table_count(t);
     if (!(count <= max_tables))
@@ -113,6 +117,10 @@ Status homogeneity_exact_p(const HomogeneityTable& t, double lambda, double max_
         observed_score += e.term[j][static_cast<std::size_t>(observed[j])];
     }
     e.threshold = observed_score - kTieRelativeTolerance * std::fabs(observed_score);
+    e.by_probability = by_probability;
+    double observed_log_p = log_constant;
+    for (std::size_t j = 0; j < k; ++j) observed_log_p += e.log_weight[j][static_cast<std::size_t>(observed[j])];
+    e.log_p_threshold = observed_log_p + std::log1p(1e-7);
     e.walk(0, g.m, 0.0, log_constant);
     const double ln_p = std::min(0.0, e.log_max + std::log(e.sum));
     out->p = TailProbability{std::exp(ln_p), ln_p / std::log(10.0)};
@@ -121,7 +129,7 @@ Status homogeneity_exact_p(const HomogeneityTable& t, double lambda, double max_
 }
 
 Status homogeneity_monte_carlo_p(const HomogeneityTable& t, double lambda, std::uint64_t replicates, std::uint64_t seed,
-                                 double max_work, MonteCarloResult* out) {
+                                 double max_work, MonteCarloResult* out, bool by_probability) {
     *out = MonteCarloResult{};
     if (replicates < 1) return Status::failure("Monte Carlo needs at least one replicate.");
     const Margins g = margins_of(t);
@@ -132,14 +140,18 @@ Status homogeneity_monte_carlo_p(const HomogeneityTable& t, double lambda, std::
                                "), beyond the limit of " + format_significant(max_work, 2) +
                                ". Samples this large are where the asymptotic p-value holds (see its validity), or ask for fewer replicates.");
     const std::size_t k = g.c.size();
+    // Score per column: the statistic's term, or by probability minus log x! (c_j - x)!, so that a
+    // higher score is always the more extreme table (the constant of the probability cancels).
     std::vector<std::vector<double>> term(k);
     double observed_score = 0;
     for (std::size_t j = 0; j < k; ++j) {
         const int hi = std::min(g.c[j], g.m);
-        for (int x = 0; x <= hi; ++x) term[j].push_back(column_term(t, g, j, x, lambda));
+        for (int x = 0; x <= hi; ++x)
+            term[j].push_back(by_probability ? log_factorial(x) + log_factorial(g.c[j] - x) : column_term(t, g, j, x, lambda));
         observed_score += term[j][static_cast<std::size_t>(g.current_is_small ? t.current[j] : t.reference[j])];
     }
-    const double threshold = observed_score - kTieRelativeTolerance * std::fabs(observed_score);
+    const double threshold = by_probability ? observed_score - 1e-7
+                                            : observed_score - kTieRelativeTolerance * std::fabs(observed_score);
     std::vector<std::uint32_t> pool;  // every observation, by its column
     pool.reserve(static_cast<std::size_t>(g.n));
     for (std::size_t j = 0; j < k; ++j) pool.insert(pool.end(), static_cast<std::size_t>(g.c[j]), static_cast<std::uint32_t>(j));

@@ -5,6 +5,8 @@
 // of positive terms, in log space); and Monte Carlo, B tables drawn by a partial Fisher-Yates
 // shuffle of the N observations, p = (b + 1) / (B + 1) (Davison and Hinkley 1997, eq. 4.11; as
 // R's chisq.test(simulate.p.value = TRUE)). Ties within 1e-9 relative count as extreme.
+// Ordered by probability instead, a table counts as extreme when its own probability is at most
+// the observed table's times 1 + 1e-7 (R's fisher.test, which uses the same relative tolerance).
 #pragma once
 #include <cstdint>
 
@@ -25,11 +27,13 @@ struct HomogeneityExactResult {
 double homogeneity_table_count(const HomogeneityTable& t);
 
 // Refuses (naming the number of tables and offering Monte Carlo) above max_tables.
-Status homogeneity_exact_p(const HomogeneityTable& t, double lambda, double max_tables, HomogeneityExactResult* out);
+// by_probability: order tables by their probability (Fisher's exact test for a 2 x k table).
+Status homogeneity_exact_p(const HomogeneityTable& t, double lambda, double max_tables, HomogeneityExactResult* out,
+                           bool by_probability = false);
 
 // B replicates from `seed` (xoshiro256**, core/numerics/random). Refuses when B times the smaller row
 // total exceeds max_work (samples that large are where the asymptotic p-value holds).
 Status homogeneity_monte_carlo_p(const HomogeneityTable& t, double lambda, std::uint64_t replicates, std::uint64_t seed,
-                                 double max_work, MonteCarloResult* out);
+                                 double max_work, MonteCarloResult* out, bool by_probability = false);
 
 }  // namespace tallyproof

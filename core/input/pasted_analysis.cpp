@@ -1,16 +1,24 @@
 // Mapping from the detected paste (paste_parser) to the analysis document's model kinds.
 #include "pasted_analysis.hpp"
 
+#include "category_values.hpp"
 #include "label_text.hpp"
 #include "null_model.hpp"
 
 namespace tallyproof {
 namespace {
 
+// Labels that are consecutive whole numbers (0, 1, 2, ... or ranges such as "5 or more" that
+// follow on) have a natural order, as "Categories are in order" means.
+bool consecutive_whole_numbers(const std::vector<std::string>& labels) {
+    std::vector<IntegerBin> bins;
+    return labels.size() >= 2 && integer_bins_from_labels(labels, &bins).ok;
+}
+
 bool take_paste(const ParsedInput& parsed, Analysis* a) {
     a->categories = parsed.categories;
     a->observed = parsed.observed;
-    a->ordered = parsed.ordered;
+    a->ordered = parsed.ordered || consecutive_whole_numbers(parsed.categories);
     if (!parsed.expected.empty() && parsed.expected_kind != ExpectedKind::none) {
         a->model = Model{};
         a->model.kind = parsed.expected_kind == ExpectedKind::ratios            ? ModelKind::ratio

@@ -80,6 +80,9 @@ struct PlanChoice {
 struct ConformityChoice {
     bool requested = false;
     double margin_w = std::numeric_limits<double>::quiet_NaN();      // w0, in (0, 1]
+    // The margin entered as the largest shift in percentage points between two categories
+    // (core/conformity margin_w_from_points); when given, w0 is derived from it and the shares.
+    double margin_points = std::numeric_limits<double>::quiet_NaN();
     double true_w = std::numeric_limits<double>::quiet_NaN();        // planning: true w assumed (default 0)
     double target_power = std::numeric_limits<double>::quiet_NaN();  // planning: default 0.8
 };

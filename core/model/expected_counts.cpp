@@ -46,7 +46,19 @@ Status expected_counts(const Model& model, std::size_t k, double n, std::vector<
             char buf[220];
             std::snprintf(buf, sizeof buf,
                           "The stated shares total %.10g; they must total 1 (fractions) or 100 (percentages).", total);
-            return Status::failure(buf);
+            std::string message = buf;
+            // Whole numbers such as 5, 3, 1, 1 are far more often a ratio (5:3:1:1) than mistyped shares.
+            bool whole = true;
+            for (double v : model.values) whole = whole && v == std::floor(v);
+            if (whole) {
+                std::string ratio;
+                for (std::size_t i = 0; i < model.values.size(); ++i) {
+                    std::snprintf(buf, sizeof buf, "%s%.10g", i ? ":" : "", model.values[i]);
+                    ratio += buf;
+                }
+                message += " If they are a ratio (" + ratio + "), choose Ratio as the expected mix (--model ratio).";
+            }
+            return Status::failure(message);
         }
         if (total != 1 && total != 100) {
             char buf[200];

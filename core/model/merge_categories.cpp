@@ -235,7 +235,7 @@ Status merge_categories(const std::vector<std::string>& labels, const std::vecto
     if (r.merged) {
         r.note = "Merged " + std::to_string(k) + " categories into " + std::to_string(r.categories) + " to satisfy " +
                  rule_phrase(options.rule, options.minimum) + ", using expected counts only: " + merged_list +
-                 ". Degrees of freedom must be recounted from the " + std::to_string(r.categories) + " groups.";
+                 ". The degrees of freedom are counted on the " + std::to_string(r.categories) + " groups (already done in the df shown).";
         if (swept)
             r.note += " (Joining the thinnest group repeatedly would have left a single group, so neighbours were "
                       "grouped left to right instead.)";

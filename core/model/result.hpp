@@ -47,17 +47,6 @@ struct MonteCarloOutcome {
     std::string refusal;
 };
 
-struct EffectOutcome {
-    double estimate = 0;        // sqrt(max(0, X2 - df) / N): noncentrality-based, inside w_interval
-    const char* label = "";     // Cohen's (1988) label of `estimate`
-    double w = 0;               // Cohen's w = sqrt(X2 / N), biased upward by about df / N under the null
-    const char* w_label = "";   // Cohen's label of w (kept for reference; the labelled size is `estimate`)
-    EffectSizeInterval w_interval;
-    bool fei_defined = false;  // needs a smallest expected share below 1
-    double fei = 0;
-    EffectSizeInterval fei_interval;
-};
-
 struct PlanOutcome {
     bool requested = false;
     Status status;
@@ -136,6 +125,7 @@ struct Result {
 
     std::vector<std::string> warnings;      // plain-language notes about this analysis
     std::vector<std::string> questions;     // quiet checks a user may dismiss ("counts, or percentages?"), not warnings
+    std::string model_suggestion;           // a model these data are usually tested against, shown with the verdict ("" if none)
     std::vector<std::string> cautions;      // the usual cautions that apply to it
 };
 

@@ -183,10 +183,17 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
         if (!c->is(Type::object)) return wrong("conformity", "an object such as {\"margin_w\": 0.1}");
         a.conformity.requested = true;
         TP_TRY(read_number(*c, "margin_w", "conformity.", &a.conformity.margin_w));
+        TP_TRY(read_number(*c, "margin_points", "conformity.", &a.conformity.margin_points));
         TP_TRY(read_number(*c, "true_w", "conformity.", &a.conformity.true_w));
         TP_TRY(read_number(*c, "target_power", "conformity.", &a.conformity.target_power));
-        if (!(a.conformity.margin_w > 0 && a.conformity.margin_w <= 1))
-            return wrong("conformity.margin_w", "a margin w0 in (0, 1], such as 0.1 (Cohen's small effect)");
+        if (std::isfinite(a.conformity.margin_points)) {  // the margin as a shift in percentage points
+            if (!(a.conformity.margin_points > 0 && a.conformity.margin_points <= 100))
+                return wrong("conformity.margin_points", "a shift in percentage points above 0 and at most 100, such as 2");
+            if (std::isfinite(a.conformity.margin_w))
+                return wrong("conformity", "either margin_w or margin_points, not both");
+        } else if (!(a.conformity.margin_w > 0 && a.conformity.margin_w <= 1)) {
+            return wrong("conformity.margin_w", "a margin w0 in (0, 1], such as 0.1 (Cohen's small effect), or margin_points");
+        }
     }
     *out = std::move(a);
     return Status::success();
@@ -233,7 +240,8 @@ std::string write_analysis_document(const Analysis& a) {
     }
     if (a.conformity.requested) {
         j.key("conformity").begin_object();
-        const std::pair<const char*, double> fields[] = {{"margin_w", a.conformity.margin_w}, {"true_w", a.conformity.true_w},
+        const std::pair<const char*, double> fields[] = {{"margin_w", std::isfinite(a.conformity.margin_points) ? NAN : a.conformity.margin_w},
+                                                         {"margin_points", a.conformity.margin_points}, {"true_w", a.conformity.true_w},
                                                          {"target_power", a.conformity.target_power}};
         for (const auto& [name, value] : fields)
             if (std::isfinite(value)) j.key(name).value(value);

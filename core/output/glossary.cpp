@@ -25,16 +25,18 @@ const std::vector<GlossaryEntry> kEntries = {
     {"E", "Expected count: how many items the stated mix predicts for this category (N times its expected share)."},
     {"O − E", "Observed minus expected: positive where the category has more items than the mix predicts, negative where "
               "it has fewer."},
-    {"χ² share", "This category's part of the statistic, as a percentage of the whole: the categories with the largest "
-                 "shares drive the result."},
-    {"Contribution", "This category's term of the statistic, (O − E)²/E for χ²: the terms add up to the statistic, and "
-                     "the categories with the largest terms drive the result."},
-    {"Adj. res.", "Adjusted residual: O − E divided by its standard error if the mix were right. Beyond about ±2 a category "
-                  "departs by more than chance usually allows; the sign gives the direction."},
+    {"χ² share", "This category's part of the statistic, as a percentage of the whole: it shows where the statistic comes "
+                 "from. Which categories drive the result is decided by one rule, their Holm-adjusted p below α (◆)."},
+    {"Contribution", "This category's term of the statistic, (O − E)²/E for χ²: the terms add up to the statistic and show "
+                     "where it comes from. Which categories drive the result is decided by their Holm-adjusted p (◆)."},
+    {"Adj. res.", "Adjusted residual: O − E divided by its standard error if the mix were right; the sign gives the direction. "
+                  "Taken alone, beyond about ±2 a category is unusual, but with many categories some are by chance: a "
+                  "category drives the result only when its Holm-adjusted p is below α (◆), the one rule used everywhere."},
     {"Holm p", "The category's own p-value (this category against all the others together), adjusted by Holm's method "
                "because every category is tested at once. Adjusted p-values are capped at 1, which means no evidence "
                "against this category."},
-    {"◆", "Marks a category that drives the result: its Holm-adjusted p is below α."},
+    {"◆", "Marks a category that drives the result, by the one rule used on the page, in the write-up and by the "
+          "command-line tool: its Holm-adjusted p (this category against all the others) is below α."},
     {"G²", "Likelihood ratio G², 2 Σ O ln(O/E): an alternative to χ² (λ = 0 in the power-divergence family), "
            "compared with the same chi-square distribution."},
     {"T²", "Freeman-Tukey T², 4 Σ (√O − √E)²: λ = −1/2 in the power-divergence family."},
@@ -49,7 +51,10 @@ const std::vector<GlossaryEntry> kEntries = {
     {"Cohen's w", "√(χ²/N), w as Cohen defined it. It is biased upwards by about df/N: counts drawn from the stated mix "
                   "itself still give about √(df/N)."},
     {"w0", "Conformity margin: the largest departure, on the w scale, that still counts as conforming. Take it from the "
-           "contract or the local rule; 0.1 is Cohen's small effect."},
+           "contract or the local rule; 0.1 is Cohen's small effect. It can be given as percentage points instead (pp)."},
+    {"pp", "Percentage points: a conformity margin as the largest shift of share between two categories (from one to the "
+           "other) that still counts as conforming. w0 = d √(1/p₁ + 1/p₂), with d the shift as a fraction and p₁, p₂ the "
+           "two smallest expected shares (a shift between them moves w the most)."},
     {"CI", "Confidence interval: the values of the effect size compatible with the data at the stated confidence (95%)."},
     {"Fei", "Fei: w rescaled to run from 0 to 1 for these expected shares. 0 when the counts match the mix exactly, 1 "
             "when every item falls in the category the mix expects least."},

@@ -43,16 +43,30 @@ std::string verdict_sentence(const Result& r) {
     return std::string("No evidence against ") + mix + " " + at + ".";
 }
 
+namespace {
+// "w0 = 0.10 (a shift of 3.5 percentage points between the two smallest categories)"
+std::string margin_text(double w, double points) {
+    std::string s = "w < " + format_fixed(w, 2);
+    if (std::isfinite(points)) s += ", a shift of up to " + format_significant(points, 2) + " percentage points between two categories";
+    return s;
+}
+}  // namespace
+
 std::string conformity_verdict(const Result& r) {
     if (!r.conformity) return "";
     const ConformityResult& c = *r.conformity;
     if (!c.status.ok) return "Conformity not tested: " + c.status.message;
-    const std::string within = "within w < " + format_fixed(c.margin_w, 2);
-    if (c.conforms) return "The counts conform to the stated mix " + within + " (p = " + format_probability(c.p_value) + ").";
-    std::string s = "Conformity " + within + " is not shown (p = " + format_probability(c.p_value) + ")";
+    const std::string within = "within " + margin_text(c.margin_w, c.margin_points);
+    if (c.conforms) return "The counts conform to the stated mix " + within + " (conformity p = " + format_probability(c.p_value) + ").";
+    std::string s = "Conformity " + within + " is not shown (conformity p = " + format_probability(c.p_value) + ")";
     if (std::isfinite(c.smallest_margin_w))
-        s += "; with N = " + format_count(c.n) + " the data allow only w < " + format_fixed(c.smallest_margin_w, 2);
+        s += "; with N = " + format_count(c.n) + " the data allow only " + margin_text(c.smallest_margin_w, c.smallest_margin_points);
     return s + ".";
+}
+
+std::string headline_verdict(const Result& r) {
+    if (r.conformity && r.conformity->status.ok) return conformity_verdict(r);
+    return verdict_sentence(r);
 }
 
 std::string method_phrase(const Result& r) {
@@ -73,6 +87,8 @@ std::string report_text(const Analysis& a, const Result& r) {
         s += "Chi-square test of homogeneity: " + r.statistic_name + ", compared with the previous sample of N = " +
              format_count(r.reference->n_reference) + "\n";
     else s += "Chi-square goodness of fit: " + r.statistic_name + ", " + r.model_description + "\n";
+    const bool conformity_goal = r.conformity && r.conformity->status.ok;
+    if (conformity_goal) s += "Answer (the goal is conformity): " + conformity_verdict(r) + "\nThe test of departure, second:\n";
     s += "N = " + format_count(r.n) + (r.reference ? " (both samples " + format_count(r.reference->n_total) + ")" : "") +
          ", k = " + std::to_string(r.observed.size()) + " categories";
     if (r.merged) s += " (" + std::to_string(r.tested_categories.size()) + " after merging)";
@@ -84,10 +100,11 @@ std::string report_text(const Analysis& a, const Result& r) {
     if (r.monte_carlo.computed)
         s += "Monte Carlo: " + grouped(r.monte_carlo.hits) + " of " + grouped(r.monte_carlo.replicates) +
              " replicates at least as extreme; standard error " + format_significant(r.monte_carlo.standard_error, 2) + "\n";
-    s += "Lower-tail p (a fit closer than chance allows?): " +
+    s += "Lower-tail p (how often chance gives a fit this close or closer; a tiny value means too good a fit): " +
          format_probability(r.exact_lower_computed ? r.exact_lower : r.lower) + (r.exact_lower_computed ? " (exact)\n" : " (asymptotic)\n");
     s += "Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3) + "\n";
     s += verdict_sentence(r) + "\n";
+    if (!r.model_suggestion.empty()) s += "Suggestion: " + r.model_suggestion + "\n";
     s += "Effect size: w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ", corrected for chance)" +
          interval_text(r.effect.w_interval) + "; Cohen's w before the correction, √(" + r.statistic_symbol + "/N) = " +
          format_fixed(r.effect.w, 3) + ", averages about √(df/N) = " + format_fixed(std::sqrt(r.df / (r.reference ? r.reference->n_total : r.n)), 3) + " even when the mix holds";
@@ -111,7 +128,7 @@ std::string report_text(const Analysis& a, const Result& r) {
         else s += "Planning: " + r.plan.status.message + "\n";
     }
     if (r.conformity) {
-        s += conformity_verdict(r) + "\n";
+        if (!conformity_goal) s += conformity_verdict(r) + "\n";
         const ConformityResult& c = *r.conformity;
         if (c.status.ok) {
             s += "Conformity margin w0 = " + format_fixed(c.margin_w, 3) + ": conform when " + r.statistic_symbol + " < " +
@@ -155,13 +172,9 @@ bool begin_result_document(JsonWriter& j, const Status& status) {
     return false;
 }
 
-std::string report_json(const Analysis& a, const Result& r) {
-    JsonWriter j;
-    if (!begin_result_document(j, r.status)) {
-        j.key("warnings").strings(r.warnings);
-        j.end_object();
-        return j.str();
-    }
+namespace {
+
+void write_test(JsonWriter& j, const Analysis& a, const Result& r) {
     j.key("categories").strings(r.categories);
     j.key("observed").numbers(r.observed);
     j.key("ordered").value(a.ordered);
@@ -186,6 +199,9 @@ std::string report_json(const Analysis& a, const Result& r) {
         j.key("exact_lower_p_value").null().key("log10_exact_lower_p_value").null();
     j.key("critical_value").value(r.critical_value);
     j.key("reject").value(r.reject);
+}
+
+void write_categories(JsonWriter& j, const Result& r) {
     j.key("expected_shares").numbers(r.expected_shares);
     j.key("expected_counts").numbers(r.expected_counts);
     j.key("tested_categories").strings(r.tested_categories);
@@ -214,9 +230,14 @@ std::string report_json(const Analysis& a, const Result& r) {
     j.key("drivers").begin_array();
     for (std::size_t i : r.diagnostics.drivers) j.value(static_cast<double>(i));
     j.end_array();
+    j.key("drivers_rule").value(r.diagnostics.rule);
+}
+
+void write_intervals(JsonWriter& j, const Result& r) {
     j.key("intervals").begin_object();
     j.key("method").value("Sison-Glaz");
     j.key("level").value(1 - r.alpha);
+    j.key("alpha").value(r.alpha);
     j.key("lower").begin_array();
     for (const auto& d : r.diagnostics.categories) j.value(d.sison_glaz.lower);
     j.end_array().key("upper").begin_array();
@@ -226,19 +247,33 @@ std::string report_json(const Analysis& a, const Result& r) {
     j.end_array().key("goodman_upper").begin_array();
     for (const auto& d : r.diagnostics.categories) j.value(d.goodman.upper);
     j.end_array();
-    if (!r.diagnostics.warnings.empty()) j.key("note").value(r.diagnostics.warnings.front());
+    if (r.reference)
+        j.key("note").value("Simultaneous intervals for one sample's shares do not apply to a comparison with a previous sample.");
+    else if (!r.diagnostics.warnings.empty()) j.key("note").value(r.diagnostics.warnings.front());
     j.end_object();
+}
+
+void write_interval(JsonWriter& j, const char* key, const EffectSizeInterval& iv) {
+    j.key(key).begin_array().value(iv.lower).value(iv.upper).end_array();
+}
+
+// w, w_interval and fei, fei_interval are the chance-corrected estimate (the one the page leads
+// with, inside its interval); cohen_w is the uncorrected sqrt(statistic / N), kept for reference.
+void write_effect_size(JsonWriter& j, const EffectOutcome& e) {
     j.key("effect_size").begin_object();
-    j.key("estimate").value(r.effect.estimate).key("label").value(r.effect.label);
-    j.key("w").value(r.effect.w).key("w_label").value(r.effect.w_label);
-    j.key("w_interval").begin_array().value(r.effect.w_interval.lower).value(r.effect.w_interval.upper).end_array();
-    if (r.effect.fei_defined) {
-        j.key("fei").value(r.effect.fei);
-        j.key("fei_interval").begin_array().value(r.effect.fei_interval.lower).value(r.effect.fei_interval.upper).end_array();
+    j.key("w").value(e.estimate).key("w_label").value(e.label);
+    write_interval(j, "w_interval", e.w_interval);
+    j.key("cohen_w").value(e.w).key("cohen_w_label").value(e.w_label);
+    if (e.fei_defined) {
+        j.key("fei").value(e.fei);
+        write_interval(j, "fei_interval", e.fei_interval);
     } else {
         j.key("fei").null();
     }
     j.key("level").value(0.95).end_object();
+}
+
+void write_model_fit(JsonWriter& j, const Result& r) {
     j.key("estimates").begin_object();
     for (const auto& p : r.estimates) j.key(p.name).value(p.value);
     j.end_object();
@@ -259,16 +294,23 @@ std::string report_json(const Analysis& a, const Result& r) {
         j.end_array();
     }
     j.end_array();
+}
+
+void write_pvalue_methods(JsonWriter& j, const Analysis& a, const Result& r) {
+    const char* ordering = a.pvalue.ordering == ExactOrdering::probability ? "probability" : "statistic";
     if (r.exact.requested) {
-        j.key("exact").begin_object();
+        j.key("exact").begin_object().key("ordering").value(ordering);
         if (r.exact.computed) j.key("p_value").value(r.exact.p.p).key("log10_p_value").value(r.exact.p.log10_p)
                                   .key("error_bound").value(r.exact.error_bound).key("work_units").value(r.exact.work_units)
                                   .key("method").value(r.exact.method);
-        else j.key("refusal").value(r.exact.refusal);
+        else {
+            j.key("refusal").value(r.exact.refusal);
+            if (!r.exact.method.empty()) j.key("method").value(r.exact.method);
+        }
         j.end_object();
     }
     if (r.monte_carlo.requested) {
-        j.key("monte_carlo").begin_object();
+        j.key("monte_carlo").begin_object().key("ordering").value(ordering);
         if (r.monte_carlo.computed)
             j.key("p_value").value(r.monte_carlo.p).key("se").value(r.monte_carlo.standard_error)
                 .key("replicates").value(static_cast<double>(r.monte_carlo.replicates))
@@ -278,49 +320,59 @@ std::string report_json(const Analysis& a, const Result& r) {
         else j.key("refusal").value(r.monte_carlo.refusal);
         j.end_object();
     }
+}
+
+void write_plan(JsonWriter& j, const Result& r) {
     if (r.digits.computed) {
         j.key("mad").value(r.digits.mad);
         j.key("mad_band").value(r.digits.band);
     }
-    if (r.plan.requested) {
-        j.key("plan").begin_object().key("w").value(r.plan.w).key("n").value(r.plan.n).key("alpha").value(r.plan.alpha)
-            .key("df").value(r.plan.df).key("target_power").value(r.plan.target_power)
-            .key("power").value(r.plan.power).key("n_required").value(r.plan.n_required);
-        if (!r.plan.status.ok) j.key("error").value(r.plan.status.message);
+    if (!r.plan.requested) return;
+    j.key("plan").begin_object().key("w").value(r.plan.w).key("n").value(r.plan.n).key("alpha").value(r.plan.alpha)
+        .key("df").value(r.plan.df).key("target_power").value(r.plan.target_power)
+        .key("power").value(r.plan.power).key("n_required").value(r.plan.n_required);
+    if (!r.plan.status.ok) j.key("error").value(r.plan.status.message);
+    j.end_object();
+}
+
+void write_reference_sample(JsonWriter& j, const Result& r) {
+    if (!r.reference) return;
+    const ReferenceSampleOutcome& ref = *r.reference;
+    std::vector<double> cp, lp;
+    for (const auto& t : ref.category_p) { cp.push_back(t.p); lp.push_back(t.log10_p); }
+    j.key("reference_sample").begin_object()
+        .key("observed").numbers(ref.reference).key("n").value(ref.n_reference).key("n_total").value(ref.n_total)
+        .key("tested_observed").numbers(ref.tested_reference).key("tested_expected").numbers(ref.expected_reference)
+        .key("pooled_shares").numbers(ref.pooled_shares).key("adjusted_residuals").numbers(ref.adjusted_residuals)
+        .key("category_p_values").numbers(cp).key("category_p_adjusted").numbers(ref.category_p_adjusted)
+        .key("exact_tables").value(ref.exact_tables)
+        .key("validity_current").begin_object().key("min_expected").value(ref.validity_current.min_expected)
+            .key("below_5").value(static_cast<double>(ref.validity_current.below_5)).end_object()
+        .key("validity_reference").begin_object().key("min_expected").value(ref.validity_reference.min_expected)
+            .key("below_5").value(static_cast<double>(ref.validity_reference.below_5)).end_object()
+        .end_object();
+}
+
+void write_conformity(JsonWriter& j, const Result& r) {
+    if (!r.conformity) return;
+    const ConformityResult& c = *r.conformity;
+    j.key("conformity").begin_object().key("margin_w").value(c.margin_w).key("margin_points").value(c.margin_points);
+    if (c.status.ok) {
+        j.key("p_value").value(c.p_value.p).key("log10_p_value").value(c.p_value.log10_p).key("conforms").value(c.conforms)
+            .key("smallest_margin_w").value(c.smallest_margin_w).key("smallest_margin_points").value(c.smallest_margin_points)
+            .key("critical_value").value(c.critical_value)
+            .key("noncentrality").value(c.noncentrality).key("verdict").value(conformity_verdict(r));
+        j.key("plan").begin_object().key("true_w").value(c.plan.true_w).key("target_power").value(c.plan.target_power)
+            .key("n_required").value(c.plan.n_required).key("power_at_n").value(c.plan.power_at_n);
+        if (!c.plan.status.ok) j.key("error").value(c.plan.status.message);
         j.end_object();
+    } else {
+        j.key("error").value(c.status.message);
     }
-    if (r.reference) {
-        const ReferenceSampleOutcome& ref = *r.reference;
-        std::vector<double> cp, lp;
-        for (const auto& t : ref.category_p) { cp.push_back(t.p); lp.push_back(t.log10_p); }
-        j.key("reference_sample").begin_object()
-            .key("observed").numbers(ref.reference).key("n").value(ref.n_reference).key("n_total").value(ref.n_total)
-            .key("tested_observed").numbers(ref.tested_reference).key("tested_expected").numbers(ref.expected_reference)
-            .key("pooled_shares").numbers(ref.pooled_shares).key("adjusted_residuals").numbers(ref.adjusted_residuals)
-            .key("category_p_values").numbers(cp).key("category_p_adjusted").numbers(ref.category_p_adjusted)
-            .key("exact_tables").value(ref.exact_tables)
-            .key("validity_current").begin_object().key("min_expected").value(ref.validity_current.min_expected)
-                .key("below_5").value(static_cast<double>(ref.validity_current.below_5)).end_object()
-            .key("validity_reference").begin_object().key("min_expected").value(ref.validity_reference.min_expected)
-                .key("below_5").value(static_cast<double>(ref.validity_reference.below_5)).end_object()
-            .end_object();
-    }
-    if (r.conformity) {
-        const ConformityResult& c = *r.conformity;
-        j.key("conformity").begin_object().key("margin_w").value(c.margin_w);
-        if (c.status.ok) {
-            j.key("p_value").value(c.p_value.p).key("log10_p_value").value(c.p_value.log10_p).key("conforms").value(c.conforms)
-                .key("smallest_margin_w").value(c.smallest_margin_w).key("critical_value").value(c.critical_value)
-                .key("noncentrality").value(c.noncentrality).key("verdict").value(conformity_verdict(r));
-            j.key("plan").begin_object().key("true_w").value(c.plan.true_w).key("target_power").value(c.plan.target_power)
-                .key("n_required").value(c.plan.n_required).key("power_at_n").value(c.plan.power_at_n);
-            if (!c.plan.status.ok) j.key("error").value(c.plan.status.message);
-            j.end_object();
-        } else {
-            j.key("error").value(c.status.message);
-        }
-        j.end_object();
-    }
+    j.end_object();
+}
+
+void write_validity(JsonWriter& j, const Result& r) {
     j.key("validity").begin_object()
         .key("min_expected").value(r.validity.min_expected)
         .key("below_5").value(static_cast<double>(r.validity.below_5))
@@ -335,8 +387,42 @@ std::string report_json(const Analysis& a, const Result& r) {
             .key("all_at_least_5").value(r.validity_before_merge.all_at_least_5)
             .key("cochran").value(r.validity_before_merge.cochran_holds).end_object()
         .end_object();
+}
+
+// The answer to the goal chosen, first: the conformity test when it was asked for (and could
+// be computed), else the test of departure.
+void write_answer(JsonWriter& j, const Result& r) {
+    const bool conformity = r.conformity && r.conformity->status.ok;
+    j.key("goal").value(conformity ? "conformity" : "departure");
+    j.key("answer").begin_object().key("test").value(conformity ? "conformity" : "departure")
+        .key("verdict").value(headline_verdict(r))
+        .key("p_value").value(conformity ? r.conformity->p_value.p : r.p.p)
+        .key("log10_p_value").value(conformity ? r.conformity->p_value.log10_p : r.p.log10_p).end_object();
+}
+
+}  // namespace
+
+std::string report_json(const Analysis& a, const Result& r) {
+    JsonWriter j;
+    if (!begin_result_document(j, r.status)) {
+        j.key("warnings").strings(r.warnings);
+        j.end_object();
+        return j.str();
+    }
+    write_answer(j, r);
+    write_test(j, a, r);
+    write_categories(j, r);
+    write_intervals(j, r);
+    write_effect_size(j, r.effect);
+    write_model_fit(j, r);
+    write_pvalue_methods(j, a, r);
+    write_plan(j, r);
+    write_reference_sample(j, r);
+    write_conformity(j, r);
+    write_validity(j, r);
     j.key("warnings").strings(r.warnings);
     j.key("questions").strings(r.questions);
+    if (!r.model_suggestion.empty()) j.key("model_suggestion").value(r.model_suggestion);
     j.key("cautions").strings(r.cautions);
     // What each abbreviation and symbol of the report text means (the form view lists them).
     j.key("glossary").begin_array();

@@ -13,6 +13,9 @@ std::string verdict_sentence(const Result& r);                 // decision at al
 // The conformity test's verdict: "The counts conform to the stated mix within w < 0.10 (p = 0.0003)." or
 // "Conformity within w < 0.10 is not shown; with N = 120 the data allow only w < 0.26." ("" when not asked).
 std::string conformity_verdict(const Result& r);
+// What the goal asks, first: the conformity verdict when conformity was asked for and tested,
+// else verdict_sentence. The page's headline, the write-up and JSON "answer" lead with it.
+std::string headline_verdict(const Result& r);
 std::string method_phrase(const Result& r);                    // "asymptotic", "exact", "Monte Carlo, B = ..."
 std::string report_text(const Analysis& a, const Result& r);   // multi-line plain text
 std::string report_json(const Analysis& a, const Result& r);   // result document (one line)

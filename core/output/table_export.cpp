@@ -109,8 +109,14 @@ std::string write_table(const std::vector<std::vector<TableCell>>& rows, const T
 }
 
 std::string category_table(const Result& r, const TableExportOptions& o) {
-    const double level = 100 * (1 - r.diagnostics.alpha);
-    const std::string sg = "Sison-Glaz " + with_decimal_mark(format_plain(level), o) + "% ";
+    // Sison-Glaz's simultaneous intervals, or Goodman's where those are not given (a total above
+    // 1e8, α below 1e-10): the header names the method, so no interval column is left empty.
+    bool sison = false;  // Sison-Glaz is left out for every cell at once (the total, α) or not at all
+    for (const auto& d : r.diagnostics.categories) sison = sison || std::isfinite(d.sison_glaz.lower);
+    const double alpha = r.diagnostics.alpha;
+    const std::string level = alpha >= 1e-6 ? with_decimal_mark(format_plain(100 * (1 - alpha)), o) + "% "
+                                            : "1 − α (α = " + with_decimal_mark(format_significant(alpha, 3), o) + ") ";
+    const std::string sg = std::string(sison ? "Sison-Glaz " : "Goodman ") + level;
     std::vector<std::vector<TableCell>> rows;
     rows.push_back({text_cell("Category"), text_cell("Observed"), text_cell("Expected"), text_cell("Observed share"),
                     text_cell("Expected share"), text_cell("Contribution"), text_cell("Pearson residual"),
@@ -128,8 +134,9 @@ std::string category_table(const Result& r, const TableExportOptions& o) {
         if (i < r.diagnostics.categories.size()) {
             const CategoryDiagnostic& d = r.diagnostics.categories[i];
             row.insert(row.end(), {number_cell(d.pearson_residual), number_cell(d.adjusted_residual), probability_cell(d.binomial),
-                                   probability_cell(d.adjusted), text_cell(d.direction), number_cell(d.sison_glaz.lower),
-                                   number_cell(d.sison_glaz.upper)});
+                                   probability_cell(d.adjusted), text_cell(d.direction),
+                                   number_cell(sison ? d.sison_glaz.lower : d.goodman.lower),
+                                   number_cell(sison ? d.sison_glaz.upper : d.goodman.upper)});
         } else {
             row.insert(row.end(), {count_cell(NAN), count_cell(NAN), count_cell(NAN), count_cell(NAN), text_cell(""),
                                    count_cell(NAN), count_cell(NAN)});

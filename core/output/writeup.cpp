@@ -149,7 +149,17 @@ std::vector<std::string> notes(const Analysis& a, const Result& r, const Style& 
     if (r.method == PValueMethod::asymptotic && !r.validity.cochran_holds)
         out.push_back("Some expected counts are small (the smallest is " + fixed(r.validity.min_expected, 2, st) +
                       "), so the asymptotic p-value may be inaccurate; an exact or Monte Carlo p-value is safer.");
-    if (r.conformity) out.push_back(conformity_verdict(r));
+    if (r.conformity && !r.conformity->status.ok) out.push_back(conformity_verdict(r));  // a conformity answer leads the sentence
+    if (!r.diagnostics.drivers.empty()) {
+        std::vector<std::string> named;
+        for (std::size_t i : r.diagnostics.drivers)
+            if (i < r.diagnostics.categories.size()) {
+                const CategoryDiagnostic& d = r.diagnostics.categories[i];
+                named.push_back(user_text(d.label, st) + " (" + d.direction + ")");
+            }
+        out.push_back(std::string(named.size() == 1 ? "The category that drives the result (" : "The categories that drive the result (") +
+                      user_text(r.diagnostics.rule, st) + "): " + joined_labels(named) + ".");
+    }
     if (r.exact.requested && !r.exact.computed)
         out.push_back("An exact p-value was not computed" + (r.exact.refusal.empty() ? std::string() : " (" + r.exact.refusal + ")") +
                       "; the p-value shown is asymptotic.");
@@ -168,6 +178,8 @@ std::string mix_phrase(const Analysis& a) {
 
 std::string sentence(const Analysis& a, const Result& r, const Style& st, const std::string& subject_raw) {
     if (!r.status.ok) return "Not analysed: " + user_text(r.status.message, st);
+    // When the goal is conformity its answer leads; the test of departure follows.
+    const std::string lead = r.conformity && r.conformity->status.ok ? user_text(conformity_verdict(r), st) + " " : "";
     const std::string subject = user_text(subject_raw.empty() ? "the counts" : subject_raw, st);
     const std::string at = r.alpha == 0.05 ? "" : " at α = " + alpha_text(r.alpha, st);
     std::string s = test_name(r) + " found ";
@@ -188,7 +200,7 @@ std::string sentence(const Analysis& a, const Result& r, const Style& st, const 
         s += sep + "95% CI " + (st.markdown ? "\\[" : "[") + fixed(iv.lower, 2, st) + sep + fixed(iv.upper, 2, st) +
              (st.markdown ? "\\]" : "]");
     s += " (" + method_text(r, st) + ").";
-    return s;
+    return lead + s;
 }
 
 std::string p_cell_text(const TailProbability& p, const Style& st) {  // ".043", "< .001", "> .999"

@@ -35,7 +35,7 @@ ScreenFunnel screen_funnel(const ScreenResult& screen, int points) {
     for (int i = 0; i < points; ++i) {
         const double n = std::exp(lo + (hi - lo) * i / (points - 1));
         f.n.push_back(n);
-        f.w.push_back(std::sqrt(f.statistic_cut / n));
+        f.w.push_back(std::sqrt(std::max(0.0, f.statistic_cut - f.df) / n));
     }
     f.drawn = true;
     return f;

@@ -2,7 +2,8 @@
 // cut on the raw p-value (for BH, Holm and Bonferroni at this screen's data, the largest raw p
 // that was flagged; with none flagged, the cut the smallest p would have had to pass, q/m, which
 // is the first step of all three), so a group is flagged when its statistic reaches the chi-square
-// quantile x* of that cut: w = √(x*/N). The curve is drawn with each group as a point (N, w).
+// quantile x* of that cut: in the chance-corrected w each group carries, w = √(max(0, x* − df)/N)
+// (a group's w is that of its own df; the curve uses the most common df). The curve is drawn with each group as a point (N, w).
 // Common practice for funnel plots of screened units; no single published source.
 #pragma once
 #include <vector>
@@ -17,7 +18,7 @@ struct ScreenFunnel {
     double df = 0;             // the df the curve uses (the most common df of the tested groups)
     double statistic_cut = 0;  // the chi-square quantile of the cut at that df
     std::vector<double> n;     // sample sizes along the curve, log-spaced over the groups' range
-    std::vector<double> w;     // √(statistic_cut / n)
+    std::vector<double> w;     // √(max(0, statistic_cut − df) / n)
 };
 
 // The funnel over `points` sample sizes from the smallest to the largest tested group (widened

@@ -3,7 +3,7 @@
 // of the single analysis. Against the rest: the group and the pooled other groups form a 2 x k
 // table, expected counts row total x column total / N, Pearson's (or the chosen power-divergence)
 // statistic on chi2(k' - 1) for the k' categories seen at all (Agresti 2013, Categorical Data
-// Analysis, 3rd ed., sect. 3.2), w = sqrt(X2 / N) over the table (Cohen 1988, ch. 7) and
+// Analysis, 3rd ed., sect. 3.2), w = sqrt(max(0, X2 - df) / N) over the table (Cohen 1988, ch. 7, corrected for chance) and
 // drivers by adjusted residuals (Haberman 1973) beyond the Bonferroni critical z over k'.
 // Multiplicity across groups: Benjamini and Hochberg (1995), Holm (1979), Bonferroni.
 #include "screen_groups.hpp"
@@ -52,7 +52,8 @@ void test_against_model(const Analysis& base, const std::vector<std::string>& ca
     g->df = r.df;
     g->p = r.p;
     g->method = r.method;
-    g->w = r.effect.w;
+    g->w = r.effect.estimate;
+    g->cohen_w = r.effect.w;
     g->digits = r.digits.computed;
     g->mad = r.digits.mad;
     g->band = r.digits.band;
@@ -112,7 +113,8 @@ bool quick_test_against_shares(const Analysis& base, const std::vector<double>& 
     g->statistic = pd.statistic;
     g->p = chi_square_upper_tail(pd.statistic, g->df);
     g->method = PValueMethod::asymptotic;
-    g->w = cohens_w(pd.statistic, g->n);
+    g->w = noncentral_w(pd.statistic, g->n, g->df);
+    g->cohen_w = cohens_w(pd.statistic, g->n);
     DigitTest test;
     if (digit_test_of(base.model.kind, &test)) {
         const MeanAbsoluteDeviation mad = mean_absolute_deviation(obs, test);
@@ -158,7 +160,8 @@ void test_against_rest(const StatisticChoice& statistic, const std::vector<std::
     g->df = static_cast<double>(kk - 1);
     g->p = chi_square_upper_tail(pd.statistic, g->df);
     g->method = PValueMethod::asymptotic;
-    g->w = cohens_w(pd.statistic, total);
+    g->w = noncentral_w(pd.statistic, total, g->df);
+    g->cohen_w = cohens_w(pd.statistic, total);
     g->thin = !validity.cochran_holds;
     if (g->thin)
         g->note = "thin: smallest expected count " + format_significant(validity.min_expected, 3) +

@@ -41,7 +41,8 @@ struct GroupRow {
     TailProbability p;               // the p-value of the method below
     PValueMethod method = PValueMethod::asymptotic;
     TailProbability q;               // adjusted across the tested groups
-    double w = 0;                    // Cohen's w of this group
+    double w = 0;                    // w of this group corrected for chance, √(max(0, X² − df)/N) (as a single analysis reports it)
+    double cohen_w = 0;              // Cohen's uncorrected √(X²/N), kept for reference
     bool digits = false;             // digit law: MAD and its band are set
     double mad = 0;
     std::string band;

@@ -159,7 +159,8 @@ std::string screen_json(const Analysis& base, const GroupedCounts& counts, const
         j.key("log10_p_value").value(g.tested ? g.p.log10_p : na);
         j.key("q_value").value(g.tested ? g.q.p : na);
         j.key("log10_q_value").value(g.tested ? g.q.log10_p : na);
-        j.key("w").value(g.tested ? g.w : na);
+        j.key("w").value(g.tested ? g.w : na);  // chance-corrected, as effect_size.w of a single analysis
+        j.key("cohen_w").value(g.tested ? g.cohen_w : na);
         if (g.digits) j.key("mad").value(g.mad).key("mad_band").value(g.band);
         else j.key("mad").null();
         j.key("thin").value(g.thin);

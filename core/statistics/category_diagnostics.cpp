@@ -26,6 +26,14 @@ std::string adjustment_phrase(MultiplicityMethod m) {
 
 }  // namespace
 
+std::string drivers_summary(std::size_t drivers, std::size_t k, const std::string& test, const std::string& described,
+                            const std::string& none_phrase) {
+    if (drivers == 0)
+        return "No single category " + none_phrase + " (" + test + " for none of the " + std::to_string(k) + " categories).";
+    return std::to_string(drivers) + " of " + std::to_string(k) + (drivers == 1 ? " categories drives" : " categories drive") +
+           " the result (" + test + "): " + described + ".";
+}
+
 Status category_diagnostics(const std::vector<std::string>& labels, const std::vector<double>& observed,
                             const std::vector<double>& expected, const CategoryDiagnosticsOptions& options,
                             CategoryDiagnostics* result) {
@@ -88,21 +96,21 @@ Status category_diagnostics(const std::vector<std::string>& labels, const std::v
     if (s.ok) s = adjust_log10_p_values(log10_p, options.adjustment, &adjusted_log10);
     if (!s.ok) return s;
 
-    // Intervals at 1 - alpha: below kMinIntervalAlpha the double 1 - alpha no longer carries alpha
-    // (1 - 1e-17 is 1), so they are left out (NaN, written as null) rather than shown as zeros.
-    // Sison-Glaz's cost grows with the counts (Poisson tails near their centre): above
-    // kMaxSisonGlazTotal only Goodman's intervals are given, so every analysis stays bounded in time.
+    // Intervals at 1 - alpha. Goodman's come from alpha itself (any alpha the chi-square quantile
+    // resolves); Sison-Glaz's compare a coverage with 1 - alpha, which double precision holds only
+    // down to kMinSisonGlazAlpha. Sison-Glaz's cost grows with the counts (Poisson tails near their
+    // centre): above kMaxSisonGlazTotal only Goodman's intervals are given, so every analysis stays
+    // bounded in time. Where Sison-Glaz is not given, the note says why and Goodman's stand in.
     std::vector<ProportionInterval> goodman, sison;
-    const bool alpha_usable = options.alpha >= kMinIntervalAlpha;
-    Status gm = Status::failure("the significance level α = " + format_significant(options.alpha, 3) +
-                                " is below " + format_significant(kMinIntervalAlpha, 1) +
-                                ", where 1 − α cannot be held in double precision; choose a larger α for intervals.");
-    if (alpha_usable) gm = goodman_intervals(observed, 1 - options.alpha, &goodman);
+    const Status gm = goodman_intervals_at_alpha(observed, options.alpha, &goodman);
     if (!gm.ok) r.warnings.push_back("Simultaneous intervals are not available: " + gm.message);
     Status sg = gm;
     if (gm.ok && n > kMaxSisonGlazTotal)
         sg = Status::failure("they are computed for totals up to " + format_count(kMaxSisonGlazTotal) +
                              " (their cost grows with the counts); Goodman's intervals are given.");
+    else if (gm.ok && options.alpha < kMinSisonGlazAlpha)
+        sg = Status::failure("at α = " + format_significant(options.alpha, 3) + " (below " + format_significant(kMinSisonGlazAlpha, 1) +
+                             ") their coverage cannot be told from 1 − α in double precision; Goodman's intervals are given.");
     else if (gm.ok) sg = sison_glaz_intervals(observed, 1 - options.alpha, &sison, &r.sison_glaz);
     if (gm.ok && !sg.ok) r.warnings.push_back("Sison-Glaz intervals are not available: " + sg.message);
 
@@ -126,12 +134,8 @@ Status category_diagnostics(const std::vector<std::string>& labels, const std::v
         }
     }
     const std::string test = adjustment_phrase(options.adjustment) + " exact binomial p below " + format_plain(options.alpha);
-    if (r.drivers.empty())
-        r.summary = "No single category departs clearly from its expected share (" + test + " for none of the " +
-                    std::to_string(k) + " categories).";
-    else
-        r.summary = std::to_string(r.drivers.size()) + " of " + std::to_string(k) +
-                    " categories drive the result (" + test + "): " + drivers + ".";
+    r.rule = test + " for the category against the rest";
+    r.summary = drivers_summary(r.drivers.size(), k, test, drivers, "departs clearly from its expected share");
     return Status::success();
 }
 

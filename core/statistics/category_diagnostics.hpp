@@ -13,7 +13,9 @@
 
 namespace tallyproof {
 
-constexpr double kMinIntervalAlpha = 1e-15;     // below it 1 - alpha is too coarse: no intervals
+// Sison-Glaz compares its coverage nu(c), computed as nu itself, with 1 - alpha: below this alpha
+// double precision no longer tells them apart, so only Goodman's intervals (from alpha) are given.
+constexpr double kMinSisonGlazAlpha = 1e-10;
 constexpr double kMaxSisonGlazTotal = 1e8;      // above it only Goodman's intervals (bounded time)
 
 struct CategoryDiagnosticsOptions {
@@ -48,9 +50,15 @@ struct CategoryDiagnostics {
     MultiplicityMethod adjustment = MultiplicityMethod::holm;
     SisonGlazDetail sison_glaz;          // c and gamma behind the Sison-Glaz intervals
     std::vector<std::size_t> drivers;    // 0-based indices of the flagged categories
+    std::string rule;                    // the one rule that makes a driver, in words ("Holm-adjusted exact binomial p below 0.05")
     std::string summary;                 // plain-language account of the drivers
     std::vector<std::string> warnings;   // e.g. intervals that could not be computed
 };
+
+// The drivers sentence, one wording for every path: "2 of 6 categories drive the result (TEST): ...",
+// "1 of 6 categories drives ...", or "No single category NONE_PHRASE (TEST for none of the 6 categories)."
+std::string drivers_summary(std::size_t drivers, std::size_t k, const std::string& test, const std::string& described,
+                            const std::string& none_phrase);
 
 // Diagnoses each category from whole observed counts and expected counts summing to the
 // observed total (as from expected_counts()). Refuses zero or negative expected counts,

@@ -8,6 +8,8 @@
 // effect is w1 < w0 (X² ~ chi2(df, N w1²)). Checked against SciPy 1.10 ncx2 and a simulation.
 #pragma once
 #include <limits>
+#include <string>
+#include <vector>
 
 #include "chi_square_tail.hpp"
 #include "status.hpp"
@@ -32,6 +34,10 @@ struct ConformityResult {
     TailProbability p_value;        // P(X <= X² | chi2(df, N w0²))
     bool conforms = false;          // p_value < alpha
     double smallest_margin_w = 0;   // smallest w0 shown at alpha (0 when X² is below the central alpha quantile)
+    // The same margins as the largest shift in percentage points between two categories
+    // (margin_points_from_w); NaN when the shares are not known.
+    double margin_points = std::numeric_limits<double>::quiet_NaN();
+    double smallest_margin_points = std::numeric_limits<double>::quiet_NaN();
     ConformityPlan plan;
 };
 
@@ -43,6 +49,17 @@ double conformity_power(double true_w, double margin_w, double n, double alpha, 
 
 // Smallest whole N with conformity_power >= target_power; refuses true_w >= margin_w.
 Status conformity_sample_size(double true_w, double margin_w, double target_power, double alpha, double df, double* n);
+
+// A margin in percentage points: moving a share d from one category to another gives
+// w² = d²/p_i + d²/p_j, largest for the two smallest expected shares p1, p2; so every shift of at
+// most d between two categories has w <= w0 exactly when d <= w0 / sqrt(1/p1 + 1/p2)
+// (docs/methods.md, Conformity). Points are 100 d. NaN for fewer than two shares or a bad value.
+double margin_points_from_w(double margin_w, const std::vector<double>& shares);
+double margin_w_from_points(double points, const std::vector<double>& shares);
+
+// Reads a margin as typed: "0.1" is w0; "2 pp", "2 points", "2 percentage points" or "2%" is a
+// shift in percentage points. False when the text is neither (then both outputs are NaN).
+bool read_conformity_margin(const std::string& text, double* margin_w, double* margin_points);
 
 // Words on choosing w0 (Cohen's benchmarks; the contract or local rule decides).
 const char* conformity_margin_guidance();

@@ -72,6 +72,11 @@ double fei(double chi_square, double n, double p_min) {
     return std::min(1.0, std::sqrt(chi_square / (n * (1 / p_min - 1))));
 }
 
+double noncentral_fei(double chi_square, double n, double df, double p_min) {
+    if (!check_statistic(chi_square, n).ok || !(df > 0) || !(p_min > 0 && p_min < 1)) return kNaN;
+    return std::min(1.0, std::sqrt(std::max(0.0, chi_square - df) / (n * (1 / p_min - 1))));
+}
+
 Status noncentrality_interval(double chi_square, double df, double level, double* lambda_low, double* lambda_high) {
     if (!(chi_square >= 0) || std::isinf(chi_square))
         return Status::failure("The chi-square statistic " + number(chi_square) + " must be a non-negative number.");
@@ -117,6 +122,23 @@ Status fei_interval(double chi_square, double n, double df, double p_min, double
     const double scale = n * (1 / p_min - 1);
     *out = {fei(chi_square, n, p_min), std::min(1.0, std::sqrt(lo / scale)), std::min(1.0, std::sqrt(hi / scale)), level};
     return Status::success();
+}
+
+EffectOutcome effect_outcome(double chi_square, double n, double df, double p_min) {
+    EffectOutcome e;
+    e.w = cohens_w(chi_square, n);
+    e.w_label = cohens_w_label(e.w);
+    e.estimate = noncentral_w(chi_square, n, df);
+    e.label = cohens_w_label(e.estimate);
+    if (!cohens_w_interval(chi_square, n, df, 0.95, &e.w_interval).ok) e.w_interval = {e.estimate, kNaN, kNaN, 0.95};
+    e.w_interval.estimate = e.estimate;
+    if (p_min > 0 && p_min < 1) {
+        e.fei_defined = true;
+        e.fei = noncentral_fei(chi_square, n, df, p_min);
+        if (!fei_interval(chi_square, n, df, p_min, 0.95, &e.fei_interval).ok) e.fei_interval = {e.fei, kNaN, kNaN, 0.95};
+        e.fei_interval.estimate = e.fei;
+    }
+    return e;
 }
 
 }  // namespace tallyproof

@@ -115,14 +115,24 @@ double coverage(const std::vector<double>& x, double n, double c) {
 
 Status goodman_intervals(const std::vector<double>& observed, double confidence,
                          std::vector<ProportionInterval>* intervals) {
+    if (!(confidence > 0 && confidence < 1)) {
+        intervals->clear();
+        return Status::failure("The confidence level must lie between 0 and 1.");
+    }
+    return goodman_intervals_at_alpha(observed, 1 - confidence, intervals);
+}
+
+Status goodman_intervals_at_alpha(const std::vector<double>& observed, double alpha,
+                                  std::vector<ProportionInterval>* intervals) {
     intervals->clear();
     double n = 0;
-    Status s = check_counts(observed, confidence, &n);
+    if (!(alpha > 0 && alpha < 1)) return Status::failure("The significance level α must lie between 0 and 1.");
+    Status s = check_counts(observed, 0.5, &n);
     if (!s.ok) return s;
     const double k = static_cast<double>(observed.size());
-    // upper (1 - confidence) / k point of chi2(1), from the complement so small tails stay exact
+    // upper alpha / k point of chi2(1), from the complement so small tails stay exact
     const boost::math::chi_squared_distribution<double, quiet_policy> chi2(1);
-    const double a = boost::math::quantile(boost::math::complement(chi2, (1 - confidence) / k));
+    const double a = boost::math::quantile(boost::math::complement(chi2, alpha / k));
     if (!std::isfinite(a)) return Status::failure("The chi-square quantile for Goodman's intervals could not be computed.");
     for (double x : observed) {
         const double centre = a + 2 * x, half = std::sqrt(a * (a + 4 * x * (n - x) / n)), den = 2 * (n + a);

@@ -26,6 +26,10 @@ struct SisonGlazDetail {
 // Goodman's intervals, one per category, for whole counts `observed` (k >= 2, total > 0).
 Status goodman_intervals(const std::vector<double>& observed, double confidence,
                          std::vector<ProportionInterval>* intervals);
+// The same at confidence 1 - alpha given by alpha itself, so any alpha down to the smallest the
+// chi-square quantile resolves (about 1e-300) keeps its value (1 - 1e-17 is 1 in double).
+Status goodman_intervals_at_alpha(const std::vector<double>& observed, double alpha,
+                                  std::vector<ProportionInterval>* intervals);
 
 // Sison-Glaz intervals, one per category; `detail` (may be null) receives c, gamma and nu.
 Status sison_glaz_intervals(const std::vector<double>& observed, double confidence,

@@ -284,12 +284,14 @@ for path in paths:
         check(out["method"] == doc_in["pvalue"]["method"], f"{name}: the requested p-value method was used ({out['method']})")
     # Effect sizes, closed forms (Cohen 1988; Ben-Shachar et al. 2023).
     n = out["n"]
+    # w and Fei are corrected for chance (docs/methods.md); cohen_w is the uncorrected sqrt(X2 / N).
     w = out["effect_size"]["w"]
-    check(close(w, math.sqrt(stat / n), 1e-13), f"{name}: w = sqrt(X2 / N)")
+    check(close(w, math.sqrt(max(0.0, stat - out["df"]) / n), 1e-13, 1e-15), f"{name}: w = sqrt(max(0, X2 - df) / N)")
+    check(close(out["effect_size"]["cohen_w"], math.sqrt(stat / n), 1e-13), f"{name}: cohen_w = sqrt(X2 / N)")
     p_min = min(out["tested_expected"]) / n
     if out["effect_size"]["fei"] is not None:
-        check(close(out["effect_size"]["fei"], min(1.0, math.sqrt(stat / (n * (1 / p_min - 1)))), 1e-12),
-              f"{name}: Fei = sqrt(X2 / (N (1/p_min - 1)))")
+        check(close(out["effect_size"]["fei"], min(1.0, math.sqrt(max(0.0, stat - out["df"]) / (n * (1 / p_min - 1)))), 1e-12, 1e-15),
+              f"{name}: Fei = sqrt(max(0, X2 - df) / (N (1/p_min - 1)))")
     # Digit laws: mean absolute deviation of the shares.
     if digit_shares(kind) is not None and not out["merged"]:
         ds = digit_shares(kind)

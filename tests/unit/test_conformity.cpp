@@ -78,7 +78,7 @@ TEST_CASE("conformity through the analysis: verdicts for each goal, refusals, do
     REQUIRE(r.conformity->status.ok);
     CHECK(r.conformity->conforms);
     CHECK(conformity_verdict(r).find("conform to the stated mix within w < 0.10") != std::string::npos);
-    CHECK(report_json(a, r).find("\"conformity\":{\"margin_w\":0.1,\"p_value\":") != std::string::npos);
+    CHECK(report_json(a, r).find("\"conformity\":{\"margin_w\":0.1,\"margin_points\":") != std::string::npos);
     Analysis back;
     REQUIRE(read_analysis_document(write_analysis_document(a), &back).ok);
     CHECK(back.conformity.margin_w == 0.1);
@@ -124,4 +124,34 @@ TEST_CASE("conformity through the analysis: verdicts for each goal, refusals, do
     CHECK_FALSE(conformity_test(1, 100, 2, 0.05, -0.1, &cr).ok);
     double n = 0;
     CHECK_FALSE(conformity_sample_size(0.2, 0.1, 0.8, 0.05, 2, &n).ok);  // true w beyond the margin
+}
+
+TEST_CASE("conformity at chi2 = 0, above noncentrality 1e5, and margins in percentage points") {
+    ConformityResult c;
+    // P(X <= 0) = 0 for the continuous noncentral chi-square: a perfect fit conforms (closed form).
+    REQUIRE(conformity_test(0, 1000, 3, 0.05, 0.1, &c).ok);
+    CHECK(c.p_value.p == 0);
+    CHECK(c.conforms);
+    // Noncentrality 100010 (N = 10001000, w0 = 0.1), the saddlepoint branch: SciPy 1.10
+    // ncx2.cdf(x, 3, 100010) = 0.03894652640733179 at x = 98900, 0.20881572784212504 at 99500.
+    const double n = 10001000;
+    REQUIRE(conformity_test(98900, n, 3, 0.05, 0.1, &c).ok);
+    CHECK(c.p_value.p == doctest::Approx(0.03894652640733179).epsilon(1e-4));
+    CHECK(c.conforms);
+    REQUIRE(conformity_test(99500, n, 3, 0.05, 0.1, &c).ok);
+    CHECK(c.p_value.p == doctest::Approx(0.20881572784212504).epsilon(1e-4));
+    CHECK(!c.conforms);
+    // Margins in points: w0 = d sqrt(1/p1 + 1/p2) (closed form, docs/methods.md), both ways.
+    const std::vector<double> equal4 = {0.25, 0.25, 0.25, 0.25};
+    CHECK(margin_w_from_points(2, equal4) == doctest::Approx(0.02 * std::sqrt(8.0)));
+    CHECK(margin_points_from_w(0.02 * std::sqrt(8.0), equal4) == doctest::Approx(2));
+    CHECK(std::isnan(margin_w_from_points(0, equal4)));
+    double w = 0, points = 0;
+    CHECK(read_conformity_margin("2 pp", &w, &points));
+    CHECK((std::isnan(w) && points == 2));
+    CHECK(read_conformity_margin(" 1.5 percentage points", &w, &points));
+    CHECK(points == 1.5);
+    CHECK(read_conformity_margin("0.1", &w, &points));
+    CHECK((w == 0.1 && std::isnan(points)));
+    CHECK(!read_conformity_margin("small", &w, &points));
 }

@@ -1,4 +1,4 @@
-// The screen's funnel: the chi-square quantile of the flag cut and w = sqrt(x*/N) along N.
+// The screen's funnel: the chi-square quantile of the flag cut and w = sqrt((x* - df)/N) along N.
 // Quantiles from SciPy 1.10 (scipy.stats.chi2.isf), named beside each check.
 #include <doctest/doctest.h>
 
@@ -33,7 +33,8 @@ TEST_CASE("funnel: with nothing flagged the cut is q/m, the first step of BH, Ho
     REQUIRE(f.n.size() == 16);
     CHECK(f.n.front() == doctest::Approx(50 / 1.5));
     CHECK(f.n.back() == doctest::Approx(440 * 1.5));
-    for (std::size_t i = 0; i < f.n.size(); ++i) CHECK(f.w[i] == doctest::Approx(std::sqrt(f.statistic_cut / f.n[i])));
+    // Chance-corrected w, as each group's w (docs/methods.md: sqrt(max(0, X2 - df)/N)).
+    for (std::size_t i = 0; i < f.n.size(); ++i) CHECK(f.w[i] == doctest::Approx(std::sqrt((f.statistic_cut - f.df) / f.n[i])));
     for (std::size_t i = 1; i < f.w.size(); ++i) CHECK(f.w[i] < f.w[i - 1]);  // a funnel: larger groups need less
 }
 
