@@ -101,6 +101,8 @@ const char* kUsage =
     "                         a header naming the categories) or raw (group, value; tallied\n"
     "                         per group with --digits, --bins or as text)\n"
     "  --group-shape S        override the detected shape: long, wide, raw\n"
+    "  --group-header H       yes: the first line is a header row; no: it is a group (default:\n"
+    "                         detected, also when it numbers the categories: 0..9, years)\n"
     "  --against A            model (default: each group against --model) or rest (each group\n"
     "                         against the other groups pooled, a test of homogeneity)\n"
     "  --adjust M             across groups: bh (default, false discovery rate), holm,\n"
@@ -230,7 +232,7 @@ int main(int argc, char** argv) {
         else if (arg == "--sorted") input.sorted = true;
         else if (arg == "--decimal-comma") input.decimal = DecimalMark::comma;
         else if (arg == "--decimal-point") input.decimal = DecimalMark::point;
-        else if (arg == "--by" || arg == "--group-shape" || arg == "--against" || arg == "--adjust" || arg == "--q") {
+        else if (arg == "--by" || arg == "--group-shape" || arg == "--group-header" || arg == "--against" || arg == "--adjust" || arg == "--q") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             const std::string val = argv[++i];
             screening = true;
@@ -241,6 +243,9 @@ int main(int argc, char** argv) {
                 GroupShape shape;
                 if (!group_shape_from_name(val, &shape)) return usage_error("--group-shape must be long, wide or raw");
                 group_input.shape = shape;
+            } else if (arg == "--group-header") {
+                if (val != "yes" && val != "no") return usage_error("--group-header must be yes or no");
+                group_input.header = val == "yes";
             } else if (arg == "--against") {
                 if (!screen_against_from_name(val, &screen.against)) return usage_error("--against must be model or rest");
             } else if (arg == "--adjust") {
