@@ -195,6 +195,13 @@ ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, co
     const std::size_t k = counts.categories.size(), groups = counts.groups.size();
     if (!counts.status.ok) { s.status = counts.status; return s; }
     if (!(choice.q > 0 && choice.q < 1)) { s.status = Status::failure("The false discovery rate q must lie between 0 and 1."); return s; }
+    if (base.conformity.requested) {  // one rule (issue 26): refused, never silently ignored
+        s.status = Status::failure(
+            "Showing conformity within a margin w0 is a question for one sample; a screen of many groups looks for "
+            "departures (each group tested, the p-values adjusted across groups). Test the group on its own for "
+            "conformity, or screen without the margin.");
+        return s;
+    }
     if (groups < 2) { s.status = Status::failure("Only one group: screening compares two or more groups."); return s; }
     if (k < 2) { s.status = Status::failure("Only one category: a goodness-of-fit test needs at least two."); return s; }
     if (counts.counts.size() != groups * k) { s.status = Status::failure("The counts do not fill groups x categories."); return s; }

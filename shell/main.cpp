@@ -430,6 +430,10 @@ int main(int argc, char** argv) {
         }
     }
 
+    if (screening && analysis.conformity.requested &&
+        std::any_of(opts.begin(), opts.end(), [](const auto& o) { return o.first == "--conformity"; }))
+        return usage_error("--conformity (show one sample conforms within w0) cannot be combined with --by or a document's "
+                           "\"groups\" (a screen looks for departures across groups); test the group on its own with --conformity");
     if (screening) {
         ScreenResult s;
         if (!read.ok) s.status = read;

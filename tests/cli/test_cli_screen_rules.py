@@ -110,4 +110,14 @@ check("shown as <U+XXXX> codes" in r.stderr, "invisible characters: noted")
 if have_scipy:
     ps = [chisquare(cs).pvalue for cs in sly.values()]
     check(all(close(g["p_value"], p) for g, p in zip(doc["groups"], ps)), "invisible names: each group's p vs scipy chisquare")
+# ---- 3. Conformity with groups: refused, naming both options ------------------------------
+r = run(["--by", "1", "--conformity", "0.1"], digits_wide)
+check(r.returncode == 2 and "--conformity" in r.stderr and "--by" in r.stderr, f"--conformity with --by refused: {r.stderr!r}")
+conf_doc = json.dumps({"categories": ["a", "b"], "conformity": {"margin_w": 0.1},
+                       "groups": [{"name": "g1", "observed": [50, 52]}, {"name": "g2", "observed": [48, 55]}]})
+r = run([], conf_doc)
+check(r.returncode == 1 and "conformity" in r.stderr and "screen" in r.stderr, f"document: conformity with groups refused: {r.stderr!r}")
+r = run(["--json"], conf_doc)
+check(r.returncode == 1 and "conformity" in json.loads(r.stdout)["error"], "document: JSON error form")
+
 finish("0 failure(s)", "{n} failure(s)")
