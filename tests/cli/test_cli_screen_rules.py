@@ -120,4 +120,32 @@ check(r.returncode == 1 and "conformity" in r.stderr and "screen" in r.stderr, f
 r = run(["--json"], conf_doc)
 check(r.returncode == 1 and "conformity" in json.loads(r.stdout)["error"], "document: JSON error form")
 
+# ---- 4. One Monte Carlo budget: 100,000,000 draws for every kind of analysis ---------------
+ten = "".join(f"c{i}\t{100 + (i % 3) - 1}\n" for i in range(10))
+r = run(["--method", "monte-carlo", "--replicates", "100000000", "--json"], ten)
+doc = json.loads(r.stdout)
+check(r.returncode == 0 and doc["method"] == "asymptotic", f"single sample over the budget: asymptotic p shown ({doc.get('method')})")
+check(any("beyond the budget of 100,000,000 draws" in w and "at most 10,000,000 here" in w for w in doc["warnings"]),
+      f"single sample: refusal names the budget: {doc['warnings']}")
+r = run(["--method", "monte-carlo", "--replicates", "10000", "--json"], ten)
+doc = json.loads(r.stdout)
+check(doc["method"] == "monte-carlo" and doc["monte_carlo"]["replicates"] == 10000, "single sample within the budget: simulated")
+previous = "Category\tThis month\tLast month\n" + "".join(f"c{i}\t{100 + i}\t{500 + 3 * i}\n" for i in range(10))
+r = run(["--method", "monte-carlo", "--replicates", "200000", "--json"], previous)
+doc = json.loads(r.stdout)
+check(any("beyond the budget of 100,000,000 draws" in w and "placing 1,045 observations" in w for w in doc["warnings"]),
+      f"previous sample: refusal names the same budget: {doc['warnings']}")
+r = run(["--method", "monte-carlo", "--replicates", "50000", "--json"], previous)
+check(json.loads(r.stdout)["method"] == "monte-carlo", "previous sample within the budget: simulated")
+r = run(["--by", "1", "--method", "monte-carlo", "--replicates", "300000"], digits_wide)
+check(r.returncode == 1 and "beyond the budget of 100,000,000 draws" in r.stderr and "300,000 for each of 40 groups" in r.stderr,
+      f"screen over the budget: refused naming it: {r.stderr!r}")
+r = run(["--by", "1", "--method", "monte-carlo", "--replicates", "2000", "--seed", "5", "--json"], digits_wide)
+doc = json.loads(r.stdout)
+check(r.returncode == 0 and all(g["method"] == "monte-carlo" for g in doc["groups"]), "screen within the budget: every group simulated")
+if have_scipy:  # a Monte Carlo p within 4 standard errors of the asymptotic one at these sizes (common practice)
+    for g in doc["groups"][:5]:
+        p = chisquare(collectors[g["name"]]).pvalue
+        check(abs(g["p_value"] - p) <= 4 * (p * (1 - p) / 2000) ** 0.5 + 1 / 2001, f"screen MC {g['name']}: near scipy's asymptotic p")
+
 finish("0 failure(s)", "{n} failure(s)")
