@@ -106,7 +106,11 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
         }
     }
     const JsonValue* obs = doc.find("observed");
-    const bool screen = doc.find("groups") != nullptr;  // a screening document (screen_document.hpp)
+    const JsonValue* groups = doc.find("groups");
+    if (groups && !groups->is(Type::array))  // null included: a screen member left empty is not one sample
+        return Status::failure(std::string("In the document, \"groups\" must be a list of {\"name\", \"observed\"} (it is ") +
+                               (groups->is(Type::null) ? "null" : "not a list") + "); leave it out for one sample.");
+    const bool screen = groups != nullptr;  // a screening document (screen_document.hpp)
     if (!obs && !screen) return Status::failure("The document has no \"observed\" counts.");
     if (obs) TP_TRY(read_numbers(*obs, "observed", &a.observed));
     if (a.observed.size() > kMaxCategories)

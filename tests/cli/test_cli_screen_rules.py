@@ -148,4 +148,15 @@ if have_scipy:  # a Monte Carlo p within 4 standard errors of the asymptotic one
         p = chisquare(collectors[g["name"]]).pvalue
         check(abs(g["p_value"] - p) <= 4 * (p * (1 - p) / 2000) ** 0.5 + 1 / 2001, f"screen MC {g['name']}: near scipy's asymptotic p")
 
+# ---- 5. The same messages for groups' faults, from core -----------------------------------
+r = run(["--by", "reader"], "reader\tdigit\tcount\nA\t0\t3\nA\t1\t2\n")
+check(r.returncode == 1 and "Only one group (\"A\"): screening compares two or more groups; read its counts as one sample instead." in r.stderr,
+      f"one group: {r.stderr!r}")
+r = run(["--by", "reader"], "reader\tdigit\tcount\nA\t0\t3\n\t1\t2\nB\t0\t1\nB\t1\t1\n")
+check(r.returncode == 1 and "Line 3, column 1: the group cell is empty; every row needs the name of its group." in r.stderr, f"empty group: {r.stderr!r}")
+for groups, what in [("null", "null"), ("5", "not a list"), ('"A"', "not a list")]:
+    r = run(["--json"], '{"categories": ["a", "b", "c"], "observed": [1, 2, 3], "groups": ' + groups + "}")
+    err = json.loads(r.stdout).get("error", "")
+    check(r.returncode == 1 and '"groups" must be a list' in err and f"(it is {what})" in err, f'"groups": {groups} refused naming it: {err!r}')
+
 finish("0 failure(s)", "{n} failure(s)")
