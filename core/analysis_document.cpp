@@ -202,8 +202,15 @@ std::string write_analysis_document(const Analysis& a) {
     j.key("format").value(kDocumentFormat);
     j.key("categories").strings(a.categories);
     j.key("observed").numbers(a.observed);
+    write_analysis_settings(j, a);
+    j.end_object();
+    return j.str();
+}
+
+void write_analysis_settings(JsonWriter& j, const Analysis& a, const std::string& model_description) {
     j.key("ordered").value(a.ordered);
     j.key("model").begin_object().key("kind").value(model_kind_name(a.model.kind));
+    if (!model_description.empty()) j.key("description").value(model_description);
     if (!a.model.values.empty()) j.key("values").numbers(a.model.values);
     if (!a.model.parameters.empty()) {
         j.key("parameters").begin_object();
@@ -243,8 +250,6 @@ std::string write_analysis_document(const Analysis& a) {
             if (std::isfinite(value)) j.key(name).value(value);
         j.end_object();
     }
-    j.end_object();
-    return j.str();
 }
 
 }  // namespace tallyproof

@@ -212,6 +212,7 @@ int main(int argc, char** argv) {
     bool screening = false;
     GroupReadOptions group_input;
     ScreenChoice screen;
+    ScreenView screen_view;  // a document's sort and opened group, written back by --json
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (arg == "--json") json = true;
@@ -328,7 +329,9 @@ int main(int argc, char** argv) {
         read = read_analysis_document(text, &analysis);
         bool document_screen = false;
         ScreenChoice from_document;
-        if (read.ok) read = read_screen_document(text, &groups, &from_document, &document_screen);
+        if (read.ok) read = read_screen_document(text, &groups, &from_document, &screen_view, &document_screen);
+        if (!json && read.ok)
+            for (const auto& note : groups.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
         if (document_screen) {
             // Options given on the command line override the document's screen settings.
             ScreenChoice chosen = from_document;
@@ -439,7 +442,7 @@ int main(int argc, char** argv) {
         if (!read.ok) s.status = read;
         else s = screen_groups(analysis, groups, screen);
         int screen_written = 0;
-        if (json) screen_written = write_output(screen_json(analysis, groups, s) + "\n", "the result document (--json)");
+        if (json) screen_written = write_output(screen_json(analysis, groups, s, &screen_view) + "\n", "the result document (--json)");
         else if (s.status.ok && !table_format.empty())
             screen_written = write_output(group_table(s, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
                                                                             out_decimal_comma, byte_order_mark}),

@@ -159,4 +159,53 @@ for groups, what in [("null", "null"), ("5", "not a list"), ('"A"', "not a list"
     err = json.loads(r.stdout).get("error", "")
     check(r.returncode == 1 and '"groups" must be a list' in err and f"(it is {what})" in err, f'"groups": {groups} refused naming it: {err!r}')
 
+# ---- 6. The screen in the analysis document: --json output read back as the same screen ----
+lots = {"lot 1": [50, 30, 20], "lot 2": [20, 50, 30], "lot 3": [48, 33, 19], "lot 4": [52, 27, 21]}
+source = {"format": "tallyproof/1", "categories": ["A", "B", "C"], "model": {"kind": "shares", "values": [0.5, 0.3, 0.2]},
+          "statistic": {"lambda": 0}, "by": "lot", "groups": [{"name": n, "observed": c} for n, c in lots.items()],
+          "screen": {"against": "model", "adjust": "holm", "q": 0.1, "sort": "q", "ascending": False, "opened": "lot 2"}}
+first = run(["--json"], json.dumps(source))
+check(first.returncode == 0, f"document screen exits 0 ({first.stderr})")
+out1 = json.loads(first.stdout)
+check(out1["model"]["values"] == [0.5, 0.3, 0.2] and out1["statistic"]["lambda"] == 0, "output carries the model's values and statistic")
+check(out1["screen"]["sort"] == "q" and out1["screen"]["ascending"] is False and out1["screen"]["opened"] == "lot 2", "output carries sort and opened group")
+second = run(["--json"], first.stdout)
+check(second.returncode == 0, f"the output read back exits 0 ({second.stderr})")
+out2 = json.loads(second.stdout)
+for key in ("categories", "by", "model", "statistic", "pvalue", "merge", "screen"):
+    check(out1[key] == out2[key], f"round trip: {key} the same: {out1[key]} / {out2[key]}")
+check([(g["name"], g["observed"], g["p_value"], g["q_value"], g["flagged"]) for g in out1["groups"]] ==
+      [(g["name"], g["observed"], g["p_value"], g["q_value"], g["flagged"]) for g in out2["groups"]], "round trip: every group's result the same")
+if have_scipy:  # G2 (lambda 0) against the shares: SciPy power_divergence; Holm across groups: statsmodels
+    from scipy.stats import power_divergence
+    ps = [power_divergence(c, [sum(c) * s for s in (0.5, 0.3, 0.2)], lambda_=0).pvalue for c in lots.values()]
+    check(all(close(g["p_value"], p) for g, p in zip(out2["groups"], ps)), "round trip: G2 p vs scipy power_divergence")
+    check(all(close(g["q_value"], q) for g, q in zip(out2["groups"], multipletests(ps, method="holm")[1])), "round trip: q vs statsmodels holm")
+# A paste's screen: --json output re-run gives the same groups and settings (shape and header kept).
+paste1 = json.loads(run(["--by", "1", "--model", "last-digit", "--adjust", "bonferroni", "--json"], digits_wide).stdout)
+paste2 = json.loads(run(["--json"], json.dumps(paste1)).stdout)
+check(paste2["screen"]["shape"] == "wide" and paste2["screen"]["header"] is True and paste2["model"]["kind"] == "last-digit"
+      and paste2["screen"]["adjust"] == "bonferroni", f"paste round trip: settings kept: {paste2['screen']}")
+check([g["q_value"] for g in paste1["groups"]] == [g["q_value"] for g in paste2["groups"]], "paste round trip: q-values the same")
+bad = dict(source, screen={"opened": "lot 9"})
+r = run([], json.dumps(bad))
+check(r.returncode == 1 and "screen.opened" in r.stderr and "lot 9" in r.stderr, f"opened group not in groups: refused: {r.stderr!r}")
+r = run([], json.dumps(dict(source, screen={"sort": "colour"})))
+check(r.returncode == 1 and "screen.sort" in r.stderr, f"unknown sort column refused: {r.stderr!r}")
+
+# Documents: group faults named by member, and group names under the label rules.
+r = run([], '{"categories": ["a", "b"], "groups": [{"name": "only", "observed": [1, 2]}]}')
+check(r.returncode == 1 and 'has 1 group ("only")' in r.stderr and "read its counts as one sample instead" in r.stderr, f"document, one group: {r.stderr!r}")
+r = run([], '{"categories": ["a", "b"], "groups": [{"name": "", "observed": [1, 2]}, {"name": "B", "observed": [2, 1]}]}')
+check(r.returncode == 1 and "groups[0].name" in r.stderr and "every group needs its name" in r.stderr, f"document, empty name: {r.stderr!r}")
+# A name written twice in two forms is refused as one group twice.
+dup = json.dumps({"categories": ["a", "b"], "groups": [{"name": cafe_nfc, "observed": [1, 2]}, {"name": cafe_nfd, "observed": [2, 1]}]})
+r = run([], dup)
+check(r.returncode == 1 and "appears twice" in r.stderr and "NFC" in r.stderr, f"document: NFC duplicates refused: {r.stderr!r}")
+alike = json.dumps({"categories": ["a", "b"], "groups": [{"name": "North", "observed": [5, 6]}, {"name": "north", "observed": [6, 5]},
+                                                         {"name": f"x{rlo}", "observed": [4, 4]}]})
+r = run([], alike)
+check(r.returncode == 0 and '"North" and "north"' in r.stderr and "x<U+202E>" in r.stdout and rlo not in r.stdout,
+      f"document: look-alikes noted, codes shown: {r.stderr!r}")
+
 finish("0 failure(s)", "{n} failure(s)")
