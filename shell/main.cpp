@@ -101,6 +101,8 @@ const char* kUsage =
     "                         a header naming the categories) or raw (group, value; tallied\n"
     "                         per group with --digits, --bins or as text)\n"
     "  --group-shape S        override the detected shape: long, wide, raw\n"
+    "  --group-header H       yes: the first line is a header row; no: it is a group (default:\n"
+    "                         detected, also when it numbers the categories: 0..9, years)\n"
     "  --against A            model (default: each group against --model) or rest (each group\n"
     "                         against the other groups pooled, a test of homogeneity)\n"
     "  --adjust M             across groups: bh (default, false discovery rate), holm,\n"
@@ -228,6 +230,7 @@ int main(int argc, char** argv) {
     GroupReadOptions group_input;
     ScreenChoice screen;
     for (int i = 1; i < argc; ++i) g_json = g_json || std::strcmp(argv[i], "--json") == 0;
+    ScreenView screen_view;  // a document's sort and opened group, written back by --json
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (arg == "--json") json = true;
@@ -248,7 +251,7 @@ int main(int argc, char** argv) {
         else if (arg == "--sorted") input.sorted = true;
         else if (arg == "--decimal-comma") input.decimal = DecimalMark::comma;
         else if (arg == "--decimal-point") input.decimal = DecimalMark::point;
-        else if (arg == "--by" || arg == "--group-shape" || arg == "--against" || arg == "--adjust" || arg == "--q") {
+        else if (arg == "--by" || arg == "--group-shape" || arg == "--group-header" || arg == "--against" || arg == "--adjust" || arg == "--q") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             const std::string val = argv[++i];
             screening = true;
@@ -259,6 +262,9 @@ int main(int argc, char** argv) {
                 GroupShape shape;
                 if (!group_shape_from_name(val, &shape)) return usage_error("--group-shape must be long, wide or raw");
                 group_input.shape = shape;
+            } else if (arg == "--group-header") {
+                if (val != "yes" && val != "no") return usage_error("--group-header must be yes or no");
+                group_input.header = val == "yes";
             } else if (arg == "--against") {
                 if (!screen_against_from_name(val, &screen.against)) return usage_error("--against must be model or rest");
             } else if (arg == "--adjust") {
@@ -342,7 +348,9 @@ int main(int argc, char** argv) {
         read = read_analysis_document(text, &analysis);
         bool document_screen = false;
         ScreenChoice from_document;
-        if (read.ok) read = read_screen_document(text, &groups, &from_document, &document_screen);
+        if (read.ok) read = read_screen_document(text, &groups, &from_document, &screen_view, &document_screen);
+        if (!json && read.ok)
+            for (const auto& note : groups.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
         if (document_screen) {
             // Options given on the command line override the document's screen settings.
             ScreenChoice chosen = from_document;
@@ -450,12 +458,16 @@ int main(int argc, char** argv) {
         }
     }
 
+    if (screening && analysis.conformity.requested &&
+        std::any_of(opts.begin(), opts.end(), [](const auto& o) { return o.first == "--conformity"; }))
+        return usage_error("--conformity (show one sample conforms within w0) cannot be combined with --by or a document's "
+                           "\"groups\" (a screen looks for departures across groups); test the group on its own with --conformity");
     if (screening) {
         ScreenResult s;
         if (!read.ok) s.status = read;
         else s = screen_groups(analysis, groups, screen);
         int screen_written = 0;
-        if (json) screen_written = write_output(screen_json(analysis, groups, s) + "\n", "the result document (--json)");
+        if (json) screen_written = write_output(screen_json(analysis, groups, s, &screen_view) + "\n", "the result document (--json)");
         else if (s.status.ok && !table_format.empty())
             screen_written = write_output(group_table(s, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
                                                                             out_decimal_comma, byte_order_mark}),

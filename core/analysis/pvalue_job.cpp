@@ -43,7 +43,12 @@ void start_pvalue_job(const Analysis& a, const Result& r, PValueJob* job) {
         MonteCarloOptions mo;
         mo.replicates = a.pvalue.replicates;
         mo.seed = a.pvalue.seed;
-        if (monte_carlo_refits(a, r)) {
+        const double k = static_cast<double>(spec.observed.size());
+        job->status = monte_carlo_within_budget(static_cast<double>(mo.replicates), k,
+                                                "tables of " + format_grouped(static_cast<std::uint64_t>(k)) + " categories", job->draws_left);
+        if (!job->status.ok) {
+            // over the budget: refused before any draw
+        } else if (monte_carlo_refits(a, r)) {
             job->refit = std::make_unique<RefitMonteCarloState>();
             job->status = refit_monte_carlo_start(a, r, mo, job->refit.get());
         } else {

@@ -21,7 +21,8 @@ struct PValueJob {
     std::unique_ptr<MonteCarloState> monte_carlo;    // stated or digit-law shares
     std::unique_ptr<RefitMonteCarloState> refit;     // fitted models: parametric bootstrap
     WorkProgress progress;
-    Status status;  // a refusal at start (too costly, unsupported statistic)
+    Status status;  // a refusal at start (too costly, over the Monte Carlo budget, unsupported statistic)
+    double draws_left = kMonteCarloDrawBudget;  // Monte Carlo draws allowed (a screen sets what its groups left)
 };
 
 // Starts the job the analysis asks for (nothing to do for asymptotic: progress.done at once).

@@ -5,12 +5,13 @@
 // 2 x k; Cohen 1988, ch. 7) and validity of every cell (Cochran 1954).
 #pragma once
 #include "analysis.hpp"
+#include "monte_carlo.hpp"
 #include "result.hpp"
 
 namespace tallyproof {
 
 constexpr double kMaxExactHomogeneityTables = 2e6;  // about 0.1 s natively
-constexpr double kMaxMonteCarloHomogeneityDraws = 1e8;
+constexpr double kMaxMonteCarloHomogeneityDraws = kMonteCarloDrawBudget;  // monte_carlo.hpp: one budget for every Monte Carlo p
 
 // Completes `r`, which analyse() has filled with the checked current counts (categories,
 // observed, n, alpha). On a refusal, `r` holds only the status.

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "exact_multinomial.hpp"  // kTieRelativeTolerance
+#include "monte_carlo.hpp"        // the one Monte Carlo budget
 #include "number_format.hpp"
 #include "power_divergence.hpp"
 #include "random.hpp"
@@ -133,12 +134,14 @@ Status homogeneity_monte_carlo_p(const HomogeneityTable& t, double lambda, std::
     *out = MonteCarloResult{};
     if (replicates < 1) return Status::failure("Monte Carlo needs at least one replicate.");
     const Margins g = margins_of(t);
-    const double work = static_cast<double>(replicates) * g.m;
-    if (work > max_work || g.n > 50000000)
-        return Status::failure("Monte Carlo would draw " + format_significant(work, 2) + " observations (" +
-                               format_count(static_cast<double>(replicates)) + " replicate tables of " + format_count(g.m) +
-                               "), beyond the limit of " + format_significant(max_work, 2) +
-                               ". Samples this large are where the asymptotic p-value holds (see its validity), or ask for fewer replicates.");
+    // One budget for every Monte Carlo p-value (monte_carlo.hpp): each table places the smaller sample's m observations.
+    if (Status s = monte_carlo_within_budget(static_cast<double>(replicates), g.m,
+                                             "tables placing " + format_grouped(static_cast<std::uint64_t>(g.m)) + " observations of the smaller sample", max_work);
+        !s.ok)
+        return s;
+    if (g.n > 50000000)
+        return Status::failure("Monte Carlo would hold all " + format_count(g.n) + " observations of both samples, more than 50,000,000; "
+                               "samples this large are where the asymptotic p-value holds (see its validity).");
     const std::size_t k = g.c.size();
     // Score per column: the statistic's term, or by probability minus log x! (c_j - x)!, so that a
     // higher score is always the more extreme table (the constant of the probability cancels).

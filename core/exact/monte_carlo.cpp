@@ -7,6 +7,8 @@
 #include <cmath>
 #include <cstdio>
 
+#include "number_format.hpp"
+
 namespace tallyproof {
 
 Status monte_carlo_start(const MultinomialTestSpec& spec, const MonteCarloOptions& options, MonteCarloState* st) {
@@ -28,6 +30,19 @@ Status monte_carlo_start(const MultinomialTestSpec& spec, const MonteCarloOption
     st->counts.assign(st->s.shares.size(), 0);
     st->progress.units_estimate = options.replicates;
     return Status::success();
+}
+
+Status monte_carlo_within_budget(double replicates, double draws_per_table, const std::string& table_words, double budget_left) {
+    const double draws = replicates * draws_per_table;
+    if (draws <= budget_left) return Status::success();
+    auto grouped = [](double x) { return x < 1.8e19 ? format_grouped(static_cast<std::uint64_t>(x)) : format_significant(x, 2); };
+    const double most = draws_per_table > 0 ? std::floor(budget_left / draws_per_table) : 0;
+    const bool shared = budget_left < kMonteCarloDrawBudget;
+    return Status::failure("Monte Carlo would make " + grouped(draws) + " random draws (" + grouped(replicates) + " replicate " +
+                           table_words + "), beyond the budget of " + grouped(kMonteCarloDrawBudget) + " draws for one analysis" +
+                           (shared ? " (" + grouped(kMonteCarloDrawBudget - budget_left) + " already used by this screen)" : "") +
+                           ". Ask for fewer replicates" + (most >= 1 ? " (at most " + grouped(most) + " here)" : "") +
+                           ", or use the asymptotic or exact p-value.");
 }
 
 WorkProgress monte_carlo_step(MonteCarloState* st, std::uint64_t budget) {

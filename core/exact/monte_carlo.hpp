@@ -4,6 +4,7 @@
 // standard error sqrt(p(1-p)/B). Same seed, same spec: the same b, natively and in WebAssembly.
 #pragma once
 #include <cstdint>
+#include <string>
 #include <vector>
 
 #include "exact_multinomial.hpp"
@@ -42,6 +43,20 @@ Status monte_carlo_start(const MultinomialTestSpec& spec, const MonteCarloOption
 WorkProgress monte_carlo_step(MonteCarloState* state, std::uint64_t budget);  // at most `budget` replicates
 void monte_carlo_cancel(MonteCarloState* state);  // the next step reports cancelled
 Status monte_carlo_result(const MonteCarloState& state, MonteCarloResult* result);  // once done
+
+// The one Monte Carlo budget (docs/methods.md, "Monte Carlo budget"): the random draws one analysis
+// may make in all, whatever its kind. A draw is one count of a simulated table of a sample (k per
+// replicate table of k categories; refitted models count the same) or one observation placed in a
+// simulated comparison with a previous sample (the smaller sample's m per table); a screen's groups
+// share one budget. Measured natively (docs/methods.md): a single sample's 10^8 draws about 6 s on a
+// loaded two-core machine, a previous sample's 0.6 s; so no request runs for minutes (the issue-26 case,
+// 10^9 replicates of 10 categories, ran 157 s), and the previous sample's limit (10^8) is kept.
+inline constexpr double kMonteCarloDrawBudget = 1e8;
+// Success when `replicates` tables of `draws_per_table` draws each (described by `table_words`, such
+// as "tables of 10 categories") fit in `budget_left`; else a refusal naming the budget and the most
+// replicates that fit (a screen passes what its earlier groups left).
+Status monte_carlo_within_budget(double replicates, double draws_per_table, const std::string& table_words,
+                                 double budget_left = kMonteCarloDrawBudget);
 
 // One-call form: start, then step until done.
 Status monte_carlo_p_value(const MultinomialTestSpec& spec, const MonteCarloOptions& options,

@@ -2,7 +2,10 @@
 // Which column holds the groups: the one named by `by`, else the first. Which shape: a group
 // named on several lines means a long table (two further columns: category and count) or raw
 // values (one further column); every group on one line means a wide table. A first row whose
-// count cells are not numbers is a header row. Common practice for spreadsheet exports.
+// count cells are not numbers is a header row, and so is a first row whose group cell is text above
+// category cells that are whole numbers in equal increasing steps (digits 0..9, years, sizes) when
+// the rows below are not. Common practice for spreadsheet exports. Group names and category labels
+// enter through label_text (NFC, invisible characters as codes), as the one-sample reader's labels.
 #include "grouped_table.hpp"
 
 #include <algorithm>
@@ -10,6 +13,8 @@
 #include <unordered_map>
 
 #include "paste_parser.hpp"  // parse_input
+#include "label_text.hpp"
+#include "number_format.hpp"
 #include "table_shape.hpp"  // TableRow, looks_numeric
 
 namespace tallyproof {
@@ -51,23 +56,36 @@ bool read_count(const std::string& cell, int line, int column, DecimalMark mark,
     return true;
 }
 
-// Group names in first-seen order, with the line each first appears on.
+// Group names in first-seen order, with the line each first appears on. Names are normalised
+// (label_text.hpp); a group written in two Unicode forms is one group, and is remembered to be noted.
 struct GroupIndex {
     std::unordered_map<std::string, std::size_t> index;
-    std::size_t find_or_add(const std::string& name, int line, GroupedCounts* out) {
+    std::vector<std::string> first_spelling;  // the cell as first written, per group
+    std::vector<std::size_t> respelled;       // groups met in more than one spelling
+    std::size_t find_or_add(const std::string& name, const std::string& spelling, int line, GroupedCounts* out) {
         const auto [it, fresh] = index.emplace(name, out->groups.size());
-        if (fresh) { out->groups.push_back(name); out->group_lines.push_back(line); }
+        if (fresh) {
+            out->groups.push_back(name);
+            out->group_lines.push_back(line);
+            first_spelling.push_back(spelling);
+        } else if (spelling != first_spelling[it->second] &&
+                   (respelled.empty() || respelled.back() != it->second) &&
+                   std::find(respelled.begin(), respelled.end(), it->second) == respelled.end()) {
+            respelled.push_back(it->second);
+        }
         return it->second;
     }
 };
 
-// The group cell of a data row, or a located problem when it is empty (false).
-bool group_cell(const TableRow& row, std::size_t column, GroupedCounts* out, std::string* name) {
-    *name = cell_at(row, column);
-    if (!name->empty()) {
-        if (!valid_utf8(*name)) *name = utf8_or_replacement(*name);
+// The group cell of a data row, normalised into `name` (its cell as written in `spelling`), or a
+// located problem when it is empty (false).
+bool group_cell(const TableRow& row, std::size_t column, GroupedCounts* out, std::string* name, std::string* spelling) {
+    *spelling = cell_at(row, column);
+    if (!spelling->empty()) {
+        *name = normalised_label(*spelling);
         return true;
     }
+    out->group_problem = true;
     const int col = static_cast<int>(column) + 1;
     if (column >= row.cells.size())  // a short row: the group column is missing, not empty
         add_group_problem(out, row.line, col, cell_location(row.line, col) + "the row has only " + std::to_string(row.cells.size()) +
@@ -88,6 +106,44 @@ bool whole_number_labels(const std::vector<std::string>& labels, std::vector<dou
     return true;
 }
 
+// A note naming groups whose rows wrote the name in more than one Unicode form (read as one group).
+void note_respelled(const GroupIndex& groups, GroupedCounts* out) {
+    if (groups.respelled.empty()) return;
+    out->notes.push_back(std::string(groups.respelled.size() == 1 ? "The group " : "Groups ") +
+                         quoted_labels(out->groups, groups.respelled) + (groups.respelled.size() == 1 ? " is" : " are") +
+                         " written in more than one Unicode form (composed and decomposed accents): read as one group each "
+                         "(names are compared in NFC).");
+}
+
+// The first row as the header of a wide table whose categories are numbered: a text cell in the
+// group column above at least three whole numbers increasing in equal steps (digits 0..9, years,
+// sizes 36, 38, 40), while at most one in ten of the rows below (up to 200) is such a sequence.
+// `step` receives the step. Common practice: digit and year tables are laid out this way.
+bool numbered_header_row(const std::vector<TableRow>& rows, std::size_t group_col, double* step) {
+    if (rows.size() < 2 || group_col >= rows[0].cells.size() || looks_numeric(rows[0].cells[group_col])) return false;
+    auto sequence = [&](const TableRow& row, double* d) {
+        std::vector<double> v;
+        for (std::size_t c = 0; c < row.cells.size(); ++c) {
+            if (c == group_col) continue;
+            const NumberReading n = read_number(row.cells[c], DecimalMark::point);
+            if (!n.ok || n.percent || n.value != std::floor(n.value)) return false;
+            v.push_back(n.value);
+        }
+        if (v.size() < 3 || !(v[1] > v[0])) return false;
+        for (std::size_t i = 2; i < v.size(); ++i)
+            if (v[i] - v[i - 1] != v[1] - v[0]) return false;
+        *d = v[1] - v[0];
+        return true;
+    };
+    if (!sequence(rows[0], step)) return false;
+    std::size_t below = 0, alike = 0;
+    for (std::size_t r = 1; r < rows.size() && r <= 200; ++r, ++below) {
+        double d = 0;
+        alike += rows[r].cells.size() == rows[0].cells.size() && sequence(rows[r], &d);
+    }
+    return below > 0 && 10 * alike <= below;
+}
+
 // Long table: group, category, count on every line (in the columns found by the caller).
 void read_long_rows(const std::vector<TableRow>& rows, std::size_t first, std::size_t group_col, std::size_t category_col,
                     std::size_t count_col, DecimalMark mark, GroupedCounts* out) {
@@ -100,9 +156,9 @@ void read_long_rows(const std::vector<TableRow>& rows, std::size_t first, std::s
     int first_repeat = 0;
     for (std::size_t r = first; r < rows.size(); ++r) {
         const TableRow& row = rows[r];
-        std::string name;
-        if (!group_cell(row, group_col, out, &name)) continue;
-        const std::string& label = cell_at(row, category_col);
+        std::string name, spelling;
+        if (!group_cell(row, group_col, out, &name, &spelling)) continue;
+        const std::string label = normalised_label(cell_at(row, category_col));
         if (label.empty()) {
             const int col = static_cast<int>(category_col) + 1;
             add_group_problem(out, row.line, col, cell_location(row.line, col) + "the category cell of group " + quote_cell(name) + " is empty.");
@@ -116,7 +172,7 @@ void read_long_rows(const std::vector<TableRow>& rows, std::size_t first, std::s
                                                       " cells; expected group, category and count on every line.");
             continue;
         }
-        const std::size_t g = groups.find_or_add(name, row.line, out);
+        const std::size_t g = groups.find_or_add(name, spelling, row.line, out);
         const auto [it, fresh] = categories.emplace(label, out->categories.size());
         if (fresh) out->categories.push_back(label);
         cells.push_back(Cell{g, it->second, count});
@@ -167,6 +223,7 @@ void read_long_rows(const std::vector<TableRow>& rows, std::size_t first, std::s
     if (repeated > 0)
         out->notes.push_back(std::to_string(repeated) + " rows repeat a group and category already seen (first on line " +
                              std::to_string(first_repeat) + "): their counts were added together.");
+    note_respelled(groups, out);
 }
 
 // Wide table: a header row naming the categories, then one row per group.
@@ -178,7 +235,7 @@ void read_wide_rows(const std::vector<TableRow>& rows, std::size_t first, std::s
     for (std::size_t c = 0; c < width; ++c)
         if (c != group_col) count_cols.push_back(c);
     for (std::size_t i = 0; i < count_cols.size(); ++i) {
-        std::string label = first == 1 ? cell_at(rows[0], count_cols[i]) : "";
+        std::string label = first == 1 ? normalised_label(cell_at(rows[0], count_cols[i])) : "";
         if (label.empty()) label = "Category " + std::to_string(i + 1);
         out->categories.push_back(label);
     }
@@ -187,14 +244,16 @@ void read_wide_rows(const std::vector<TableRow>& rows, std::size_t first, std::s
     GroupIndex groups;
     for (std::size_t r = first; r < rows.size(); ++r) {
         const TableRow& row = rows[r];
-        std::string name;
-        if (!group_cell(row, group_col, out, &name)) continue;
+        std::string name, spelling;
+        if (!group_cell(row, group_col, out, &name, &spelling)) continue;
         const std::size_t before = out->groups.size();
-        const std::size_t g = groups.find_or_add(name, row.line, out);
+        const std::size_t g = groups.find_or_add(name, spelling, row.line, out);
         if (out->groups.size() == before) {
+            out->group_problem = true;
             add_group_problem(out, row.line, static_cast<int>(group_col) + 1,
                               cell_location(row.line, static_cast<int>(group_col) + 1) + "the group " + quote_cell(name) +
                                   " appears again (first on line " + std::to_string(out->group_lines[g]) +
+                                  (spelling != groups.first_spelling[g] ? ", written there in another Unicode form; group names are compared in NFC" : "") +
                                   "); a wide table has one row per group.");
             continue;
         }
@@ -252,9 +311,9 @@ void read_raw_rows(const std::vector<TableRow>& rows, std::size_t first, std::si
     std::vector<int> pooled_lines;
     for (std::size_t r = first; r < rows.size(); ++r) {
         const TableRow& row = rows[r];
-        std::string name;
-        if (!group_cell(row, group_col, out, &name)) continue;
-        const std::size_t g = groups.find_or_add(name, row.line, out);
+        std::string name, spelling;
+        if (!group_cell(row, group_col, out, &name, &spelling)) continue;
+        const std::size_t g = groups.find_or_add(name, spelling, row.line, out);
         if (out->groups.size() > kMaxGroups) { add_group_problem(out, row.line, 0, cell_location(row.line, 0) + "too many groups."); return; }
         if (texts.size() < out->groups.size()) { texts.emplace_back(); lines.emplace_back(); }
         std::string value = cell_at(row, value_col);
@@ -309,12 +368,22 @@ void read_raw_rows(const std::vector<TableRow>& rows, std::size_t first, std::si
         }
     }
     for (const auto& note : all.notes) out->notes.push_back("All values pooled: " + original_lines(note, pooled_lines, value_column));
+    note_respelled(groups, out);
     out->notes.insert(out->notes.begin(), "Read raw values with a group column: " + std::to_string(pooled_lines.size()) +
                                               " values in " + std::to_string(out->groups.size()) + " groups, tallied into " +
                                               std::to_string(k) + " categories shared by every group.");
 }
 
 }  // namespace
+
+std::string group_look_alike_note(const std::vector<std::string>& groups, const std::vector<std::vector<std::size_t>>& alike) {
+    if (alike.empty()) return "";
+    std::string s;
+    for (std::size_t g = 0; g < alike.size() && g < 3; ++g) s += (g ? "; " : "") + quoted_labels(groups, alike[g]);
+    if (alike.size() > 3) s += "; and " + std::to_string(alike.size() - 3) + " more";
+    return "Group names that look the same (they differ only by invisible characters, case or surrounding spaces): " + s +
+           ". They are screened as separate groups; if they are one group, join their rows under one name.";
+}
 
 const char* group_shape_name(GroupShape shape) {
     switch (shape) {
@@ -400,24 +469,17 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
             header_named = true;
         }
     }
-    // A header row: named by `by`, or a first row without numbers above rows with some.
+    // A header row: named by `by`, or a first row without numbers above rows with some, or the
+    // numbered categories of a wide table (0..9, years) above a text cell; or as the options say.
     auto numeric_outside_group = [&](const TableRow& row) {
         std::size_t n = 0;
         for (std::size_t c = 0; c < row.cells.size(); ++c) n += c != group_col && looks_numeric(row.cells[c]);
         return n;
     };
-    const bool header = header_named || (rows.size() >= 2 && numeric_outside_group(rows[0]) == 0 && numeric_outside_group(rows[1]) > 0);
-    const std::size_t first = header ? 1 : 0;
-    if (rows.size() <= first) { out.status = Status::failure("Only a header row: no groups to read."); return out; }
-    out.group_column = static_cast<int>(group_col) + 1;
-    out.group_column_name = header ? cell_at(rows[0], group_col) : "";
-    if (out.group_column_name.empty()) out.group_column_name = "column " + std::to_string(out.group_column);
-
     // The shape: groups repeated over lines are a long table or raw values, else a wide table.
-    GroupShape shape;
-    if (options.shape) shape = *options.shape;
-    else if (parse.digits || parse.bins.kind != BinChoice::Kind::none || parse.raw) shape = GroupShape::raw_values;
-    else {
+    auto detect_shape = [&](std::size_t first) {
+        if (options.shape) return *options.shape;
+        if (parse.digits || parse.bins.kind != BinChoice::Kind::none || parse.raw) return GroupShape::raw_values;
         std::unordered_map<std::string, int> seen;
         bool repeats = false;
         for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.emplace(cell_at(rows[r], group_col), 0).second;
@@ -426,10 +488,24 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
         for (std::size_t r = first; r < rows.size() && r < first + 200 && counts_only; ++r)
             for (std::size_t c = 0; c < rows[r].cells.size(); ++c)
                 if (c != group_col && !rows[r].cells[c].empty() && !looks_numeric(rows[r].cells[c])) counts_only = false;
-        if (!repeats && width >= 3 && counts_only) shape = GroupShape::wide_table;
-        else if (width == 2) shape = GroupShape::raw_values;
-        else shape = GroupShape::long_table;
-    }
+        if (!repeats && width >= 3 && counts_only) return GroupShape::wide_table;
+        if (width == 2) return GroupShape::raw_values;
+        return GroupShape::long_table;
+    };
+    bool header = header_named || (rows.size() >= 2 && numeric_outside_group(rows[0]) == 0 && numeric_outside_group(rows[1]) > 0);
+    double step = 0;
+    bool numbered = false;
+    if (!header && !options.header && numbered_header_row(rows, group_col, &step) && detect_shape(1) == GroupShape::wide_table)
+        header = numbered = true;
+    if (options.header) header = *options.header;
+    const std::size_t first = header ? 1 : 0;
+    if (rows.size() <= first) { out.status = Status::failure("Only a header row: no groups to read."); return out; }
+    out.header = header;
+    out.numbered_header = numbered;
+    out.group_column = static_cast<int>(group_col) + 1;
+    out.group_column_name = header ? normalised_label(cell_at(rows[0], group_col)) : "";
+    if (out.group_column_name.empty()) out.group_column_name = "column " + std::to_string(out.group_column);
+    const GroupShape shape = detect_shape(first);
     out.shape = shape;
     const DecimalMark mark = parse.decimal ? *parse.decimal : sep == Separator::semicolon ? DecimalMark::comma : DecimalMark::point;
     std::vector<std::size_t> others;
@@ -459,15 +535,28 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
             read_raw_rows(rows, first, group_col, others[0], parse, &out);
             break;
     }
+    // Raw values with a group column are only offered as groups, so their refusals stay one sample's.
+    if (shape == GroupShape::raw_values) out.group_problem = false;
     if (!out.status.ok) return out;
-    if (header) out.notes.insert(out.notes.begin(), "Line " + std::to_string(rows[0].line) + " read as a header row.");
+    if (numbered)
+        out.notes.insert(out.notes.begin(), "Line " + std::to_string(rows[0].line) + " read as a header row: its cells " +
+                                                quote_cell(out.categories[0]) + ", " + quote_cell(out.categories[1]) + " ... " +
+                                                quote_cell(out.categories.back()) + " are numbers in steps of " + format_plain(step) + " beside the text " +
+                                                quote_cell(out.group_column_name) + ", so they name the categories (detected; the line can be read as a group instead).");
+    else if (header) out.notes.insert(out.notes.begin(), "Line " + std::to_string(rows[0].line) + " read as a header row.");
     out.notes.insert(out.notes.begin(), std::string("Groups read from ") + (header ? "column " + std::to_string(out.group_column) + " (" + quote_cell(out.group_column_name) + ")"
                                                                                       : out.group_column_name) +
                                             " as a " + group_shape_name(shape) + " table" +
                                             (options.by.empty() ? " (detected; another group column can be chosen)." : "."));
+    out.look_alike_groups = look_alike_groups(out.groups);
+    if (!out.look_alike_groups.empty()) out.notes.push_back(group_look_alike_note(out.groups, out.look_alike_groups));
+    if (std::any_of(out.groups.begin(), out.groups.end(), [](const std::string& g) { return g.find("<U+") != std::string::npos; }))
+        out.notes.push_back("Group names hold characters that draw nothing (direction marks, zero-width spaces); "
+                            "they are shown as <U+XXXX> codes, as category labels are.");
     if (out.groups.size() < 2) {
+        out.group_problem = shape != GroupShape::raw_values;
         out.status = Status::failure("Only one group (" + quote_cell(out.groups.empty() ? "" : out.groups[0]) +
-                                         "): screening compares two or more groups; test a single sample without --by.",
+                                         "): screening compares two or more groups; read its counts as one sample instead.",
                                      out.group_lines.empty() ? 0 : out.group_lines[0], out.group_column);
         return out;
     }

@@ -26,6 +26,7 @@ bool group_shape_from_name(const std::string& name, GroupShape* shape);  // fals
 struct GroupReadOptions {
     std::string by;                  // the group column: a header name or a 1-based number; empty: detect
     std::optional<GroupShape> shape; // override the detected shape
+    std::optional<bool> header;      // the first line is (true) or is not (false) a header row; unset: detect
     ParseOptions parse;              // raw values: digits, bins, case folding...; decimal mark, separator
 };
 
@@ -45,13 +46,23 @@ struct GroupedCounts {
     bool ordered = false;                 // whole-number or digit categories, bins
     std::optional<DigitTest> digit_test;  // raw values tallied by a digit
     std::vector<double> edges;            // raw values counted into bins
+    bool header = false;                  // the first line was read as a header row
+    bool numbered_header = false;         // ...detected by its numbered categories (0..9, years, sizes)
+    std::vector<std::vector<std::size_t>> look_alike_groups;  // groups whose names look the same (label_text.hpp)
+    bool group_problem = false;           // refused for what the groups are (one group, a group cell empty
+                                          // or missing): the text is a table of groups, and this is its message
     std::vector<std::string> notes;       // what was detected, plain sentences
     std::vector<CellProblem> problems;    // offending cells (at most kMaxProblems)
 
     double count(std::size_t group, std::size_t category) const { return counts[group * categories.size() + category]; }
 };
 
+// One sentence naming up to three sets of groups whose names look the same (empty when none).
+std::string group_look_alike_note(const std::vector<std::string>& groups, const std::vector<std::vector<std::size_t>>& alike);
+
 // Reads a grouped paste; never throws, refuses with a message naming the line (and the group).
+// Group names, like category labels, enter through label_text.hpp: NFC (one group however it is
+// written), characters that draw nothing shown as <U+XXXX>; names that look alike are noted.
 GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& options = {});
 
 }  // namespace tallyproof

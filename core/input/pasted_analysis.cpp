@@ -1,7 +1,7 @@
 // Mapping from the detected paste (paste_parser) to the analysis document's model kinds.
 #include "pasted_analysis.hpp"
 
-#include "category_values.hpp"
+#include "fit_category_values.hpp"
 #include "label_text.hpp"
 #include "null_model.hpp"
 

@@ -106,7 +106,11 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
         }
     }
     const JsonValue* obs = doc.find("observed");
-    const bool screen = doc.find("groups") != nullptr;  // a screening document (screen_document.hpp)
+    const JsonValue* groups = doc.find("groups");
+    if (groups && !groups->is(Type::array))  // null included: a screen member left empty is not one sample
+        return Status::failure(std::string("In the document, \"groups\" must be a list of {\"name\", \"observed\"} (it is ") +
+                               (groups->is(Type::null) ? "null" : "not a list") + "); leave it out for one sample.");
+    const bool screen = groups != nullptr;  // a screening document (screen_document.hpp)
     if (!obs && !screen) return Status::failure("The document has no \"observed\" counts.");
     if (obs) TP_TRY(read_numbers(*obs, "observed", &a.observed));
     if (a.observed.size() > kMaxCategories)
@@ -205,8 +209,15 @@ std::string write_analysis_document(const Analysis& a) {
     j.key("format").value(kDocumentFormat);
     j.key("categories").strings(a.categories);
     j.key("observed").numbers(a.observed);
+    write_analysis_settings(j, a);
+    j.end_object();
+    return j.str();
+}
+
+void write_analysis_settings(JsonWriter& j, const Analysis& a, const std::string& model_description) {
     j.key("ordered").value(a.ordered);
     j.key("model").begin_object().key("kind").value(model_kind_name(a.model.kind));
+    if (!model_description.empty()) j.key("description").value(model_description);
     if (!a.model.values.empty()) j.key("values").numbers(a.model.values);
     if (!a.model.parameters.empty()) {
         j.key("parameters").begin_object();
@@ -247,8 +258,6 @@ std::string write_analysis_document(const Analysis& a) {
             if (std::isfinite(value)) j.key(name).value(value);
         j.end_object();
     }
-    j.end_object();
-    return j.str();
 }
 
 }  // namespace tallyproof

@@ -5,6 +5,7 @@
 #include <string_view>
 
 #include "analysis.hpp"
+#include "json_writer.hpp"
 #include "status.hpp"
 
 namespace tallyproof {
@@ -17,5 +18,10 @@ inline constexpr const char* kDocumentFormat = "tallyproof/1";
 Status read_analysis_document(std::string_view json, Analysis* out);
 
 std::string write_analysis_document(const Analysis& a);  // one line of JSON
+
+// The settings members (ordered, model, statistic, alpha, pvalue, merge, extra_estimated_parameters,
+// plan, conformity) into an open object: write_analysis_document's, shared by the screen's documents.
+// A non-empty `model_description` is added to "model" (result documents).
+void write_analysis_settings(JsonWriter& j, const Analysis& a, const std::string& model_description = "");
 
 }  // namespace tallyproof

@@ -18,6 +18,7 @@
 #include "null_model.hpp"
 #include "number_format.hpp"
 #include "power_divergence.hpp"
+#include "monte_carlo.hpp"
 #include "pvalue_job.hpp"
 #include "validity.hpp"
 
@@ -26,25 +27,34 @@ namespace {
 
 // One group against the model: the single analysis, with an exact (or Monte Carlo) p-value
 // when the group is too thin for the asymptotic one.
-void test_against_model(const Analysis& base, const std::vector<std::string>& categories, const double* row, GroupRow* g) {
+// `draws_left` is what remains of the screen's one Monte Carlo budget (monte_carlo.hpp), spent here.
+void test_against_model(const Analysis& base, const std::vector<std::string>& categories, const double* row, GroupRow* g,
+                        double* draws_left) {
     Analysis a = base;
     a.categories = categories;
     a.observed.assign(row, row + categories.size());
     a.plan = PlanChoice{};
     Result r = analyse(a);
     if (!r.status.ok) { g->note = "not tested: " + r.status.message; return; }
+    bool over_budget = false;
     const bool thin = !r.validity.cochran_holds && base.pvalue.method == PValueMethod::asymptotic;
     if (thin || base.pvalue.method != PValueMethod::asymptotic) {
         if (thin) a.pvalue.method = PValueMethod::exact;
         PValueJob job;
+        job.draws_left = *draws_left;
         start_pvalue_job(a, r, &job);
         if (!job.status.ok && thin) {  // exact enumeration too costly: Monte Carlo
             a.pvalue.method = PValueMethod::monte_carlo;
             job = PValueJob{};
+            job.draws_left = *draws_left;
             start_pvalue_job(a, r, &job);
         }
         while (job.status.ok && !job.progress.done && !job.progress.cancelled) step_pvalue_job(&job, 1u << 20);
         finish_pvalue_job(job, &r);
+        if (a.pvalue.method == PValueMethod::monte_carlo && r.monte_carlo.computed)
+            *draws_left -= static_cast<double>(r.monte_carlo.replicates) * static_cast<double>(r.tested_observed.size());
+        else if (a.pvalue.method == PValueMethod::monte_carlo && r.monte_carlo.refusal.rfind("Monte Carlo would make", 0) == 0)
+            over_budget = true;
     }
     g->tested = true;
     g->thin = thin;
@@ -60,7 +70,9 @@ void test_against_model(const Analysis& base, const std::vector<std::string>& ca
     if (thin)
         g->note = "thin: smallest expected count " + format_significant(r.validity.min_expected, 3) + "; " +
                   (r.method == PValueMethod::exact ? "exact" : r.method == PValueMethod::monte_carlo ? "Monte Carlo" : "asymptotic") +
-                  " p-value";
+                  " p-value" + (over_budget ? " (the screen's Monte Carlo budget was spent)" : "");
+    else if (over_budget)
+        g->note = "asymptotic p-value: " + r.monte_carlo.refusal;
     for (std::size_t i : r.diagnostics.drivers) {
         const CategoryDiagnostic& d = r.diagnostics.categories[i];
         g->drivers.push_back(GroupDriver{d.label, d.direction, d.observed, d.expected, d.adjusted_residual});
@@ -198,6 +210,13 @@ ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, co
     const std::size_t k = counts.categories.size(), groups = counts.groups.size();
     if (!counts.status.ok) { s.status = counts.status; return s; }
     if (!(choice.q > 0 && choice.q < 1)) { s.status = Status::failure("The false discovery rate q must lie between 0 and 1."); return s; }
+    if (base.conformity.requested) {  // one rule (issue 26): refused, never silently ignored
+        s.status = Status::failure(
+            "Showing conformity within a margin w0 is a question for one sample; a screen of many groups looks for "
+            "departures (each group tested, the p-values adjusted across groups). Test the group on its own for "
+            "conformity, or screen without the margin.");
+        return s;
+    }
     if (groups < 2) { s.status = Status::failure("Only one group: screening compares two or more groups."); return s; }
     if (k < 2) { s.status = Status::failure("Only one category: a goodness-of-fit test needs at least two."); return s; }
     if (counts.counts.size() != groups * k) { s.status = Status::failure("The counts do not fill groups x categories."); return s; }
@@ -223,6 +242,19 @@ ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, co
     }
     if (!(total > 0)) { s.status = Status::failure("Every group has a total of zero: there is nothing to test."); return s; }
 
+    // One Monte Carlo budget for the whole screen (monte_carlo.hpp): refused at once when the groups'
+    // simulations asked for cannot fit; thin groups' fallbacks then share what is left.
+    double draws_left = kMonteCarloDrawBudget;
+    if (choice.against == ScreenAgainst::model && base.pvalue.method == PValueMethod::monte_carlo) {
+        std::size_t simulated = 0;
+        for (const auto& row : s.groups) simulated += row.n > 0;
+        const Status budget = monte_carlo_within_budget(static_cast<double>(base.pvalue.replicates) * static_cast<double>(simulated),
+                                                        static_cast<double>(k),
+                                                        "tables of " + std::to_string(k) + " categories: " +
+                                                            format_grouped(base.pvalue.replicates) + " for each of " +
+                                                            std::to_string(simulated) + " groups");
+        if (!budget.ok) { s.status = budget; return s; }
+    }
     std::string shared_description;
     const std::vector<double> shares = choice.against == ScreenAgainst::model
                                            ? shared_shares(base, counts.categories, pooled, &shared_description)
@@ -239,7 +271,7 @@ ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, co
         const double* cells = counts.counts.data() + g * k;
         if (choice.against == ScreenAgainst::model && !shares.empty() && quick_test_against_shares(base, shares, cells, &row))
             quick[g] = true;
-        else if (choice.against == ScreenAgainst::model) test_against_model(base, counts.categories, cells, &row);
+        else if (choice.against == ScreenAgainst::model) test_against_model(base, counts.categories, cells, &row, &draws_left);
         else test_against_rest(base.statistic, counts.categories, cells, pooled, total, &row);
         if (!row.tested && row.n > 0)
             s.notes.push_back("Group " + quote_cell(row.name) + " was " + row.note + ".");
@@ -269,7 +301,8 @@ ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, co
         if (row.flagged && quick[at[i]]) {  // the drivers come from the whole single analysis
             GroupRow full = row;
             full.drivers.clear();
-            test_against_model(base, counts.categories, counts.counts.data() + at[i] * k, &full);
+            double no_draws = 0;  // only the drivers are wanted: no p-value is simulated again
+            test_against_model(base, counts.categories, counts.counts.data() + at[i] * k, &full, &no_draws);
             row.drivers = full.drivers;
         }
         s.flagged += row.flagged;

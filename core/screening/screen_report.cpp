@@ -5,9 +5,11 @@
 #include <algorithm>
 #include <cmath>
 
+#include "analysis_document.hpp"
 #include "json_writer.hpp"
 #include "number_format.hpp"
 #include "report.hpp"
+#include "screen_document.hpp"
 
 namespace tallyproof {
 namespace {
@@ -119,7 +121,7 @@ std::string group_table(const ScreenResult& s, const TableExportOptions& o) {
     return write_table(rows, o);
 }
 
-std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s) {
+std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s, const ScreenView* view) {
     JsonWriter j;
     if (!begin_result_document(j, s.status)) {
         j.end_object();
@@ -127,14 +129,15 @@ std::string screen_json(const Analysis& base, const GroupedCounts& counts, const
     }
     j.key("categories").strings(s.categories);
     if (!counts.group_column_name.empty()) j.key("by").value(counts.group_column_name);
-    j.key("model").begin_object().key("kind").value(model_kind_name(base.model.kind)).key("description").value(s.model_description).end_object();
+    // The settings as the analysis document writes them, so the result reads back as the same screen.
+    Analysis settings = base;
+    settings.conformity = ConformityChoice{};
+    settings.plan = PlanChoice{};
+    write_analysis_settings(j, settings, s.model_description);
     j.key("statistic_symbol").value(s.statistic_symbol);
     j.key("lambda").value(base.statistic.lambda);
-    j.key("screen").begin_object()
-        .key("against").value(screen_against_name(s.choice.against))
-        .key("adjust").value(multiplicity_method_name(s.choice.adjust))
-        .key("q").value(s.choice.q)
-        .key("groups").value(static_cast<double>(s.groups.size()))
+    begin_screen_settings(j, counts, s.choice, view ? *view : ScreenView{});
+    j.key("groups").value(static_cast<double>(s.groups.size()))
         .key("tested").value(static_cast<double>(s.tested))
         .key("flagged").value(static_cast<double>(s.flagged))
         .key("thin").value(static_cast<double>(s.thin))

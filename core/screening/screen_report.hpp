@@ -7,6 +7,7 @@
 
 #include "analysis.hpp"
 #include "screen_groups.hpp"
+#include "screen_document.hpp"
 #include "table_export.hpp"
 
 namespace tallyproof {
@@ -18,7 +19,9 @@ std::string screen_summary(const ScreenResult& s);
 std::string screen_report_text(const ScreenResult& s);                    // summary, table, notes, cautions
 std::string screen_writeup(const ScreenResult& s);                        // summary and cautions, to paste
 std::string group_table(const ScreenResult& s, const TableExportOptions& o);  // one row per group
-// The result document of a screen: input echo (categories, groups with observed) and output.
-std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s);
+// The result document of a screen: the input as the analysis document writes it (categories,
+// settings, groups with observed, screen settings and `view`), so it reads back as the same screen,
+// and the output.
+std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s, const ScreenView* view = nullptr);
 
 }  // namespace tallyproof
