@@ -60,6 +60,7 @@ bool read_count(const std::string& cell, int line, int column, DecimalMark mark,
 struct GroupIndex {
     std::unordered_map<std::string, std::size_t> index;
     std::vector<std::string> first_spelling;  // the cell as first written, per group
+    std::vector<unsigned char> noted;         // per group: already in `respelled`
     std::vector<std::size_t> respelled;       // groups met in more than one spelling
     std::size_t find_or_add(const std::string& name, const std::string& spelling, int line, GroupedCounts* out) {
         const auto [it, fresh] = index.emplace(name, out->groups.size());
@@ -67,9 +68,9 @@ struct GroupIndex {
             out->groups.push_back(name);
             out->group_lines.push_back(line);
             first_spelling.push_back(spelling);
-        } else if (spelling != first_spelling[it->second] &&
-                   (respelled.empty() || respelled.back() != it->second) &&
-                   std::find(respelled.begin(), respelled.end(), it->second) == respelled.end()) {
+            noted.push_back(0);
+        } else if (!noted[it->second] && spelling != first_spelling[it->second]) {
+            noted[it->second] = 1;
             respelled.push_back(it->second);
         }
         return it->second;
