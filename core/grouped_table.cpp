@@ -11,6 +11,7 @@
 #include <algorithm>
 #include <cmath>
 #include <unordered_map>
+#include <unordered_set>
 
 #include "label_text.hpp"
 #include "number_format.hpp"
@@ -480,9 +481,10 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
     auto detect_shape = [&](std::size_t first) {
         if (options.shape) return *options.shape;
         if (parse.digits || parse.bins.kind != BinChoice::Kind::none || parse.raw) return GroupShape::raw_values;
-        std::unordered_map<std::string, int> seen;
+        std::unordered_set<std::string_view> seen;  // views of the rows' cells: no copies
+        seen.reserve(rows.size());
         bool repeats = false;
-        for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.emplace(cell_at(rows[r], group_col), 0).second;
+        for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.insert(cell_at(rows[r], group_col)).second;
         // A wide table holds only counts beside the group names; text there makes it long.
         bool counts_only = true;
         for (std::size_t r = first; r < rows.size() && r < first + 200 && counts_only; ++r)
