@@ -11,6 +11,7 @@
 #include <algorithm>
 #include <cmath>
 #include <unordered_map>
+#include <unordered_set>
 
 #include "paste_parser.hpp"  // parse_input
 #include "label_text.hpp"
@@ -61,6 +62,7 @@ bool read_count(const std::string& cell, int line, int column, DecimalMark mark,
 struct GroupIndex {
     std::unordered_map<std::string, std::size_t> index;
     std::vector<std::string> first_spelling;  // the cell as first written, per group
+    std::vector<unsigned char> noted;         // per group: already in `respelled`
     std::vector<std::size_t> respelled;       // groups met in more than one spelling
     std::size_t find_or_add(const std::string& name, const std::string& spelling, int line, GroupedCounts* out) {
         const auto [it, fresh] = index.emplace(name, out->groups.size());
@@ -68,9 +70,9 @@ struct GroupIndex {
             out->groups.push_back(name);
             out->group_lines.push_back(line);
             first_spelling.push_back(spelling);
-        } else if (spelling != first_spelling[it->second] &&
-                   (respelled.empty() || respelled.back() != it->second) &&
-                   std::find(respelled.begin(), respelled.end(), it->second) == respelled.end()) {
+            noted.push_back(0);
+        } else if (!noted[it->second] && spelling != first_spelling[it->second]) {
+            noted[it->second] = 1;
             respelled.push_back(it->second);
         }
         return it->second;
@@ -480,9 +482,10 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
     auto detect_shape = [&](std::size_t first) {
         if (options.shape) return *options.shape;
         if (parse.digits || parse.bins.kind != BinChoice::Kind::none || parse.raw) return GroupShape::raw_values;
-        std::unordered_map<std::string, int> seen;
+        std::unordered_set<std::string_view> seen;  // views of the rows' cells: no copies
+        seen.reserve(rows.size());
         bool repeats = false;
-        for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.emplace(cell_at(rows[r], group_col), 0).second;
+        for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.insert(cell_at(rows[r], group_col)).second;
         // A wide table holds only counts beside the group names; text there makes it long.
         bool counts_only = true;
         for (std::size_t r = first; r < rows.size() && r < first + 200 && counts_only; ++r)

@@ -9,7 +9,9 @@
 #include "screen_groups.hpp"
 
 #include <boost/math/distributions/normal.hpp>
+#include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include "effect_size.hpp"
 #include "goodness_of_fit.hpp"
@@ -203,48 +205,58 @@ bool screen_against_from_name(const std::string& name, ScreenAgainst* against) {
     return true;
 }
 
-ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, const ScreenChoice& choice) {
-    ScreenResult s;
+namespace {
+
+constexpr std::uint64_t kShortPathUnits = 1;   // a group by the short path or against the rest
+constexpr std::uint64_t kAnalysisUnits = 25;   // a group by the whole single analysis (measured: ~25x)
+
+// Checks the input and sets up the pooled counts, the shared shares and the Monte Carlo budget;
+// false (result.status set) when the screen is refused.
+bool set_up(ScreenJob& j, const GroupedCounts& counts) {
+    const Analysis& base = j.base;
+    const ScreenChoice& choice = j.choice;
+    ScreenResult& s = j.result;
+    s = ScreenResult{};
     s.choice = choice;
     s.categories = counts.categories;
     const std::size_t k = counts.categories.size(), groups = counts.groups.size();
-    if (!counts.status.ok) { s.status = counts.status; return s; }
-    if (!(choice.q > 0 && choice.q < 1)) { s.status = Status::failure("The false discovery rate q must lie between 0 and 1."); return s; }
+    if (!counts.status.ok) { s.status = counts.status; return false; }
+    if (!(choice.q > 0 && choice.q < 1)) { s.status = Status::failure("The false discovery rate q must lie between 0 and 1."); return false; }
     if (base.conformity.requested) {  // one rule (issue 26): refused, never silently ignored
         s.status = Status::failure(
             "Showing conformity within a margin w0 is a question for one sample; a screen of many groups looks for "
             "departures (each group tested, the p-values adjusted across groups). Test the group on its own for "
             "conformity, or screen without the margin.");
-        return s;
+        return false;
     }
-    if (groups < 2) { s.status = Status::failure("Only one group: screening compares two or more groups."); return s; }
-    if (k < 2) { s.status = Status::failure("Only one category: a goodness-of-fit test needs at least two."); return s; }
-    if (counts.counts.size() != groups * k) { s.status = Status::failure("The counts do not fill groups x categories."); return s; }
+    if (groups < 2) { s.status = Status::failure("Only one group: screening compares two or more groups."); return false; }
+    if (k < 2) { s.status = Status::failure("Only one category: a goodness-of-fit test needs at least two."); return false; }
+    if (counts.counts.size() != groups * k) { s.status = Status::failure("The counts do not fill groups x categories."); return false; }
 
-    std::vector<double> pooled(k, 0.0);
-    double total = 0;
+    j.pooled.assign(k, 0.0);
+    j.total = 0;
     s.groups.resize(groups);
     for (std::size_t g = 0; g < groups; ++g) {
         GroupRow& row = s.groups[g];
         row.name = counts.groups[g];
         row.line = g < counts.group_lines.size() ? counts.group_lines[g] : 0;
-        for (std::size_t j = 0; j < k; ++j) {
-            const double c = counts.counts[g * k + j];
-            if (!std::isfinite(c) || c < 0 || c != std::floor(c)) {
-                s.status = Status::failure("Group " + quote_cell(row.name) + ": the count for " + quote_cell(counts.categories[j]) +
+        for (std::size_t c = 0; c < k; ++c) {
+            const double x = counts.counts[g * k + c];
+            if (!std::isfinite(x) || x < 0 || x != std::floor(x)) {
+                s.status = Status::failure("Group " + quote_cell(row.name) + ": the count for " + quote_cell(counts.categories[c]) +
                                            " must be a non-negative whole number.", row.line, 0);
-                return s;
+                return false;
             }
-            row.n += c;
-            pooled[j] += c;
+            row.n += x;
+            j.pooled[c] += x;
         }
-        total += row.n;
+        j.total += row.n;
     }
-    if (!(total > 0)) { s.status = Status::failure("Every group has a total of zero: there is nothing to test."); return s; }
+    if (!(j.total > 0)) { s.status = Status::failure("Every group has a total of zero: there is nothing to test."); return false; }
 
     // One Monte Carlo budget for the whole screen (monte_carlo.hpp): refused at once when the groups'
     // simulations asked for cannot fit; thin groups' fallbacks then share what is left.
-    double draws_left = kMonteCarloDrawBudget;
+    j.draws_left = kMonteCarloDrawBudget;
     if (choice.against == ScreenAgainst::model && base.pvalue.method == PValueMethod::monte_carlo) {
         std::size_t simulated = 0;
         for (const auto& row : s.groups) simulated += row.n > 0;
@@ -253,67 +265,62 @@ ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, co
                                                         "tables of " + std::to_string(k) + " categories: " +
                                                             format_grouped(base.pvalue.replicates) + " for each of " +
                                                             std::to_string(simulated) + " groups");
-        if (!budget.ok) { s.status = budget; return s; }
+        if (!budget.ok) { s.status = budget; return false; }
     }
     std::string shared_description;
-    const std::vector<double> shares = choice.against == ScreenAgainst::model
-                                           ? shared_shares(base, counts.categories, pooled, &shared_description)
-                                           : std::vector<double>{};
-    std::vector<bool> quick(groups, false);
-    for (std::size_t g = 0; g < groups; ++g) {
-        GroupRow& row = s.groups[g];
-        if (!(row.n > 0)) {
-            row.note = "not tested: the group has no counts";
-            s.notes.push_back("Group " + quote_cell(row.name) + (row.line ? " (line " + std::to_string(row.line) + ")" : "") +
-                              " has a total of zero: it is listed but not tested.");
-            continue;
-        }
-        const double* cells = counts.counts.data() + g * k;
-        if (choice.against == ScreenAgainst::model && !shares.empty() && quick_test_against_shares(base, shares, cells, &row))
-            quick[g] = true;
-        else if (choice.against == ScreenAgainst::model) test_against_model(base, counts.categories, cells, &row, &draws_left);
-        else test_against_rest(base.statistic, counts.categories, cells, pooled, total, &row);
-        if (!row.tested && row.n > 0)
-            s.notes.push_back("Group " + quote_cell(row.name) + " was " + row.note + ".");
-    }
+    j.shares = choice.against == ScreenAgainst::model ? shared_shares(base, counts.categories, j.pooled, &shared_description)
+                                                      : std::vector<double>{};
+    j.quick.assign(groups, 0);
+    j.next = 0;
+    j.phase = 0;
+    j.progress = WorkProgress{};
+    j.progress.units_estimate = groups;
+    return true;
+}
 
-    // Multiplicity across the tested groups, on log10 p so that tiny p-values keep their order.
+// Multiplicity across the tested groups, on log10 p so that tiny p-values keep their order; lists
+// the flagged groups tested by the short path, whose drivers come from the whole single analysis.
+bool adjust(ScreenJob& j) {
+    ScreenResult& s = j.result;
     std::vector<double> log10_p;
     std::vector<std::size_t> at;
-    for (std::size_t g = 0; g < groups; ++g)
+    for (std::size_t g = 0; g < s.groups.size(); ++g)
         if (s.groups[g].tested) { log10_p.push_back(s.groups[g].p.log10_p); at.push_back(g); }
     s.tested = at.size();
     if (s.tested == 0) {
         std::string why = s.groups[0].note;
         if (why.rfind("not tested: ", 0) == 0) why = why.substr(12);
         s.status = Status::failure("No group could be tested (group " + quote_cell(s.groups[0].name) + ": " + why + ").");
-        return s;
+        return false;
     }
     std::vector<double> adjusted;
-    if (Status st = adjust_log10_p_values(log10_p, choice.adjust, &adjusted); !st.ok) { s.status = st; return s; }
-    const double log10_q = std::log10(choice.q);
+    if (Status st = adjust_log10_p_values(log10_p, j.choice.adjust, &adjusted); !st.ok) { s.status = st; return false; }
+    const double log10_q = std::log10(j.choice.q);
+    j.flagged_quick.clear();
     for (std::size_t i = 0; i < at.size(); ++i) {
         GroupRow& row = s.groups[at[i]];
         row.q.log10_p = adjusted[i];
         row.q.p = std::pow(10.0, adjusted[i]);
         row.flagged = adjusted[i] <= log10_q;
         if (!row.flagged) row.drivers.clear();
-        if (row.flagged && quick[at[i]]) {  // the drivers come from the whole single analysis
-            GroupRow full = row;
-            full.drivers.clear();
-            double no_draws = 0;  // only the drivers are wanted: no p-value is simulated again
-            test_against_model(base, counts.categories, counts.counts.data() + at[i] * k, &full, &no_draws);
-            row.drivers = full.drivers;
-        }
+        if (row.flagged && j.quick[at[i]]) j.flagged_quick.push_back(at[i]);
         s.flagged += row.flagged;
         s.thin += row.thin;
     }
+    j.next = 0;
+    return true;
+}
 
+// The screen's description, notes and cautions, once every group is tested.
+void describe(ScreenJob& j, const GroupedCounts& counts) {
+    const Analysis& base = j.base;
+    const ScreenChoice& choice = j.choice;
+    ScreenResult& s = j.result;
     if (choice.against == ScreenAgainst::rest) s.model_description = "the other groups pooled";
     else if (model_is_fitted(base.model.kind))  // one fit per group: the pooled fit would mislead
         s.model_description = (base.model.kind == ModelKind::poisson ? std::string("Poisson") : model_kind_name(base.model.kind)) +
                               std::string(" (parameters estimated per group)");
-    else if (Result r0 = [&] { Analysis a = base; a.categories = counts.categories; a.observed = pooled; a.plan = PlanChoice{}; return analyse(a); }();
+    else if (Result r0 = [&] { Analysis a = base; a.categories = counts.categories; a.observed = j.pooled; a.plan = PlanChoice{}; return analyse(a); }();
              r0.status.ok) s.model_description = r0.model_description;
     else s.model_description = model_kind_name(base.model.kind);
     s.statistic_symbol = statistic_symbol(base.statistic.lambda);
@@ -331,7 +338,99 @@ ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, co
         s.cautions.push_back("The adjustment keeps the chance of flagging any group that follows the model at most " +
                              format_plain(100 * choice.q) + "%.");
     s.cautions.push_back("Decisions that affect people or suppliers should follow your local rules and professional review, not this screen alone.");
-    return s;
+}
+
+void mark_done(ScreenJob& j) {
+    j.phase = 2;
+    j.progress.done = true;
+    j.progress.fraction = 1;
+}
+
+// Up to about `budget` units: the groups in input order, then the drivers of flagged groups, then
+// the description. The same operations in the same order whatever the budget.
+WorkProgress step(ScreenJob& j, const GroupedCounts& counts, std::uint64_t budget) {
+    WorkProgress& pr = j.progress;
+    if (pr.done || pr.cancelled) return pr;
+    if (j.cancel_requested) { pr.cancelled = true; return pr; }
+    const std::size_t k = counts.categories.size(), groups = counts.groups.size();
+    ScreenResult& s = j.result;
+    std::uint64_t spent = 0;
+    while (j.phase == 0 && j.next < groups && spent < budget) {
+        const std::size_t g = j.next++;
+        GroupRow& row = s.groups[g];
+        if (!(row.n > 0)) {
+            row.note = "not tested: the group has no counts";
+            s.notes.push_back("Group " + quote_cell(row.name) + (row.line ? " (line " + std::to_string(row.line) + ")" : "") +
+                              " has a total of zero: it is listed but not tested.");
+            spent += kShortPathUnits;
+            continue;
+        }
+        const double* cells = counts.counts.data() + g * k;
+        if (j.choice.against == ScreenAgainst::model && !j.shares.empty() && quick_test_against_shares(j.base, j.shares, cells, &row)) {
+            j.quick[g] = 1;
+            spent += kShortPathUnits;
+        } else if (j.choice.against == ScreenAgainst::model) {
+            test_against_model(j.base, counts.categories, cells, &row, &j.draws_left);
+            spent += kAnalysisUnits;
+        } else {
+            test_against_rest(j.base.statistic, counts.categories, cells, j.pooled, j.total, &row);
+            spent += kShortPathUnits;
+        }
+        if (!row.tested && row.n > 0) s.notes.push_back("Group " + quote_cell(row.name) + " was " + row.note + ".");
+    }
+    if (j.phase == 0 && j.next == groups) {
+        if (!adjust(j)) { mark_done(j); return pr; }
+        j.phase = 1;
+        pr.units_estimate = groups + j.flagged_quick.size() * kAnalysisUnits;
+    }
+    while (j.phase == 1 && j.next < j.flagged_quick.size() && spent < budget) {
+        const std::size_t g = j.flagged_quick[j.next++];  // the drivers come from the whole single analysis
+        GroupRow full = s.groups[g];
+        full.drivers.clear();
+        double no_draws = 0;  // only the drivers are wanted: no p-value is simulated again
+        test_against_model(j.base, counts.categories, counts.counts.data() + g * k, &full, &no_draws);
+        s.groups[g].drivers = full.drivers;
+        spent += kAnalysisUnits;
+    }
+    if (j.phase == 1 && j.next == j.flagged_quick.size()) {
+        describe(j, counts);
+        mark_done(j);  // the result is complete
+        return pr;
+    }
+    pr.units_done += spent;
+    // Testing is nine tenths of the bar, the drivers of flagged groups the rest (their number is known
+    // only once every group is tested), so the fraction never goes back.
+    const double f = j.phase == 0 ? 0.9 * static_cast<double>(j.next) / static_cast<double>(groups)
+                                  : 0.9 + 0.1 * static_cast<double>(j.next) / static_cast<double>(std::max<std::size_t>(j.flagged_quick.size(), 1));
+    pr.fraction = std::max(pr.fraction, std::min(f, 0.99));
+    return pr;
+}
+
+}  // namespace
+
+void start_screen_job(const Analysis& base, GroupedCounts counts, const ScreenChoice& choice, ScreenJob* job) {
+    job->base = base;
+    job->choice = choice;
+    job->counts = std::move(counts);
+    job->cancel_requested = false;
+    job->progress = WorkProgress{};
+    if (!set_up(*job, job->counts)) mark_done(*job);
+}
+
+WorkProgress step_screen_job(ScreenJob* job, std::uint64_t budget) { return step(*job, job->counts, budget); }
+
+void cancel_screen_job(ScreenJob* job) {
+    job->cancel_requested = true;
+    step(*job, job->counts, 0);
+}
+
+ScreenResult screen_groups(const Analysis& base, const GroupedCounts& counts, const ScreenChoice& choice) {
+    ScreenJob j;  // the one-call form: the same steps on the caller's counts, not a copy
+    j.base = base;
+    j.choice = choice;
+    if (set_up(j, counts))
+        while (!j.progress.done) step(j, counts, std::numeric_limits<std::uint64_t>::max());
+    return std::move(j.result);
 }
 
 }  // namespace tallyproof

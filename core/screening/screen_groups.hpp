@@ -5,6 +5,7 @@
 // groups: Benjamini-Hochberg (1995) q-values by default, Holm, Bonferroni or none
 // (multiplicity.hpp). A flag is a reason to look closer, never proof.
 #pragma once
+#include <cstdint>
 #include <string>
 #include <vector>
 
@@ -12,6 +13,7 @@
 #include "grouped_table.hpp"
 #include "multiplicity.hpp"
 #include "result.hpp"
+#include "work_slice.hpp"
 
 namespace tallyproof {
 
@@ -63,6 +65,29 @@ struct ScreenResult {
     std::vector<std::string> notes;
     std::vector<std::string> cautions;
 };
+
+// The screen in slices, as the exact and Monte Carlo jobs run (work_slice.hpp): the page tests a
+// few thousand groups a slice with progress and cancel. A step does about `budget` units (a group by
+// the short path or against the rest: 1; a group by the whole single analysis: 25); the finished
+// job's result is bit-identical to screen_groups' (the same operations in the same order).
+struct ScreenJob {
+    Analysis base;
+    GroupedCounts counts;            // the groups screened (the job's own copy)
+    ScreenChoice choice;
+    ScreenResult result;             // complete when progress.done (a refusal: result.status)
+    WorkProgress progress;
+    // The run's state.
+    std::vector<double> pooled, shares;
+    double total = 0, draws_left = 0;
+    std::vector<unsigned char> quick;         // tested by the short path
+    std::vector<std::size_t> flagged_quick;   // ...and flagged: their drivers come next
+    std::size_t next = 0;
+    int phase = 0;                   // 0 testing groups, 1 drivers of flagged groups, 2 done
+    bool cancel_requested = false;
+};
+void start_screen_job(const Analysis& base, GroupedCounts counts, const ScreenChoice& choice, ScreenJob* job);
+WorkProgress step_screen_job(ScreenJob* job, std::uint64_t budget);
+void cancel_screen_job(ScreenJob* job);   // the next step reports cancelled; no result
 
 // Screens every group of `counts` with the settings of `base` (model, statistic, merging,
 // p-value method; its categories and observed counts are ignored). A thin group (Cochran's rule

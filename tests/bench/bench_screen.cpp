@@ -95,6 +95,22 @@ int main(int argc, char** argv) {
         std::printf("run %d: read %.3f s, screen %.3f s, sort by q %.3f s, paste to table %.3f s (ok=%d, %zu flagged, %zu thin: exact p, of %zu)\n", rep + 1,
                     read, screen, sort, read + screen + sort, s.status.ok, s.flagged, s.thin, s.groups.size());
     }
+    {  // The same screen in slices (ScreenJob), as the page runs it: the longest slice at 2,000 units.
+        const GroupedCounts counts = read_grouped_text(text, GroupReadOptions{});
+        ScreenJob job;
+        const auto t0 = std::chrono::steady_clock::now();
+        start_screen_job(last_digit_base(), counts, ScreenChoice{}, &job);
+        double longest = seconds_since(t0);
+        int slices = 0;
+        while (!job.progress.done) {
+            const auto t1 = std::chrono::steady_clock::now();
+            step_screen_job(&job, 2000);
+            longest = std::max(longest, seconds_since(t1));
+            ++slices;
+        }
+        std::printf("in slices of 2,000 units: %d slices, longest %.1f ms (start included), total %.3f s, %zu flagged\n", slices,
+                    1000 * longest, seconds_since(t0), job.result.flagged);
+    }
     link_size(40);
     link_size(10000);
     // The most groups of this kind a link carries (bisection on the fragment's limit).

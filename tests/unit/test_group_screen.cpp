@@ -9,6 +9,7 @@
 #include <cmath>
 #include <map>
 
+#include "analysis_document.hpp"
 #include "goodness_of_fit.hpp"
 #include "screen_groups.hpp"
 #include "grouped_table.hpp"
@@ -314,4 +315,165 @@ TEST_CASE("the screening document: groups and screen members") {
     const Status s = read_screen_document(bad, &counts, &choice, &is_screen);
     CHECK_FALSE(s.ok);
     CHECK(s.message.find("groups[0].observed has 1 counts but there are 2 categories") != std::string::npos);
+}
+
+namespace {
+
+// Invented counts (no source): 300 collectors' last digits, some thin (exact p), some flagged.
+GroupedCounts many_groups(std::size_t groups) {
+    GroupedCounts c;
+    for (int d = 0; d < 10; ++d) c.categories.push_back(std::to_string(d));
+    std::uint64_t state = 26;
+    for (std::size_t g = 0; g < groups; ++g) {
+        c.groups.push_back("C" + std::to_string(g));
+        c.group_lines.push_back(static_cast<int>(g) + 2);
+        const int n = g % 37 == 0 ? 12 : 60 + static_cast<int>(g % 90);
+        std::vector<double> row(10, 0.0);
+        for (int i = 0; i < n; ++i) {
+            state = state * 6364136223846793005ULL + 1442695040888963407ULL;
+            const int d = static_cast<int>((state >> 33) % 10);
+            row[g % 25 == 3 && i % 3 == 0 ? (i % 2 ? 0 : 5) : d] += 1;
+        }
+        c.counts.insert(c.counts.end(), row.begin(), row.end());
+    }
+    return c;
+}
+
+}  // namespace
+
+TEST_CASE("a screen run in slices gives the one-call result bit for bit; a cancelled one gives none") {
+    const GroupedCounts counts = many_groups(300);
+    Analysis base;
+    base.model.kind = ModelKind::last_digit;
+    for (ScreenAgainst against : {ScreenAgainst::model, ScreenAgainst::rest}) {
+        ScreenChoice choice;
+        choice.against = against;
+        const ScreenResult whole = screen_groups(base, counts, choice);
+        REQUIRE(whole.status.ok);
+        CHECK(whole.flagged > 0);
+        if (against == ScreenAgainst::model) CHECK(whole.thin > 0);  // thin groups took the exact path
+        ScreenJob job;
+        start_screen_job(base, counts, choice, &job);
+        double last = -1;
+        int steps = 0;
+        while (!job.progress.done) {
+            const WorkProgress p = step_screen_job(&job, 7);
+            CHECK(p.fraction >= last);
+            CHECK((p.done || p.fraction < 1));
+            last = p.fraction;
+            ++steps;
+        }
+        CHECK(steps > 40);
+        const ScreenResult& sliced = job.result;
+        REQUIRE(sliced.status.ok);
+        REQUIRE(sliced.groups.size() == whole.groups.size());
+        CHECK(sliced.flagged == whole.flagged);
+        CHECK(sliced.notes == whole.notes);
+        CHECK(sliced.cautions == whole.cautions);
+        CHECK(sliced.model_description == whole.model_description);
+        for (std::size_t g = 0; g < whole.groups.size(); ++g) {
+            CAPTURE(g);
+            CHECK(sliced.groups[g].statistic == whole.groups[g].statistic);
+            CHECK(sliced.groups[g].p.log10_p == whole.groups[g].p.log10_p);
+            CHECK(sliced.groups[g].q.log10_p == whole.groups[g].q.log10_p);
+            CHECK(sliced.groups[g].method == whole.groups[g].method);
+            CHECK(sliced.groups[g].drivers.size() == whole.groups[g].drivers.size());
+        }
+    }
+    ScreenJob job;
+    start_screen_job(base, counts, ScreenChoice{}, &job);
+    step_screen_job(&job, 50);
+    cancel_screen_job(&job);
+    CHECK(job.progress.cancelled);
+    CHECK_FALSE(job.progress.done);
+    CHECK(step_screen_job(&job, 1000).cancelled);
+    ScreenJob refused;  // a refusal ends the job at once, with the same message as the one call
+    Analysis conformity = base;
+    conformity.conformity.requested = true;
+    start_screen_job(conformity, counts, ScreenChoice{}, &refused);
+    CHECK(refused.progress.done);
+    CHECK_FALSE(refused.result.status.ok);
+    CHECK(refused.result.status.message == screen_groups(conformity, counts, ScreenChoice{}).status.message);
+}
+
+TEST_CASE("a wide table headed by numbered categories; group names under the label rules") {
+    std::string text = "Collector,0,1,2,3,4,5,6,7,8,9\n";
+    for (int g = 0; g < 12; ++g) {
+        text += "C" + std::to_string(g);
+        for (int d = 0; d < 10; ++d) text += "," + std::to_string(5 + (g * 7 + d * 3) % 11);
+        text += "\n";
+    }
+    GroupedCounts c = read_grouped_text(text);
+    REQUIRE(c.status.ok);
+    CHECK(c.groups.size() == 12);
+    CHECK(c.header);
+    CHECK(c.numbered_header);
+    CHECK(c.categories.front() == "0");
+    CHECK(c.categories.back() == "9");
+    GroupReadOptions no_header;
+    no_header.header = false;
+    c = read_grouped_text(text, no_header);
+    CHECK(c.groups.size() == 13);
+    CHECK(c.categories.front() == "Category 1");
+    // Rows that all count up alike: no header guessed.
+    c = read_grouped_text("A,1,2,3\nB,2,3,4\nC,3,4,5\n");
+    CHECK(c.groups.size() == 3);
+    CHECK_FALSE(c.header);
+    // NFC: composed and decomposed are one group; invisible characters as codes; look-alikes found.
+    c = read_grouped_text("g\tc\tn\nCaf\xC3\xA9\tx\t1\nCafe\xCC\x81\tx\t2\nCaf\xC3\xA9\ty\t3\nNorth\tx\t1\nnorth\ty\t2\n\xE2\x80\xAE" "b\tx\t1\n");
+    REQUIRE(c.status.ok);
+    REQUIRE(c.groups.size() == 4);
+    CHECK(c.groups[0] == "Caf\xC3\xA9");
+    CHECK(c.count(0, 0) == 3);
+    CHECK(c.groups[3] == "<U+202E>b");
+    REQUIRE(c.look_alike_groups.size() == 1);
+    CHECK(c.look_alike_groups[0] == std::vector<std::size_t>{1, 2});
+    // Faults about the groups themselves are marked for the reading policy.
+    CHECK(read_grouped_text("g\tc\tn\nA\tx\t1\nA\ty\t2\n").group_problem);
+    CHECK(read_grouped_text("g\tc\tn\nA\tx\t1\n\ty\t2\nB\tx\t1\n").group_problem);
+    CHECK_FALSE(read_grouped_text("g\tc\tn\nA\tx\t1\nA\ty\tmany\nB\tx\t1\n").group_problem);
+}
+
+TEST_CASE("a screen's document reads back to the same groups, settings and view") {
+    const GroupedCounts counts = many_groups(40);
+    Analysis base;
+    base.model.kind = ModelKind::ratio;
+    base.model.values = {2, 1, 1, 1, 1, 1, 1, 1, 1, 2};
+    base.statistic.lambda = 0;
+    ScreenChoice choice;
+    choice.adjust = MultiplicityMethod::holm;
+    choice.q = 0.01;
+    ScreenView view;
+    view.sort = "w";
+    view.ascending = false;
+    view.opened = "C3";
+    const std::string doc = write_screen_document(base, counts, choice, view);
+    Analysis a;
+    REQUIRE(read_analysis_document(doc, &a).ok);
+    CHECK(a.model.values == base.model.values);
+    CHECK(a.statistic.lambda == 0);
+    GroupedCounts back;
+    ScreenChoice choice_back;
+    ScreenView view_back;
+    bool is_screen = false;
+    REQUIRE(read_screen_document(doc, &back, &choice_back, &view_back, &is_screen).ok);
+    CHECK(is_screen);
+    CHECK(back.groups == counts.groups);
+    CHECK(back.categories == counts.categories);
+    CHECK(back.counts == counts.counts);
+    CHECK(choice_back.adjust == MultiplicityMethod::holm);
+    CHECK(choice_back.q == 0.01);
+    CHECK(view_back.sort == "w");
+    CHECK_FALSE(view_back.ascending);
+    CHECK(view_back.opened == "C3");
+    const ScreenResult s1 = screen_groups(base, counts, choice), s2 = screen_groups(a, back, choice_back);
+    REQUIRE(s1.status.ok);
+    for (std::size_t g = 0; g < s1.groups.size(); ++g) CHECK(s1.groups[g].q.log10_p == s2.groups[g].q.log10_p);
+    // "groups" null or not a list: refused naming the member.
+    for (const char* bad : {R"({"observed":[1,2],"groups":null})", R"({"observed":[1,2],"groups":3})"}) {
+        CAPTURE(bad);
+        const Status st = read_analysis_document(bad, &a);
+        CHECK_FALSE(st.ok);
+        CHECK(st.message.find("\"groups\" must be a list") != std::string::npos);
+    }
 }
