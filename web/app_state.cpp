@@ -711,6 +711,14 @@ void apply_model_editor(AppState& s) {
     if (!recompute(s)) s.analysis.model = previous;
 }
 
+void read_shares_as_ratio(AppState& s) {
+    if (s.analysis.model.kind != ModelKind::shares) return;
+    s.analysis.model.kind = ModelKind::ratio;  // the editor's values stay as typed (5:3:1:1)
+    s.input_error.clear();
+    apply_model_editor(s);
+    if (!s.input_error.empty()) s.analysis.model.kind = ModelKind::shares;
+}
+
 void set_count(AppState& s, int row, double value) {
     if (row < 0 || row >= static_cast<int>(s.analysis.observed.size())) return;
     const double old = s.analysis.observed[row];

@@ -142,6 +142,8 @@ bool shows_bin_editor(const AppState& s);                    // ... and it was r
 void apply_bin_editor(AppState& s);                          // the typed K or edges, to the current bins reading
 void set_model_kind(AppState& s, ModelKind kind);            // resets the editor for that kind
 void apply_model_editor(AppState& s);                        // editor text -> analysis.model, recompute
+// Stated shares refused for their total but whole numbers (5, 3, 1, 1): read the same values as a ratio.
+void read_shares_as_ratio(AppState& s);
 void set_count(AppState& s, int row, double value);          // an edited table cell
 void set_label(AppState& s, int row, const std::string& label);
 void add_row(AppState& s);

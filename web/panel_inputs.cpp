@@ -483,6 +483,11 @@ void draw_model_panel(AppState& s, const Theme& t) {
         ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
         wrapped_text(("Not applied: " + s.input_error).c_str());
         ImGui::PopStyleColor();
+        // core/expected_counts offers Ratio for whole-number "shares" such as 5:3:1:1: one tap takes it.
+        if (s.analysis.model.kind == ModelKind::shares && s.input_error.find("choose Ratio") != std::string::npos) {
+            if (ImGui::Button("Read them as a ratio")) read_shares_as_ratio(s);
+            mark_widget("Read them as a ratio");
+        }
     } else if (s.result.status.ok) {
         muted_wrapped(t, "%s.", s.result.model_description.c_str());
     }

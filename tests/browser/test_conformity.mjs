@@ -26,6 +26,10 @@ export const tests = {
       assert(colours > 20, `the curve view drew ${colours} colours`);
       const text = await resultsText(page);
       assert(text.includes('Conformity margin w0 = 0.100'), text);
+      // The answer to the goal leads (issue 27): the conformity verdict and p before the departure test's p.
+      assert(text.indexOf('Answer (the goal is conformity): The counts conform') >= 0 &&
+             text.indexOf('Answer (the goal is conformity)') < text.indexOf('p = '), text);
+      assert(r.answer && r.answer.test === 'conformity' && r.answer.p_value === r.conformity.p_value, JSON.stringify(r.answer));
     });
   },
 
@@ -35,7 +39,8 @@ export const tests = {
       await waitFor(page, 'conform to the stated mix within w < 0.10');
       await clickWidget(page, 'margin w0');
       const f = await page.evaluate(() => ({ id: document.activeElement.id, mode: document.activeElement.inputMode, value: document.activeElement.value }));
-      assert(f.id === 'tp-ime' && f.mode === 'decimal' && f.value === '0.1', `margin field: ${JSON.stringify(f)}`);
+      // A text keyboard: the margin may be typed in percentage points too ("2 pp").
+      assert(f.id === 'tp-ime' && f.mode === 'text' && f.value === '0.1', `margin field: ${JSON.stringify(f)}`);
       await page.keyboard.press('End');
       for (let i = 0; i < 8; i++) await page.keyboard.press('Backspace');
       await page.keyboard.type('0.2', { delay: 20 });
@@ -51,6 +56,25 @@ export const tests = {
       await page.keyboard.press('Enter');
       await page.waitForFunction(() => document.body.textContent.includes('must lie in (0, 1]'), null, { timeout: 5000 });
       assert(JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastDocument)).conformity.margin_w === 0.2, 'the refused margin leaves w0 = 0.2');
+    });
+  },
+
+  async 'the margin typed in percentage points ("2 pp") is shown with its w0'() {
+    await withPage({}, async (page) => {
+      await pasteText(page, conformDoc);
+      await waitFor(page, 'conform to the stated mix within w < 0.10');
+      await clickWidget(page, 'margin w0');
+      await page.keyboard.press('End');
+      for (let i = 0; i < 8; i++) await page.keyboard.press('Backspace');
+      await page.keyboard.type('2 pp', { delay: 20 });
+      await page.keyboard.press('Enter');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastDocument).conformity.margin_points === 2, null, { timeout: 5000 });
+      const r = await lastResult(page);
+      // Closed form (docs/methods.md): three equal shares of 1/3, w0 = 0.02 * sqrt(3 + 3).
+      assert(Math.abs(r.conformity.margin_w - 0.02 * Math.sqrt(6)) < 1e-12 && r.conformity.margin_points === 2, JSON.stringify(r.conformity));
+      const text = await resultsText(page);
+      assert(text.includes('w < 0.05, a shift of up to 2.0 percentage points between two categories'), text);
+      await screenshot(page, 'conformity-margin-points');
     });
   },
 
