@@ -14,8 +14,7 @@
 #include "glossary.hpp"
 #include "screen_groups.hpp"
 #include "grouped_table.hpp"
-#include "paste_parser.hpp"
-#include "pasted_analysis.hpp"
+#include "read_input.hpp"
 #include "pvalue_job.hpp"
 #include "report.hpp"
 #include "screen_document.hpp"
@@ -336,20 +335,8 @@ int main(int argc, char** argv) {
             screen = chosen;
             screening = true;
         }
-    } else if (screening) {
-        group_input.parse = input;
-        groups = read_grouped_text(text, group_input);
-        read = groups.status;
-        ParsedInput shared;  // what the groups share: categories, order, digit law, bin edges
-        shared.categories = groups.categories;
-        shared.ordered = groups.ordered;
-        shared.digit_test = groups.digit_test;
-        shared.edges = groups.edges;
-        apply_pasted_input(shared, &analysis);
-        if (!json && read.ok)
-            for (const auto& note : groups.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
     } else {
-        if (input.bins.kind == BinChoice::Kind::equal_probability) {
+        if (!screening && input.bins.kind == BinChoice::Kind::equal_probability) {
             // The bins are placed under the model of --model, with the parameters of --param.
             for (const auto& [opt, val] : opts) {
                 ModelKind kind;
@@ -358,14 +345,25 @@ int main(int argc, char** argv) {
                 else if (opt == "--param" && to_parameter(val, &param)) input.bins.parameters.push_back(param);
             }
         }
-        const ParsedInput parsed = parse_input(text, input);
-        read = parsed.status;
-        std::vector<std::string> label_notes;
-        apply_pasted_input(parsed, &analysis, &label_notes);  // options below override what the paste states
+        // One sample, or with --groups many (core's reading policy; the tool never switches by itself).
+        ReadInputOptions how;
+        how.groups = screening ? GroupsReading::always : GroupsReading::never;
+        how.group = group_input;
+        InputReading reading = read_input(text, input, how);
+        read = reading.status;
+        std::vector<std::string> notes, alternatives;
+        if (screening) {
+            groups = std::move(reading.groups);
+            apply_groups_mix(groups, &analysis);
+            notes = groups.notes;
+        } else {
+            notes = reading.sample.notes;
+            apply_input_mix(reading.sample, &analysis, &notes);  // options below override what the paste states
+            alternatives = reading.sample.alternatives;
+        }
         if (!json && read.ok) {
-            for (const auto& note : parsed.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
-            for (const auto& note : label_notes) std::fprintf(stderr, "note: %s\n", note.c_str());
-            for (const auto& alt : parsed.alternatives) std::fprintf(stderr, "alternative: %s\n", alt.c_str());
+            for (const auto& note : notes) std::fprintf(stderr, "note: %s\n", note.c_str());
+            for (const auto& alt : alternatives) std::fprintf(stderr, "alternative: %s\n", alt.c_str());
         }
     }
 

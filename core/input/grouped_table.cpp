@@ -314,6 +314,23 @@ void read_raw_rows(const std::vector<TableRow>& rows, std::size_t first, std::si
                                               std::to_string(k) + " categories shared by every group.");
 }
 
+// The shape: groups repeated over lines are a long table or raw values, else a wide table.
+GroupShape detect_group_shape(const std::vector<TableRow>& rows, std::size_t first, std::size_t group_col,
+                              std::size_t width, const ParseOptions& parse) {
+    if (parse.digits || parse.bins.kind != BinChoice::Kind::none || parse.raw) return GroupShape::raw_values;
+    std::unordered_map<std::string, int> seen;
+    bool repeats = false;
+    for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.emplace(cell_at(rows[r], group_col), 0).second;
+    // A wide table holds only counts beside the group names; text there makes it long.
+    bool counts_only = true;
+    for (std::size_t r = first; r < rows.size() && r < first + 200 && counts_only; ++r)
+        for (std::size_t c = 0; c < rows[r].cells.size(); ++c)
+            if (c != group_col && !rows[r].cells[c].empty() && !looks_numeric(rows[r].cells[c])) counts_only = false;
+    if (!repeats && width >= 3 && counts_only) return GroupShape::wide_table;
+    if (width == 2) return GroupShape::raw_values;
+    return GroupShape::long_table;
+}
+
 }  // namespace
 
 const char* group_shape_name(GroupShape shape) {
@@ -364,6 +381,12 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
             return out;
         }
     }
+    return read_grouped_rows(std::move(rows), sep, options);
+}
+
+GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options) {
+    GroupedCounts out;
+    const ParseOptions& parse = options.parse;
     if (rows.empty()) { out.status = Status::failure("Nothing to read: the pasted text is empty."); return out; }
     std::size_t width = 0;
     for (const auto& r : rows) width = std::max(width, r.cells.size());
@@ -413,23 +436,7 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
     out.group_column_name = header ? cell_at(rows[0], group_col) : "";
     if (out.group_column_name.empty()) out.group_column_name = "column " + std::to_string(out.group_column);
 
-    // The shape: groups repeated over lines are a long table or raw values, else a wide table.
-    GroupShape shape;
-    if (options.shape) shape = *options.shape;
-    else if (parse.digits || parse.bins.kind != BinChoice::Kind::none || parse.raw) shape = GroupShape::raw_values;
-    else {
-        std::unordered_map<std::string, int> seen;
-        bool repeats = false;
-        for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.emplace(cell_at(rows[r], group_col), 0).second;
-        // A wide table holds only counts beside the group names; text there makes it long.
-        bool counts_only = true;
-        for (std::size_t r = first; r < rows.size() && r < first + 200 && counts_only; ++r)
-            for (std::size_t c = 0; c < rows[r].cells.size(); ++c)
-                if (c != group_col && !rows[r].cells[c].empty() && !looks_numeric(rows[r].cells[c])) counts_only = false;
-        if (!repeats && width >= 3 && counts_only) shape = GroupShape::wide_table;
-        else if (width == 2) shape = GroupShape::raw_values;
-        else shape = GroupShape::long_table;
-    }
+    const GroupShape shape = options.shape ? *options.shape : detect_group_shape(rows, first, group_col, width, parse);
     out.shape = shape;
     const DecimalMark mark = parse.decimal ? *parse.decimal : sep == Separator::semicolon ? DecimalMark::comma : DecimalMark::point;
     std::vector<std::size_t> others;

@@ -53,5 +53,8 @@ struct GroupedCounts {
 
 // Reads a grouped paste; never throws, refuses with a message naming the line (and the group).
 GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& options = {});
+// The same, from the text's non-blank rows already split with separator `sep` (parse_input's
+// `rows`): the text is not split again.
+GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options = {});
 
 }  // namespace tallyproof
