@@ -12,6 +12,7 @@
 
 #include "analysis_document.hpp"
 #include "glossary.hpp"
+#include "number_reading.hpp"
 #include "screen_groups.hpp"
 #include "grouped_table.hpp"
 #include "read_input.hpp"
@@ -139,19 +140,11 @@ int write_output(const std::string& text, const char* what) {
     return kCannotWrite;
 }
 
-bool to_number(const std::string& s, double* v) {
-    if (s == "inf" || s == "+inf" || s == "Inf") { *v = HUGE_VAL; return true; }
-    if (s == "-inf" || s == "-Inf") { *v = -HUGE_VAL; return true; }
-    char* end = nullptr;
-    *v = std::strtod(s.c_str(), &end);
-    return !s.empty() && *end == '\0';
-}
-
 // --param NAME=VALUE as (NAME, VALUE); false when it is not of that form.
 bool to_parameter(const std::string& s, std::pair<std::string, double>* out) {
     const auto eq = s.find('=');
     double v = 0;
-    if (eq == std::string::npos || !to_number(s.substr(eq + 1), &v)) return false;
+    if (eq == std::string::npos || !tallyproof::read_typed_number(s.substr(eq + 1), &v)) return false;
     *out = {s.substr(0, eq), v};
     return true;
 }
@@ -162,7 +155,7 @@ bool to_list(const std::string& s, std::vector<double>* out) {
     for (std::size_t i = 0; i <= s.size(); ++i) {
         if (i == s.size() || s[i] == ',' || s[i] == ':' || s[i] == ';') {
             double v = 0;
-            if (!to_number(cell, &v)) return false;
+            if (!tallyproof::read_typed_number(cell, &v)) return false;
             out->push_back(v);
             cell.clear();
         } else if (s[i] != ' ') {
@@ -247,7 +240,7 @@ int main(int argc, char** argv) {
                     return usage_error("--adjust must be bh, holm, bonferroni or none");
             } else {
                 double q = 0;
-                if (!to_number(val, &q) || !(q > 0 && q < 1)) return usage_error("--q must be a number between 0 and 1");
+                if (!tallyproof::read_typed_number(val, &q) || !(q > 0 && q < 1)) return usage_error("--q must be a number between 0 and 1");
                 screen.q = q;
             }
         }
@@ -274,7 +267,7 @@ int main(int argc, char** argv) {
                     const bool width = kind == "equal";
                     const double most = width ? 10000 : 1000, least = width ? 1 : 2;
                     double k = 0;
-                    if (!to_number(val.substr(colon + 1), &k) || !(k >= least && k <= most) || k != std::floor(k))
+                    if (!tallyproof::read_typed_number(val.substr(colon + 1), &k) || !(k >= least && k <= most) || k != std::floor(k))
                         return usage_error("--bins " + kind + ":K needs a whole number of bins K from " +
                                            std::to_string(static_cast<int>(least)) + " to " + std::to_string(static_cast<int>(most)));
                     input.bins.kind = kind == "equal" ? BinChoice::Kind::equal_width : BinChoice::Kind::equal_probability;
@@ -396,7 +389,7 @@ int main(int argc, char** argv) {
         } else if (opt == "--merge") {
             if (!merge_rule_from_name(val, &analysis.merge.rule)) return usage_error("--merge must be none, all-5, cochran or minimum");
         } else {
-            if (!to_number(val, &v)) return usage_error(opt + " needs a number");
+            if (!tallyproof::read_typed_number(val, &v)) return usage_error(opt + " needs a number");
             if (opt == "--alpha") {
                 if (!(v > 0 && v < 1)) return usage_error("--alpha must be a number between 0 and 1");
                 analysis.alpha = v;

@@ -20,6 +20,7 @@
 #include "goodness_of_fit.hpp"
 #include "noncentral_chi_square_density_curve.hpp"
 #include "number_format.hpp"
+#include "number_reading.hpp"
 #include "page_bridge.hpp"
 #include "paste_parser.hpp"
 #include "report.hpp"
@@ -44,11 +45,8 @@ bool read_list(const std::string& text, std::vector<double>* out, std::string* e
         if (b == std::string::npos) { cell.clear(); return true; }
         const std::string c = cell.substr(b, e - b + 1);
         cell.clear();
-        if (c == "inf" || c == "+inf" || c == "∞") { out->push_back(HUGE_VAL); return true; }
-        if (c == "-inf" || c == "-∞" || c == "−inf") { out->push_back(-HUGE_VAL); return true; }
-        char* end = nullptr;
-        const double v = std::strtod(c.c_str(), &end);
-        if (end != c.c_str() + c.size()) { *error = "\"" + c.substr(0, 20) + "\" is not a number."; return false; }
+        double v = 0;  // core's reader of typed numbers (inf and ∞ included); the comma separates values here
+        if (!read_typed_number(c, &v)) { *error = "\"" + c.substr(0, 20) + "\" is not a number."; return false; }
         out->push_back(v);
         return true;
     };
@@ -428,9 +426,8 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
 bool typed_bin_count(const std::string& text, int* k, std::string* error) {
     const std::size_t b = text.find_first_not_of(" \t"), e = text.find_last_not_of(" \t");
     const std::string t = b == std::string::npos ? "" : text.substr(b, e - b + 1);
-    char* end = nullptr;
-    const long v = std::strtol(t.c_str(), &end, 10);
-    if (t.empty() || end != t.c_str() + t.size() || v < 2 || v > kMaxBinsOnPage) {
+    double v = 0;
+    if (!read_typed_number(t, &v) || !(v >= 2 && v <= kMaxBinsOnPage) || v != std::floor(v)) {
         *error = "The number of bins must be a whole number from 2 to " + std::to_string(kMaxBinsOnPage) +
                  (t.empty() ? "." : "; \"" + t.substr(0, 20) + "\" is not.");
         return false;
@@ -777,9 +774,8 @@ void set_pvalue_method(AppState& s, PValueMethod method) {
 bool apply_alpha_text(AppState& s, const std::string& text) {
     const std::size_t b = text.find_first_not_of(" \t"), e = text.find_last_not_of(" \t");
     const std::string t = b == std::string::npos ? "" : text.substr(b, e - b + 1);
-    char* end = nullptr;
-    const double alpha = std::strtod(t.c_str(), &end);
-    if (t.empty() || end != t.c_str() + t.size() || !(alpha > 0 && alpha < 1)) {
+    double alpha = 0;  // "0.05" or "0,05", as core reads a typed number
+    if (!read_typed_number(t, &alpha) || !(alpha > 0 && alpha < 1)) {
         s.input_error = "α must lie between 0 and 1" + (t.empty() ? std::string(".") : "; \"" + t.substr(0, 20) + "\" does not.");
         publish_error(s.input_error);
         s.frames_to_draw = 3;

@@ -23,6 +23,7 @@
 #include "bar_chart.hpp"
 #include "density_plot.hpp"
 #include "glossary.hpp"
+#include "number_reading.hpp"
 #include "merge_categories.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
@@ -441,9 +442,8 @@ EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
         case FormAction::one_sample: leave_groups(s); break;
         case FormAction::goal: {  // "": find a departure; a margin w0: show conformity within it
             if (value.empty()) { set_test_goal(s, false, s.analysis.conformity.margin_w); break; }
-            char* end = nullptr;
-            const double w0 = std::strtod(value.c_str(), &end);
-            set_test_goal(s, true, end && *end == '\0' ? w0 : std::nan(""));
+            double w0 = 0;
+            set_test_goal(s, true, tallyproof::read_typed_number(value, &w0) ? w0 : std::nan(""));
             break;
         }
     }

@@ -12,6 +12,7 @@
 
 #include "conformity.hpp"
 #include "glossary.hpp"
+#include "number_reading.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
@@ -61,9 +62,7 @@ constexpr LambdaChoice kLambdas[] = {
 };
 
 bool parse_count_cell(const std::string& text, double* v) {
-    char* end = nullptr;
-    *v = std::strtod(text.c_str(), &end);
-    return !text.empty() && end == text.c_str() + text.size() && std::isfinite(*v);
+    return read_typed_number(text, v) && std::isfinite(*v);
 }
 
 // The bins of a "measurements in bins" reading: K, or the stated edges, applied on Enter or Apply.
@@ -143,9 +142,8 @@ void draw_goal_rows(AppState& s, const Theme& t) {
     ImGui::TextUnformatted("margin w0");
     explain_item("margin w0 label", "margin w0");
     if (w0_done) {
-        char* end = nullptr;
-        const double w0 = std::strtod(w0_text.c_str(), &end);
-        const bool read = !w0_text.empty() && end && *end == '\0';
+        double w0 = 0;
+        const bool read = read_typed_number(w0_text, &w0);
         if (!read || w0 != margin) set_test_goal(s, true, read ? w0 : std::nan(""));
     }
     muted_wrapped(t, "%s", conformity_margin_guidance());
