@@ -12,10 +12,10 @@
 
 #include "analysis_document.hpp"
 #include "glossary.hpp"
+#include "number_reading.hpp"
 #include "screen_groups.hpp"
 #include "grouped_table.hpp"
-#include "paste_parser.hpp"
-#include "pasted_analysis.hpp"
+#include "read_input.hpp"
 #include "pvalue_job.hpp"
 #include "report.hpp"
 #include "screen_document.hpp"
@@ -159,19 +159,11 @@ int write_output(const std::string& text, const char* what) {
     return kCannotWrite;
 }
 
-bool to_number(const std::string& s, double* v) {
-    if (s == "inf" || s == "+inf" || s == "Inf") { *v = HUGE_VAL; return true; }
-    if (s == "-inf" || s == "-Inf") { *v = -HUGE_VAL; return true; }
-    char* end = nullptr;
-    *v = std::strtod(s.c_str(), &end);
-    return !s.empty() && *end == '\0';
-}
-
 // --param NAME=VALUE as (NAME, VALUE); false when it is not of that form.
 bool to_parameter(const std::string& s, std::pair<std::string, double>* out) {
     const auto eq = s.find('=');
     double v = 0;
-    if (eq == std::string::npos || !to_number(s.substr(eq + 1), &v)) return false;
+    if (eq == std::string::npos || !tallyproof::read_typed_number(s.substr(eq + 1), &v)) return false;
     *out = {s.substr(0, eq), v};
     return true;
 }
@@ -182,7 +174,7 @@ bool to_list(const std::string& s, std::vector<double>* out) {
     for (std::size_t i = 0; i <= s.size(); ++i) {
         if (i == s.size() || s[i] == ',' || s[i] == ':' || s[i] == ';') {
             double v = 0;
-            if (!to_number(cell, &v)) return false;
+            if (!tallyproof::read_typed_number(cell, &v)) return false;
             out->push_back(v);
             cell.clear();
         } else if (s[i] != ' ') {
@@ -210,118 +202,139 @@ int read_all(std::FILE* in, std::string* text) {
     return std::ferror(in) ? (errno != 0 ? errno : EIO) : 0;
 }
 
-}  // namespace
+using namespace tallyproof;
 
-int main(int argc, char** argv) {
-    using namespace tallyproof;
+constexpr int kGoOn = -1;  // a step went well: the next one follows
+
+// What the command line asks for.
+struct CommandLine {
     bool json = false;
     std::string table_format, writeup_style;  // --table csv|tsv, --writeup plain|markdown|tsv
     bool out_decimal_comma = false;
     bool byte_order_mark = false;  // --byte-order-mark: --table output for a spreadsheet file
     std::string path;
-    std::vector<std::pair<std::string, std::string>> opts;  // option, value
-    const std::vector<std::string> with_value = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
-                                                 "--lambda", "--method", "--ordering", "--replicates", "--seed", "--merge",
-                                                 "--min-expected", "--plan-w", "--plan-n", "--target-power",
-                                                 "--conformity", "--conformity-points", "--conformity-true-w", "--conformity-power"};
+    std::vector<std::pair<std::string, std::string>> opts;  // option, value: applied to the analysis read
     ParseOptions input;  // input options, used when the text is pasted text rather than a document
     // Screening many groups: on with --by, --group-shape, --against, --adjust or --q, or a document with "groups".
     bool screening = false;
     GroupReadOptions group_input;
     ScreenChoice screen;
-    for (int i = 1; i < argc; ++i) g_json = g_json || std::strcmp(argv[i], "--json") == 0;
     ScreenView screen_view;  // a document's sort and opened group, written back by --json
+};
+
+const std::vector<std::string> kWithValue = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
+                                             "--lambda", "--method", "--ordering", "--replicates", "--seed", "--merge",
+                                             "--min-expected", "--plan-w", "--plan-n", "--target-power",
+                                             "--conformity", "--conformity-points", "--conformity-true-w", "--conformity-power"};
+
+// --by, --group-shape, --against, --adjust and --q with their value.
+int read_screen_option(const std::string& arg, const std::string& val, CommandLine* c) {
+    c->screening = true;
+    if (arg == "--by") {
+        if (val.empty()) return usage_error("--by needs a column name or number");
+        c->group_input.by = val;
+    } else if (arg == "--group-shape") {
+        GroupShape shape;
+        if (!group_shape_from_name(val, &shape)) return usage_error("--group-shape must be long, wide or raw");
+        c->group_input.shape = shape;
+    } else if (arg == "--group-header") {
+        if (val != "yes" && val != "no") return usage_error("--group-header must be yes or no");
+        c->group_input.header = val == "yes";
+    } else if (arg == "--against") {
+        if (!screen_against_from_name(val, &c->screen.against)) return usage_error("--against must be model or rest");
+    } else if (arg == "--adjust") {
+        if (!multiplicity_method_from_name(val == "bh" ? "BH" : val, &c->screen.adjust))
+            return usage_error("--adjust must be bh, holm, bonferroni or none");
+    } else {
+        double q = 0;
+        if (!tallyproof::read_typed_number(val, &q) || !(q > 0 && q < 1)) return usage_error("--q must be a number between 0 and 1");
+        c->screen.q = q;
+    }
+    return kGoOn;
+}
+
+// --digits, --bins, --shape and --third-column with their value.
+int read_input_option(const std::string& arg, const std::string& val, CommandLine* c) {
+    if (arg == "--digits") {
+        if (val == "first") c->input.digits = DigitTest::first;
+        else if (val == "second") c->input.digits = DigitTest::second;
+        else if (val == "first-two") c->input.digits = DigitTest::first_two;
+        else if (val == "last") c->input.digits = DigitTest::last;
+        else return usage_error("--digits must be first, second, first-two or last");
+    } else if (arg == "--third-column") {
+        if (!third_column_from_name(val, &c->input.third_column))
+            return usage_error("--third-column must be auto, expected or previous");
+    } else if (arg == "--shape") {
+        InputShape shape;
+        if (!input_shape_from_name(val, &shape)) return usage_error("unknown shape " + val);
+        c->input.shape = shape;
+    } else {
+        const auto colon = val.find(':');
+        const std::string kind = colon == std::string::npos ? "" : val.substr(0, colon);
+        if (kind == "equal" || kind == "equal-probability") {
+            const bool width = kind == "equal";
+            const double most = width ? 10000 : 1000, least = width ? 1 : 2;
+            double k = 0;
+            if (!tallyproof::read_typed_number(val.substr(colon + 1), &k) || !(k >= least && k <= most) || k != std::floor(k))
+                return usage_error("--bins " + kind + ":K needs a whole number of bins K from " +
+                                   std::to_string(static_cast<int>(least)) + " to " + std::to_string(static_cast<int>(most)));
+            c->input.bins.kind = kind == "equal" ? BinChoice::Kind::equal_width : BinChoice::Kind::equal_probability;
+            c->input.bins.bins = static_cast<int>(k);
+        } else {
+            std::vector<double> edges;
+            if (!to_list(val, &edges) || edges.size() < 2)
+                return usage_error("--bins needs edges such as 0,10,20,inf, or equal:K");
+            c->input.bins.kind = BinChoice::Kind::edges;
+            c->input.bins.edges = edges;
+        }
+    }
+    return kGoOn;
+}
+
+// Reads the arguments into `c`; kGoOn, or the exit status (a usage error, or --help, --version
+// and --glossary written).
+int read_command_line(int argc, char** argv, CommandLine* c) {
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
-        if (arg == "--json") json = true;
-        else if (arg == "--byte-order-mark") byte_order_mark = true;
+        if (arg == "--json") c->json = true;
+        else if (arg == "--byte-order-mark") c->byte_order_mark = true;
         else if (arg == "--table" || arg == "--writeup") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             const std::string v = argv[++i];
             if (arg == "--table" && v != "csv" && v != "tsv") return usage_error("--table must be csv or tsv");
             if (arg == "--writeup" && v != "plain" && v != "markdown" && v != "tsv") return usage_error("--writeup must be plain, markdown or tsv");
-            (arg == "--table" ? table_format : writeup_style) = v;
-        } else if (arg == "--output-decimal-comma") out_decimal_comma = true;
+            (arg == "--table" ? c->table_format : c->writeup_style) = v;
+        } else if (arg == "--output-decimal-comma") c->out_decimal_comma = true;
         else if (arg == "--version") return write_output(std::string("tallyproof ") + TALLYPROOF_VERSION + "\n", "the version");
         else if (arg == "--help" || arg == "-h") return write_output(kUsage, "the help text");
         else if (arg == "--glossary") return write_output(tallyproof::glossary_markdown(), "the glossary");
-        else if (arg == "--ordered" || arg == "--williams") opts.emplace_back(arg, "");
-        else if (arg == "--raw") input.raw = true;
-        else if (arg == "--case-fold") input.case_fold = true;
-        else if (arg == "--sorted") input.sorted = true;
-        else if (arg == "--decimal-comma") input.decimal = DecimalMark::comma;
-        else if (arg == "--decimal-point") input.decimal = DecimalMark::point;
+        else if (arg == "--ordered" || arg == "--williams") c->opts.emplace_back(arg, "");
+        else if (arg == "--raw") c->input.raw = true;
+        else if (arg == "--case-fold") c->input.case_fold = true;
+        else if (arg == "--sorted") c->input.sorted = true;
+        else if (arg == "--decimal-comma") c->input.decimal = DecimalMark::comma;
+        else if (arg == "--decimal-point") c->input.decimal = DecimalMark::point;
         else if (arg == "--by" || arg == "--group-shape" || arg == "--group-header" || arg == "--against" || arg == "--adjust" || arg == "--q") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
-            const std::string val = argv[++i];
-            screening = true;
-            if (arg == "--by") {
-                if (val.empty()) return usage_error("--by needs a column name or number");
-                group_input.by = val;
-            } else if (arg == "--group-shape") {
-                GroupShape shape;
-                if (!group_shape_from_name(val, &shape)) return usage_error("--group-shape must be long, wide or raw");
-                group_input.shape = shape;
-            } else if (arg == "--group-header") {
-                if (val != "yes" && val != "no") return usage_error("--group-header must be yes or no");
-                group_input.header = val == "yes";
-            } else if (arg == "--against") {
-                if (!screen_against_from_name(val, &screen.against)) return usage_error("--against must be model or rest");
-            } else if (arg == "--adjust") {
-                if (!multiplicity_method_from_name(val == "bh" ? "BH" : val, &screen.adjust))
-                    return usage_error("--adjust must be bh, holm, bonferroni or none");
-            } else {
-                double q = 0;
-                if (!to_number(val, &q) || !(q > 0 && q < 1)) return usage_error("--q must be a number between 0 and 1");
-                screen.q = q;
-            }
-        }
-        else if (arg == "--digits" || arg == "--bins" || arg == "--shape" || arg == "--third-column") {
+            if (const int r = read_screen_option(arg, argv[++i], c); r != kGoOn) return r;
+        } else if (arg == "--digits" || arg == "--bins" || arg == "--shape" || arg == "--third-column") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
-            const std::string val = argv[++i];
-            if (arg == "--digits") {
-                if (val == "first") input.digits = DigitTest::first;
-                else if (val == "second") input.digits = DigitTest::second;
-                else if (val == "first-two") input.digits = DigitTest::first_two;
-                else if (val == "last") input.digits = DigitTest::last;
-                else return usage_error("--digits must be first, second, first-two or last");
-            } else if (arg == "--third-column") {
-                if (!third_column_from_name(val, &input.third_column))
-                    return usage_error("--third-column must be auto, expected or previous");
-            } else if (arg == "--shape") {
-                InputShape shape;
-                if (!input_shape_from_name(val, &shape)) return usage_error("unknown shape " + val);
-                input.shape = shape;
-            } else {
-                const auto colon = val.find(':');
-                const std::string kind = colon == std::string::npos ? "" : val.substr(0, colon);
-                if (kind == "equal" || kind == "equal-probability") {
-                    const bool width = kind == "equal";
-                    const double most = width ? 10000 : 1000, least = width ? 1 : 2;
-                    double k = 0;
-                    if (!to_number(val.substr(colon + 1), &k) || !(k >= least && k <= most) || k != std::floor(k))
-                        return usage_error("--bins " + kind + ":K needs a whole number of bins K from " +
-                                           std::to_string(static_cast<int>(least)) + " to " + std::to_string(static_cast<int>(most)));
-                    input.bins.kind = kind == "equal" ? BinChoice::Kind::equal_width : BinChoice::Kind::equal_probability;
-                    input.bins.bins = static_cast<int>(k);
-                } else {
-                    std::vector<double> edges;
-                    if (!to_list(val, &edges) || edges.size() < 2)
-                        return usage_error("--bins needs edges such as 0,10,20,inf, or equal:K");
-                    input.bins.kind = BinChoice::Kind::edges;
-                    input.bins.edges = edges;
-                }
-            }
+            if (const int r = read_input_option(arg, argv[++i], c); r != kGoOn) return r;
         }
-        else if (std::find(with_value.begin(), with_value.end(), arg) != with_value.end()) {
+        else if (std::find(kWithValue.begin(), kWithValue.end(), arg) != kWithValue.end()) {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
-            opts.emplace_back(arg, argv[++i]);
+            c->opts.emplace_back(arg, argv[++i]);
         } else if (arg.size() > 1 && arg[0] == '-') return usage_error("unknown option " + arg);
-        else if (path.empty()) path = arg;
+        else if (c->path.empty()) c->path = arg;
         else return usage_error("only one input file can be given");
     }
 
-    std::string text;
+    return kGoOn;
+}
+
+// The input: the named file, or standard input for none or "-".
+int read_input_text(const std::string& path, std::string* out) {
+    std::string& text = *out;
     if (path.empty() || path == "-") {
         if (const int error = read_all(stdin, &text)) return cannot_read("standard input", error);
     } else {
@@ -332,70 +345,84 @@ int main(int argc, char** argv) {
         if (error != 0) return cannot_read(path, error);
     }
 
-    Analysis analysis;
-    Result result;
+    return kGoOn;
+}
+
+// Decodes the text and reads it: an analysis document (with its screen, when it has one), or
+// pasted text as one sample or as groups. `read` receives a refusal of the input (printed later,
+// in the output's form); the return is kGoOn or the exit status of text that is not text.
+int read_analysis(int argc, char** argv, std::string* text_in, CommandLine* c, Analysis* analysis_out,
+                  GroupedCounts* groups_out, Status* read_out) {
+    std::string& text = *text_in;
+    Analysis& analysis = *analysis_out;
+    GroupedCounts& groups = *groups_out;
+    Status& read = *read_out;
     const TextDecoding decoded = decode_text(&text);  // UTF-8 without a mark, or refused as not text
     if (!decoded.status.ok) {
         std::fprintf(stderr, "tallyproof: %s\n", decoded.status.message.c_str());
         print_error_document(decoded.status.message);
         return kRefused;
     }
-    if (!decoded.notice.empty() && !json) std::fprintf(stderr, "note: %s\n", decoded.notice.c_str());
+    if (!decoded.notice.empty() && !c->json) std::fprintf(stderr, "note: %s\n", decoded.notice.c_str());
     const std::size_t first = text.find_first_not_of(" \t\r\n");
-    Status read;
-    GroupedCounts groups;
     if (first != std::string::npos && text[first] == '{') {
         read = read_analysis_document(text, &analysis);
         bool document_screen = false;
         ScreenChoice from_document;
-        if (read.ok) read = read_screen_document(text, &groups, &from_document, &screen_view, &document_screen);
-        if (!json && read.ok)
+        if (read.ok) read = read_screen_document(text, &groups, &from_document, &c->screen_view, &document_screen);
+        if (!c->json && read.ok)
             for (const auto& note : groups.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
         if (document_screen) {
             // Options given on the command line override the document's screen settings.
             ScreenChoice chosen = from_document;
             for (int i = 1; i + 1 < argc; ++i) {
                 const std::string arg = argv[i];
-                if (arg == "--against") chosen.against = screen.against;
-                else if (arg == "--adjust") chosen.adjust = screen.adjust;
-                else if (arg == "--q") chosen.q = screen.q;
+                if (arg == "--against") chosen.against = c->screen.against;
+                else if (arg == "--adjust") chosen.adjust = c->screen.adjust;
+                else if (arg == "--q") chosen.q = c->screen.q;
             }
-            screen = chosen;
-            screening = true;
+            c->screen = chosen;
+            c->screening = true;
         }
-    } else if (screening) {
-        group_input.parse = input;
-        groups = read_grouped_text(text, group_input);
-        read = groups.status;
-        ParsedInput shared;  // what the groups share: categories, order, digit law, bin edges
-        shared.categories = groups.categories;
-        shared.ordered = groups.ordered;
-        shared.digit_test = groups.digit_test;
-        shared.edges = groups.edges;
-        apply_pasted_input(shared, &analysis);
-        if (!json && read.ok)
-            for (const auto& note : groups.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
     } else {
-        if (input.bins.kind == BinChoice::Kind::equal_probability) {
+        if (!c->screening && c->input.bins.kind == BinChoice::Kind::equal_probability) {
             // The bins are placed under the model of --model, with the parameters of --param.
-            for (const auto& [opt, val] : opts) {
+            for (const auto& [opt, val] : c->opts) {
                 ModelKind kind;
                 std::pair<std::string, double> param;
-                if (opt == "--model" && model_kind_from_name(val, &kind)) input.bins.model = kind;
-                else if (opt == "--param" && to_parameter(val, &param)) input.bins.parameters.push_back(param);
+                if (opt == "--model" && model_kind_from_name(val, &kind)) c->input.bins.model = kind;
+                else if (opt == "--param" && to_parameter(val, &param)) c->input.bins.parameters.push_back(param);
             }
         }
-        const ParsedInput parsed = parse_input(text, input);
-        read = parsed.status;
-        std::vector<std::string> label_notes;
-        apply_pasted_input(parsed, &analysis, &label_notes);  // options below override what the paste states
-        if (!json && read.ok) {
-            for (const auto& note : parsed.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
-            for (const auto& note : label_notes) std::fprintf(stderr, "note: %s\n", note.c_str());
-            for (const auto& alt : parsed.alternatives) std::fprintf(stderr, "alternative: %s\n", alt.c_str());
+        // One sample, or with the screening options many groups (core's reading policy; the tool never
+        // switches by itself).
+        ReadInputOptions how;
+        how.groups = c->screening ? GroupsReading::always : GroupsReading::never;
+        how.group = c->group_input;
+        InputReading reading = read_input(text, c->input, how);
+        read = reading.status;
+        std::vector<std::string> notes, alternatives;
+        if (c->screening) {
+            groups = std::move(reading.groups);
+            apply_groups_mix(groups, &analysis);
+            notes = groups.notes;
+        } else {
+            notes = reading.sample.notes;
+            apply_input_mix(reading.sample, &analysis, &notes);  // options below override what the paste states
+            alternatives = reading.sample.alternatives;
+        }
+        if (!c->json && read.ok) {
+            for (const auto& note : notes) std::fprintf(stderr, "note: %s\n", note.c_str());
+            for (const auto& alt : alternatives) std::fprintf(stderr, "alternative: %s\n", alt.c_str());
         }
     }
 
+    return kGoOn;
+}
+
+// The options that set the analysis (--model, --alpha, ...), over what the input stated.
+int apply_options(const std::vector<std::pair<std::string, std::string>>& opts, Analysis* analysis_out) {
+    Analysis& analysis = *analysis_out;
     for (const auto& [opt, val] : opts) {
         double v = 0;
         if (opt == "--ordered") analysis.ordered = true;
@@ -425,7 +452,7 @@ int main(int argc, char** argv) {
         } else if (opt == "--merge") {
             if (!merge_rule_from_name(val, &analysis.merge.rule)) return usage_error("--merge must be none, all-5, cochran or minimum");
         } else {
-            if (!to_number(val, &v)) return usage_error(opt + " needs a number");
+            if (!tallyproof::read_typed_number(val, &v)) return usage_error(opt + " needs a number");
             if (opt == "--alpha") {
                 if (!(v > 0 && v < 1)) return usage_error("--alpha must be a number between 0 and 1");
                 analysis.alpha = v;
@@ -458,41 +485,65 @@ int main(int argc, char** argv) {
         }
     }
 
-    if (screening && analysis.conformity.requested &&
-        std::any_of(opts.begin(), opts.end(), [](const auto& o) { return o.first == "--conformity"; }))
-        return usage_error("--conformity (show one sample conforms within w0) cannot be combined with --by or a document's "
-                           "\"groups\" (a screen looks for departures across groups); test the group on its own with --conformity");
-    if (screening) {
-        ScreenResult s;
-        if (!read.ok) s.status = read;
-        else s = screen_groups(analysis, groups, screen);
-        int screen_written = 0;
-        if (json) screen_written = write_output(screen_json(analysis, groups, s, &screen_view) + "\n", "the result document (--json)");
-        else if (s.status.ok && !table_format.empty())
-            screen_written = write_output(group_table(s, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
-                                                                            out_decimal_comma, byte_order_mark}),
-                                          table_format == "csv" ? "the groups table (--table csv)" : "the groups table (--table tsv)");
-        else if (s.status.ok && !writeup_style.empty()) screen_written = write_output(screen_writeup(s), "the screening write-up (--writeup)");
-        else if (s.status.ok) screen_written = write_output(screen_report_text(s), "the screening report");
-        if (!s.status.ok) std::fprintf(stderr, "tallyproof: %s\n", s.status.message.c_str());
-        if (screen_written != 0) return screen_written;
-        return s.status.ok ? 0 : kRefused;
-    }
+    return kGoOn;
+}
+
+// The screen of many groups, written in the form asked for; the exit status.
+int write_screen(const CommandLine& c, const Analysis& analysis, const GroupedCounts& groups, const Status& read) {
+    ScreenResult s;
+    if (!read.ok) s.status = read;
+    else s = screen_groups(analysis, groups, c.screen);
+    int screen_written = 0;
+    if (c.json) screen_written = write_output(screen_json(analysis, groups, s, &c.screen_view) + "\n", "the result document (--json)");
+    else if (s.status.ok && !c.table_format.empty())
+        screen_written = write_output(group_table(s, TableExportOptions{c.table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
+                                                                        c.out_decimal_comma, c.byte_order_mark}),
+                                      c.table_format == "csv" ? "the groups table (--table csv)" : "the groups table (--table tsv)");
+    else if (s.status.ok && !c.writeup_style.empty()) screen_written = write_output(screen_writeup(s), "the screening write-up (--writeup)");
+    else if (s.status.ok) screen_written = write_output(screen_report_text(s), "the screening report");
+    if (!s.status.ok) std::fprintf(stderr, "tallyproof: %s\n", s.status.message.c_str());
+    if (screen_written != 0) return screen_written;
+    return s.status.ok ? 0 : kRefused;
+}
+
+// The one analysis, written in the form asked for; the exit status.
+int write_result(const CommandLine& c, const Analysis& analysis, const Status& read) {
+    Result result;
     if (!read.ok) result.status = read;
     else result = analyse_completely(analysis);
     int written = 0;
-    if (json) written = write_output(report_json(analysis, result) + "\n", "the result document (--json)");
-    else if (result.status.ok && !table_format.empty())
-        written = write_output(category_table(result, TableExportOptions{table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
-                                                                         out_decimal_comma, byte_order_mark}),
-                               table_format == "csv" ? "the table (--table csv)" : "the table (--table tsv)");
-    else if (result.status.ok && !writeup_style.empty()) {
+    if (c.json) written = write_output(report_json(analysis, result) + "\n", "the result document (--json)");
+    else if (result.status.ok && !c.table_format.empty())
+        written = write_output(category_table(result, TableExportOptions{c.table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
+                                                                         c.out_decimal_comma, c.byte_order_mark}),
+                               c.table_format == "csv" ? "the table (--table csv)" : "the table (--table tsv)");
+    else if (result.status.ok && !c.writeup_style.empty()) {
         WriteupOptions o;
-        o.style = writeup_style == "markdown" ? WriteupStyle::markdown : writeup_style == "tsv" ? WriteupStyle::tsv : WriteupStyle::plain;
-        o.decimal_comma = out_decimal_comma;
-        written = write_output(writeup(analysis, result, o), ("the write-up (--writeup " + writeup_style + ")").c_str());
+        o.style = c.writeup_style == "markdown" ? WriteupStyle::markdown : c.writeup_style == "tsv" ? WriteupStyle::tsv : WriteupStyle::plain;
+        o.decimal_comma = c.out_decimal_comma;
+        written = write_output(writeup(analysis, result, o), ("the write-up (--writeup " + c.writeup_style + ")").c_str());
     } else if (result.status.ok) written = write_output(report_text(analysis, result), "the report");
     if (!result.status.ok) std::fprintf(stderr, "tallyproof: %s\n", result.status.message.c_str());
     if (written != 0) return written;
     return result.status.ok ? 0 : kRefused;
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+    CommandLine c;
+    for (int i = 1; i < argc; ++i) g_json = g_json || std::strcmp(argv[i], "--json") == 0;
+    if (const int r = read_command_line(argc, argv, &c); r != kGoOn) return r;
+    std::string text;
+    if (const int r = read_input_text(c.path, &text); r != kGoOn) return r;
+    Analysis analysis;
+    GroupedCounts groups;
+    Status read;
+    if (const int r = read_analysis(argc, argv, &text, &c, &analysis, &groups, &read); r != kGoOn) return r;
+    if (const int r = apply_options(c.opts, &analysis); r != kGoOn) return r;
+    if (c.screening && analysis.conformity.requested &&
+        std::any_of(c.opts.begin(), c.opts.end(), [](const auto& o) { return o.first == "--conformity" || o.first == "--conformity-points"; }))
+        return usage_error("--conformity (show one sample conforms within w0) cannot be combined with --by or a document's "
+                           "\"groups\" (a screen looks for departures across groups); test the group on its own with --conformity");
+    return c.screening ? write_screen(c, analysis, groups, read) : write_result(c, analysis, read);
 }

@@ -20,10 +20,12 @@
 #include "goodness_of_fit.hpp"
 #include "noncentral_chi_square_density_curve.hpp"
 #include "number_format.hpp"
+#include "number_reading.hpp"
 #include "page_bridge.hpp"
 #include "paste_parser.hpp"
 #include "report.hpp"
 #include "pasted_analysis.hpp"
+#include "read_input.hpp"
 #include "writeup.hpp"
 
 namespace tallyproof::web {
@@ -43,11 +45,8 @@ bool read_list(const std::string& text, std::vector<double>* out, std::string* e
         if (b == std::string::npos) { cell.clear(); return true; }
         const std::string c = cell.substr(b, e - b + 1);
         cell.clear();
-        if (c == "inf" || c == "+inf" || c == "∞") { out->push_back(HUGE_VAL); return true; }
-        if (c == "-inf" || c == "-∞" || c == "−inf") { out->push_back(-HUGE_VAL); return true; }
-        char* end = nullptr;
-        const double v = std::strtod(c.c_str(), &end);
-        if (end != c.c_str() + c.size()) { *error = "\"" + c.substr(0, 20) + "\" is not a number."; return false; }
+        double v = 0;  // core's reader of typed numbers (inf and ∞ included); the comma separates values here
+        if (!read_typed_number(c, &v)) { *error = "\"" + c.substr(0, 20) + "\" is not a number."; return false; }
         out->push_back(v);
         return true;
     };
@@ -427,9 +426,8 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
 bool typed_bin_count(const std::string& text, int* k, std::string* error) {
     const std::size_t b = text.find_first_not_of(" \t"), e = text.find_last_not_of(" \t");
     const std::string t = b == std::string::npos ? "" : text.substr(b, e - b + 1);
-    char* end = nullptr;
-    const long v = std::strtol(t.c_str(), &end, 10);
-    if (t.empty() || end != t.c_str() + t.size() || v < 2 || v > kMaxBinsOnPage) {
+    double v = 0;
+    if (!read_typed_number(t, &v) || !(v >= 2 && v <= kMaxBinsOnPage) || v != std::floor(v)) {
         *error = "The number of bins must be a whole number from 2 to " + std::to_string(kMaxBinsOnPage) +
                  (t.empty() ? "." : "; \"" + t.substr(0, 20) + "\" is not.");
         return false;
@@ -541,7 +539,8 @@ void apply_bin_editor(AppState& s) {
 
 namespace {
 void read_paste(AppState& s, std::string_view text, const ParseOptions& options) {
-    const ParsedInput parsed = parse_input(text, options);
+    InputReading reading = read_input(text, options);  // one sample, else groups; groups offered beside one sample
+    const ParsedInput& parsed = reading.sample;
     Status problem = parsed.status;
     GroupsView previous_groups = std::move(s.groups);  // a new one-sample reading closes the screen...
     s.groups = GroupsView{};
@@ -553,16 +552,8 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
         s.analysis_id = new_analysis_id();  // the user's own data: a new entry, no example's name
         s.demo_index = -1;
         s.analysis.merge = MergeChoice{};
-        const bool mix_stated = apply_pasted_input(parsed, &s.analysis, &label_notes);  // an expected column or a digit tally
-        if (!mix_stated && (((s.analysis.model.kind == ModelKind::shares || s.analysis.model.kind == ModelKind::ratio ||
-                     s.analysis.model.kind == ModelKind::counts) && s.analysis.model.values.size() != s.analysis.observed.size()) ||
-                   model_is_digit_law(s.analysis.model.kind) || model_is_fitted(s.analysis.model.kind))) {
-            // The previous mix cannot apply to new counts: start from equal shares.
-            s.analysis.model = Model{};
-        }
-        // Bin edges go with the counts they made (a fitted model chosen next starts from them);
-        // other readings leave no edges behind.
-        if (!mix_stated) s.analysis.model.edges = parsed.edges;
+        // The stated mix, else the previous one while it fits the new counts, else equal shares.
+        apply_input_mix(parsed, &s.analysis, &label_notes);
         sync_editor_from_model(s);
         if (!recompute(s)) {
             problem = Status::failure(s.input_error, 0, 0);
@@ -598,9 +589,11 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
         // column are only offered (a typo in a count column would otherwise read as text to tally).
         GroupReadOptions read;
         read.parse = options;
-        GroupedCounts probe = parsed.shape == InputShape::raw_bins ? GroupedCounts{} : read_grouped_text(text, read);
-        if (probe.status.ok && probe.groups.size() >= 2 && probe.shape != GroupShape::raw_values &&
-            open_groups_read(s, std::string(text), read, std::move(probe))) {
+        // Read as one sample but refused here (by the analysis): tried as groups now.
+        GroupedCounts probe = reading.kind == InputKind::groups ? std::move(reading.groups)
+                              : parsed.status.ok && parsed.shape != InputShape::raw_bins ? read_refused_as_groups(text, options)
+                                                                                         : GroupedCounts{};
+        if (probe.status.ok && open_groups_read(s, std::string(text), read, std::move(probe))) {
             clear_refusal(s);
             std::string notes;
             for (const auto& n : s.groups.counts.notes) notes += (notes.empty() ? "" : " ") + n;
@@ -612,11 +605,8 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
         return;
     }
     // The same text may also read as groups (a wide table of two categories): offered, not chosen.
-    if (text.size() <= (1u << 20)) {
-        const GroupedCounts as_groups = read_grouped_text(text, GroupReadOptions{});
-        s.groups.offered = as_groups.status.ok && as_groups.groups.size() >= 2;
-        if (s.groups.offered) s.groups.text.assign(text.data(), text.size());
-    }
+    s.groups.offered = reading.groups_offered;
+    if (s.groups.offered) s.groups.text.assign(text.data(), text.size());
     s.source_name = "pasted text";
     s.demo_index = -1;
     s.merge_undo.clear();
@@ -811,9 +801,8 @@ void set_pvalue_method(AppState& s, PValueMethod method) {
 bool apply_alpha_text(AppState& s, const std::string& text) {
     const std::size_t b = text.find_first_not_of(" \t"), e = text.find_last_not_of(" \t");
     const std::string t = b == std::string::npos ? "" : text.substr(b, e - b + 1);
-    char* end = nullptr;
-    const double alpha = std::strtod(t.c_str(), &end);
-    if (t.empty() || end != t.c_str() + t.size() || !(alpha > 0 && alpha < 1)) {
+    double alpha = 0;  // "0.05" or "0,05", as core reads a typed number
+    if (!read_typed_number(t, &alpha) || !(alpha > 0 && alpha < 1)) {
         s.input_error = "α must lie between 0 and 1" + (t.empty() ? std::string(".") : "; \"" + t.substr(0, 20) + "\" does not.");
         publish_error(s.input_error);
         s.frames_to_draw = 3;

@@ -9,7 +9,7 @@
 #include "app_state.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
-#include "pasted_analysis.hpp"
+#include "read_input.hpp"
 #include "screen_report.hpp"
 #include "table_export.hpp"
 
@@ -17,20 +17,10 @@ namespace tallyproof::web {
 namespace {
 
 // What every group shares (categories, order, digit law, bin edges) set on the analysis the
-// groups are tested with; a stated mix that no longer fits the categories gives way to equal shares.
+// groups are tested with; a stated mix that no longer fits the categories gives way to equal
+// shares (apply_groups_mix, the rule of a one-sample paste too).
 void share_categories(const GroupedCounts& counts, Analysis* a) {
-    ParsedInput shared;
-    shared.categories = counts.categories;
-    shared.ordered = counts.ordered;
-    shared.digit_test = counts.digit_test;
-    shared.edges = counts.edges;
-    const bool stated = apply_pasted_input(shared, a);
-    const ModelKind kind = a->model.kind;
-    if (!stated && (((kind == ModelKind::shares || kind == ModelKind::ratio || kind == ModelKind::counts ||
-                      kind == ModelKind::reference_sample) && a->model.values.size() != counts.categories.size()) ||
-                    model_is_digit_law(kind) || model_is_fitted(kind)))
-        a->model = Model{};
-    if (!stated) a->model.edges = counts.edges;
+    apply_groups_mix(counts, a);
     a->conformity = ConformityChoice{};  // a screen finds departures; conformity is a question for one sample
 }
 

@@ -23,6 +23,7 @@
 #include "bar_chart.hpp"
 #include "density_plot.hpp"
 #include "glossary.hpp"
+#include "number_reading.hpp"
 #include "merge_categories.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"

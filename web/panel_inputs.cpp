@@ -12,6 +12,7 @@
 
 #include "conformity.hpp"
 #include "glossary.hpp"
+#include "number_reading.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
@@ -61,9 +62,7 @@ constexpr LambdaChoice kLambdas[] = {
 };
 
 bool parse_count_cell(const std::string& text, double* v) {
-    char* end = nullptr;
-    *v = std::strtod(text.c_str(), &end);
-    return !text.empty() && end == text.c_str() + text.size() && std::isfinite(*v);
+    return read_typed_number(text, v) && std::isfinite(*v);
 }
 
 // The bins of a "measurements in bins" reading: K, or the stated edges, applied on Enter or Apply.

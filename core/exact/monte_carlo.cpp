@@ -45,22 +45,48 @@ Status monte_carlo_within_budget(double replicates, double draws_per_table, cons
                            ", or use the asymptotic or exact p-value.");
 }
 
+bool monte_carlo_step_begin(WorkProgress* pr, bool cancel_requested, std::uint64_t target, std::uint64_t done,
+                            std::uint64_t budget, std::uint64_t* todo) {
+    if (pr->done || pr->cancelled) return false;
+    if (cancel_requested) {
+        pr->cancelled = true;
+        return false;
+    }
+    if (target == 0) {  // not started successfully
+        pr->done = true;
+        pr->fraction = 1;
+        return false;
+    }
+    *todo = target - done;
+    if (*todo > budget) *todo = budget;
+    return true;
+}
+
+void monte_carlo_step_end(WorkProgress* pr, std::uint64_t todo, std::uint64_t target, std::uint64_t* done) {
+    *done += todo;
+    pr->units_done = *done;
+    if (*done == target) {
+        pr->done = true;
+        pr->fraction = 1;
+    } else {
+        pr->fraction = in_flight_fraction(*done, target);
+    }
+}
+
+void monte_carlo_estimate(std::uint64_t extreme, std::uint64_t replicates, MonteCarloResult* r) {
+    const double B = static_cast<double>(replicates);
+    r->p = (static_cast<double>(extreme) + 1.0) / (B + 1.0);
+    r->standard_error = std::sqrt(r->p * (1.0 - r->p) / B);
+    r->extreme = extreme;
+    r->replicates = replicates;
+}
+
 WorkProgress monte_carlo_step(MonteCarloState* st, std::uint64_t budget) {
     WorkProgress& pr = st->progress;
-    if (pr.done || pr.cancelled) return pr;
-    if (st->cancel_requested) {
-        pr.cancelled = true;
-        return pr;
-    }
-    if (st->target == 0) {  // not started successfully
-        pr.done = true;
-        pr.fraction = 1;
-        return pr;
-    }
+    std::uint64_t todo = 0;
+    if (!monte_carlo_step_begin(&pr, st->cancel_requested, st->target, st->done, budget, &todo)) return pr;
     const std::size_t k = st->s.shares.size();
     const double threshold = st->s.threshold;
-    std::uint64_t todo = st->target - st->done;
-    if (todo > budget) todo = budget;
     std::uint64_t extreme = 0;
     int* x = st->counts.data();
     const std::vector<double>* rows = st->s.score.data();
@@ -75,14 +101,7 @@ WorkProgress monte_carlo_step(MonteCarloState* st, std::uint64_t budget) {
         extreme += t >= threshold ? 1 : 0;
     }
     st->extreme += extreme;
-    st->done += todo;
-    pr.units_done = st->done;
-    if (st->done == st->target) {
-        pr.done = true;
-        pr.fraction = 1;
-    } else {
-        pr.fraction = in_flight_fraction(st->done, st->target);
-    }
+    monte_carlo_step_end(&pr, todo, st->target, &st->done);
     return pr;
 }
 
@@ -92,11 +111,7 @@ Status monte_carlo_result(const MonteCarloState& st, MonteCarloResult* r) {
     *r = MonteCarloResult{};
     if (st.progress.cancelled) return Status::failure("The Monte Carlo run was cancelled.");
     if (!st.progress.done || st.target == 0) return Status::failure("The Monte Carlo run has not finished.");
-    const double B = static_cast<double>(st.target);
-    r->p = (static_cast<double>(st.extreme) + 1.0) / (B + 1.0);
-    r->standard_error = std::sqrt(r->p * (1.0 - r->p) / B);
-    r->extreme = st.extreme;
-    r->replicates = st.target;
+    monte_carlo_estimate(st.extreme, st.target, r);
     r->seed = st.seed;
     r->observed_score = st.s.observed_score;
     return Status::success();

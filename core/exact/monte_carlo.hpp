@@ -28,6 +28,17 @@ struct MonteCarloResult {
     double observed_score = 0;     // T(observed), see OutcomeScores
 };
 
+// What every stepped Monte Carlo run shares (this one and monte_carlo_refit.hpp's).
+// At the start of a step: false when the step ends at once (finished, cancelled, or never
+// started: `pr` says which); else `todo` receives the replicates this step draws (at most `budget`).
+bool monte_carlo_step_begin(WorkProgress* pr, bool cancel_requested, std::uint64_t target, std::uint64_t done,
+                            std::uint64_t budget, std::uint64_t* todo);
+// At the end of a step that drew `todo` more replicates: `done` and the progress of `target`.
+void monte_carlo_step_end(WorkProgress* pr, std::uint64_t todo, std::uint64_t target, std::uint64_t* done);
+// p = (b + 1) / (B + 1) of `extreme` replicates b out of `replicates` B, and its standard error
+// sqrt(p (1 - p) / B), into `r` (Davison & Hinkley 1997, eq. 4.11).
+void monte_carlo_estimate(std::uint64_t extreme, std::uint64_t replicates, MonteCarloResult* r);
+
 // Resumable run; the work unit is one replicate.
 struct MonteCarloState {
     OutcomeScores s;

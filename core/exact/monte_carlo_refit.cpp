@@ -208,18 +208,8 @@ Status refit_monte_carlo_start(const Analysis& a, const Result& r, const MonteCa
 
 WorkProgress refit_monte_carlo_step(RefitMonteCarloState* st, std::uint64_t budget) {
     WorkProgress& pr = st->progress;
-    if (pr.done || pr.cancelled) return pr;
-    if (st->cancel_requested) {
-        pr.cancelled = true;
-        return pr;
-    }
-    if (st->target == 0) {
-        pr.done = true;
-        pr.fraction = 1;
-        return pr;
-    }
-    std::uint64_t todo = st->target - st->done;
-    if (todo > budget) todo = budget;
+    std::uint64_t todo = 0;
+    if (!monte_carlo_step_begin(&pr, st->cancel_requested, st->target, st->done, budget, &todo)) return pr;
     NullModel refit;
     std::vector<double> shares;
     for (std::uint64_t b = 0; b < todo; ++b) {
@@ -247,14 +237,7 @@ WorkProgress refit_monte_carlo_step(RefitMonteCarloState* st, std::uint64_t budg
         }
         st->extreme += t >= st->threshold ? 1 : 0;
     }
-    st->done += todo;
-    pr.units_done = st->done;
-    if (st->done == st->target) {
-        pr.done = true;
-        pr.fraction = 1;
-    } else {
-        pr.fraction = in_flight_fraction(st->done, st->target);
-    }
+    monte_carlo_step_end(&pr, todo, st->target, &st->done);
     return pr;
 }
 
@@ -266,11 +249,7 @@ Status refit_monte_carlo_result(const RefitMonteCarloState& st, RefitMonteCarloR
     if (!st.progress.done || st.target == 0) return Status::failure("The Monte Carlo run has not finished.");
     const std::uint64_t used = st.target - st.failed;
     if (used == 0) return Status::failure("The model could not be refitted to any simulated table.");
-    const double B = static_cast<double>(used);
-    r->mc.p = (static_cast<double>(st.extreme) + 1.0) / (B + 1.0);
-    r->mc.standard_error = std::sqrt(r->mc.p * (1.0 - r->mc.p) / B);
-    r->mc.extreme = st.extreme;
-    r->mc.replicates = used;
+    monte_carlo_estimate(st.extreme, used, &r->mc);
     r->mc.seed = st.seed;
     r->mc.observed_score = st.observed_statistic;
     r->failed_refits = st.failed;

@@ -211,34 +211,50 @@ Tails negative_binomial_tails(double r, double p) {
 }
 
 bool positive_finite(double x) { return std::isfinite(x) && x > 0; }
+
+// The maximum-likelihood estimate of a one-parameter law on [0, inf) (Poisson, geometric) into
+// `theta`: its search from the raw mean m (`search(m)`); false, with f->status saying why, for a
+// single cell, an estimate running to an edge (`lower`, `upper` name them) or no convergence.
+template <class TailsOf, class SearchFrom>
+bool fit_one_parameter(FittedDistribution* f, const char* name, TailsOf tails_of, const char* lower, const char* upper,
+                       double* theta, SearchFrom search) {
+    if (single_cell(f, name)) return false;
+    double m = 0, v = 0;
+    raw_moments(*f, &m, &v);
+    const FittedDistribution& cells = *f;
+    const MaximumLikelihood ml = maximise_log_likelihood(
+        [&cells, &tails_of](const std::vector<double>& t) { return grouped_log_likelihood(cells, tails_of(t[0]), 0, kInf); },
+        {search(m)});
+    if (ml.at_boundary) { f->status = boundary_refusal(*f, name, ml.boundary_upper, lower, upper); return false; }
+    if (!ml.converged) { f->status = no_convergence(*f); return false; }
+    *theta = ml.theta[0];
+    f->estimated_parameters = 1;
+    return true;
+}
+
+// A fit refused before it starts: a given parameter out of its range.
+FittedDistribution refused_fit(const char* model, const std::string& message) {
+    FittedDistribution f;
+    f.model = model;
+    f.status = Status::failure(message);
+    return f;
+}
 bool open_unit(double x) { return x > 0 && x < 1; }
 
 }  // namespace
 
 FittedDistribution fit_poisson(const std::vector<IntegerBin>& bins, const std::vector<double>& observed,
                                std::optional<double> mean, const DiscreteFitOptions& options) {
-    if (mean && !positive_finite(*mean)) {
-        FittedDistribution f;
-        f.model = "Poisson";
-        f.status = Status::failure("The Poisson mean must be a positive number; it was given as " + fit_number(*mean) + ".");
-        return f;
-    }
+    if (mean && !positive_finite(*mean))
+        return refused_fit("Poisson", "The Poisson mean must be a positive number; it was given as " + fit_number(*mean) + ".");
     FittedDistribution f = prepare_cells("Poisson", bins, observed, 0, kInf, options.tail_cells);
     if (!f.status.ok) return f;
     double mu = mean ? *mean : 0;
-    if (!mean) {
-        if (single_cell(&f, "mean")) return f;
-        double m = 0, v = 0;
-        raw_moments(f, &m, &v);
-        const double start = std::max(m, 0.05);
-        const MaximumLikelihood ml = maximise_log_likelihood(
-            [&f](const std::vector<double>& t) { return grouped_log_likelihood(f, poisson_tails(t[0]), 0, kInf); },
-            {{ParameterScale::positive, start, 0.25, start * 1e-9, start * 1e9}});
-        if (ml.at_boundary) { f.status = boundary_refusal(f, "mean", ml.boundary_upper, "0", "infinity"); return f; }
-        if (!ml.converged) { f.status = no_convergence(f); return f; }
-        mu = ml.theta[0];
-        f.estimated_parameters = 1;
-    }
+    if (!mean && !fit_one_parameter(&f, "mean", poisson_tails, "0", "infinity", &mu, [](double m) {
+            const double start = std::max(m, 0.05);
+            return ParameterSearch{ParameterScale::positive, start, 0.25, start * 1e-9, start * 1e9};
+        }))
+        return f;
     add_parameter(&f, "mean", mu, !mean);
     fill_probabilities(&f, poisson_tails(mu), 0, kInf);
     finish_fit(&f);
@@ -285,28 +301,16 @@ FittedDistribution fit_binomial(const std::vector<IntegerBin>& bins, const std::
 
 FittedDistribution fit_geometric(const std::vector<IntegerBin>& bins, const std::vector<double>& observed,
                                  std::optional<double> p, const DiscreteFitOptions& options) {
-    if (p && !open_unit(*p)) {
-        FittedDistribution f;
-        f.model = "geometric";
-        f.status = Status::failure("The geometric p must lie strictly between 0 and 1; it was given as " + fit_number(*p) + ".");
-        return f;
-    }
+    if (p && !open_unit(*p))
+        return refused_fit("geometric", "The geometric p must lie strictly between 0 and 1; it was given as " + fit_number(*p) + ".");
     FittedDistribution f = prepare_cells("geometric", bins, observed, 0, kInf, options.tail_cells);
     if (!f.status.ok) return f;
     double q = p ? *p : 0;
-    if (!p) {
-        if (single_cell(&f, "p")) return f;
-        double m = 0, v = 0;
-        raw_moments(f, &m, &v);
-        const double start = std::min(0.99, std::max(1e-6, 1 / (1 + m)));
-        const MaximumLikelihood ml = maximise_log_likelihood(
-            [&f](const std::vector<double>& t) { return grouped_log_likelihood(f, geometric_tails(t[0]), 0, kInf); },
-            {{ParameterScale::unit_interval, start, 0.25, 1e-12, 1 - 1e-12}});
-        if (ml.at_boundary) { f.status = boundary_refusal(f, "p", ml.boundary_upper, "0", "1"); return f; }
-        if (!ml.converged) { f.status = no_convergence(f); return f; }
-        q = ml.theta[0];
-        f.estimated_parameters = 1;
-    }
+    if (!p && !fit_one_parameter(&f, "p", geometric_tails, "0", "1", &q, [](double m) {
+            const double start = std::min(0.99, std::max(1e-6, 1 / (1 + m)));
+            return ParameterSearch{ParameterScale::unit_interval, start, 0.25, 1e-12, 1 - 1e-12};
+        }))
+        return f;
     add_parameter(&f, "p", q, !p);
     add_parameter(&f, "mean", (1 - q) / q, !p);
     fill_probabilities(&f, geometric_tails(q), 0, kInf);

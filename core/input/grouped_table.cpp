@@ -11,6 +11,7 @@
 #include <algorithm>
 #include <cmath>
 #include <unordered_map>
+#include <string_view>
 #include <unordered_set>
 
 #include "paste_parser.hpp"  // parse_input
@@ -376,6 +377,24 @@ void read_raw_rows(const std::vector<TableRow>& rows, std::size_t first, std::si
                                               std::to_string(k) + " categories shared by every group.");
 }
 
+// The shape: groups repeated over lines are a long table or raw values, else a wide table.
+GroupShape detect_group_shape(const std::vector<TableRow>& rows, std::size_t first, std::size_t group_col,
+                              std::size_t width, const ParseOptions& parse) {
+    if (parse.digits || parse.bins.kind != BinChoice::Kind::none || parse.raw) return GroupShape::raw_values;
+    std::unordered_set<std::string_view> seen;  // views of the rows' cells: no copies
+    seen.reserve(rows.size());
+    bool repeats = false;
+    for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.insert(cell_at(rows[r], group_col)).second;
+    // A wide table holds only counts beside the group names; text there makes it long.
+    bool counts_only = true;
+    for (std::size_t r = first; r < rows.size() && r < first + 200 && counts_only; ++r)
+        for (std::size_t c = 0; c < rows[r].cells.size(); ++c)
+            if (c != group_col && !rows[r].cells[c].empty() && !looks_numeric(rows[r].cells[c])) counts_only = false;
+    if (!repeats && width >= 3 && counts_only) return GroupShape::wide_table;
+    if (width == 2) return GroupShape::raw_values;
+    return GroupShape::long_table;
+}
+
 }  // namespace
 
 std::string group_look_alike_note(const std::vector<std::string>& groups, const std::vector<std::vector<std::size_t>>& alike) {
@@ -435,6 +454,12 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
             return out;
         }
     }
+    return read_grouped_rows(std::move(rows), sep, options);
+}
+
+GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options) {
+    GroupedCounts out;
+    const ParseOptions& parse = options.parse;
     if (rows.empty()) { out.status = Status::failure("Nothing to read: the pasted text is empty."); return out; }
     std::size_t width = 0;
     for (const auto& r : rows) width = std::max(width, r.cells.size());
@@ -478,22 +503,8 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
         for (std::size_t c = 0; c < row.cells.size(); ++c) n += c != group_col && looks_numeric(row.cells[c]);
         return n;
     };
-    // The shape: groups repeated over lines are a long table or raw values, else a wide table.
     auto detect_shape = [&](std::size_t first) {
-        if (options.shape) return *options.shape;
-        if (parse.digits || parse.bins.kind != BinChoice::Kind::none || parse.raw) return GroupShape::raw_values;
-        std::unordered_set<std::string_view> seen;  // views of the rows' cells: no copies
-        seen.reserve(rows.size());
-        bool repeats = false;
-        for (std::size_t r = first; r < rows.size() && !repeats; ++r) repeats = !seen.insert(cell_at(rows[r], group_col)).second;
-        // A wide table holds only counts beside the group names; text there makes it long.
-        bool counts_only = true;
-        for (std::size_t r = first; r < rows.size() && r < first + 200 && counts_only; ++r)
-            for (std::size_t c = 0; c < rows[r].cells.size(); ++c)
-                if (c != group_col && !rows[r].cells[c].empty() && !looks_numeric(rows[r].cells[c])) counts_only = false;
-        if (!repeats && width >= 3 && counts_only) return GroupShape::wide_table;
-        if (width == 2) return GroupShape::raw_values;
-        return GroupShape::long_table;
+        return options.shape ? *options.shape : detect_group_shape(rows, first, group_col, width, parse);
     };
     bool header = header_named || (rows.size() >= 2 && numeric_outside_group(rows[0]) == 0 && numeric_outside_group(rows[1]) > 0);
     double step = 0;

@@ -64,5 +64,8 @@ std::string group_look_alike_note(const std::vector<std::string>& groups, const 
 // Group names, like category labels, enter through label_text.hpp: NFC (one group however it is
 // written), characters that draw nothing shown as <U+XXXX>; names that look alike are noted.
 GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& options = {});
+// The same, from the text's non-blank rows already split with separator `sep` (parse_input's
+// `rows`): the text is not split again.
+GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options = {});
 
 }  // namespace tallyproof

@@ -65,6 +65,12 @@ struct ParseOptions {
     ThirdColumn third_column = ThirdColumn::automatic;  // label, observed, third: what the third holds
 };
 
+// One non-blank row of pasted text as split into cells (delimited_text.hpp).
+struct TableRow {
+    int line = 0;                    // 1-based line where the row starts
+    std::vector<std::string> cells;  // trimmed, trailing empty cells dropped; never empty
+};
+
 struct CellProblem {
     int line = 0;    // 1-based
     int column = 0;  // 1-based cell index

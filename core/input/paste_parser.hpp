@@ -10,7 +10,11 @@
 namespace tallyproof {
 
 // Reads pasted text in any recognised shape; never throws, refuses with a located message.
-ParsedInput parse_input(std::string_view text, const ParseOptions& options = {});
+// `rows`, when given, receives every non-blank row of the text as split with the separator
+// chosen (the reading's `separator`), when the reader split them all (a table; raw
+// observations of at most a sample's rows), read or refused; else it is left empty. Another
+// reading of the same text (read_input.hpp) starts from them instead of splitting it again.
+ParsedInput parse_input(std::string_view text, const ParseOptions& options = {}, std::vector<TableRow>* rows = nullptr);
 
 struct ParsedCounts {
     Status status;                        // !ok: message names the line (and column) at fault

@@ -10,15 +10,12 @@
 #include <unordered_map>
 
 #include "digit_extraction.hpp"
+#include "number_format.hpp"
 
 namespace tallyproof {
 namespace {
 
-std::string plain(double x) {
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "%.15g", x);
-    return buf;
-}
+std::string plain(double x) { return format_general(x, 15); }
 
 std::string fold_ascii(std::string_view s) {
     std::string f(s);

@@ -12,15 +12,12 @@
 #include <unordered_map>
 
 #include "previous_sample_header.hpp"
+#include "number_format.hpp"
 
 namespace tallyproof {
 namespace {
 
-std::string plain(double x) {
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "%.15g", x);
-    return buf;
-}
+std::string plain(double x) { return format_general(x, 15); }
 
 std::string lower_ascii(std::string s) {
     for (char& c : s)

@@ -10,11 +10,6 @@
 
 namespace tallyproof {
 
-struct TableRow {
-    int line = 0;                    // 1-based line where the row starts
-    std::vector<std::string> cells;  // trimmed, trailing empty cells dropped; never empty
-};
-
 // True when the cell reads as a number with either decimal mark, or is written as a number that
 // cannot be used ("1e400", "NaN", "#DIV/0!"): such a cell is refused where it stands, never taken
 // for a header.

@@ -11,15 +11,12 @@
 
 #include "chi_square_tail.hpp"
 #include "noncentral_chi_square.hpp"
+#include "number_format.hpp"
 
 namespace tallyproof {
 namespace {
 
-std::string number(double v) {
-    char buf[40];
-    std::snprintf(buf, sizeof buf, "%.10g", v);
-    return buf;
-}
+std::string number(double v) { return format_general(v, 10); }
 
 Status check_common(double alpha, double df) {
     if (!(alpha > 0 && alpha < 1)) return Status::failure("The significance level alpha = " + number(alpha) + " must lie strictly between 0 and 1.");

@@ -69,6 +69,12 @@ std::string format_plain(double x) {
     return buf;
 }
 
+std::string format_general(double x, int digits) {
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "%.*g", digits, x);
+    return buf;
+}
+
 std::string format_significant(double x, int digits) {
     if (!std::isfinite(x)) return "n/a";
     if (x == 0) return "0";

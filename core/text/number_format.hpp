@@ -12,6 +12,9 @@ std::string format_fixed(double x, int decimals);        // "5.27"; "n/a" when n
 std::string format_count(double x);                       // "1234" (whole) or "12.5"
 std::string format_grouped(std::uint64_t v);              // 100000 -> "100,000" (replicates, hits)
 std::string format_plain(double x);                       // shortest form: "0.05", "1e-06"
+// printf's %g with `digits` significant digits ("inf", "-inf" and "nan" as printf writes them):
+// a value quoted in a message or a label as computed.
+std::string format_general(double x, int digits);
 std::string format_significant(double x, int digits);     // "0.0431", "3.21 × 10⁻⁵"
 std::string format_probability(const TailProbability& p); // 3 significant digits at any size
 std::string format_p_report(const TailProbability& p);    // reporting style: "= .043", "< .001"

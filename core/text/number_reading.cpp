@@ -8,6 +8,7 @@
 #include <cstdint>
 #include <cstdio>
 #include <cstdlib>
+#include <limits>
 
 namespace tallyproof {
 namespace {
@@ -342,6 +343,45 @@ DecimalMark decide_decimal_mark(const MarkVotes& v, bool want_whole, DecimalMark
         *alternative = "With a " + std::string(decimal_mark_name(other)) + ", \"" + cell + "\" would be " +
                        plain(as_other) + ".";
     return mark;
+}
+
+namespace {
+bool same_ascii_lower(std::string_view text, std::string_view word) {
+    if (text.size() != word.size()) return false;
+    for (std::size_t i = 0; i < text.size(); ++i) {
+        char c = text[i];
+        if (c >= 'A' && c <= 'Z') c = static_cast<char>(c - 'A' + 'a');
+        if (c != word[i]) return false;
+    }
+    return true;
+}
+}  // namespace
+
+bool read_typed_number(std::string_view text, double* value) {
+    text = trim_cell_ends(text);
+    if (text.empty()) return false;
+    // Words for what is not a finite number: read as such, for the caller's range check.
+    std::string_view body = text;
+    bool minus = false;
+    if (body.front() == '+' || body.front() == '-') { minus = body.front() == '-'; body.remove_prefix(1); }
+    else if (body.substr(0, 3) == "\xE2\x88\x92") { minus = true; body.remove_prefix(3); }  // U+2212 minus sign
+    if (same_ascii_lower(body, "inf") || same_ascii_lower(body, "infinity") || body == "\xE2\x88\x9E") {  // ∞
+        *value = minus ? -HUGE_VAL : HUGE_VAL;
+        return true;
+    }
+    if (same_ascii_lower(body, "nan")) {
+        *value = std::numeric_limits<double>::quiet_NaN();
+        return true;
+    }
+    // The decimal mark from the text itself; "1.234" with the point, "1,234" refused.
+    const MarkEvidence evidence = decimal_mark_evidence(text);
+    if (evidence == MarkEvidence::ambiguous && text.find(',') != std::string_view::npos) return false;
+    const DecimalMark mark = evidence == MarkEvidence::comma ? DecimalMark::comma : DecimalMark::point;
+    const NumberReading r = read_number(text, mark);
+    if (r.percent || r.currency) return false;
+    if (!r.ok && !r.out_of_range) return false;
+    *value = r.value;  // beyond the double range: the infinity or zero it rounds to
+    return true;
 }
 
 }  // namespace tallyproof

@@ -30,6 +30,19 @@ struct NumberReading {
 // decimal point), the form digit tallies need. Never allocates when canonical is null.
 NumberReading read_number(std::string_view cell, DecimalMark mark, std::string* canonical = nullptr);
 
+// A number typed into a field or given as a command-line option (α, a margin w0, λ, a
+// parameter, a value of the model editor): the one reader of typed numbers on the page and in
+// the tool. The text is read as read_number reads a pasted cell, with the decimal mark decided
+// by the text itself, so "0.05", "0,05", ".05", "+0.05", "1e-3", "1 000", "1,234.5" and "1.234,5"
+// are all read. A text that reads with either mark is read with the decimal point when it
+// holds a point ("1.234" is 1.234, as typed numbers were always read) and refused when its only
+// mark is a comma ("1,234": 1.234 or 1234?). A percent or currency sign is refused: each field
+// says its unit ("5 %" is not taken for 0.05). "inf", "infinity" and "∞" (any case, signed) and
+// "nan" are read as the values they name, and a number beyond the double range ("1e400") as the
+// infinity or zero it rounds to, so that the caller's own range check names the problem.
+// Spaces around the number are ignored. Returns false, leaving `value`, when it is not a number.
+bool read_typed_number(std::string_view text, double* value);
+
 // What one cell says about the decimal mark of its column.
 enum class MarkEvidence {
     not_a_number,  // neither reading works

@@ -77,3 +77,66 @@ TEST_CASE("what one cell says about the decimal mark") {
     CHECK(decimal_mark_evidence("42") == MarkEvidence::neutral);
     CHECK(decimal_mark_evidence("n/a") == MarkEvidence::not_a_number);
 }
+
+// read_typed_number: one reader for every typed number (fields of the page, options of the
+// tool). Expected values are the numbers as written (decimal notation, common practice); the
+// rules for ambiguous and unit-bearing text are ours, documented in number_reading.hpp.
+TEST_CASE("typed numbers: either decimal mark, exponents, signs; the comma-only ambiguous form refused") {
+    double v = -1;
+    CHECK(read_typed_number("0.05", &v));
+    CHECK(v == 0.05);
+    v = -1;
+    CHECK(read_typed_number("0,05", &v));  // typed as α where a paste would read it
+    CHECK(v == 0.05);
+    CHECK(read_typed_number(" .05 ", &v));
+    CHECK(v == 0.05);
+    CHECK(read_typed_number("+0.05", &v));
+    CHECK(v == 0.05);
+    CHECK(read_typed_number("1e-3", &v));
+    CHECK(v == 0.001);
+    CHECK(read_typed_number("2,5e-3", &v));
+    CHECK(v == 0.0025);
+    CHECK(read_typed_number("−0.5", &v));  // U+2212 minus
+    CHECK(v == -0.5);
+    CHECK(read_typed_number("1.234", &v));  // either mark reads it: the point, as typed numbers always were
+    CHECK(v == 1.234);
+    CHECK(read_typed_number("1,234.5", &v));
+    CHECK(v == 1234.5);
+    CHECK(read_typed_number("1.234,5", &v));
+    CHECK(v == 1234.5);
+    CHECK(read_typed_number("100 000", &v));
+    CHECK(v == 100000);
+    v = 7;
+    CHECK_FALSE(read_typed_number("1,234", &v));  // 1.234 or 1234: refused, not guessed
+    CHECK_FALSE(read_typed_number("5 %", &v));     // a field says its unit
+    CHECK_FALSE(read_typed_number("5%", &v));
+    CHECK_FALSE(read_typed_number("$5", &v));
+    CHECK_FALSE(read_typed_number("", &v));
+    CHECK_FALSE(read_typed_number("  ", &v));
+    CHECK_FALSE(read_typed_number("0.05x", &v));
+    CHECK_FALSE(read_typed_number("0x10", &v));
+    CHECK_FALSE(read_typed_number("five", &v));
+    CHECK(v == 7);  // left as it was
+}
+
+TEST_CASE("typed numbers: words for infinities and NaN, and numbers beyond the double range, for the caller's check") {
+    double v = 0;
+    for (const char* t : {"inf", "+inf", "Inf", "INFINITY", "∞"}) {
+        CAPTURE(t);
+        v = 0;
+        CHECK(read_typed_number(t, &v));
+        CHECK(v == HUGE_VAL);
+    }
+    for (const char* t : {"-inf", "-Inf", "−inf", "-∞"}) {
+        CAPTURE(t);
+        v = 0;
+        CHECK(read_typed_number(t, &v));
+        CHECK(v == -HUGE_VAL);
+    }
+    CHECK(read_typed_number("nan", &v));
+    CHECK(std::isnan(v));
+    CHECK(read_typed_number("1e400", &v));
+    CHECK(v == HUGE_VAL);
+    CHECK(read_typed_number("1e-400", &v));
+    CHECK(v == 0);
+}
