@@ -204,13 +204,36 @@ void coloured_text(ImU32 colour, const char* text) {
     ImGui::PopStyleColor();
 }
 
+// The explained item a tap landed on (its name), shown until the next tap; one page, one finger.
+struct TapExplanation {
+    bool tapping = false;
+    std::string pinned;
+};
+TapExplanation g_tap;
+
+void note_tap(bool starts, bool on) {
+    if (starts) g_tap.pinned.clear();
+    g_tap.tapping = on;
+}
+
 void explain_item(const char* name, const std::string& shown) {
     mark_explained(name, shown);
-    if (!ImGui::IsItemHovered()) return;  // a tap leaves the pointer there: the tooltip stays until the next tap
+    const bool hovered = ImGui::IsItemHovered();
+    if (hovered && g_tap.tapping) g_tap.pinned = name;
+    const bool pinned = !hovered && !g_tap.pinned.empty() && g_tap.pinned == name;
+    if (!hovered && !pinned) return;
     const std::string notes = glossary_notes(shown);
     if (notes.empty()) return;
+    if (pinned) {  // under the tapped item (above it near the bottom), kept on screen
+        const ImVec2 screen = ImGui::GetMainViewport()->Size;
+        const float width = std::min(ImGui::GetFontSize() * 26 + 2 * ImGui::GetStyle().WindowPadding.x, screen.x - 8);
+        const ImVec2 lo = ImGui::GetItemRectMin(), hi = ImGui::GetItemRectMax();
+        const float x = std::clamp(lo.x, 4.0f, std::max(4.0f, screen.x - width - 4));
+        const bool above = hi.y > screen.y * 0.6f;
+        ImGui::SetNextWindowPos(ImVec2(x, above ? lo.y - 4 : hi.y + 4), ImGuiCond_Always, ImVec2(0, above ? 1.0f : 0.0f));
+    }
     ImGui::BeginTooltip();
-    ImGui::PushTextWrapPos(ImGui::GetFontSize() * 26);
+    ImGui::PushTextWrapPos(std::min(ImGui::GetFontSize() * 26, ImGui::GetMainViewport()->Size.x - 8 - 2 * ImGui::GetStyle().WindowPadding.x));
     ImGui::TextUnformatted(notes.c_str());
     ImGui::PopTextWrapPos();
     ImGui::EndTooltip();
