@@ -9,6 +9,10 @@
 #include <cstdarg>
 #include <vector>
 
+EM_JS(void, tp_js_focus_rect, (int shown, float x, float y, float w, float h, int text), {
+    if (globalThis.tallyproofPage) globalThis.tallyproofPage.focusRect = shown ? { x: x, y: y, w: w, h: h, text: !!text } : null;
+});
+
 namespace {
 
 struct Control {
@@ -140,12 +144,8 @@ void publish_focus() {
         if (c.id == id) found = &c;
     if (!found && g_walk.published == 0) return;
     g_walk.published = found ? id : 0;
-    if (!found) {
-        EM_ASM({ if (globalThis.tallyproofPage) globalThis.tallyproofPage.focusRect = null; });
-        return;
-    }
-    EM_ASM({ if (globalThis.tallyproofPage) globalThis.tallyproofPage.focusRect = { x: $0, y: $1, w: $2, h: $3, text: !!$4 }; },
-           found->rect.Min.x, found->rect.Min.y, found->rect.GetWidth(), found->rect.GetHeight(), found->text ? 1 : 0);
+    tp_js_focus_rect(found ? 1 : 0, found ? found->rect.Min.x : 0, found ? found->rect.Min.y : 0,
+                     found ? found->rect.GetWidth() : 0, found ? found->rect.GetHeight() : 0, found && found->text ? 1 : 0);
 }
 
 }  // namespace tallyproof::web
