@@ -45,7 +45,8 @@ std::vector<const Control*> reachable() {
 
 int position(const std::vector<const Control*>& list) {
     ImGuiContext& g = *GImGui;
-    const ImGuiID current = g.ActiveId != 0 ? g.ActiveId : g.NavId;
+    // No focus frame on screen (the page just opened, or the mouse was used): Tab starts at the first control.
+    const ImGuiID current = g.ActiveId != 0 ? g.ActiveId : g.NavDisableHighlight ? 0 : g.NavId;
     if (current == 0) return -1;
     for (int i = 0; i < static_cast<int>(list.size()); ++i)
         if (list[i]->id == current) return i;

@@ -4,7 +4,7 @@
 // input here is trusted (input.mjs); the page's state is only read.
 // Reference for the counts used: SciPy 1.10, scipy.stats.chisquare([31, 44, 25]) -> statistic
 // 5.66, p = 0.05899 (equal shares); chisquare([61,214,103,22], [80,200,100,20]) -> 5.7825, p 0.12269.
-import { assert, chooseFile, clickWidget, focusCanvas, lastResult, openFormView, pasteText, screenshot, tapWidget, typeInto,
+import { assert, chooseFile, clickWidget, closeFormView, focusCanvas, lastResult, openFormView, pasteText, screenshot, tapWidget, typeInto,
   withPage } from './harness.mjs';
 
 const threeRegions = 'North\t31\nSouth\t44\nEast\t25\n';
@@ -17,18 +17,26 @@ async function firstCategory(page, name) {
 async function running(page, yes) {
   await page.waitForFunction((y) => document.getElementById('tp-progress').dataset.running === (y ? '1' : '0'), yes, { timeout: 10000 });
 }
-const defaultPrevented = `new Promise((resolve) => {
-  window.addEventListener('keydown', (e) => setTimeout(() => resolve(e.defaultPrevented), 0), { once: true });
-})`;
+// Records whether the page cancelled the keydown of V (which would stop the browser's paste).
+function watchV() {
+  globalThis.__vPrevented = null;
+  const watch = (e) => {
+    if (e.key !== 'v' && e.key !== 'V') return;
+    window.removeEventListener('keydown', watch, true);
+    setTimeout(() => { globalThis.__vPrevented = e.defaultPrevented; }, 0);
+  };
+  window.addEventListener('keydown', watch, true);  // capture: the page stops the key's propagation at the canvas
+}
 
 export const tests = {
   async 'Ctrl+V pastes counts with the canvas focused and with nothing focused; the key is not cancelled'() {
     await withPage({}, async (page) => {
       await focusCanvas(page);
       await page.evaluate((t) => navigator.clipboard.writeText(t), threeRegions);
-      const watch = page.evaluate(defaultPrevented);
+      await page.evaluate(watchV);
       await page.keyboard.press('Control+V');
-      assert((await watch) === false, 'the keydown of Ctrl+V on the canvas was cancelled');
+      await page.waitForFunction(() => globalThis.__vPrevented !== null, null, { timeout: 3000 });
+      assert(await page.evaluate(() => globalThis.__vPrevented) === false, 'the keydown of Ctrl+V on the canvas was cancelled');
       await firstCategory(page, 'North');
       const r = await lastResult(page);
       assert(Math.abs(r.statistic - 5.66) < 1e-9, `statistic ${r.statistic}`);  // SciPy chisquare([31,44,25])
@@ -79,13 +87,16 @@ export const tests = {
       await pasteText(page, threeRegions);
       await firstCategory(page, 'North');
       await page.evaluate(() => { globalThis.tallyproofPage.lastRefusal = ''; });
-      await pasteText(page, 'A\t12\nB\t1\u00002\nC\t5\n');  // a NUL byte: not text
+      // Text that starts as a PDF file does (copied from a PDF's source): not text, refused saying so.
+      await pasteText(page, '%PDF-1.4\nA\t12\nB\t12\nC\t5\n');
       await page.waitForFunction(() => globalThis.tallyproofPage.lastRefusal !== '', null, { timeout: 5000 });
       const viaKey = await page.evaluate(() => globalThis.tallyproofPage.lastRefusal);
       await firstCategory(page, 'North');  // the analysis stays
       await clickWidget(page, 'fix it here');  // the refused text is kept for correction
+      await clickWidget(page, 'refused paste editor');
       const kept = await page.waitForFunction(() => document.activeElement?.id === 'tp-ime-area' && document.activeElement.value, null, { timeout: 5000 });
-      assert((await kept.jsonValue()).startsWith('A\t12\nB\t1'), 'the refused paste is in the editor');
+      assert((await kept.jsonValue()).startsWith('%PDF-1.4\nA\t12'), 'the refused paste is in the editor');
+      assert(viaKey.includes('PDF'), `refusal: ${viaKey}`);
       // The same text through the Paste button: the same refusal.
       await page.keyboard.press('Escape');
       await page.evaluate(() => { globalThis.tallyproofPage.lastRefusal = ''; });
@@ -102,9 +113,12 @@ export const tests = {
       await running(page, true);
       await pasteText(page, threeRegions);
       await firstCategory(page, 'North');
-      await running(page, false);
       const notice = await page.evaluate(() => globalThis.tallyproofPage.lastNotice);
       assert(notice.includes('was stopped'), `notice: ${notice}`);
+      // The new counts keep the Monte Carlo setting: their own run starts, and Escape stops it.
+      await page.keyboard.press('Escape');
+      await running(page, false);
+      assert((await lastResult(page)).tested_observed.join(',') === '31,44,25', 'the result is for the pasted counts');
     });
   },
 
@@ -285,6 +299,8 @@ export const tests = {
       // Past the last control the focus leaves the canvas for the page (no keyboard trap).
       const after = await page.evaluate(() => document.activeElement.id);
       assert(after !== 'canvas', `Tab past the last control stayed on the canvas (${after})`);
+      assert(await page.evaluate(() => document.body.classList.contains('tp-form-view')), `the next stop is the form view (${after})`);
+      await closeFormView(page);
       // A menu opened from the keyboard: Tab walks its items, Space chooses one.
       await focusCanvas(page);
       await clickWidget(page, 'Examples');
@@ -322,12 +338,21 @@ export const tests = {
   },
 
   async 'Groups view on a phone: rows are 44 px tap targets and a tap on a column head explains it'() {
-    const rows = ['group\tcategory\tcount'];
-    for (const g of ['Plant A', 'Plant B', 'Plant C', 'Plant D']) for (const [c, n] of [['x', 30], ['y', 40], ['z', 30]]) rows.push(`${g}\t${c}\t${n + g.length}`);
+    // Invented readings of 12 readers (the Groups test's own long table shape): reader, digit, count.
+    const rows = ['reader,digit,count'];
+    ['Anna', 'Ben', 'Cara', 'Dev', 'Eli', 'Fay'].forEach((n, gi) => {
+      for (let d = 0; d < 10; d++) rows.push(`${n},${d},${8 + ((gi * 7 + d * 3) % 5)}`);
+    });
     for (const width of [360, 390]) {
       await withPage({ viewport: { width, height: 844 }, hasTouch: true, isMobile: true, deviceScaleFactor: 2 }, async (page) => {
         await pasteText(page, rows.join('\n') + '\n');
-        await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['group row 1'], null, { timeout: 10000 });
+        await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['group column'], null, { timeout: 10000 });
+        // The table lies below the screen's fold: scrolled into view (a wheel; Playwright has no swipe).
+        await page.mouse.move(width / 2, 600);
+        for (let i = 0; i < 12 && !(await page.evaluate(() => { const r = globalThis.tallyproofPage.widgets['group row 1']; return r && r.y > 0 && r.y + r.h < 800; })); i++) {
+          await page.mouse.wheel(0, 250);
+          await page.waitForTimeout(120);
+        }
         const r = await page.evaluate(() => globalThis.tallyproofPage.widgets['group row 1']);
         console.log(`     ${width} px: Groups row ${r.w.toFixed(0)} x ${r.h.toFixed(0)} CSS px`);
         assert(r.h >= 44, `a Groups table row is ${r.h} px tall`);
