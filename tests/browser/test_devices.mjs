@@ -167,7 +167,8 @@ export const tests = {
       const doc = JSON.parse(readFileSync(await (await download).path(), 'utf8'));
       assert(doc.model.kind === 'shares' && doc.observed.join(',') === '61,214,103,22', JSON.stringify(doc).slice(0, 200));
       await screenshot(page, 'devices-form-view');
-      await page.getByRole('button', { name: 'Back to the canvas view' }).press('Enter');
+      await page.getByRole('button', { name: 'Back to the canvas view' }).focus();
+      await page.keyboard.press('Enter');
       await page.waitForFunction(() => !document.body.classList.contains('tp-form-view'), null, { timeout: 5000 });
     });
   },
