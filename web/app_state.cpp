@@ -490,17 +490,24 @@ void apply_paste(AppState& s, std::string_view text) {
 }
 
 void apply_input(AppState& s, std::string bytes, std::string_view file_name) {
+    // New data while an exact or Monte Carlo p-value is being worked out: that work is for the old
+    // data, so it stops, and the page says so (whether or not the new data is read).
+    const bool stopped = s.job_running;
+    if (stopped) cancel_job(s);
+    const std::string stopped_note = stopped ? "The p-value being worked out for the previous data was stopped." : "";
     const TextDecoding d = decode_text(&bytes);
     if (!d.status.ok) {
         const std::string who = file_name.empty() ? std::string() : std::string(file_name.substr(0, 80)) + ": ";
         // A pasted text stays editable; a binary file's bytes are not worth editing.
         record_refusal(s, file_name.empty() ? std::string_view(bytes) : std::string_view(), Status::failure(who + d.status.message));
         s.rejected_file = std::string(file_name);
+        if (stopped) set_notice(s, stopped_note);
         return;
     }
     apply_paste(s, bytes);
     if (!s.rejected_message.empty()) s.rejected_file = std::string(file_name);
     if (!d.notice.empty() && s.rejected_message.empty()) set_notice(s, d.notice + (s.notice.empty() ? "" : " " + s.notice));
+    if (stopped) set_notice(s, stopped_note + (s.notice.empty() ? "" : " " + s.notice));
 }
 
 void reread_paste(AppState& s, int shape, int digit_test, int third_column) {

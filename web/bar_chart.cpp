@@ -41,7 +41,31 @@ void draw_bar_chart(const Result& r, ImVec2 size, const Theme& theme) {
     ImGui::PopFont();
 
     const float th = ImGui::GetTextLineHeight();
-    const float left = 56, right = 16, top = 34 + th, bottom = 30;
+    // Legend: beside the title when both fit on one line, else under it, wrapped as its items fit
+    // (a phone's width), so it never lies over the title or runs off the chart.
+    const char* legend[] = {"fewer than expected", "more than expected", "expected"};
+    const ImU32 legend_col[] = {theme.fewer, theme.more, theme.expected_mark};
+    float item_w[3], legend_w = 0;
+    for (int i = 0; i < 3; ++i) {
+        item_w[i] = 16 + ImGui::CalcTextSize(legend[i]).x;
+        legend_w += item_w[i] + (i ? 14 : 0);
+    }
+    ImGui::PushFont(theme.strong);
+    const float title_w = ImGui::CalcTextSize("Observed counts against expected").x;
+    ImGui::PopFont();
+    const bool beside = 12 + title_w + 24 + legend_w + 16 <= size.x;
+    float lx = beside ? origin.x + size.x - 16 - legend_w : origin.x + 12, ly = origin.y + (beside ? 8 : 10 + th);
+    for (int i = 0; i < 3; ++i) {
+        if (!beside && lx + item_w[i] > origin.x + size.x - 8 && lx > origin.x + 12) {
+            lx = origin.x + 12;
+            ly += th + 4;
+        }
+        if (i == 2) dl->AddRectFilled(ImVec2(lx, ly + th / 2 - 1), ImVec2(lx + 12, ly + th / 2 + 2), legend_col[i]);
+        else dl->AddRectFilled(ImVec2(lx, ly + 2), ImVec2(lx + 12, ly + th - 2), legend_col[i], 2);
+        dl->AddText(ImVec2(lx + 16, ly), theme.muted, legend[i]);
+        lx += item_w[i] + 14;
+    }
+    const float left = 56, right = 16, top = (beside ? 34 + th : ly - origin.y + th + 20), bottom = 30;
     const ImVec2 p0(origin.x + left, origin.y + top), p1(origin.x + size.x - right, origin.y + size.y - bottom);
     double vmax = 0;
     for (std::size_t i = 0; i < k; ++i) vmax = std::max({vmax, r.tested_observed[i], r.tested_expected[i]});
@@ -53,20 +77,6 @@ void draw_bar_chart(const Result& r, ImVec2 size, const Theme& theme) {
         dl->AddLine(ImVec2(p0.x, y), ImVec2(p1.x, y), theme.grid);
         const std::string s = tick_label(v);
         dl->AddText(ImVec2(p0.x - ImGui::CalcTextSize(s.c_str()).x - 6, y - th / 2), theme.muted, s.c_str());
-    }
-
-    // Legend
-    const float lx = origin.x + size.x - 16;
-    const char* legend[] = {"fewer than expected", "more than expected", "expected"};
-    const ImU32 legend_col[] = {theme.fewer, theme.more, theme.expected_mark};
-    float x = lx;
-    for (int i = 2; i >= 0; --i) {
-        x -= ImGui::CalcTextSize(legend[i]).x;
-        dl->AddText(ImVec2(x, origin.y + 8), theme.muted, legend[i]);
-        x -= 16;
-        if (i == 2) dl->AddRectFilled(ImVec2(x, origin.y + 8 + th / 2 - 1), ImVec2(x + 12, origin.y + 8 + th / 2 + 2), legend_col[i]);
-        else dl->AddRectFilled(ImVec2(x, origin.y + 10), ImVec2(x + 12, origin.y + 8 + th - 2), legend_col[i], 2);
-        x -= 14;
     }
 
     const float slot = (p1.x - p0.x) / static_cast<float>(k);

@@ -23,6 +23,7 @@
 #include "bar_chart.hpp"
 #include "density_plot.hpp"
 #include "glossary.hpp"
+#include "keyboard_walk.hpp"
 #include "number_reading.hpp"
 #include "merge_categories.hpp"
 #include "page_bridge.hpp"
@@ -178,10 +179,12 @@ void take_touch(Page& p, const SDL_Event& e) {
 // After the backend's NewFrame: ImGui's mouse is the finger while a touch drives it.
 void apply_touch_to_mouse(Page& p) {
     Touch& t = p.touch;
+    tallyproof::web::note_tap(false, false);
     if (!t.drives_mouse) return;
     ImGuiIO& io = ImGui::GetIO();
     io.MousePos = t.pos;
     io.MouseDown[0] = t.mode == Touch::Mode::pressing || t.tap_frames == 2;
+    tallyproof::web::note_tap(t.tap_frames == 2, t.tap_frames > 0);
     if (t.tap_frames > 0) {
         --t.tap_frames;
         p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
@@ -239,6 +242,16 @@ bool take_events(Page& p) {
             continue;
         }
         if (e.type == SDL_MOUSEMOTION || e.type == SDL_MOUSEBUTTONDOWN) p.touch.drives_mouse = false;  // a real mouse
+        if ((e.type == SDL_KEYDOWN || e.type == SDL_KEYUP) && e.key.keysym.scancode == SDL_SCANCODE_TAB &&
+            !(e.key.keysym.mod & (KMOD_CTRL | KMOD_ALT))) {
+            // Tab walks every control (keyboard_walk), not only ImGui 1.86's text fields.
+            if (e.type == SDL_KEYDOWN) tallyproof::web::queue_tab((e.key.keysym.mod & KMOD_SHIFT) != 0);
+            p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);
+            continue;
+        }
+        if (e.type == SDL_KEYDOWN && (e.key.keysym.scancode == SDL_SCANCODE_RETURN || e.key.keysym.scancode == SDL_SCANCODE_KP_ENTER) &&
+            !(e.key.keysym.mod & (KMOD_CTRL | KMOD_ALT | KMOD_GUI)))
+            tallyproof::web::queue_enter();
         ImGui_ImplSDL2_ProcessEvent(&e);
         if (e.type == SDL_KEYDOWN || e.type == SDL_KEYUP) {
             // The backend reads modifiers from SDL_GetModState(), which already reflects every
@@ -297,11 +310,14 @@ void frame() {
     ImGui_ImplOpenGL3_NewFrame();
     ImGui_ImplSDL2_NewFrame();
     apply_touch_to_mouse(p);
+    tallyproof::web::begin_control_walk();
     ImGui::NewFrame();
     apply_touch_scroll(p);
+    tallyproof::web::apply_tab();
     handle_shortcuts(p);
     tallyproof::web::draw_screen(p.state, p.theme);
     tallyproof::web::publish_text_entry();
+    tallyproof::web::publish_focus();
     ImGui::Render();
     int fw = 0, fh = 0;
     SDL_GL_GetDrawableSize(p.window, &fw, &fh);
@@ -455,6 +471,32 @@ EMSCRIPTEN_KEEPALIVE void tp_storage_changed() {
     tallyproof::web::reload_recent(g_page->state);
     want_frames(*g_page, 3);
 }
+// A key for the canvas that reached another element of the page: Enter, Tab and Escape from the
+// text-entry element, or a key pressed while nothing had focus. `scancode` is SDL's; `mods` bits:
+// 1 Shift, 2 Ctrl, 4 Alt, 8 Meta.
+EMSCRIPTEN_KEEPALIVE void tp_key(int scancode, int down, int mods) {
+    if (!g_page || scancode <= 0 || scancode >= SDL_NUM_SCANCODES) return;
+    SDL_Event e{};
+    e.type = down ? SDL_KEYDOWN : SDL_KEYUP;
+    e.key.state = down ? SDL_PRESSED : SDL_RELEASED;
+    e.key.windowID = SDL_GetWindowID(g_page->window);
+    e.key.keysym.scancode = static_cast<SDL_Scancode>(scancode);
+    e.key.keysym.sym = SDL_GetKeyFromScancode(e.key.keysym.scancode);
+    e.key.keysym.mod = static_cast<Uint16>(((mods & 1) ? KMOD_LSHIFT : 0) | ((mods & 2) ? KMOD_LCTRL : 0) |
+                                           ((mods & 4) ? KMOD_LALT : 0) | ((mods & 8) ? KMOD_LGUI : 0));
+    SDL_PushEvent(&e);
+    want_frames(*g_page, 3);
+}
+// Tab on the canvas: 1 when the focus is on its last control (Shift+Tab: its first), so the
+// browser moves the focus on to the page (the skip link, the form view) instead.
+EMSCRIPTEN_KEEPALIVE int tp_tab_leaves(int backward) {
+    if (!g_page) return 1;
+    const int leaves = tallyproof::web::tab_leaves_canvas(backward != 0) ? 1 : 0;
+    want_frames(*g_page, 3);
+    return leaves;
+}
+// The number of controls a Tab walk passes on the canvas (tests).
+EMSCRIPTEN_KEEPALIVE int tp_control_count() { return tallyproof::web::control_count(); }
 // Cancels running exact or Monte Carlo work (the page's Escape key).
 EMSCRIPTEN_KEEPALIVE void tp_cancel() {
     if (!g_page) return;
@@ -466,6 +508,9 @@ EMSCRIPTEN_KEEPALIVE void tp_cancel() {
 int main() {
     static Page page;
     g_page = &page;
+    // Keys reach the canvas only while it has focus: the page's fields, buttons and the form view
+    // keep their keys, and the browser's own Ctrl/⌘ + V, C, X, A (the shell lets those pass).
+    SDL_SetHint(SDL_HINT_EMSCRIPTEN_KEYBOARD_ELEMENT, "#canvas");
     SDL_SetHint(SDL_HINT_TOUCH_MOUSE_EVENTS, "0");  // touches are read as fingers (take_touch), not as a mouse
     if (SDL_Init(SDL_INIT_VIDEO | SDL_INIT_TIMER) != 0) return 1;
     SDL_GL_SetAttribute(SDL_GL_CONTEXT_PROFILE_MASK, SDL_GL_CONTEXT_PROFILE_ES);

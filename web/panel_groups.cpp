@@ -111,7 +111,9 @@ void draw_groups_table(AppState& s, const Theme& t, ImVec2 size) {
             ImGui::TableNextColumn();
             ImGui::PushID(gi);
             if (g.flagged) ImGui::PushFont(t.strong);
-            if (ImGui::Selectable(g.name.c_str(), false, ImGuiSelectableFlags_SpanAllColumns | ImGuiSelectableFlags_AllowItemOverlap)) open_group(s, gi);
+            // A row is a 44 px tap target on touch screens (the selectable spans the row).
+            const float row_h = t.touch ? 44 - 2 * ImGui::GetStyle().CellPadding.y : 0;
+            if (ImGui::Selectable(g.name.c_str(), false, ImGuiSelectableFlags_SpanAllColumns | ImGuiSelectableFlags_AllowItemOverlap, ImVec2(0, row_h))) open_group(s, gi);
             if (g.flagged) ImGui::PopFont();
             if (r < 3) mark_widget(("group row " + std::to_string(r + 1)).c_str());
             if (ImGui::IsItemHovered()) ImGui::SetTooltip("Open %s's full analysis", g.name.c_str());

@@ -1,6 +1,7 @@
 // Input panels: the counts table (editable, rows added, removed and reordered), the expected
 // mix (model kind, values, parameters given or estimated) and the test settings.
 #include <imgui.h>
+#include <imgui_internal.h>  // TableSetColumnWidth
 #include <imgui_stdlib.h>
 
 #include <algorithm>
@@ -209,13 +210,36 @@ void coloured_text(ImU32 colour, const char* text) {
     ImGui::PopStyleColor();
 }
 
+// The explained item a tap landed on (its name), shown until the next tap; one page, one finger.
+struct TapExplanation {
+    bool tapping = false;
+    std::string pinned;
+};
+TapExplanation g_tap;
+
+void note_tap(bool starts, bool on) {
+    if (starts) g_tap.pinned.clear();
+    g_tap.tapping = on;
+}
+
 void explain_item(const char* name, const std::string& shown) {
     mark_explained(name, shown);
-    if (!ImGui::IsItemHovered()) return;  // a tap leaves the pointer there: the tooltip stays until the next tap
+    const bool hovered = ImGui::IsItemHovered();
+    if (hovered && g_tap.tapping) g_tap.pinned = name;
+    const bool pinned = !hovered && !g_tap.pinned.empty() && g_tap.pinned == name;
+    if (!hovered && !pinned) return;
     const std::string notes = glossary_notes(shown);
     if (notes.empty()) return;
+    if (pinned) {  // under the tapped item (above it near the bottom), kept on screen
+        const ImVec2 screen = ImGui::GetMainViewport()->Size;
+        const float width = std::min(ImGui::GetFontSize() * 26 + 2 * ImGui::GetStyle().WindowPadding.x, screen.x - 8);
+        const ImVec2 lo = ImGui::GetItemRectMin(), hi = ImGui::GetItemRectMax();
+        const float x = std::clamp(lo.x, 4.0f, std::max(4.0f, screen.x - width - 4));
+        const bool above = hi.y > screen.y * 0.6f;
+        ImGui::SetNextWindowPos(ImVec2(x, above ? lo.y - 4 : hi.y + 4), ImGuiCond_Always, ImVec2(0, above ? 1.0f : 0.0f));
+    }
     ImGui::BeginTooltip();
-    ImGui::PushTextWrapPos(ImGui::GetFontSize() * 26);
+    ImGui::PushTextWrapPos(std::min(ImGui::GetFontSize() * 26, ImGui::GetMainViewport()->Size.x - 8 - 2 * ImGui::GetStyle().WindowPadding.x));
     ImGui::TextUnformatted(notes.c_str());
     ImGui::PopTextWrapPos();
     ImGui::EndTooltip();
@@ -288,14 +312,36 @@ void draw_counts_panel(AppState& s, const Theme& t) {
     const float height = std::max(row_h * 3, std::min(want, std::max(avail, row_h * 3)));
     // On a phone the share column gives its room to the fields (the shares are in the write-up).
     const bool share_column = !t.touch || ImGui::GetContentRegionAvail().x >= 560;
-    if (ImGui::BeginTable("counts", share_column ? 5 : 4, flags, ImVec2(0, height))) {
-        ImGui::TableSetupScrollFreeze(0, 1);
-        ImGui::TableSetupColumn("Category", ImGuiTableColumnFlags_WidthStretch, 2.0f);
-        ImGui::TableSetupColumn("Observed", ImGuiTableColumnFlags_WidthStretch, 1.3f);
-        ImGui::TableSetupColumn("Expected", ImGuiTableColumnFlags_WidthStretch, 1.0f);
-        if (share_column) ImGui::TableSetupColumn("Share", ImGuiTableColumnFlags_WidthStretch, 0.9f);
-        const float arrows_w = t.touch ? 3 * ImGui::GetFrameHeight() + 6 : ImGui::CalcTextSize("↑↓×").x + 6 * ImGui::GetStyle().FramePadding.x + 6;
+    // Each column as wide as its longest text (a label up to 16 em); where they do not all fit (a
+    // phone), the table scrolls sideways with the category column frozen, so no label, count or
+    // head is cut.
+    const float arrows_w = t.touch ? 3 * ImGui::GetFrameHeight() + 6 : ImGui::CalcTextSize("↑↓×").x + 6 * ImGui::GetStyle().FramePadding.x + 6;
+    const float field_pad = 2 * ImGui::GetStyle().FramePadding.x + 6, cell_pad = 2 * ImGui::GetStyle().CellPadding.x + 2;
+    float label_w = ImGui::CalcTextSize("Category").x, count_w = ImGui::CalcTextSize("Observed").x,
+          expected_w = ImGui::CalcTextSize("Expected").x, share_w = ImGui::CalcTextSize("Share").x;
+    for (int i = 0; i < std::min(k, 2000); ++i) {
+        label_w = std::max(label_w, std::min(ImGui::CalcTextSize(s.analysis.categories[i].c_str()).x + field_pad, 16 * ImGui::GetFontSize()));
+        count_w = std::max(count_w, ImGui::CalcTextSize(format_count(s.analysis.observed[i]).c_str()).x + field_pad);
+        if (i < static_cast<int>(r.expected_counts.size()))
+            expected_w = std::max(expected_w, ImGui::CalcTextSize(format_fixed(r.expected_counts[i], 2).c_str()).x);
+    }
+    share_w = std::max(share_w, ImGui::CalcTextSize("0.000").x);
+    const float needed_w = label_w + count_w + expected_w + (share_column ? share_w : 0) + arrows_w + (share_column ? 5 : 4) * cell_pad;
+    const bool sideways = needed_w > ImGui::GetContentRegionAvail().x;
+    const ImGuiTableFlags layout = sideways ? ImGuiTableFlags_ScrollX | ImGuiTableFlags_SizingFixedFit : 0;
+    if (ImGui::BeginTable("counts", share_column ? 5 : 4, (flags & ~ImGuiTableFlags_SizingStretchProp) | layout |
+                                                              (sideways ? 0 : ImGuiTableFlags_SizingStretchProp), ImVec2(0, height))) {
+        ImGui::TableSetupScrollFreeze(sideways ? 1 : 0, 1);
+        const ImGuiTableColumnFlags fixed = ImGuiTableColumnFlags_WidthFixed, stretch = ImGuiTableColumnFlags_WidthStretch;
+        ImGui::TableSetupColumn("Category", sideways ? fixed : stretch, sideways ? label_w : 2.0f);
+        ImGui::TableSetupColumn("Observed", sideways ? fixed : stretch, sideways ? count_w : 1.3f);
+        ImGui::TableSetupColumn("Expected", sideways ? fixed : stretch, sideways ? expected_w : 1.0f);
+        if (share_column) ImGui::TableSetupColumn("Share", sideways ? fixed : stretch, sideways ? share_w : 0.9f);
         ImGui::TableSetupColumn("", ImGuiTableColumnFlags_WidthFixed, arrows_w);
+        if (sideways) {  // the widths follow the data (set each frame; a fixed column's width is otherwise kept from its first frame)
+            const float widths[] = {label_w, count_w, expected_w, share_w};
+            for (int c = 0; c < (share_column ? 4 : 3); ++c) ImGui::TableSetColumnWidth(c, widths[c]);
+        }
         ImGui::TableHeadersRow();
         ImGuiListClipper clipper;
         clipper.Begin(k, row_h);

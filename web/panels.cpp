@@ -95,7 +95,7 @@ void draw_title(AppState& s, const Theme& t) {
                 }
                 label += "…";
             }
-            if (ImGui::SmallButton("Remove")) { remove_recent(s, i); ImGui::PopID(); break; }
+            if (compact_button("Remove", t)) { remove_recent(s, i); ImGui::PopID(); break; }  // 44 px on touch screens
             mark_widget(("recent-remove-" + std::to_string(i)).c_str());
             ImGui::SameLine();
             if (ImGui::Selectable(label.c_str())) open_recent(s, i);

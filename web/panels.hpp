@@ -35,6 +35,9 @@ void coloured_text(ImU32 colour, const char* text);           // wrapped_text in
 // The last item's abbreviations and symbols (glossary terms in `shown`) explained in a tooltip on
 // hover or tap; the item is marked `name` (mark_explained) so tests can find it.
 void explain_item(const char* name, const std::string& shown);
+// main, each frame: a tap is pressed (`starts`) or released (`on`) this frame. The explained item a
+// tap lands on keeps its explanation shown until the next tap (a finger leaves no hover behind).
+void note_tap(bool starts, bool on);
 void explained_text(const char* name, const std::string& text);  // wrapped_text + explain_item
 bool compact_button(const char* label, const Theme& theme);   // SmallButton; a 44 px target on touch screens
 void begin_menu_items(const Theme& theme);                    // popup and combo items 44 px apart on touch screens...

@@ -5,6 +5,8 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { decodePng, distinctColours } from './png.mjs';
+// Data goes in through input.mjs only (trusted keys, clipboard, file picker, taps).
+export { pasteText, focusCanvas, typeInto, chooseFile, tapWidget, openFormView, closeFormView } from './input.mjs';
 
 const here = dirname(fileURLToPath(import.meta.url));
 export const pageUrl = pathToFileURL(resolve(here, '../../dist/tallyproof.html')).href;
@@ -25,8 +27,10 @@ export async function withPage(options, body) {
       deviceScaleFactor: options.deviceScaleFactor || 1,
       hasTouch: !!options.hasTouch,
       isMobile: !!options.isMobile,
-      permissions: options.permissions || [],
+      // The clipboard is granted unless a test says otherwise: pastes are Ctrl+V (input.mjs).
+      permissions: options.permissions || ['clipboard-read', 'clipboard-write'],
       acceptDownloads: true,
+      ...(options.userAgent ? { userAgent: options.userAgent } : {}),
       serviceWorkers: options.allowOrigin ? 'allow' : 'block',
     });
     const allowed = (url) => url.startsWith('file:') || url.startsWith('data:') || url.startsWith('blob:') ||
@@ -53,16 +57,6 @@ export async function withPage(options, body) {
   } finally {
     await browser.close();
   }
-}
-
-// Dispatches a real paste event carrying `text` as text/plain, as the browser does on Ctrl+V.
-export async function pasteText(page, text) {
-  await page.evaluate((t) => {
-    const data = new DataTransfer();
-    data.setData('text/plain', t);
-    const ev = new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true });
-    document.activeElement.dispatchEvent(ev);
-  }, text);
 }
 
 export async function resultsText(page) {

@@ -3,7 +3,7 @@
 // member; and a comparison with a previous sample. Reference values from SciPy 1.10:
 // ncx2.cdf(0.72941, 2, 10.2) = 0.0040613 for counts 330, 352, 338 against equal shares, w0 = 0.1;
 // chi2_contingency([[150,420,190,40],[140,390,230,40]], correction=False) -> 5.2655, p = 0.15336.
-import { assert, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+import { assert, clickWidget, lastResult, openFormView, pasteText, typeInto, resultsText, screenshot, withPage } from './harness.mjs';
 
 const conformDoc = JSON.stringify({
   format: 'tallyproof/1', categories: ['A', 'B', 'C'], observed: [330, 352, 338],
@@ -124,7 +124,7 @@ export const tests = {
     await withPage({}, async (page) => {
       await pasteText(page, 'A\t330\nB\t352\nC\t338\n');
       await waitFor(page, 'No evidence against');
-      await page.evaluate(() => globalThis.tallyproofPage.showForm(true));
+      await openFormView(page);
       const goal = page.getByRole('combobox', { name: 'Goal of the test' });
       await goal.selectOption('conform');
       await waitFor(page, 'conform to the stated mix within w < 0.10');
@@ -132,8 +132,7 @@ export const tests = {
       assert(Math.abs(r.conformity.p_value - 0.004061303243092804) < 1e-9, `p ${r.conformity.p_value}`);  // SciPy ncx2.cdf(0.72941, 2, 10.2)
       const margin = page.getByRole('textbox', { name: /Conformity margin w0/ });
       assert(await margin.inputValue() === '0.1', `margin ${await margin.inputValue()}`);
-      await margin.fill('1.5');
-      await margin.press('Tab');
+      await typeInto(page, margin, '1.5', { then: 'Tab' });
       await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'error', null, { timeout: 5000 });
       assert((await page.getByRole('status').textContent()).includes('must lie in (0, 1]'), await page.getByRole('status').textContent());
       await goal.selectOption('departure');

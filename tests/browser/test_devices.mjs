@@ -7,7 +7,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve, dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { assert, clickWidget, lastResult, pasteText, screenshot, withPage } from './harness.mjs';
+import { assert, openFormView, closeFormView, clickWidget, lastResult, pasteText, typeInto, screenshot, withPage } from './harness.mjs';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const phone = { viewport: { width: 390, height: 844 }, deviceScaleFactor: 2, hasTouch: true, isMobile: true };
@@ -121,34 +121,30 @@ export const tests = {
       const status = page.getByRole('status');
       // Invented grading counts against a stated 20/50/25/5 mix. Reference: SciPy 1.10,
       // scipy.stats.chisquare([61,214,103,22], [80,200,100,20]) -> statistic 5.7825, p 0.12269.
-      await page.getByRole('textbox', { name: /counts/i }).fill('Premium\t61\nStandard\t214\nSecond\t103\nReject\t22');
+      await typeInto(page, page.getByRole('textbox', { name: /counts/i }), 'Premium\t61\nStandard\t214\nSecond\t103\nReject\t22');
       await page.getByRole('button', { name: 'Read the counts' }).click();
       await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[0] === 'Premium', null, { timeout: 5000 });
       await page.getByRole('combobox', { name: /expected mix/i }).selectOption('shares');
       const values = page.getByRole('textbox', { name: /expected mix/i });
-      await values.fill('20, 50, 25, 5');
-      await values.press('Tab');
+      await typeInto(page, values, '20, 50, 25, 5', { then: 'Tab' });
       await page.waitForFunction(() => document.getElementById('tp-results').textContent.includes('5.78'), null, { timeout: 5000 });
       const text = await status.textContent();
       assert(text.includes('χ² = 5.78'), `live region: ${text.slice(0, 200)}`);
       // A refused value is announced, and the analysis stays.
-      await values.fill('20, 50, 30');
-      await values.press('Tab');
+      await typeInto(page, values, '20, 50, 30', { then: 'Enter' });
       await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'error', null, { timeout: 5000 });
       const refusal = await status.textContent();
       assert(refusal.startsWith('Not used:') && refusal.includes('3 values for 4 categories'), `refusal: ${refusal}`);
-      await values.fill('20, 50, 25, 5');
-      await values.press('Tab');
+      await typeInto(page, values, '20, 50, 25, 5', { then: 'Tab' });
       // Counts go through the paste parser and its refusals.
       const counts = page.getByRole('textbox', { name: /counts/i });
-      await counts.fill('Premium\t61\nStandard\t2l4');
+      await typeInto(page, counts, 'Premium\t61\nStandard\t2l4');
       await page.getByRole('button', { name: 'Read the counts' }).click();
       await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'error', null, { timeout: 5000 });
       assert((await status.textContent()).includes('"2l4"'), `counts refusal: ${await status.textContent()}`);
       assert((await lastResult(page)).observed.join(',') === '61,214,103,22', 'the refused counts left the analysis as it was');
       const alpha = page.getByRole('textbox', { name: /α/ });
-      await alpha.fill('0.1');
-      await alpha.press('Tab');
+      await typeInto(page, alpha, '0.1', { then: 'Enter' });
       await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastDocument).alpha === 0.1, null, { timeout: 5000 });
       await page.getByRole('combobox', { name: /p-value method/i }).selectOption('exact');
       await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).method === 'exact', null, { timeout: 20000 });
@@ -156,8 +152,7 @@ export const tests = {
       await page.getByRole('combobox', { name: /merge rule/i }).selectOption('cochran');
       await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastDocument).merge.rule === 'cochran', null, { timeout: 5000 });
       await page.getByRole('combobox', { name: /merge rule/i }).selectOption('none');
-      await alpha.fill('0.05');
-      await alpha.press('Tab');
+      await typeInto(page, alpha, '0.05', { then: 'Tab' });
       await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastDocument).alpha === 0.05, null, { timeout: 5000 });
       await page.getByRole('button', { name: 'Copy the write-up' }).click();
       await page.waitForFunction(() => globalThis.tallyproofPage.lastCopy !== null, null, { timeout: 5000 });
@@ -172,7 +167,9 @@ export const tests = {
       const doc = JSON.parse(readFileSync(await (await download).path(), 'utf8'));
       assert(doc.model.kind === 'shares' && doc.observed.join(',') === '61,214,103,22', JSON.stringify(doc).slice(0, 200));
       await screenshot(page, 'devices-form-view');
-      await page.getByRole('button', { name: 'Back to the canvas view' }).click();
+      await page.getByRole('button', { name: 'Back to the canvas view' }).focus();
+      await page.keyboard.press('Enter');
+      await page.waitForFunction(() => !document.body.classList.contains('tp-form-view'), null, { timeout: 5000 });
     });
   },
 
@@ -191,7 +188,7 @@ export const tests = {
       const accept = await page.evaluate(() => document.getElementById('tp-file').accept);
       for (const ext of ['.csv', '.tsv', '.txt', '.json']) assert(accept.includes(ext), `picker accepts ${ext}: ${accept}`);
       // The form's button opens the same picker.
-      await page.evaluate(() => globalThis.tallyproofPage.showForm(true));
+      await openFormView(page);
       chooser = page.waitForEvent('filechooser', { timeout: 5000 });
       await page.getByRole('button', { name: 'Open a file' }).click();
       fc = await chooser;
@@ -211,7 +208,7 @@ export const tests = {
       const box = page.getByRole('dialog');
       await box.waitFor({ state: 'visible', timeout: 5000 });
       await screenshot(page, 'devices-paste-box');
-      await page.getByRole('textbox', { name: 'Counts to read' }).fill('Left\t12\nRight\t30\n');
+      await page.keyboard.insertText('Left\t12\nRight\t30\n');  // the box has the focus
       await page.getByRole('button', { name: 'Read this text' }).click();
       await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[1] === 'Right', null, { timeout: 5000 });
       assert(await box.isHidden(), 'the box closes after reading');

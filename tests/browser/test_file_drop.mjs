@@ -1,15 +1,13 @@
 // Files dropped on the page reach the core's text decoder as bytes (issue 17): a PNG (made by
 // Chromium's own screenshot encoder) and a workbook are refused saying what they are while the
 // previous analysis stays; UTF-16 text (encoded by Node's Buffer, an outside encoder) reads as
-// the same counts as the UTF-8 paste. Drops go through a real `drop` event with a DataTransfer.
-import { assert, lastResult, pasteText, screenshot, withPage } from './harness.mjs';
+// the same counts as the UTF-8 paste. Files go in through the page's file picker (setInputFiles), which shares openLocalFile with a drop.
+import { assert, chooseFile, lastResult, pasteText, screenshot, withPage } from './harness.mjs';
 
+// A file chosen in the page's file picker: the same openLocalFile path a dropped file takes (a
+// drag from the desktop cannot be made with trusted input in the browser under test).
 async function dropFile(page, bytes, name) {
-  await page.evaluate(({ data, n }) => {
-    const dt = new DataTransfer();
-    dt.items.add(new File([new Uint8Array(data)], n));
-    window.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));
-  }, { data: Array.from(bytes), n: name });
+  await chooseFile(page, name, bytes, 'application/octet-stream');
 }
 
 async function knownAnalysis(page) {

@@ -2,7 +2,7 @@
 // the glossary (Greek letters, superscripts, short capitals, single letters, "df", "Fei"), so a
 // new symbol shown without an explanation fails here. Checks of wording: no outside reference
 // needed (common practice); the statistics themselves are checked against SciPy elsewhere.
-import { assert, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+import { assert, openFormView, closeFormView, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
 
 function abbreviations(text) {
   const out = new Set();
@@ -105,7 +105,7 @@ export const tests = {
       assert(text.includes('20,000 replicates') && !/B = /.test(text), `replicates in words: ${text}`);
 
       // The form view: every abbreviation in its visible text has its meaning in the list under it.
-      await page.evaluate(() => globalThis.tallyproofPage.showForm(true));
+      await openFormView(page);
       const terms = await page.getByRole('term').allTextContents();
       const definitions = await page.getByRole('definition').allTextContents();
       assert(terms.length >= 5 && definitions.length === terms.length, `glossary list: ${terms.length} terms, ${definitions.length} meanings`);
@@ -140,11 +140,11 @@ export const tests = {
       // Other counts totalling 100 are asked about again, and the form view answers with its own button.
       await pasteText(page, 'A\t45\nB\t55\n');
       await page.waitForFunction(() => document.getElementById('tp-results').textContent.includes('are they counts of items'), null, { timeout: 10000 });
-      await page.evaluate(() => globalThis.tallyproofPage.showForm(true));
+      await openFormView(page);
       await page.getByRole('button', { name: 'They are counts' }).click();
       await page.waitForFunction(() => !document.getElementById('tp-results').textContent.includes('Check:'), null, { timeout: 5000 });
       assert(await page.getByRole('button', { name: 'They are counts' }).count() === 0, 'the form hides the answered question\'s button');
-      await page.evaluate(() => globalThis.tallyproofPage.showForm(false));
+      await closeFormView(page);
       await pasteText(page, 'A\t25.5\nB\t74.5\n');
       await page.waitForFunction(() => (globalThis.tallyproofPage.lastRefusal || '').includes('percentages'), null, { timeout: 5000 });
       // Print: the footnote explains the symbols of the printed report.

@@ -2,7 +2,7 @@
 // through the app (canvas and form view alike), a flagged group opens as its full analysis with
 // the screen kept, and the funnel chart names a group under the pointer. Reference: SciPy 1.10,
 // scipy.stats.chisquare on the flagged group's own counts, computed in the test data's comment.
-import { assert, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+import { assert, openFormView, closeFormView, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
 
 // Twelve invented meter readers, last digits 0-9. "Dev" prefers 0 and 5 strongly; the rest are
 // close to uniform. SciPy: chisquare([38,12,10,8,11,38,9,12,10,8]) -> statistic 81.56410256410255 for Dev.
@@ -106,7 +106,7 @@ export const tests = {
     await withPage({}, async (page) => {
       await pasteText(page, longTable());
       await page.waitForFunction(() => document.getElementById('tp-results').textContent.includes('of 12 groups depart'), null, { timeout: 15000 });
-      await page.evaluate(() => globalThis.tallyproofPage.showForm(true));
+      await openFormView(page);
       const rows = page.getByRole('table', { name: /One test per group/ }).getByRole('row');
       assert(await rows.count() === 13, `a head row and 12 groups: ${await rows.count()}`);
       await page.getByRole('button', { name: /^Sort by Group/ }).click();

@@ -1,5 +1,5 @@
 // The thin slice end to end: paste TSV counts, read the results region, look at the canvas.
-import { assert, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+import { assert, chooseFile, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
 
 export const tests = {
   async 'paste of label<TAB>count lines gives the Pearson result'() {
@@ -83,12 +83,7 @@ export const tests = {
     await withPage({}, async (page) => {
       // Invented: a semicolon-separated export from a decimal-comma locale, with a header row.
       const text = 'Klasse;Anzahl;Anteil\r\nA;120;40,0 %\r\nB;95;35,0 %\r\nC;85;25,0 %\r\n';
-      await page.evaluate((t) => {
-        const data = new DataTransfer();
-        data.items.add(new File([t], 'zaehlung.csv', { type: 'text/csv' }));
-        window.dispatchEvent(new DragEvent('dragover', { dataTransfer: data, bubbles: true, cancelable: true }));
-        window.dispatchEvent(new DragEvent('drop', { dataTransfer: data, bubbles: true, cancelable: true }));
-      }, text);
+      await chooseFile(page, 'zaehlung.csv', text, 'text/csv');  // the picker; a drop takes the same openLocalFile
       await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[0] === 'A');
       const r = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastResult));
       assert(r.observed.join(',') === '120,95,85', `observed ${r.observed}`);

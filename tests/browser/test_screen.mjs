@@ -71,9 +71,9 @@ export const tests = {
       assert(r.exact && r.exact.p_value > 0 && r.exact.p_value <= 1, `exact ${JSON.stringify(r.exact)}`);
       await notBlank(page, 'screen-thin-03-exact');
       // A long Monte Carlo run shows progress and can be cancelled (Escape).
-      await page.evaluate(() => globalThis.tallyproofPage.paste(JSON.stringify({
+      await pasteText(page, JSON.stringify({
         categories: ['0', '1', '2', '3', '4', '5'], observed: [21, 15, 6, 2, 1, 1],
-        pvalue: { method: 'monte-carlo', replicates: 100000000, seed: 7 } })));
+        pvalue: { method: 'monte-carlo', replicates: 100000000, seed: 7 } }));
       await page.waitForFunction(() => document.getElementById('tp-progress').dataset.running === '1', null, { timeout: 10000 });
       await page.waitForTimeout(300);
       await notBlank(page, 'screen-thin-04-progress');
@@ -92,7 +92,7 @@ export const tests = {
   async 'Monte Carlo p-value is reproducible from its seed'() {
     await withPage({}, async (page) => {
       const doc = { categories: ['A', 'B', 'C', 'D'], observed: [12, 5, 9, 2], pvalue: { method: 'monte-carlo', replicates: 20000, seed: 42 } };
-      await page.evaluate((d) => globalThis.tallyproofPage.paste(JSON.stringify(d)), doc);
+      await pasteText(page, JSON.stringify(doc));
       await page.waitForFunction(() => { const r = JSON.parse(globalThis.tallyproofPage.lastResult); return r.monte_carlo && r.monte_carlo.p_value; }, null, { timeout: 20000 });
       const r = await lastResult(page);
       assert(r.monte_carlo.replicates === 20000 && r.monte_carlo.seed === 42, JSON.stringify(r.monte_carlo));
@@ -106,7 +106,7 @@ export const tests = {
       assert(native.monte_carlo.hits === r.monte_carlo.hits, `browser b = ${r.monte_carlo.hits}, native b = ${native.monte_carlo.hits}`);
       // A total above 4096 takes the sampler's split-binomial path: the same hits here too.
       const big = { categories: ['A', 'B', 'C', 'D'], observed: [2100, 1900, 2050, 1950], pvalue: { method: 'monte-carlo', replicates: 5000, seed: 9 } };
-      await page.evaluate((d) => globalThis.tallyproofPage.paste(JSON.stringify(d)), big);
+      await pasteText(page, JSON.stringify(big));
       await page.waitForFunction(() => { const x = JSON.parse(globalThis.tallyproofPage.lastResult); return x.monte_carlo && x.monte_carlo.p_value && x.monte_carlo.seed === 9; }, null, { timeout: 20000 });
       const rb = await lastResult(page);
       const nb = JSON.parse(execFileSync(new URL('../../build/native/shell/tallyproof', import.meta.url).pathname, ['--json', '-'],

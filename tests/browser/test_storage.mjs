@@ -27,7 +27,8 @@ async function recentTitles(page) {
 export const tests = {
   async 'titles describe the data: an example keeps its name only while unchanged; an edit and a restore are titled from the data'() {
     await withPage({}, async (page) => {
-      await page.evaluate(() => globalThis.tallyproofPage.loadDemo(0));
+      await clickWidget(page, 'Examples');
+      await clickWidget(page, 'Fruit grading against the contract mix');
       await page.waitForFunction(`(${firstRecentTitle}).startsWith('Example: ')`, null, { timeout: 10000 });
       const demo = await lastResult(page);
       let titles = await recentTitles(page);
