@@ -122,10 +122,19 @@ void show_groups_place(const AppState& s) {
 
 namespace {
 
+constexpr std::size_t kSpokenRows = 2000;
+
 void publish_screen(AppState& s) {
     GroupsView& v = s.groups;
     v.report = v.result.status.ok ? screen_report_text(v.result) : "Not screened: " + v.result.status.message + "\n";
-    publish_result(v.report, screen_json(v.base, v.counts, v.result), screen_document(s));
+    // The live region reads out the screen; above kSpokenRows groups its table of every group would
+    // cost the page seconds of layout for text no one listens through: the write-up (summary,
+    // flagged groups with their drivers, cautions) then, and the whole table by Copy or Download.
+    std::string spoken = v.report;
+    if (v.result.status.ok && v.result.groups.size() > kSpokenRows)
+        spoken = screen_writeup(v.result) + "The table of all " + format_grouped(static_cast<std::uint64_t>(v.result.groups.size())) +
+                 " groups: Copy table (TSV) or Download table (CSV).\n";
+    publish_result(spoken, screen_json(v.base, v.counts, v.result), screen_document(s));
 }
 
 // Opens the screen on `counts` (already read), testing with the analysis on screen's settings.
