@@ -121,6 +121,7 @@ bool shows_unchanged_demo(const AppState& s) {
 // A title from the data: the first categories, N and the expected mix; an example's name only
 // while its data are on screen unchanged.
 std::string saved_title(const AppState& s) {
+    if (s.groups.open) return screen_title(s);
     const auto& c = s.analysis.categories;
     std::string cats;
     for (std::size_t i = 0; i < c.size() && i < 3; ++i) cats += (i ? ", " : "") + (c[i].empty() ? std::string("(no label)") : c[i]);
@@ -226,13 +227,21 @@ void remember(AppState& s, const std::string& document) {
 
 void publish(AppState& s) {
     s.report = report_text(s.analysis, s.result);
-    const std::string document = write_analysis_document(s.analysis);
-    // While the Groups view shows the screen, the live region carries the screen's report (recompute_groups).
-    if (!(s.groups.open && s.groups.opened < 0)) publish_result(s.report, report_json(s.analysis, s.result), document);
+    // While the Groups view shows the screen, the live region carries the screen's report and the
+    // screen is kept once its groups are tested (recompute_groups); an opened group keeps the screen.
+    if (s.groups.open && s.groups.opened < 0) return;
+    const std::string document = analysis_document(s);
+    publish_result(s.report, report_json(s.analysis, s.result), document);
     remember(s, document);
 }
 
 }  // namespace
+
+std::string analysis_document(const AppState& s) {
+    return s.groups.open ? screen_document(s) : write_analysis_document(s.analysis);
+}
+
+void keep_analysis(AppState& s) { remember(s, analysis_document(s)); }
 
 bool recompute(AppState& s) {
     if (s.job_running) cancel_job(s);
@@ -267,7 +276,10 @@ bool recompute(AppState& s) {
     return true;
 }
 
+bool work_running(const AppState& s) { return s.job_running || s.groups.screening; }
+
 void step_job(AppState& s, double budget_ms) {
+    if (s.groups.screening && !s.job_running) return step_screen(s, budget_ms);
     if (!s.job_running) return;
     const double start = emscripten_get_now(), until = start + budget_ms;
     // Small first slice, then slices sized from the measured rate to fill what is left of the
@@ -291,6 +303,7 @@ void step_job(AppState& s, double budget_ms) {
 }
 
 void cancel_job(AppState& s) {
+    if (s.groups.screening && !s.job_running) return cancel_screen(s);
     if (!s.job_running) return;
     cancel_pvalue_job(&s.job);
     s.job_running = false;
@@ -299,7 +312,9 @@ void cancel_job(AppState& s) {
     set_progress(job_fraction(s), false);
 }
 
-double job_fraction(const AppState& s) { return s.job.progress.fraction; }
+double job_fraction(const AppState& s) {
+    return s.groups.screening && !s.job_running ? s.groups.job.progress.fraction : s.job.progress.fraction;
+}
 
 void load_demo(AppState& s, int index) {
     if (index < 0 || index >= kDemoScenarioCount) return;
@@ -389,13 +404,27 @@ void dismiss_question(AppState& s, int index) {
     publish(s);  // the report and the form lose the question too
 }
 
+namespace {
+bool open_screen_document(AppState& s, const Analysis& settings, const GroupedCounts& counts, const ScreenChoice& choice,
+                          const ScreenView& view);
+}  // namespace
+
 bool open_document(AppState& s, std::string_view json) {
     Analysis a;
-    const Status st = read_analysis_document(json, &a);
+    Status st = read_analysis_document(json, &a);
+    GroupedCounts counts;
+    ScreenChoice choice;
+    ScreenView view;
+    bool is_screen = false;
+    if (st.ok) st = read_screen_document(json, &counts, &choice, &view, &is_screen);
+    if (st.ok && is_screen && counts.groups.size() < 2)
+        st = Status::failure("The document's \"groups\" hold " + std::to_string(counts.groups.size()) +
+                             " group; a screen needs at least two (leave \"groups\" out and give \"observed\" for one sample).");
     if (!st.ok) {
         record_refusal(s, json, st);
         return false;
     }
+    if (is_screen) return open_screen_document(s, a, counts, choice, view);
     const Analysis previous = s.analysis;
     const std::string previous_id = s.analysis_id;
     s.analysis = a;
@@ -421,6 +450,40 @@ bool open_document(AppState& s, std::string_view json) {
 
 namespace {
 void read_paste(AppState& s, std::string_view text, const ParseOptions& options);
+
+// A screen document (groups, settings, view): the Groups view as it was left, the opened group
+// with its way back. The settings are the base every group is tested with.
+bool open_screen_document(AppState& s, const Analysis& settings, const GroupedCounts& counts, const ScreenChoice& choice,
+                          const ScreenView& view) {
+    const Analysis previous = s.analysis;
+    GroupsView previous_groups = std::move(s.groups);
+    s.groups = GroupsView{};
+    s.analysis = settings;
+    s.analysis.categories = counts.categories;
+    s.analysis_id = new_analysis_id();
+    s.demo_index = -1;
+    s.input_error.clear();
+    if (!open_groups_document(s, counts, choice) || !s.input_error.empty() ||
+        (!s.groups.screening && (!s.groups.result.status.ok || s.groups.result.groups.empty()))) {
+        const Status why = Status::failure(!s.input_error.empty() ? s.input_error
+                                           : !s.groups.result.status.ok ? s.groups.result.status.message
+                                           : "The document's groups could not be screened.");
+        s.input_error.clear();
+        s.analysis = previous;
+        s.groups = std::move(previous_groups);
+        recompute(s);
+        record_refusal(s, {}, why);
+        return false;
+    }
+    clear_refusal(s);
+    s.merge_undo.clear();
+    s.pasted_text.clear();
+    s.pasted_shape = -1;
+    s.pasted_bins = BinChoice{};
+    apply_screen_view(s, view);
+    s.source_name = "opened document";
+    return true;
+}
 
 // The number of bins the user typed: a whole number from 2 to kMaxBinsOnPage.
 bool typed_bin_count(const std::string& text, int* k, std::string* error) {
@@ -608,7 +671,9 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
             return;
         }
         s.groups = std::move(previous_groups);  // ...a refused one leaves it as it was
-        record_refusal(s, text, problem);
+        // A table of groups refused for what its groups are (one group, an empty or missing group
+        // cell): core's message, as the command-line tool gives it, not the one-sample reading's.
+        record_refusal(s, text, probe.group_problem ? probe.status : problem);
         return;
     }
     // The same text may also read as groups (a wide table of two categories): offered, not chosen.
@@ -915,6 +980,19 @@ void reload_recent(AppState& s) {
 }
 
 void copy_share_link(AppState& s) {
+    if (s.groups.open) {
+        const std::string link = encode_share_fragment(screen_document(s));
+        if (link.empty()) {  // beyond kShareMaxFragmentChars (65,536 characters: about 3,100 groups)
+            set_notice(s, "This screen of " + format_count(static_cast<double>(s.groups.counts.groups.size())) +
+                              " groups is too long for a share link (a link holds up to 65,536 characters, about 3,100 groups); "
+                              "download the analysis file (JSON) instead: it keeps the whole screen.");
+            return;
+        }
+        copy_text(page_address() + "#" + link);
+        set_notice(s, "Share link copied: it carries the whole screen (every group, its settings, the order and the opened "
+                      "group) in the link itself; nothing is sent to any server.");
+        return;
+    }
     const std::string fragment = encode_share_fragment(write_analysis_document(s.analysis));
     if (fragment.empty() || fragment.size() > 8000) {
         set_notice(s, "This analysis is too large for a share link; download the analysis file (JSON) instead.");
@@ -925,7 +1003,7 @@ void copy_share_link(AppState& s) {
 }
 
 void download_document(AppState& s) {
-    download_text("tallyproof-analysis.json", "application/json", write_analysis_document(s.analysis));
+    download_text("tallyproof-analysis.json", "application/json", analysis_document(s));
     set_notice(s, "Analysis file downloaded.");
 }
 

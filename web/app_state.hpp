@@ -119,7 +119,9 @@ struct AppState {
 };
 
 void load_demo(AppState& s, int index);                      // one of kDemoScenarios
-bool open_document(AppState& s, std::string_view json);      // an analysis document; false if refused
+bool open_document(AppState& s, std::string_view json);      // an analysis document (a screen's too); false if refused
+std::string analysis_document(const AppState& s);            // what is kept and shared: the screen while it is open
+void keep_analysis(AppState& s);                             // autosave now (a change that recomputes nothing)
 void apply_paste(AppState& s, std::string_view text);        // counts, or a document; keeps the old data if refused
 // The bytes of a paste or of a dropped or opened file (`file_name`, empty for a paste): decoded
 // by core's text_decoding (UTF-8, UTF-16, Windows-1252), then read as apply_paste; a file that is
@@ -162,7 +164,8 @@ void set_test_goal(AppState& s, bool show_conformity, double margin_w);
 void set_conformity_margin_text(AppState& s, const std::string& text);
 void sync_editor_from_model(AppState& s);                    // the model editor shows s.analysis.model
 bool recompute(AppState& s);                                 // false: input_error set, old result kept
-void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work
+bool work_running(const AppState& s);                        // exact / Monte Carlo work, or a screen being tested
+void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work (else of the screen)
 void cancel_job(AppState& s);
 double job_fraction(const AppState& s);
 

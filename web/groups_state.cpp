@@ -2,6 +2,8 @@
 // table's order, and opening one group as a single analysis with the screen kept behind it.
 #include "groups_state.hpp"
 
+#include <emscripten.h>
+
 #include <algorithm>
 #include <cmath>
 
@@ -60,7 +62,46 @@ void order_rows(GroupsView& v) {
     });
 }
 
+const char* const kColumnNames[] = {"name", "n", "statistic", "df", "p", "q", "w", "flag"};  // GroupColumn's order
+
 }  // namespace
+
+std::string screen_document(const AppState& s) {
+    const GroupsView& v = s.groups;
+    ScreenView view;
+    view.sort = kColumnNames[static_cast<int>(v.sort)];
+    view.ascending = v.ascending;
+    if (v.opened >= 0 && static_cast<std::size_t>(v.opened) < v.counts.groups.size())
+        view.opened = v.counts.groups[static_cast<std::size_t>(v.opened)];
+    // The analysis on the page carries the settings (changed while a group is open, they apply to
+    // every group on the way back); the groups carry the counts.
+    return write_screen_document(s.analysis, v.counts, v.choice, view);
+}
+
+std::string screen_title(const AppState& s) {
+    const GroupsView& v = s.groups;
+    std::string t = format_count(static_cast<double>(v.counts.groups.size())) + " groups";
+    if (!v.result.model_description.empty()) t += " · " + v.result.model_description;
+    if (v.result.status.ok) t += " · " + format_count(static_cast<double>(v.result.flagged)) + " flagged";
+    if (v.opened >= 0 && static_cast<std::size_t>(v.opened) < v.counts.groups.size())
+        t += " · group " + v.counts.groups[static_cast<std::size_t>(v.opened)] + " open";
+    return t;
+}
+
+void apply_screen_view(AppState& s, const ScreenView& view) {
+    GroupsView& v = s.groups;
+    if (!v.open) return;
+    bool ascending = view.ascending;
+    GroupColumn column = GroupColumn::q;
+    bool known = false;
+    for (int i = 0; i < 8; ++i)
+        if (view.sort == kColumnNames[i]) { column = static_cast<GroupColumn>(i); known = true; }
+    if (!known) ascending = true;  // input order: q ascending is the table's own first order
+    sort_groups(s, column, ascending);
+    if (view.opened.empty()) return;
+    for (std::size_t g = 0; g < v.counts.groups.size(); ++g)
+        if (v.counts.groups[g] == view.opened) { open_group(s, static_cast<int>(g)); return; }
+}
 
 void show_groups_place(const AppState& s) {
     const GroupsView& v = s.groups;
@@ -71,10 +112,19 @@ void show_groups_place(const AppState& s) {
 
 namespace {
 
+constexpr std::size_t kSpokenRows = 2000;
+
 void publish_screen(AppState& s) {
     GroupsView& v = s.groups;
     v.report = v.result.status.ok ? screen_report_text(v.result) : "Not screened: " + v.result.status.message + "\n";
-    publish_result(v.report, screen_json(v.base, v.counts, v.result), write_analysis_document(s.analysis));
+    // The live region reads out the screen; above kSpokenRows groups its table of every group would
+    // cost the page seconds of layout for text no one listens through: the write-up (summary,
+    // flagged groups with their drivers, cautions) then, and the whole table by Copy or Download.
+    std::string spoken = v.report;
+    if (v.result.status.ok && v.result.groups.size() > kSpokenRows)
+        spoken = screen_writeup(v.result) + "The table of all " + format_grouped(static_cast<std::uint64_t>(v.result.groups.size())) +
+                 " groups: Copy table (TSV) or Download table (CSV).\n";
+    publish_result(spoken, screen_json(v.base, v.counts, v.result), screen_document(s));
 }
 
 // Opens the screen on `counts` (already read), testing with the analysis on screen's settings.
@@ -127,15 +177,89 @@ bool open_groups_document(AppState& s, const GroupedCounts& counts, const Screen
     return true;
 }
 
-void recompute_groups(AppState& s) {
+namespace {
+
+constexpr std::uint64_t kFirstScreenSlice = 2000;  // work units (a group by the short path: 1)
+
+// The finished job's screen shown, sorted, published and kept.
+void finish_screen(AppState& s) {
     GroupsView& v = s.groups;
-    if (!v.open) return;
-    v.base = s.analysis;  // its model, statistic, merging and p-value settings; counts are each group's own
-    v.result = screen_groups(v.base, v.counts, v.choice);
+    v.screening = false;
+    v.result = std::move(v.job.result);
+    v.job = ScreenJob{};  // its copy of the groups is no longer needed
     v.funnel = screen_funnel(v.result);
     order_rows(v);
     if (v.opened < 0) publish_screen(s);
     show_groups_place(s);
+    keep_analysis(s);  // titled with the flags just found
+    set_progress(1, false);
+    s.frames_to_draw = 3;
+}
+
+}  // namespace
+
+void drop_screen_job(AppState& s) {
+    if (!s.groups.screening) return;
+    cancel_screen_job(&s.groups.job);
+    s.groups.job = ScreenJob{};
+    s.groups.screening = false;
+}
+
+void recompute_groups(AppState& s) {
+    GroupsView& v = s.groups;
+    if (!v.open) return;
+    drop_screen_job(s);
+    v.base = s.analysis;  // its model, statistic, merging and p-value settings; counts are each group's own
+    start_screen_job(v.base, v.counts, v.choice, &v.job);
+    const WorkProgress p = step_screen_job(&v.job, kFirstScreenSlice);  // a small screen is done here
+    if (p.done) { finish_screen(s); return; }
+    // The rest in the page's work tasks (step_screen); the table waits for the whole screen, as
+    // the q-values of every group depend on all p-values.
+    v.screening = true;
+    v.result = ScreenResult{};
+    v.result.status = Status::failure("testing " + format_grouped(static_cast<std::uint64_t>(v.counts.groups.size())) + " groups…");
+    v.funnel = ScreenFunnel{};
+    v.order.clear();
+    if (v.opened < 0) publish_screen(s);
+    show_groups_place(s);
+    set_progress(p.fraction, true);
+    start_work_loop();
+    s.frames_to_draw = 3;
+}
+
+void step_screen(AppState& s, double budget_ms) {
+    GroupsView& v = s.groups;
+    if (!v.screening) return;
+    const double until = emscripten_get_now() + budget_ms;
+    // As step_job: a small first slice, then slices sized from the measured rate.
+    std::uint64_t slice = kFirstScreenSlice;
+    WorkProgress p;
+    for (;;) {
+        const double t0 = emscripten_get_now();
+        p = step_screen_job(&v.job, slice);
+        if (p.done || p.cancelled) break;
+        const double now = emscripten_get_now(), left = until - now, took = now - t0;
+        if (left <= 0.5) break;
+        const double rate = static_cast<double>(slice) / std::max(took, 0.05);
+        slice = static_cast<std::uint64_t>(std::clamp(rate * left * 0.9, 100.0, 1048576.0));
+    }
+    if (p.done) { finish_screen(s); return; }
+    set_progress(p.fraction, true);
+}
+
+void cancel_screen(AppState& s) {
+    GroupsView& v = s.groups;
+    if (!v.screening) return;
+    const double fraction = v.job.progress.fraction;
+    drop_screen_job(s);
+    v.result = ScreenResult{};
+    v.result.status = Status::failure("cancelled at " + std::to_string(static_cast<int>(100 * fraction)) + "% of " +
+                                      format_grouped(static_cast<std::uint64_t>(v.counts.groups.size())) +
+                                      " groups. Change a setting to screen them again, or read them as one sample.");
+    if (v.opened < 0) publish_screen(s);
+    show_groups_place(s);
+    set_progress(fraction, false);
+    publish_notice("Screen cancelled.");
     s.frames_to_draw = 3;
 }
 
@@ -149,11 +273,56 @@ void set_screen_choice(AppState& s, const ScreenChoice& choice) {
     recompute_groups(s);
 }
 
+void merge_look_alike_groups(AppState& s) {
+    GroupsView& v = s.groups;
+    if (!v.open || v.counts.look_alike_groups.empty()) return;
+    const GroupedCounts& c = v.counts;
+    const std::size_t k = c.categories.size();
+    std::vector<int> into(c.groups.size(), -1);  // the group each joins (-1: itself)
+    for (const auto& set : c.look_alike_groups)
+        for (std::size_t i = 1; i < set.size(); ++i) into[set[i]] = static_cast<int>(set[0]);
+    GroupedCounts joined = c;
+    joined.groups.clear();
+    joined.group_lines.clear();
+    joined.counts.clear();
+    joined.look_alike_groups.clear();
+    std::vector<std::size_t> at(c.groups.size(), 0);  // index in `joined` of each kept group
+    for (std::size_t g = 0; g < c.groups.size(); ++g) {
+        if (into[g] >= 0) continue;
+        at[g] = joined.groups.size();
+        joined.groups.push_back(c.groups[g]);
+        if (g < c.group_lines.size()) joined.group_lines.push_back(c.group_lines[g]);
+        for (std::size_t j = 0; j < k; ++j) joined.counts.push_back(c.count(g, j));
+    }
+    std::size_t merged = 0;
+    for (std::size_t g = 0; g < c.groups.size(); ++g) {
+        if (into[g] < 0) continue;
+        ++merged;
+        const std::size_t to = at[static_cast<std::size_t>(into[g])];
+        for (std::size_t j = 0; j < k; ++j) joined.counts[to * k + j] += c.count(g, j);
+    }
+    const std::string look = group_look_alike_note(c.groups, c.look_alike_groups);
+    joined.notes.erase(std::remove(joined.notes.begin(), joined.notes.end(), look), joined.notes.end());
+    if (joined.groups.size() < 2) {
+        s.input_error = "Joining the look-alike groups would leave one group: a screen needs at least two.";
+        publish_error(s.input_error);
+        return;
+    }
+    const ScreenChoice choice = v.choice;
+    v.counts = std::move(joined);
+    v.text.clear();  // the groups no longer are the paste as read: a new reading would split them again
+    v.opened = -1;
+    set_screen_choice(s, choice);
+    publish_notice(std::to_string(merged) + (merged == 1 ? " group joined" : " groups joined") +
+                   " to the group its name looks like; their counts are added.");
+}
+
 void sort_groups(AppState& s, GroupColumn column, bool ascending) {
     s.groups.sort = column;
     s.groups.ascending = ascending;
     order_rows(s.groups);
     show_groups_place(s);
+    keep_analysis(s);  // the order is part of the screen as saved
     s.frames_to_draw = 3;
 }
 

@@ -10,6 +10,7 @@
 #include "screen_groups.hpp"
 #include "grouped_table.hpp"
 #include "screen_funnel.hpp"
+#include "screen_document.hpp"
 
 namespace tallyproof::web {
 
@@ -32,6 +33,10 @@ struct GroupsView {
     std::vector<int> order;        // group indices in the order shown
     int opened = -1;               // the group shown as a single analysis, -1: the screen itself
     bool offered = false;          // the last one-sample paste also reads as groups: offer it
+    // Testing the groups runs in slices between frames (the page's work tasks), with progress and
+    // Cancel; `result` is the finished screen, or says why there is none while it runs.
+    ScreenJob job;
+    bool screening = false;
 };
 
 // Reads `text` as groups (options: the group column and shape; empty: detected) and opens the
@@ -40,12 +45,25 @@ struct GroupsView {
 bool open_groups(AppState& s, const std::string& text, const GroupReadOptions& options, std::string* why = nullptr);
 bool open_groups_read(AppState& s, const std::string& text, const GroupReadOptions& options, GroupedCounts counts);  // already read
 bool open_groups_document(AppState& s, const GroupedCounts& counts, const ScreenChoice& choice);
+// A screen document's view (sort column and direction, the opened group by name) applied to the
+// screen just opened from it; an unknown group name leaves the table shown.
+void apply_screen_view(AppState& s, const ScreenView& view);
+// The analysis document of the screen on the page (groups, settings, sort, opened group): what
+// autosave, the recent list, the share link and the analysis file carry while the screen is open.
+std::string screen_document(const AppState& s);
+std::string screen_title(const AppState& s);  // "40 groups · Benford's first-digit law · 1 flagged"
 void set_screen_choice(AppState& s, const ScreenChoice& choice);  // against, adjustment, q
+// Groups whose names look the same (GroupedCounts::look_alike_groups) joined, each under its
+// first name, their counts added; the screen is tested again.
+void merge_look_alike_groups(AppState& s);
 void sort_groups(AppState& s, GroupColumn column, bool ascending);
 void open_group(AppState& s, int group);      // its full single analysis, the screen kept
 void back_to_groups(AppState& s);             // from an opened group to the screen
 void leave_groups(AppState& s);               // back to one sample (the screen is dropped)
 void recompute_groups(AppState& s);           // after a change of the base analysis's settings
+void step_screen(AppState& s, double budget_ms);  // a slice of the screen's testing (about budget_ms)
+void cancel_screen(AppState& s);              // stops the testing: no result, saying so
+void drop_screen_job(AppState& s);            // stops it silently (a new screen replaces it)
 void copy_screen_summary(AppState& s);        // the write-up of the screen: summary and cautions
 void copy_groups_table(AppState& s);          // one row per group, TSV for a spreadsheet
 void download_groups_table(AppState& s);      // the same as a CSV file

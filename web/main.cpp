@@ -276,7 +276,7 @@ void frame() {
     fit_to_stage(p);
     // Exact and Monte Carlo work runs in the page's own tasks between frames (tp_work), not
     // inside the animation frame, so it never waits for the display's refresh.
-    if (p.state.job_running) tallyproof::web::start_work_loop();
+    if (tallyproof::web::work_running(p.state)) tallyproof::web::start_work_loop();
     if (p.state.theme_changed) {
         tallyproof::web::apply_palette(&p.theme, p.state.dark);
         p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
@@ -297,7 +297,7 @@ void frame() {
         emscripten_pause_main_loop();
         return;
     }
-    if (p.state.job_running && !input && p.state.exports.empty()) {
+    if (tallyproof::web::work_running(p.state) && !input && p.state.exports.empty()) {
         // While work runs, a frame without input is drawn only to move the progress bar, about
         // four times a second: each presented frame delays the next work task (by ~50 ms with
         // software WebGL), and nothing else on screen changes.
@@ -371,12 +371,13 @@ EMSCRIPTEN_KEEPALIVE void tp_open_fragment() {
 // own, back to back while it returns 1. Progress is drawn about four times a second (each frame
 // in software WebGL costs what the work could use), and at once when the job ends.
 EMSCRIPTEN_KEEPALIVE int tp_work(double budget_ms) {
-    if (!g_page || !g_page->state.job_running) return 0;
+    if (!g_page || !tallyproof::web::work_running(g_page->state)) return 0;
     Page& p = *g_page;
     tallyproof::web::step_job(p.state, budget_ms);
     const double now = emscripten_get_now();
-    if (!p.state.job_running || now - p.last_job_frame_ms >= 250) want_frames(p, 2);  // frame() stamps the time
-    return p.state.job_running ? 1 : 0;
+    const bool running = tallyproof::web::work_running(p.state);
+    if (!running || now - p.last_job_frame_ms >= 250) want_frames(p, 2);  // frame() stamps the time
+    return running ? 1 : 0;
 }
 // The page's text-entry element changed (typing, composition, deletion, paste, selection): its
 // whole text and selection (UTF-8 byte offsets) replace the active field's.

@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <string>
 #include <vector>
 
@@ -250,7 +251,16 @@ void draw_funnel(AppState& s, const Theme& t, ImVec2 size) {
 void draw_groups_view(AppState& s, const Theme& t) {
     GroupsView& v = s.groups;
     const ScreenResult& r = v.result;
-    if (!r.status.ok) {
+    if (v.screening) {  // testing in slices: progress and a way to stop
+        char label[96];
+        std::snprintf(label, sizeof label, "Testing %zu groups: %.0f%%", v.counts.groups.size(), 100 * v.job.progress.fraction);
+        ImGui::PushStyleColor(ImGuiCol_PlotHistogram, ImGui::ColorConvertU32ToFloat4(t.progress));
+        ImGui::ProgressBar(static_cast<float>(v.job.progress.fraction), ImVec2(std::min(360.0f, ImGui::GetContentRegionAvail().x - 90), 0), label);
+        ImGui::PopStyleColor();
+        ImGui::SameLine();
+        if (ImGui::Button("Cancel")) cancel_screen(s);
+        mark_widget("Cancel screen");
+    } else if (!r.status.ok) {
         wrapped_text(("Not screened: " + r.status.message).c_str());
     } else {
         ImGui::PushFont(t.strong);
@@ -262,6 +272,14 @@ void draw_groups_view(AppState& s, const Theme& t) {
         muted_wrapped(t, "%s", how.c_str());
     }
     draw_screen_settings(s, t);
+    if (!v.counts.look_alike_groups.empty()) {  // names differing only by case, spaces or invisible characters
+        const std::string note = group_look_alike_note(v.counts.groups, v.counts.look_alike_groups);
+        ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
+        wrapped_text(note.c_str());
+        ImGui::PopStyleColor();
+        if (ImGui::Button("Join the look-alike groups")) merge_look_alike_groups(s);
+        mark_widget("Join look-alike groups");
+    }
     if (!v.text.empty()) {  // the reading: which column names the groups, and the table's shape
         ImGui::AlignTextToFramePadding();
         ImGui::TextUnformatted("Group column");
@@ -287,10 +305,20 @@ void draw_groups_view(AppState& s, const Theme& t) {
             ImGui::EndCombo();
         }
         mark_widget("group shape");
-        if ((done && by != (v.read.by.empty() ? std::to_string(v.counts.group_column) : v.read.by)) || reshape) {
+        // The first row: read as a header (naming the categories, such as the digits 0-9 of a wide
+        // table) or as a group; detected, shown, and changeable here.
+        flow_next(ImGui::GetFrameHeight() + ImGui::CalcTextSize("First row is a header").x + 2 * ImGui::GetStyle().ItemSpacing.x);
+        bool header = v.read.header.value_or(v.counts.header);
+        const bool reheader = ImGui::Checkbox("First row is a header", &header);
+        mark_widget("first row is a header");
+        if (ImGui::IsItemHovered())
+            ImGui::SetTooltip(v.counts.numbered_header ? "Detected: its cells under the categories are numbered (digits, years, sizes) while the group column's is text"
+                                                       : "Untick to read the first row as a group of counts");
+        if ((done && by != (v.read.by.empty() ? std::to_string(v.counts.group_column) : v.read.by)) || reshape || reheader) {
             GroupReadOptions read = v.read;
             read.by = by;
             if (reshape) read.shape = shape;
+            if (reheader) read.header = header;
             const std::string text = v.text;
             std::string why;
             if (!open_groups(s, text, read, &why)) {
