@@ -84,11 +84,33 @@ bool mix_fits_new_counts(const Model& model, std::size_t categories) {
     return true;
 }
 
+namespace {
+// A mix the user stated value by value, one value per category.
+bool mix_is_per_category(ModelKind kind) {
+    return kind == ModelKind::shares || kind == ModelKind::ratio || kind == ModelKind::counts ||
+           kind == ModelKind::reference_sample;
+}
+}  // namespace
+
 bool apply_input_mix(const ParsedInput& parsed, Analysis* a, std::vector<std::string>* notes) {
+    const std::vector<std::string> before = a->categories;  // the counts being replaced
     const bool stated = apply_pasted_input(parsed, a, notes);
     if (stated) return true;
-    // The previous mix cannot apply to new counts: start from equal shares.
-    if (!mix_fits_new_counts(a->model, a->categories.size())) a->model = Model{};
+    // A mix stated value by value belongs to its categories: new counts with other categories
+    // (other labels, or another number of them) start from equal shares, and the notice says so;
+    // the same categories keep it, and the notice says that too.
+    const bool per_category = mix_is_per_category(a->model.kind);
+    const bool other_categories = !before.empty() && before != a->categories;
+    if (!mix_fits_new_counts(a->model, a->categories.size()) || (per_category && other_categories)) {
+        if (per_category && !before.empty() && notes)
+            notes->push_back(std::string("The expected mix stated before (") + model_kind_name(a->model.kind) +
+                             ") was for other categories, so the new counts are tested against equal shares: "
+                             "state their own mix under Expected mix.");
+        a->model = Model{};
+    } else if (per_category && !before.empty() && notes) {
+        notes->push_back(std::string("The expected mix stated before (") + model_kind_name(a->model.kind) +
+                         ") is kept: the new counts have the same categories.");
+    }
     a->model.edges = parsed.edges;  // bin edges go with the counts they made
     return false;
 }

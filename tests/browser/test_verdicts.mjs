@@ -2,9 +2,27 @@
 // with Ratio offered, and one tap reads them as a ratio; labels 0..6 tick "Categories are in
 // order" and the verdict suggests a count model. Reference: SciPy 1.10,
 // scipy.stats.chisquare([48, 31, 12, 9], [50, 30, 10, 10]) -> statistic 0.6133333333333334.
-import { assert, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+import { assert, chooseFile, clickWidget, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
 
 export const tests = {
+  async 'a 4-row file opened after the fruit example is tested against equal shares, and the notice says the mix was reset'() {
+    await withPage({}, async (page) => {
+      await clickWidget(page, 'Examples');
+      await clickWidget(page, 'Fruit grading against the contract mix');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[0] === 'Extra', null, { timeout: 10000 });
+      await page.evaluate(() => { globalThis.tallyproofPage.lastNotice = ''; });
+      await chooseFile(page, 'defects.csv', 'Defect,Count\nScratch,31\nDent,12\nCrack,40\nOther,17\n');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[0] === 'Scratch', null, { timeout: 10000 });
+      const doc = JSON.parse(await page.evaluate(() => globalThis.tallyproofPage.lastDocument));
+      assert(doc.model.kind === 'equal', `the mix is equal shares, not the fruit contract's: ${JSON.stringify(doc.model)}`);
+      // SciPy 1.10: scipy.stats.chisquare([31, 12, 40, 17]) -> statistic 19.76, p = 0.000190
+      const r = await lastResult(page);
+      assert(Math.abs(r.statistic - 19.76) < 1e-9, `statistic ${r.statistic}`);
+      const notice = await page.evaluate(() => globalThis.tallyproofPage.lastNotice || '');
+      assert(notice.includes('was for other categories'), `the notice says the mix was reset: ${notice}`);
+    });
+  },
+
   async '5:3:1:1 typed as stated shares is refused with Ratio offered, and one tap reads it as a ratio'() {
     await withPage({}, async (page) => {
       await pasteText(page, 'A\t48\nB\t31\nC\t12\nD\t9\n');

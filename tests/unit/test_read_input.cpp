@@ -191,3 +191,35 @@ TEST_CASE("groups share the same rule: a previous sample of other categories giv
     CHECK(kept.model.kind == ModelKind::ratio);
     CHECK(kept.model.values == D{3, 1});
 }
+
+TEST_CASE("a stated mix is kept only for the same categories, and the notes say which happened") {
+    // New counts with the same number of categories but other labels (a defect file after a
+    // fruit example) must not be tested against the old shares: common practice, the expected
+    // shares are a property of the categories they name.
+    const ParsedInput fruit = parse_input("Apple\t20\nPear\t50\nPlum\t25\nFig\t5\n");
+    const ParsedInput fruit_again = parse_input("Apple\t22\nPear\t48\nPlum\t24\nFig\t6\n");
+    const ParsedInput defects = parse_input("Scratch\t31\nDent\t12\nCrack\t40\nOther\t17\n");
+    REQUIRE(fruit.status.ok);
+    REQUIRE(defects.status.ok);
+    Analysis a;
+    apply_input_mix(fruit, &a);
+    a.model.kind = ModelKind::shares;
+    a.model.values = {0.2, 0.5, 0.25, 0.05};
+    std::vector<std::string> notes;
+    CHECK_FALSE(apply_input_mix(fruit_again, &a, &notes));
+    CHECK(a.model.kind == ModelKind::shares);
+    CHECK(a.model.values == D{0.2, 0.5, 0.25, 0.05});
+    REQUIRE(notes.size() == 1);
+    CHECK(notes[0].find("is kept") != std::string::npos);
+    notes.clear();
+    CHECK_FALSE(apply_input_mix(defects, &a, &notes));
+    CHECK(a.model.kind == ModelKind::equal);
+    CHECK(a.model.values.empty());
+    CHECK(a.categories == S{"Scratch", "Dent", "Crack", "Other"});
+    REQUIRE(notes.size() == 1);
+    CHECK(notes[0].find("was for other categories") != std::string::npos);
+    // Equal shares need no note either way.
+    notes.clear();
+    apply_input_mix(fruit, &a, &notes);
+    CHECK(notes.empty());
+}
