@@ -6,7 +6,7 @@ import { assert, openFormView, closeFormView, clickWidget, lastResult, pasteText
 
 // Twelve invented meter readers, last digits 0-9. "Dev" prefers 0 and 5 strongly; the rest are
 // close to uniform. SciPy: chisquare([38,12,10,8,11,38,9,12,10,8]) -> statistic 81.56410256410255 for Dev.
-function longTable() {
+export function longTable() {
   const rows = ['reader,digit,count'];
   const names = ['Anna', 'Ben', 'Cara', 'Dev', 'Eli', 'Fay', 'Gus', 'Hal', 'Ivy', 'Jon', 'Kim', 'Lou'];
   names.forEach((n, gi) => {

@@ -4,37 +4,13 @@
 // list: the Groups view with the same groups, flags and order, an opened group with its way back.
 // Reference: SciPy 1.10, scipy.stats.chisquare([38,12,10,8,11,38,9,12,10,8]) -> statistic
 // 81.56410256410255 for "Dev" (the same invented data as test_groups.mjs).
-import { assert, clickWidget, lastResult, resultsText, screenshot, withPage } from './harness.mjs';
+import { assert, clickWidget, focusCanvas, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+import { longTable } from './test_groups.mjs';  // the same twelve invented meter readers
 
-const names = ['Anna', 'Ben', 'Cara', 'Dev', 'Eli', 'Fay', 'Gus', 'Hal', 'Ivy', 'Jon', 'Kim', 'Lou'];
-function longTable() {
-  const rows = ['reader,digit,count'];
-  names.forEach((n, gi) => {
-    for (let d = 0; d < 10; d++) {
-      let c = 8 + ((gi * 7 + d * 3) % 5);
-      if (n === 'Dev') c = [38, 12, 10, 8, 11, 38, 9, 12, 10, 8][d];
-      rows.push(`${n},${d},${c}`);
-    }
-  });
-  return rows.join('\n') + '\n';
-}
-
-// Trusted input only: the text goes to the clipboard, the page gets focus by a click and the
-// paste by Ctrl+V; where the canvas does not yet hand Ctrl+V to the page, its Paste button,
-// which reads the clipboard, does the same.
+// Trusted input only: the text goes to the clipboard and the page gets it by Ctrl+V (input.mjs).
 async function pasteByClipboard(page, text, ready) {
-  await page.evaluate((t) => navigator.clipboard.writeText(t), text);
-  const box = await page.evaluate(() => { const r = document.querySelector('canvas').getBoundingClientRect(); return { x: r.x, y: r.y, w: r.width, h: r.height }; });
-  await page.mouse.click(box.x + box.w - 8, box.y + box.h - 8);
-  await page.keyboard.press('Control+V');
-  try {
-    await page.waitForFunction(ready, null, { timeout: 3000 });
-    return 'Ctrl+V';
-  } catch (e) {
-    await clickWidget(page, 'Paste');
-    await page.waitForFunction(ready, null, { timeout: 20000 });
-    return 'Paste button';
-  }
+  await pasteText(page, text);
+  await page.waitForFunction(ready, null, { timeout: 20000 });
 }
 
 const screenShown = () => document.getElementById('tp-results').textContent.includes('of 12 groups depart');
@@ -66,8 +42,7 @@ export const tests = {
   async 'a screen survives reload, an opened group keeps its way back, a share link and the recent list restore it'() {
     let link = '', sorted = '';
     await withPage({ permissions: ['clipboard-read', 'clipboard-write'] }, async (page) => {
-      const via = await pasteByClipboard(page, longTable(), screenShown);
-      console.log(`     pasted through the clipboard by ${via}`);
+      await pasteByClipboard(page, longTable(), screenShown);
       const first = await expectScreen(page, null, 'pasted');
       const dev = first.groups.findIndex((g) => g.name === 'Dev');
       // Sorted by N descending (two clicks on its head): Dev (N = 156) leads.
@@ -129,19 +104,12 @@ export const tests = {
         rows.push(`G${g},${c.join(',')}`);
       }
       const text = rows.join('\n') + '\n';
-      await page.evaluate((t) => navigator.clipboard.writeText(t), text);
-      const box = await page.evaluate(() => { const r = document.querySelector('canvas').getBoundingClientRect(); return { x: r.x, y: r.y, w: r.width, h: r.height }; });
-      await page.mouse.click(box.x + box.w - 8, box.y + box.h - 8);
+      await focusCanvas(page);
       const start = await page.evaluate(() => performance.now());
-      await page.keyboard.press('Control+V');
+      await pasteText(page, text, { focus: 'keep' });
       const testing = () => (document.getElementById('tp-progress').dataset.running === '1' &&
         document.getElementById('tp-results').textContent.includes('testing 100,000 groups'));
-      let via = 'Ctrl+V';
-      try { await page.waitForFunction(testing, null, { timeout: 8000, polling: 200 }); } catch (e) {
-        via = 'Paste button';
-        await clickWidget(page, 'Paste');
-        await page.waitForFunction(testing, null, { timeout: 60000, polling: 200 });
-      }
+      await page.waitForFunction(testing, null, { timeout: 60000, polling: 200 });
       const read = await page.evaluate(() => performance.now());
       // Progress moves while the groups are tested; the page answers in between (a frame each 250 ms).
       await page.waitForFunction(() => /Working: ([1-9]\d?)%/.test(document.getElementById('tp-progress').textContent), null, { timeout: 60000, polling: 100 });
@@ -155,7 +123,7 @@ export const tests = {
       const during = long.filter(([t0]) => t0 >= read - 1 && t0 <= cancelled).map(([, d]) => d);
       const before = long.filter(([t0]) => t0 >= start - 1 && t0 < read - 1).map(([, d]) => d);
       const longest = (xs) => (xs.length ? Math.max(...xs) : 0);
-      console.log(`     100,000 groups by ${via}: read and first slice ${(read - start).toFixed(0)} ms (longest task ${longest(before).toFixed(0)} ms); ` +
+      console.log(`     100,000 groups by Ctrl+V: read and first slice ${(read - start).toFixed(0)} ms (longest task ${longest(before).toFixed(0)} ms); ` +
         `testing until cancelled (${midway}): ${during.length} long tasks, longest ${longest(during).toFixed(0)} ms`);
       await screenshot(page, 'screen-100k-cancelled');
       assert(shown.includes('cancelled at'), `after Cancel: ${shown.slice(0, 200)}`);
