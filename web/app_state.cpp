@@ -409,6 +409,19 @@ bool open_screen_document(AppState& s, const Analysis& settings, const GroupedCo
                           const ScreenView& view);
 }  // namespace
 
+namespace {
+// What opening any document does once its analysis is in place: no refusal, no merge to undo, no
+// pasted text to re-read.
+void forget_paste(AppState& s) {
+    clear_refusal(s);
+    s.merge_undo.clear();
+    s.pasted_text.clear();
+    s.pasted_shape = -1;
+    s.pasted_bins = BinChoice{};
+    s.source_name = "opened document";
+}
+}  // namespace
+
 bool open_document(AppState& s, std::string_view json) {
     Analysis a;
     Status st = read_analysis_document(json, &a);
@@ -437,12 +450,7 @@ bool open_document(AppState& s, std::string_view json) {
         s.analysis_id = previous_id;
         return false;
     }
-    clear_refusal(s);
-    s.merge_undo.clear();
-    s.pasted_text.clear();
-    s.pasted_shape = -1;
-    s.pasted_bins = BinChoice{};
-    s.source_name = "opened document";
+    forget_paste(s);
     s.demo_index = -1;
     sync_editor_from_model(s);
     return true;
@@ -475,13 +483,8 @@ bool open_screen_document(AppState& s, const Analysis& settings, const GroupedCo
         record_refusal(s, {}, why);
         return false;
     }
-    clear_refusal(s);
-    s.merge_undo.clear();
-    s.pasted_text.clear();
-    s.pasted_shape = -1;
-    s.pasted_bins = BinChoice{};
+    forget_paste(s);
     apply_screen_view(s, view);
-    s.source_name = "opened document";
     return true;
 }
 
@@ -611,7 +614,7 @@ namespace {
 void read_paste(AppState& s, std::string_view text, const ParseOptions& options) {
     InputReading reading = read_input(text, options);  // one sample, else groups; groups offered beside one sample
     const ParsedInput& parsed = reading.sample;
-    Status problem = parsed.status;
+    Status problem = reading.status;  // the one-sample refusal, or the groups' own (read_input)
     GroupsView previous_groups = std::move(s.groups);  // a new one-sample reading closes the screen...
     s.groups = GroupsView{};
     const Analysis previous = s.analysis;

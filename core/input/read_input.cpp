@@ -71,6 +71,10 @@ InputReading read_input(std::string_view text, const ParseOptions& parse, const 
     if (groups.status.ok) {
         out.kind = InputKind::groups;
         out.groups = std::move(groups);
+    } else if (groups.group_problem) {
+        // A table of groups refused for its groups (one group, an empty or missing group cell):
+        // the groups reader's message, the one `tallyproof --by` gives, says what is wrong.
+        out.status = groups.status;
     }
     return out;
 }

@@ -38,7 +38,8 @@ struct InputReading {
     ParsedInput sample;           // the one-sample reading (its status: why it was refused), unless GroupsReading::always
     GroupedCounts groups;         // InputKind::groups: the groups read; or, with groups_offered, the groups offered
     bool groups_offered = false;  // read as one sample, and the same text also reads as two or more groups
-    Status status;                // !ok when refused: the one-sample refusal (GroupsReading::always: the groups')
+    Status status;                // !ok when refused: the one-sample refusal, or the groups' own when the text is a table of
+                                  // groups refused for its groups (group_problem; GroupsReading::always: always the groups')
 };
 
 // Reads `text` (decoded, UTF-8) as the policy above says, with `parse` for one sample (and for raw

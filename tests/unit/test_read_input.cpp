@@ -223,3 +223,18 @@ TEST_CASE("a stated mix is kept only for the same categories, and the notes say 
     apply_input_mix(fruit, &a, &notes);
     CHECK(notes.empty());
 }
+
+TEST_CASE("a table of groups refused for its groups gives the groups' message, as --by does") {
+    // The messages of tests/cli/test_cli_screen_rules.py (tallyproof --by reader): the page and the
+    // tool say the same.
+    const InputReading one = read_input("reader\tdigit\tcount\nA\t0\t3\nA\t1\t2\n", ParseOptions{});
+    CHECK(one.kind == InputKind::refused);
+    CHECK(one.status.message.find("Only one group (\"A\")") != std::string::npos);
+    const InputReading empty = read_input("reader\tdigit\tcount\nA\t0\t3\n\t1\t2\nB\t0\t1\nB\t1\t1\n", ParseOptions{});
+    CHECK(empty.kind == InputKind::refused);
+    CHECK(empty.status.message.find("the group cell is empty") != std::string::npos);
+    // A plain refused one-sample paste keeps its own message.
+    const InputReading text = read_input("A\tx\nB\t2\n", ParseOptions{});
+    CHECK(text.kind == InputKind::refused);
+    CHECK(text.status.message == text.sample.status.message);
+}
