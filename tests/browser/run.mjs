@@ -11,11 +11,19 @@ for (const file of readdirSync(here).filter((f) => /^test_.*\.mjs$/.test(f)).sor
   const { tests } = await import(`./${file}`);
   for (const [name, fn] of Object.entries(tests)) {
     const t0 = Date.now();
+    let timer;
     try {
-      await fn();
+      // A test that stops making progress fails after its time limit instead of stalling the
+      // whole suite (one run once hung for minutes waiting on a page that never answered).
+      const limit = Number(process.env.TP_TEST_LIMIT_S || 300) * 1000;
+      await Promise.race([fn(), new Promise((_, reject) => {
+        timer = setTimeout(() => reject(new Error(`no result after ${limit / 1000} s (time limit per test)`)), limit);
+      })]);
+      clearTimeout(timer);
       passed++;
       console.log(`ok   ${file} › ${name} (${Date.now() - t0} ms)`);
     } catch (e) {
+      clearTimeout(timer);
       failed++;
       console.log(`FAIL ${file} › ${name}\n     ${String(e.stack || e).split('\n').join('\n     ')}`);
     }

@@ -280,8 +280,12 @@ export const tests = {
       const total = await page.evaluate(() => Module._tp_control_count());
       assert(total > 20, `the canvas has ${total} controls`);
       for (let i = 0; i < total + 5; i++) {
+        const before = await page.evaluate(() => JSON.stringify(globalThis.tallyproofPage.focusRect || null));
         await page.keyboard.press('Tab');
-        await page.waitForTimeout(40);
+        // Wait until the frame has moved (or the focus left the canvas): a loaded machine draws
+        // the next frame later than a fixed pause would allow.
+        await page.waitForFunction((b) => JSON.stringify(globalThis.tallyproofPage.focusRect || null) !== b
+          || !['canvas', 'tp-ime', 'tp-ime-area'].includes(document.activeElement.id), before, { timeout: 3000 }).catch(() => {});
         const at = await page.evaluate(() => ({ f: globalThis.tallyproofPage.focusRect, w: globalThis.tallyproofPage.widgets, a: document.activeElement.id }));
         if (at.a !== 'canvas' && at.a !== 'tp-ime' && at.a !== 'tp-ime-area') break;  // left the canvas for the page
         if (!at.f) continue;
