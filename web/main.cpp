@@ -23,6 +23,7 @@
 #include "bar_chart.hpp"
 #include "density_plot.hpp"
 #include "glossary.hpp"
+#include "clip_audit.hpp"
 #include "keyboard_walk.hpp"
 #include "number_reading.hpp"
 #include "merge_categories.hpp"
@@ -319,6 +320,7 @@ void frame() {
     tallyproof::web::publish_text_entry();
     tallyproof::web::publish_focus();
     ImGui::Render();
+    tallyproof::web::run_clip_audit();
     int fw = 0, fh = 0;
     SDL_GL_GetDrawableSize(p.window, &fw, &fh);
     glViewport(0, 0, fw, fh);
@@ -498,6 +500,12 @@ EMSCRIPTEN_KEEPALIVE int tp_tab_leaves(int backward) {
 }
 // The number of controls a Tab walk passes on the canvas (tests).
 EMSCRIPTEN_KEEPALIVE int tp_control_count() { return tallyproof::web::control_count(); }
+// Audits the next frame for text cut by a clip rectangle (tests; see clip_audit.hpp).
+EMSCRIPTEN_KEEPALIVE void tp_clip_audit() {
+    if (!g_page) return;
+    tallyproof::web::request_clip_audit();
+    want_frames(*g_page, 2);
+}
 // Cancels running exact or Monte Carlo work (the page's Escape key).
 EMSCRIPTEN_KEEPALIVE void tp_cancel() {
     if (!g_page) return;

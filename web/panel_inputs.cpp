@@ -161,7 +161,9 @@ void draw_goal_rows(AppState& s, const Theme& t) {
 
 void section_title(const char* title, const Theme& theme) {
     ImGui::PushFont(theme.strong);
+    ImGui::PushTextWrapPos(0.0f);  // wraps on a narrow screen instead of running past its edge
     ImGui::TextUnformatted(title);
+    ImGui::PopTextWrapPos();
     ImGui::PopFont();
 }
 

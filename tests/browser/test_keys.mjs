@@ -372,4 +372,48 @@ export const tests = {
       });
     }
   },
+
+  async 'nothing is clipped mid-word or mid-number at 360 and 390 px: every result view and the Groups view'() {
+    // The page draws on a canvas, so "clipped" is measured from what it draws: the clip audit
+    // (web/clip_audit.cpp) counts glyphs that reach past the rectangle they are drawn in, where
+    // no window they sit in scrolls that way. Checked at a phone's height and at a tall one, so
+    // the whole of each view is laid out on screen once.
+    const ages = 'Age 18 to 24\t131\nAge 25 to 44\t402\nAge 45 to 64\t355\n65 and over\t212\n';
+    const rows = ['reader,digit,count'];
+    ['Anna', 'Ben', 'Cara', 'Dev', 'Eli', 'Fay'].forEach((n, gi) => {
+      for (let d = 0; d < 10; d++) rows.push(`${n},${d},${8 + ((gi * 7 + d * 3) % 5)}`);
+    });
+    const audit = async (page, where) => {
+      await page.waitForTimeout(250);
+      await page.evaluate(() => { globalThis.tallyproofPage.clipped = null; Module._tp_clip_audit(); });
+      await page.waitForFunction(() => globalThis.tallyproofPage.clipped, null, { timeout: 5000 });
+      const c = await page.evaluate(() => globalThis.tallyproofPage.clipped);
+      assert(c.glyphs > 200, `${where}: the audit saw ${c.glyphs} glyphs`);
+      assert(c.cut === 0, `${where}: ${c.cut} glyphs cut, in ${c.windows.join(', ')}: ${JSON.stringify(c.samples.slice(0, 3))}`);
+      // Only a wide table may scroll sideways (its first column stays put); a panel that scrolls
+      // sideways hides the end of its lines as surely as a cut does. The audit sees through
+      // scrolling, so this is checked apart.
+      const panels = c.sideways.filter((w) => !/\/(diagnostics|counts|groups)_[0-9A-F]+$/.test(w));
+      assert(panels.length === 0, `${where}: scrolls sideways: ${panels.join(', ')}`);
+      return c.glyphs;
+    };
+    for (const width of [360, 390]) {
+      for (const height of [844, 2400]) {
+        await withPage({ viewport: { width, height }, hasTouch: true, isMobile: true, deviceScaleFactor: 2 }, async (page) => {
+          await pasteText(page, ages);
+          await firstCategory(page, 'Age 18 to 24');
+          let seen = await audit(page, `${width}x${height} Curve`);
+          for (const tab of ['Bars', 'Where it differs', 'Planning', 'Write-up']) {
+            await tapWidget(page, tab);
+            seen += await audit(page, `${width}x${height} ${tab}`);
+          }
+          await pasteText(page, rows.join('\n') + '\n');
+          await page.waitForFunction(() => !!globalThis.tallyproofPage.widgets['group column'], null, { timeout: 10000 });
+          seen += await audit(page, `${width}x${height} Groups`);
+          if (height === 2400) await screenshot(page, `keys-clip-groups-${width}`);
+          console.log(`     ${width}x${height}: ${seen} glyphs over six views, none cut`);
+        });
+      }
+    }
+  },
 };
