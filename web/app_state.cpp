@@ -225,23 +225,36 @@ void remember(AppState& s, const std::string& document) {
     note_storage(s, kept);
 }
 
+// A change marks what is due; settle_frame() does it once per frame (as ImGui saves its
+// settings once they are marked dirty), so a burst of edits, or a screen's several steps, build
+// and store the document once rather than at every step.
 void publish(AppState& s) {
     s.report = report_text(s.analysis, s.result);
     // While the Groups view shows the screen, the live region carries the screen's report and the
     // screen is kept once its groups are tested (recompute_groups); an opened group keeps the screen.
     if (s.groups.open && s.groups.opened < 0) return;
-    const std::string document = analysis_document(s);
-    publish_result(s.report, report_json(s.analysis, s.result), document);
-    remember(s, document);
+    s.session.due_publish = Session::Publish::analysis;
+    s.session.due_save = true;
 }
 
 }  // namespace
+
+void settle_frame(AppState& s) {
+    Session& due = s.session;
+    if (due.due_publish == Session::Publish::none && !due.due_save) return;
+    const std::string document = analysis_document(s);
+    if (due.due_publish == Session::Publish::analysis) publish_result(s.report, report_json(s.analysis, s.result), document);
+    if (due.due_publish == Session::Publish::screen) publish_screen_now(s, document);
+    if (due.due_save) remember(s, document);
+    due.due_publish = Session::Publish::none;
+    due.due_save = false;
+}
 
 std::string analysis_document(const AppState& s) {
     return s.groups.open ? screen_document(s) : write_analysis_document(s.analysis);
 }
 
-void keep_analysis(AppState& s) { remember(s, analysis_document(s)); }
+void keep_analysis(AppState& s) { s.session.due_save = true; }
 
 bool recompute(AppState& s) {
     if (s.job_running) cancel_job(s);

@@ -55,7 +55,16 @@ struct ChartExport {
     int purpose = 0;                     // ImagePurpose
 };
 
+// The session: what is kept in the browser (autosave, recent list) and what is due to be
+// published to the page and kept, done once per frame by settle_frame().
+struct Session {
+    enum class Publish { none, analysis, screen };
+    Publish due_publish = Publish::none;  // the report, JSON and document to hand to the page
+    bool due_save = false;                // the document to autosave (tab slot, latest, recent list)
+};
+
 struct AppState {
+    Session session;
     // Inputs
     Analysis analysis;               // the analysis on screen (its last valid form)
     std::string source_name;         // where the counts came from
@@ -121,7 +130,9 @@ struct AppState {
 void load_demo(AppState& s, int index);                      // one of kDemoScenarios
 bool open_document(AppState& s, std::string_view json);      // an analysis document (a screen's too); false if refused
 std::string analysis_document(const AppState& s);            // what is kept and shared: the screen while it is open
-void keep_analysis(AppState& s);                             // autosave now (a change that recomputes nothing)
+void keep_analysis(AppState& s);                             // autosave at the end of this frame (a change that recomputes nothing)
+void settle_frame(AppState& s);                              // once per frame: publishes and autosaves what a change marked due
+void publish_screen_now(AppState& s, const std::string& document);  // the screen's report, JSON and document to the page (groups_state.cpp)
 void apply_paste(AppState& s, std::string_view text);        // counts, or a document; keeps the old data if refused
 // The bytes of a paste or of a dropped or opened file (`file_name`, empty for a paste): decoded
 // by core's text_decoding (UTF-8, UTF-16, Windows-1252), then read as apply_paste; a file that is

@@ -114,7 +114,11 @@ namespace {
 
 constexpr std::size_t kSpokenRows = 2000;
 
-void publish_screen(AppState& s) {
+void publish_screen(AppState& s) { s.session.due_publish = Session::Publish::screen; }
+
+}  // namespace
+
+void publish_screen_now(AppState& s, const std::string& document) {
     GroupsView& v = s.groups;
     v.report = v.result.status.ok ? screen_report_text(v.result) : "Not screened: " + v.result.status.message + "\n";
     // The live region reads out the screen; above kSpokenRows groups its table of every group would
@@ -124,8 +128,10 @@ void publish_screen(AppState& s) {
     if (v.result.status.ok && v.result.groups.size() > kSpokenRows)
         spoken = screen_writeup(v.result) + "The table of all " + format_grouped(static_cast<std::uint64_t>(v.result.groups.size())) +
                  " groups: Copy table (TSV) or Download table (CSV).\n";
-    publish_result(spoken, screen_json(v.base, v.counts, v.result), screen_document(s));
+    publish_result(spoken, screen_json(v.base, v.counts, v.result), document);
 }
+
+namespace {
 
 // Opens the screen on `counts` (already read), testing with the analysis on screen's settings.
 void start(AppState& s, GroupedCounts counts, const ScreenChoice& choice) {

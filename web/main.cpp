@@ -275,6 +275,7 @@ void frame() {
     Page& p = *g_page;
     const bool input = take_events(p);
     fit_to_stage(p);
+    tallyproof::web::settle_frame(p.state);  // what the last changes marked due: published and kept once
     // Exact and Monte Carlo work runs in the page's own tasks between frames (tp_work), not
     // inside the animation frame, so it never waits for the display's refresh.
     if (tallyproof::web::work_running(p.state)) tallyproof::web::start_work_loop();
@@ -321,6 +322,7 @@ void frame() {
     tallyproof::web::publish_focus();
     ImGui::Render();
     tallyproof::web::run_clip_audit();
+    tallyproof::web::settle_frame(p.state);  // what this frame's controls changed
     int fw = 0, fh = 0;
     SDL_GL_GetDrawableSize(p.window, &fw, &fh);
     glViewport(0, 0, fw, fh);
@@ -348,6 +350,10 @@ EMSCRIPTEN_KEEPALIVE void tp_open_file(const char* bytes, int length, const char
 // Called by the page glue on any browser input so the next frames are drawn.
 EMSCRIPTEN_KEEPALIVE void tp_wake() {
     if (g_page) want_frames(*g_page, 3);
+}
+// Publishes and keeps now what the last changes marked due (the page is being hidden or left).
+EMSCRIPTEN_KEEPALIVE void tp_settle() {
+    if (g_page) tallyproof::web::settle_frame(g_page->state);
 }
 // Loads demo scenario `index` (the Examples menu does the same).
 EMSCRIPTEN_KEEPALIVE void tp_load_demo(int index) {
