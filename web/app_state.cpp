@@ -97,10 +97,10 @@ constexpr const char* kStorageRefused =
 // A short confirmation under the title bar, mirrored into the page for screen readers. While
 // storage is refused that is said first, whatever else is confirmed.
 void set_notice(AppState& s, const std::string& text) {
-    s.notice = text;
-    if (s.storage_refused && text.find(kStorageRefused) == std::string::npos)
-        s.notice = std::string(kStorageRefused) + (text.empty() ? "" : "  " + text);
-    publish_notice(s.notice);
+    s.view.notice = text;
+    if (s.session.storage_refused && text.find(kStorageRefused) == std::string::npos)
+        s.view.notice = std::string(kStorageRefused) + (text.empty() ? "" : "  " + text);
+    publish_notice(s.view.notice);
 }
 
 std::string new_analysis_id() {
@@ -111,9 +111,9 @@ std::string new_analysis_id() {
 
 // The analysis on screen is the example `demo_index` as loaded (not yet edited).
 bool shows_unchanged_demo(const AppState& s) {
-    if (s.demo_index < 0 || s.demo_index >= kDemoScenarioCount) return false;
+    if (s.view.demo_index < 0 || s.view.demo_index >= kDemoScenarioCount) return false;
     Analysis demo;
-    if (!read_analysis_document(kDemoScenarios[s.demo_index].document, &demo).ok) return false;
+    if (!read_analysis_document(kDemoScenarios[s.view.demo_index].document, &demo).ok) return false;
     return demo.observed == s.analysis.observed && demo.categories == s.analysis.categories &&
            demo.model.kind == s.analysis.model.kind && demo.model.values == s.analysis.model.values;
 }
@@ -129,7 +129,7 @@ std::string saved_title(const AppState& s) {
     if (cats.empty()) cats = "no categories";
     std::string t = cats + " · N = " + format_count(s.result.n);
     if (!s.result.model_description.empty()) t += " · " + s.result.model_description;
-    if (shows_unchanged_demo(s)) t = std::string("Example: ") + kDemoScenarios[s.demo_index].title + " · " + t;
+    if (shows_unchanged_demo(s)) t = std::string("Example: ") + kDemoScenarios[s.view.demo_index].title + " · " + t;
     return t;
 }
 
@@ -201,27 +201,27 @@ std::vector<SavedAnalysis> read_recent_list() {
 }
 
 void note_storage(AppState& s, bool kept) {
-    if (kept || s.storage_refused) return;
-    s.storage_refused = true;
-    set_notice(s, s.notice);
+    if (kept || s.session.storage_refused) return;
+    s.session.storage_refused = true;
+    set_notice(s, s.view.notice);
 }
 
 // Autosave: the analysis on screen is kept after every change, in this tab's slot (restored on
 // its reload), as the latest (where a new tab starts) and in the recent list, which is read,
 // merged with this analysis by identity and time, and written back, so other tabs' entries stay.
 void remember(AppState& s, const std::string& document) {
-    if (s.analysis_id.empty()) s.analysis_id = new_analysis_id();
+    if (s.session.analysis_id.empty()) s.session.analysis_id = new_analysis_id();
     bool kept = tab_storage_set(kTabKey, document);
-    kept = tab_storage_set(kTabIdKey, s.analysis_id) && kept;
+    kept = tab_storage_set(kTabIdKey, s.session.analysis_id) && kept;
     kept = storage_set(kLatestKey, document) && kept;
     // The same data saved under another entry (a restore, another tab) is one analysis: one entry.
     for (const auto& e : read_all_saved_entries())
-        if (e.id != s.analysis_id && e.document == document) remove_saved_entry(e.id);
-    kept = write_saved_entry(SavedAnalysis{saved_title(s), local_time_text(), document, s.analysis_id, wall_clock_ms()}) && kept;
+        if (e.id != s.session.analysis_id && e.document == document) remove_saved_entry(e.id);
+    kept = write_saved_entry(SavedAnalysis{saved_title(s), local_time_text(), document, s.session.analysis_id, wall_clock_ms()}) && kept;
     std::vector<SavedAnalysis> list = read_all_saved_entries();
     for (std::size_t i = kRecentLimit; i < list.size(); ++i) remove_saved_entry(list[i].id);  // the oldest go first
     if (list.size() > kRecentLimit) list.resize(kRecentLimit);
-    s.recent = std::move(list);
+    s.session.recent = std::move(list);
     note_storage(s, kept);
 }
 
@@ -257,9 +257,9 @@ std::string analysis_document(const AppState& s) {
 void keep_analysis(AppState& s) { s.session.due_save = true; }
 
 bool recompute(AppState& s) {
-    if (s.job_running) cancel_job(s);
+    if (s.work.running) cancel_job(s);
     Result next = analyse(s.analysis);
-    s.frames_to_draw = 3;
+    s.view.frames_to_draw = 3;
     if (!next.status.ok) {
         s.input_error = next.status.message;
         publish_error(s.input_error);
@@ -279,62 +279,62 @@ bool recompute(AppState& s) {
                                            s.result.conformity->critical_value, s.result.statistic);
     else s.curve = density_curve(s.result.df, s.result.critical_value, s.result.statistic);
     if (s.analysis.pvalue.method != PValueMethod::asymptotic) {
-        start_pvalue_job(s.analysis, s.result, &s.job);
-        s.job_running = !s.job.progress.done;
-        s.job_started_ms = emscripten_get_now();
-        if (!s.job_running) finish_pvalue_job(s.job, &s.result);
+        start_pvalue_job(s.analysis, s.result, &s.work.job);
+        s.work.running = !s.work.job.progress.done;
+        s.work.started_ms = emscripten_get_now();
+        if (!s.work.running) finish_pvalue_job(s.work.job, &s.result);
     }
     publish(s);
     if (s.groups.open && s.groups.opened < 0) recompute_groups(s);  // the screen follows the settings
     return true;
 }
 
-bool work_running(const AppState& s) { return s.job_running || s.groups.screening; }
+bool work_running(const AppState& s) { return s.work.running || s.groups.screening; }
 
 void step_job(AppState& s, double budget_ms) {
-    if (s.groups.screening && !s.job_running) return step_screen(s, budget_ms);
-    if (!s.job_running) return;
+    if (s.groups.screening && !s.work.running) return step_screen(s, budget_ms);
+    if (!s.work.running) return;
     const double start = emscripten_get_now(), until = start + budget_ms;
     // Small first slice, then slices sized from the measured rate to fill what is left of the
     // budget (work units differ a thousandfold in cost between Monte Carlo and exact jobs).
     std::uint64_t slice = 1000;
     for (;;) {
         const double t0 = emscripten_get_now();
-        const WorkProgress p = step_pvalue_job(&s.job, slice);
+        const WorkProgress p = step_pvalue_job(&s.work.job, slice);
         if (p.done || p.cancelled) break;
         const double now = emscripten_get_now(), left = until - now, took = now - t0;
         if (left <= 0.5) break;
         const double rate = static_cast<double>(slice) / std::max(took, 0.05);  // units per ms
         slice = static_cast<std::uint64_t>(std::clamp(rate * left * 0.9, 100.0, 4194304.0));
     }
-    if (s.job.progress.done || s.job.progress.cancelled) {
-        s.job_running = false;
-        finish_pvalue_job(s.job, &s.result);
+    if (s.work.job.progress.done || s.work.job.progress.cancelled) {
+        s.work.running = false;
+        finish_pvalue_job(s.work.job, &s.result);
         publish(s);
     }
-    set_progress(job_fraction(s), s.job_running);
+    set_progress(job_fraction(s), s.work.running);
 }
 
 void cancel_job(AppState& s) {
-    if (s.groups.screening && !s.job_running) return cancel_screen(s);
-    if (!s.job_running) return;
-    cancel_pvalue_job(&s.job);
-    s.job_running = false;
-    finish_pvalue_job(s.job, &s.result);  // records the cancellation; the asymptotic p stays
+    if (s.groups.screening && !s.work.running) return cancel_screen(s);
+    if (!s.work.running) return;
+    cancel_pvalue_job(&s.work.job);
+    s.work.running = false;
+    finish_pvalue_job(s.work.job, &s.result);  // records the cancellation; the asymptotic p stays
     publish(s);
     set_progress(job_fraction(s), false);
 }
 
 double job_fraction(const AppState& s) {
-    return s.groups.screening && !s.job_running ? s.groups.job.progress.fraction : s.job.progress.fraction;
+    return s.groups.screening && !s.work.running ? s.groups.job.progress.fraction : s.work.job.progress.fraction;
 }
 
 void load_demo(AppState& s, int index) {
     if (index < 0 || index >= kDemoScenarioCount) return;
     if (open_document(s, kDemoScenarios[index].document)) {
-        s.demo_index = index;
+        s.view.demo_index = index;
         remember(s, write_analysis_document(s.analysis));  // titled as the example now that demo_index is set
-        s.source_name = std::string("example: ") + kDemoScenarios[index].title;
+        s.reading.source_name = std::string("example: ") + kDemoScenarios[index].title;
     }
 }
 
@@ -360,11 +360,11 @@ std::vector<std::string> display_cells(std::string_view line) {
 // A refused paste or document: its message, the cells of the line it points at (found once,
 // here, not in every frame), and the whole text when it is small enough to edit on the page.
 void record_refusal(AppState& s, std::string_view text, const Status& problem) {
-    s.rejected_message = problem.message;
-    s.rejected_file.clear();  // apply_input names the file after this
-    s.rejected_line = problem.line;
-    s.rejected_column = problem.column;
-    s.rejected_cells.clear();
+    s.refused.message = problem.message;
+    s.refused.file.clear();  // apply_input names the file after this
+    s.refused.line = problem.line;
+    s.refused.column = problem.column;
+    s.refused.cells.clear();
     if (problem.line > 0) {
         std::size_t start = 0;
         for (int line = 1; line < problem.line && start != std::string_view::npos; ++line) {
@@ -373,39 +373,39 @@ void record_refusal(AppState& s, std::string_view text, const Status& problem) {
         }
         if (start != std::string_view::npos) {
             const std::size_t end = text.find_first_of("\r\n", start);
-            s.rejected_cells = display_cells(text.substr(start, std::min<std::size_t>(200, (end == std::string_view::npos ? text.size() : end) - start)));
+            s.refused.cells = display_cells(text.substr(start, std::min<std::size_t>(200, (end == std::string_view::npos ? text.size() : end) - start)));
         }
     }
-    if (text.size() <= kFixableBytes) s.refused_paste = std::string(text);
-    else s.refused_paste.clear();
-    s.fix_text.clear();
-    s.fix_open = false;
+    if (text.size() <= kFixableBytes) s.refused.text = std::string(text);
+    else s.refused.text.clear();
+    s.refused.fix_text.clear();
+    s.refused.fix_open = false;
     publish_error(problem.message);
-    s.frames_to_draw = 3;
+    s.view.frames_to_draw = 3;
 }
 
 void clear_refusal(AppState& s) {
-    s.rejected_message.clear();
-    s.rejected_line = 0;
-    s.rejected_column = 0;
-    s.rejected_cells.clear();
-    s.refused_paste.clear();
-    s.fix_text.clear();
-    s.fix_open = false;
+    s.refused.message.clear();
+    s.refused.line = 0;
+    s.refused.column = 0;
+    s.refused.cells.clear();
+    s.refused.text.clear();
+    s.refused.fix_text.clear();
+    s.refused.fix_open = false;
 }
 }  // namespace
 
 void edit_refused_paste(AppState& s, bool open) {
-    s.fix_open = open && !s.refused_paste.empty();
-    if (s.fix_open) s.fix_text = s.refused_paste;  // the original stays for the quoted line
-    else s.fix_text.clear();
+    s.refused.fix_open = open && !s.refused.text.empty();
+    if (s.refused.fix_open) s.refused.fix_text = s.refused.text;  // the original stays for the quoted line
+    else s.refused.fix_text.clear();
 }
 
 void apply_fixed_paste(AppState& s) {
-    if (!s.fix_open) return;
-    const std::string text = std::move(s.fix_text);  // apply_paste replaces the refusal state
+    if (!s.refused.fix_open) return;
+    const std::string text = std::move(s.refused.fix_text);  // apply_paste replaces the refusal state
     apply_paste(s, text);
-    if (!s.rejected_message.empty()) edit_refused_paste(s, true);  // still refused: keep editing
+    if (!s.refused.message.empty()) edit_refused_paste(s, true);  // still refused: keep editing
 }
 
 void dismiss_refusal(AppState& s) { clear_refusal(s); }
@@ -428,10 +428,10 @@ namespace {
 void forget_paste(AppState& s) {
     clear_refusal(s);
     s.merge_undo.clear();
-    s.pasted_text.clear();
-    s.pasted_shape = -1;
-    s.pasted_bins = BinChoice{};
-    s.source_name = "opened document";
+    s.reading.text.clear();
+    s.reading.shape = -1;
+    s.reading.bins = BinChoice{};
+    s.reading.source_name = "opened document";
 }
 }  // namespace
 
@@ -452,19 +452,19 @@ bool open_document(AppState& s, std::string_view json) {
     }
     if (is_screen) return open_screen_document(s, a, counts, choice, view);
     const Analysis previous = s.analysis;
-    const std::string previous_id = s.analysis_id;
+    const std::string previous_id = s.session.analysis_id;
     s.analysis = a;
-    s.analysis_id = new_analysis_id();
-    s.demo_index = -1;
+    s.session.analysis_id = new_analysis_id();
+    s.view.demo_index = -1;
     if (!recompute(s)) {
         record_refusal(s, json, Status::failure(s.input_error));
         s.input_error.clear();
         s.analysis = previous;
-        s.analysis_id = previous_id;
+        s.session.analysis_id = previous_id;
         return false;
     }
     forget_paste(s);
-    s.demo_index = -1;
+    s.view.demo_index = -1;
     sync_editor_from_model(s);
     return true;
 }
@@ -481,8 +481,8 @@ bool open_screen_document(AppState& s, const Analysis& settings, const GroupedCo
     s.groups = GroupsView{};
     s.analysis = settings;
     s.analysis.categories = counts.categories;
-    s.analysis_id = new_analysis_id();
-    s.demo_index = -1;
+    s.session.analysis_id = new_analysis_id();
+    s.view.demo_index = -1;
     s.input_error.clear();
     if (!open_groups_document(s, counts, choice) || !s.input_error.empty() ||
         (!s.groups.screening && (!s.groups.result.status.ok || s.groups.result.groups.empty()))) {
@@ -521,11 +521,11 @@ std::string starting_edges(const AppState& s) {
     BinChoice width;
     width.kind = BinChoice::Kind::equal_width;
     std::string ignored;
-    if (!typed_bin_count(s.bin_editor.count, &width.bins, &ignored)) width.bins = 10;
+    if (!typed_bin_count(s.reading.bin_editor.count, &width.bins, &ignored)) width.bins = 10;
     ParseOptions o;
     o.shape = InputShape::raw_bins;
     o.bins = width;
-    std::vector<double> edges = parse_input(s.pasted_text, o).edges;
+    std::vector<double> edges = parse_input(s.reading.text, o).edges;
     if (edges.size() < 2) return "";
     std::vector<double> read_back;
     if (!read_list(format_plain(edges.front()), &read_back, &ignored) || read_back.front() != edges.front()) edges.front() = -HUGE_VAL;
@@ -538,40 +538,40 @@ void read_bins(AppState& s, BinChoice b) {
     std::string error;
     bool ok = true;
     if (b.kind == BinChoice::Kind::edges) {
-        ok = read_list(s.bin_editor.edges, &b.edges, &error);
+        ok = read_list(s.reading.bin_editor.edges, &b.edges, &error);
         if (ok && b.edges.size() < 2) {
             error = "Bin edges: type at least two, such as 0, 10, 20, inf.";
             ok = false;
         }
     } else {
-        ok = typed_bin_count(s.bin_editor.count, &b.bins, &error);
+        ok = typed_bin_count(s.reading.bin_editor.count, &b.bins, &error);
     }
     if (!ok) {  // nothing read: the previous analysis stays, the message shows under the bins
-        s.pasted_shape = static_cast<int>(InputShape::raw_bins);
-        s.pasted_bins = b;
-        s.bin_editor.error = error;
+        s.reading.shape = static_cast<int>(InputShape::raw_bins);
+        s.reading.bins = b;
+        s.reading.bin_editor.error = error;
         publish_error(error);
-        s.frames_to_draw = 3;
+        s.view.frames_to_draw = 3;
         return;
     }
     ParseOptions o;
     o.shape = InputShape::raw_bins;
     o.bins = b;
-    read_paste(s, s.pasted_text, o);  // read_paste does not change pasted_text while reading it
+    read_paste(s, s.reading.text, o);  // read_paste does not change pasted_text while reading it
 }
 }  // namespace
 
 void apply_paste(AppState& s, std::string_view text) {
     const std::size_t first = text.find_first_not_of(" \t\r\n");
     if (first != std::string_view::npos && text[first] == '{') { open_document(s, text); return; }
-    s.bin_editor.edges.clear();  // edges typed for other data
+    s.reading.bin_editor.edges.clear();  // edges typed for other data
     read_paste(s, text, ParseOptions{});
 }
 
 void apply_input(AppState& s, std::string bytes, std::string_view file_name) {
     // New data while an exact or Monte Carlo p-value is being worked out: that work is for the old
     // data, so it stops, and the page says so (whether or not the new data is read).
-    const bool stopped = s.job_running;
+    const bool stopped = s.work.running;
     if (stopped) cancel_job(s);
     const std::string stopped_note = stopped ? "The p-value being worked out for the previous data was stopped." : "";
     const TextDecoding d = decode_text(&bytes);
@@ -579,47 +579,47 @@ void apply_input(AppState& s, std::string bytes, std::string_view file_name) {
         const std::string who = file_name.empty() ? std::string() : std::string(file_name.substr(0, 80)) + ": ";
         // A pasted text stays editable; a binary file's bytes are not worth editing.
         record_refusal(s, file_name.empty() ? std::string_view(bytes) : std::string_view(), Status::failure(who + d.status.message));
-        s.rejected_file = std::string(file_name);
+        s.refused.file = std::string(file_name);
         if (stopped) set_notice(s, stopped_note);
         return;
     }
     apply_paste(s, bytes);
-    if (!s.rejected_message.empty()) s.rejected_file = std::string(file_name);
-    if (!d.notice.empty() && s.rejected_message.empty()) set_notice(s, d.notice + (s.notice.empty() ? "" : " " + s.notice));
-    if (stopped) set_notice(s, stopped_note + (s.notice.empty() ? "" : " " + s.notice));
+    if (!s.refused.message.empty()) s.refused.file = std::string(file_name);
+    if (!d.notice.empty() && s.refused.message.empty()) set_notice(s, d.notice + (s.view.notice.empty() ? "" : " " + s.view.notice));
+    if (stopped) set_notice(s, stopped_note + (s.view.notice.empty() ? "" : " " + s.view.notice));
 }
 
 void reread_paste(AppState& s, int shape, int digit_test, int third_column) {
-    if (s.pasted_text.empty()) return;
+    if (s.reading.text.empty()) return;
     ParseOptions o;
     o.shape = static_cast<InputShape>(shape);
     if (digit_test >= 0) o.digits = static_cast<DigitTest>(digit_test);
     if (third_column >= 0) o.third_column = third_column == 1 ? ThirdColumn::previous_sample : ThirdColumn::expected;
-    read_paste(s, s.pasted_text, o);  // read_paste does not change pasted_text while reading it
+    read_paste(s, s.reading.text, o);  // read_paste does not change pasted_text while reading it
 }
 
 void read_paste_into_bins(AppState& s, BinChoice::Kind kind, ModelKind model) {
-    if (s.pasted_text.empty() || kind == BinChoice::Kind::none) return;
+    if (s.reading.text.empty() || kind == BinChoice::Kind::none) return;
     BinChoice b;
     b.kind = kind;
     if (kind == BinChoice::Kind::equal_probability) b.model = model;
-    if (kind == BinChoice::Kind::edges && s.bin_editor.edges.find_first_not_of(" \t") == std::string::npos)
-        s.bin_editor.edges = starting_edges(s);
+    if (kind == BinChoice::Kind::edges && s.reading.bin_editor.edges.find_first_not_of(" \t") == std::string::npos)
+        s.reading.bin_editor.edges = starting_edges(s);
     read_bins(s, b);
 }
 
-bool offers_other_readings(const AppState& s) { return s.pasted_shape >= 0 && !s.pasted_text.empty(); }
+bool offers_other_readings(const AppState& s) { return s.reading.shape >= 0 && !s.reading.text.empty(); }
 
 bool shows_bin_editor(const AppState& s) {
-    return offers_other_readings(s) && s.pasted_shape == static_cast<int>(InputShape::raw_bins) &&
-           s.pasted_bins.kind != BinChoice::Kind::none;
+    return offers_other_readings(s) && s.reading.shape == static_cast<int>(InputShape::raw_bins) &&
+           s.reading.bins.kind != BinChoice::Kind::none;
 }
 
 void apply_bin_editor(AppState& s) {
-    if (s.pasted_text.empty() || s.pasted_bins.kind == BinChoice::Kind::none) return;
+    if (s.reading.text.empty() || s.reading.bins.kind == BinChoice::Kind::none) return;
     BinChoice b;
-    b.kind = s.pasted_bins.kind;
-    b.model = s.pasted_bins.model;
+    b.kind = s.reading.bins.kind;
+    b.model = s.reading.bins.model;
     read_bins(s, b);
 }
 
@@ -632,11 +632,11 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     s.groups = GroupsView{};
     const Analysis previous = s.analysis;
     std::vector<std::string> label_notes;  // labels written in two Unicode forms, joined
-    const std::string previous_id = s.analysis_id;
-    const int previous_demo = s.demo_index;
+    const std::string previous_id = s.session.analysis_id;
+    const int previous_demo = s.view.demo_index;
     if (problem.ok) {
-        s.analysis_id = new_analysis_id();  // the user's own data: a new entry, no example's name
-        s.demo_index = -1;
+        s.session.analysis_id = new_analysis_id();  // the user's own data: a new entry, no example's name
+        s.view.demo_index = -1;
         s.analysis.merge = MergeChoice{};
         // The stated mix, else the previous one while it fits the new counts, else equal shares.
         apply_input_mix(parsed, &s.analysis, &label_notes);
@@ -645,29 +645,29 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
             problem = Status::failure(s.input_error, 0, 0);
             s.input_error.clear();
             s.analysis = previous;
-            s.analysis_id = previous_id;
-            s.demo_index = previous_demo;
+            s.session.analysis_id = previous_id;
+            s.view.demo_index = previous_demo;
             sync_editor_from_model(s);
         }
     }
     // Kept for "Read as", refused or not: another reading may be what the user meant. Above
-    // 8 MB it is not kept twice. A re-reading passes s.pasted_text itself: no copy then.
+    // 8 MB it is not kept twice. A re-reading passes s.reading.text itself: no copy then.
     if (text.size() <= (8u << 20)) {
-        if (text.data() != s.pasted_text.data()) s.pasted_text.assign(text.data(), text.size());
-        s.pasted_shape = static_cast<int>(parsed.shape);
-        s.pasted_previous = parsed.expected_kind == ExpectedKind::previous_sample;
+        if (text.data() != s.reading.text.data()) s.reading.text.assign(text.data(), text.size());
+        s.reading.shape = static_cast<int>(parsed.shape);
+        s.reading.previous = parsed.expected_kind == ExpectedKind::previous_sample;
     } else {
-        s.pasted_text.clear();
-        s.pasted_shape = -1;
+        s.reading.text.clear();
+        s.reading.shape = -1;
     }
-    s.pasted_bins = parsed.shape == InputShape::raw_bins ? options.bins : BinChoice{};
-    s.bin_editor.error.clear();
-    if (!problem.ok && parsed.shape == InputShape::raw_bins && !s.pasted_text.empty()) {
+    s.reading.bins = parsed.shape == InputShape::raw_bins ? options.bins : BinChoice{};
+    s.reading.bin_editor.error.clear();
+    if (!problem.ok && parsed.shape == InputShape::raw_bins && !s.reading.text.empty()) {
         // Bins the user set: the message shows under them, not as a refused paste.
-        s.bin_editor.error = problem.message;
+        s.reading.bin_editor.error = problem.message;
         clear_refusal(s);
         publish_error(problem.message);
-        s.frames_to_draw = 3;
+        s.view.frames_to_draw = 3;
         return;
     }
     if (!problem.ok) {
@@ -695,8 +695,8 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     // The same text may also read as groups (a wide table of two categories): offered, not chosen.
     s.groups.offered = reading.groups_offered;
     if (s.groups.offered) s.groups.text.assign(text.data(), text.size());
-    s.source_name = "pasted text";
-    s.demo_index = -1;
+    s.reading.source_name = "pasted text";
+    s.view.demo_index = -1;
     s.merge_undo.clear();
     clear_refusal(s);
     if (previous_groups.open) show_groups_place(s);  // the form view leaves the screen too
@@ -775,7 +775,7 @@ void apply_model_editor(AppState& s) {
         if (m.values.size() != s.analysis.observed.size()) {
             s.input_error = std::to_string(m.values.size()) + " values for " + std::to_string(s.analysis.observed.size()) +
                             " categories: give one per category.";
-            s.frames_to_draw = 3;
+            s.view.frames_to_draw = 3;
             return;
         }
     }
@@ -869,7 +869,7 @@ void merge_look_alike_labels(AppState& s) {
     if (!joined.ok) {
         s.input_error = joined.message;
         publish_error(joined.message);
-        s.frames_to_draw = 3;
+        s.view.frames_to_draw = 3;
         return;
     }
     sync_editor_from_model(s);
@@ -893,7 +893,7 @@ bool apply_alpha_text(AppState& s, const std::string& text) {
     if (!read_typed_number(t, &alpha) || !(alpha > 0 && alpha < 1)) {
         s.input_error = "α must lie between 0 and 1" + (t.empty() ? std::string(".") : "; \"" + t.substr(0, 20) + "\" does not.");
         publish_error(s.input_error);
-        s.frames_to_draw = 3;
+        s.view.frames_to_draw = 3;
         return false;
     }
     if (alpha == s.analysis.alpha) return true;
@@ -908,24 +908,24 @@ bool apply_alpha_text(AppState& s, const std::string& text) {
 
 void copy_writeup(AppState& s, bool sentence_only) {
     WriteupOptions o;
-    o.style = static_cast<WriteupStyle>(s.writeup_style);
-    o.decimal_comma = s.decimal_comma;
+    o.style = static_cast<WriteupStyle>(s.handover.writeup_style);
+    o.decimal_comma = s.handover.decimal_comma;
     copy_text(sentence_only ? writeup_sentence(s.analysis, s.result, o) : writeup(s.analysis, s.result, o));
 }
 
 void copy_table(AppState& s) {
-    copy_text(category_table(s.result, TableExportOptions{TableFormat::tsv, s.decimal_comma, false}));
+    copy_text(category_table(s.result, TableExportOptions{TableFormat::tsv, s.handover.decimal_comma, false}));
 }
 
 void restore_session(AppState& s) {
-    s.recent = read_recent_list();
+    s.session.recent = read_recent_list();
     watch_storage(kOldRecentKey);  // and every key it begins
     const std::string fragment = location_fragment();
     if (!fragment.empty()) {
         if (open_share_fragment(s, fragment)) return;
-        const std::string message = s.rejected_message;
+        const std::string message = s.refused.message;
         load_demo(s, 0);  // something to look at, with the refusal above it
-        s.rejected_message = message;
+        s.refused.message = message;
         publish_error(message);
         return;
     }
@@ -934,13 +934,13 @@ void restore_session(AppState& s) {
     const std::string saved = own.empty() ? storage_get(kLatestKey) : own;
     if (!saved.empty() && open_document(s, saved)) {
         std::string id = own.empty() ? "" : own_id;
-        for (const auto& e : s.recent)
+        for (const auto& e : s.session.recent)
             if (id.empty() && e.document == saved) id = e.id;
         if (!id.empty()) {  // the same analysis: its entry, not a new one
-            s.analysis_id = id;
+            s.session.analysis_id = id;
             remember(s, saved);
         }
-        s.source_name = "restored from the last session";
+        s.reading.source_name = "restored from the last session";
         return;
     }
     clear_refusal(s);
@@ -952,13 +952,13 @@ bool open_share_fragment(AppState& s, const std::string& fragment) {
     const Status st = decode_share_fragment(fragment, &document);
     if (!st.ok) {
         clear_refusal(s);  // a link is not text to edit here
-        s.rejected_message = st.message;
+        s.refused.message = st.message;
         publish_error(st.message);
-        s.frames_to_draw = 3;
+        s.view.frames_to_draw = 3;
         return false;
     }
     if (!open_document(s, document)) return false;
-    s.source_name = "share link";
+    s.reading.source_name = "share link";
     return true;
 }
 
@@ -972,27 +972,27 @@ void start_fresh(AppState& s) {
 }
 
 void open_recent(AppState& s, int index) {
-    if (index < 0 || index >= static_cast<int>(s.recent.size())) return;
-    const SavedAnalysis chosen = s.recent[index];
+    if (index < 0 || index >= static_cast<int>(s.session.recent.size())) return;
+    const SavedAnalysis chosen = s.session.recent[index];
     if (open_document(s, chosen.document)) {
-        s.source_name = "recent: " + chosen.title;
-        s.analysis_id = chosen.id;  // edits go on in its entry
+        s.reading.source_name = "recent: " + chosen.title;
+        s.session.analysis_id = chosen.id;  // edits go on in its entry
         remember(s, chosen.document);
     }
 }
 
 void remove_recent(AppState& s, int index) {
-    if (index < 0 || index >= static_cast<int>(s.recent.size())) return;
-    const std::string id = s.recent[index].id;
+    if (index < 0 || index >= static_cast<int>(s.session.recent.size())) return;
+    const std::string id = s.session.recent[index].id;
     remove_saved_entry(id);
-    s.recent = read_recent_list();
-    if (id == s.analysis_id) s.analysis_id = new_analysis_id();  // kept on screen, no longer in the list
-    s.frames_to_draw = 3;
+    s.session.recent = read_recent_list();
+    if (id == s.session.analysis_id) s.session.analysis_id = new_analysis_id();  // kept on screen, no longer in the list
+    s.view.frames_to_draw = 3;
 }
 
 void reload_recent(AppState& s) {
-    s.recent = read_recent_list();
-    s.frames_to_draw = 3;
+    s.session.recent = read_recent_list();
+    s.view.frames_to_draw = 3;
 }
 
 void copy_share_link(AppState& s) {
@@ -1024,19 +1024,19 @@ void download_document(AppState& s) {
 }
 
 void download_table(AppState& s) {
-    download_text("tallyproof-categories.csv", "text/csv", category_table(s.result, TableExportOptions{TableFormat::csv, s.decimal_comma, false}));
+    download_text("tallyproof-categories.csv", "text/csv", category_table(s.result, TableExportOptions{TableFormat::csv, s.handover.decimal_comma, false}));
     set_notice(s, "Per-category table downloaded (CSV).");
 }
 
 void queue_chart_export(AppState& s, ResultTab chart, int purpose) {
-    s.exports.push_back(ChartExport{chart, purpose});
-    s.frames_to_draw = std::max(s.frames_to_draw, 3);
+    s.handover.exports.push_back(ChartExport{chart, purpose});
+    s.view.frames_to_draw = std::max(s.view.frames_to_draw, 3);
 }
 
 void request_print(AppState& s) {
     queue_chart_export(s, ResultTab::curve, static_cast<int>(ImagePurpose::print));
     queue_chart_export(s, ResultTab::bars, static_cast<int>(ImagePurpose::print));
-    s.print_pending = true;
+    s.handover.print_pending = true;
 }
 
 }  // namespace tallyproof::web

@@ -55,76 +55,89 @@ struct ChartExport {
     int purpose = 0;                     // ImagePurpose
 };
 
+// A paste or file that was refused: shown with its message while the previous analysis stays.
+struct Refusal {
+    std::string message;
+    std::string file;                 // the file it came from (empty for a paste)
+    int line = 0;
+    int column = 0;                   // the cell the message names (1-based), 0 when none
+    std::vector<std::string> cells;   // the cells of `line`, as shown (split once)
+    std::string text;                 // the whole refused text, kept only up to kFixableBytes
+    std::string fix_text;             // its copy in the editor, while fix_open
+    bool fix_open = false;
+};
+
+// The last paste that was read, so the user can have it read as another shape.
+struct LastReading {
+    std::string text;
+    int shape = -1;                   // InputShape as detected (or chosen), -1 when nothing pasted
+    bool previous = false;            // its third column was read as a previous sample's counts
+    BinChoice bins;                   // the bins of the last reading (kind none unless it counted into bins)
+    BinEditor bin_editor;
+    std::string source_name;          // where the counts came from
+};
+
+// Exact / Monte Carlo work, run a slice per frame.
+struct Work {
+    PValueJob job;
+    bool running = false;
+    double started_ms = 0;
+};
+
 // The session: what is kept in the browser (autosave, recent list) and what is due to be
 // published to the page and kept, done once per frame by settle_frame().
 struct Session {
     enum class Publish { none, analysis, screen };
     Publish due_publish = Publish::none;  // the report, JSON and document to hand to the page
     bool due_save = false;                // the document to autosave (tab slot, latest, recent list)
+    std::vector<SavedAnalysis> recent;    // most recent first, at most kRecentLimit, shared by the tabs
+    std::string analysis_id;              // identity of the analysis on screen (its recent entry)
+    bool storage_refused = false;         // the browser refused or had no room: nothing is being kept
 };
 
+// What is handed over: chart images, print, write-up and table formats.
+struct Handover {
+    std::vector<ChartExport> exports;     // rendered one per frame by main
+    bool print_pending = false;           // print once the queued chart images are delivered
+    int writeup_style = 0;                // 0 plain, 1 Markdown, 2 TSV
+    bool decimal_comma = false;
+};
+
+// How the page is shown: the result tab, the theme, the planning inputs, the redraw budget.
+struct View {
+    ResultTab tab = ResultTab::curve;
+    bool dark = false;                    // dark theme
+    bool theme_from_system = true;        // follow the system setting until the user picks
+    bool theme_changed = true;            // the theme must be rebuilt before the next frame
+    int demo_index = -1;                  // demo on screen, or -1
+    double plan_w = 0.3, plan_target = 0.8, plan_n = 0;  // planning panel inputs
+    int frames_to_draw = 2;               // redraw budget: the page draws only on input or work
+    bool focus_screen = true;             // give the screen keyboard focus on the first frame
+    std::string notice;                   // a short confirmation ("Share link copied")
+};
+
+// Everything the page knows, one struct per feature; drawing only reads it.
 struct AppState {
-    Session session;
-    // Inputs
-    Analysis analysis;               // the analysis on screen (its last valid form)
-    std::string source_name;         // where the counts came from
+    // The analysis on screen
+    Analysis analysis;               // its last valid form
     ModelEditor model_editor;
     std::string input_error;         // why the latest edit was not applied (the previous result stays)
     // Quiet checks the user answered ("they are counts"), each for the counts it was answered for.
     std::vector<std::pair<std::string, std::vector<double>>> dismissed_questions;
+    std::vector<MergeChoice> merge_undo;  // the rules in force before each one-click merge
 
     // Outputs, recomputed by recompute()
     Result result;
     DensityCurve curve;
     std::string report;              // plain-text results block (also mirrored into the page)
 
-    // Exact / Monte Carlo work, run a slice per frame
-    PValueJob job;
-    bool job_running = false;
-    double job_started_ms = 0;
-
-    // The last paste that was refused: shown with its message while the previous analysis stays
-    std::string rejected_message;
-    std::string rejected_file;       // the file a refused input came from (empty for a paste)
-    int rejected_line = 0;
-    int rejected_column = 0;                 // the cell the message names (1-based), 0 when none
-    std::vector<std::string> rejected_cells;  // the cells of line rejected_line, as shown (split once)
-    std::string refused_paste;               // the whole refused text, kept only up to kFixableBytes
-    std::string fix_text;                    // its copy in the editor, while fix_open
-    bool fix_open = false;
-
-    // The last paste that was read, so the user can have it read as another shape
-    std::string pasted_text;
-    int pasted_shape = -1;           // InputShape as detected (or chosen), -1 when nothing pasted
-    bool pasted_previous = false;    // its third column was read as a previous sample's counts
-    BinChoice pasted_bins;           // the bins of the last reading (kind none unless it counted into bins)
-    BinEditor bin_editor;
-
-    // Many groups at once: the screen read from the last paste, and the group opened from it
-    GroupsView groups;
-
-    // Merge undo: the rules in force before each one-click merge
-    std::vector<MergeChoice> merge_undo;
-
-    // View
-    ResultTab tab = ResultTab::curve;
-    bool dark = false;               // dark theme
-    bool theme_from_system = true;   // follow the system setting until the user picks
-    bool theme_changed = true;       // the theme must be rebuilt before the next frame
-    int demo_index = -1;             // demo on screen, or -1
-    double plan_w = 0.3, plan_target = 0.8, plan_n = 0;  // planning panel inputs
-    int frames_to_draw = 2;          // redraw budget: the page draws only on input or work
-    bool focus_screen = true;        // give the screen keyboard focus on the first frame
-
-    // Leaving the page
-    std::vector<SavedAnalysis> recent;   // most recent first, at most kRecentLimit, shared by the tabs
-    std::string analysis_id;             // identity of the analysis on screen (its recent entry)
-    bool storage_refused = false;        // the browser refused or had no room: nothing is being kept
-    std::vector<ChartExport> exports;    // rendered one per frame by main
-    bool print_pending = false;          // print once the queued chart images are delivered
-    std::string notice;                  // a short confirmation ("Share link copied")
-    int writeup_style = 0;               // 0 plain, 1 Markdown, 2 TSV
-    bool decimal_comma = false;
+    Work work;
+    Refusal refused;
+    LastReading reading;
+    GroupsView groups;               // many groups at once: the screen read from the last paste
+    Session session;
+    Handover handover;
+    View view;
 };
 
 void load_demo(AppState& s, int index);                      // one of kDemoScenarios

@@ -147,7 +147,7 @@ void start(AppState& s, GroupedCounts counts, const ScreenChoice& choice) {
     s.analysis.pvalue.method = PValueMethod::asymptotic;
     share_categories(v.counts, &s.analysis);
     s.analysis.observed = pooled(v.counts);
-    s.demo_index = -1;
+    s.view.demo_index = -1;
     s.merge_undo.clear();
     sync_editor_from_model(s);
     recompute(s);  // the pooled counts as one analysis, then the screen (recompute_groups)
@@ -168,8 +168,8 @@ bool open_groups_read(AppState& s, const std::string& text, const GroupReadOptio
     if (!counts.status.ok || counts.groups.size() < 2) return false;
     s.groups.text = text;
     s.groups.read = options;
-    s.source_name = "pasted groups";
-    s.analysis_id.clear();  // a new entry in the recent list, not the analysis before it
+    s.reading.source_name = "pasted groups";
+    s.session.analysis_id.clear();  // a new entry in the recent list, not the analysis before it
     start(s, std::move(counts), s.groups.open ? s.groups.choice : ScreenChoice{});
     return true;
 }
@@ -178,7 +178,7 @@ bool open_groups_document(AppState& s, const GroupedCounts& counts, const Screen
     if (!counts.status.ok || counts.groups.size() < 2) return false;
     s.groups.text.clear();
     s.groups.read = GroupReadOptions{};
-    s.source_name = "opened document";
+    s.reading.source_name = "opened document";
     start(s, counts, choice);
     return true;
 }
@@ -199,7 +199,7 @@ void finish_screen(AppState& s) {
     show_groups_place(s);
     keep_analysis(s);  // titled with the flags just found
     set_progress(1, false);
-    s.frames_to_draw = 3;
+    s.view.frames_to_draw = 3;
 }
 
 }  // namespace
@@ -230,7 +230,7 @@ void recompute_groups(AppState& s) {
     show_groups_place(s);
     set_progress(p.fraction, true);
     start_work_loop();
-    s.frames_to_draw = 3;
+    s.view.frames_to_draw = 3;
 }
 
 void step_screen(AppState& s, double budget_ms) {
@@ -266,7 +266,7 @@ void cancel_screen(AppState& s) {
     show_groups_place(s);
     set_progress(fraction, false);
     publish_notice("Screen cancelled.");
-    s.frames_to_draw = 3;
+    s.view.frames_to_draw = 3;
 }
 
 void set_screen_choice(AppState& s, const ScreenChoice& choice) {
@@ -329,7 +329,7 @@ void sort_groups(AppState& s, GroupColumn column, bool ascending) {
     order_rows(s.groups);
     show_groups_place(s);
     keep_analysis(s);  // the order is part of the screen as saved
-    s.frames_to_draw = 3;
+    s.view.frames_to_draw = 3;
 }
 
 void open_group(AppState& s, int group) {
@@ -342,9 +342,9 @@ void open_group(AppState& s, int group) {
                       v.counts.counts.begin() + static_cast<std::ptrdiff_t>((group + 1) * k));
     v.opened = group;
     s.analysis = a;
-    s.source_name = "group " + v.counts.groups[static_cast<std::size_t>(group)];
+    s.reading.source_name = "group " + v.counts.groups[static_cast<std::size_t>(group)];
     sync_editor_from_model(s);
-    s.tab = ResultTab::categories;  // where it differs: the first question about a flagged group
+    s.view.tab = ResultTab::categories;  // where it differs: the first question about a flagged group
     if (!recompute(s)) publish_error(s.input_error);
     show_groups_place(s);
 }
@@ -357,7 +357,7 @@ void back_to_groups(AppState& s) {
     a.observed = pooled(v.counts);
     a.categories = v.counts.categories;
     s.analysis = a;
-    s.source_name = "pasted groups";
+    s.reading.source_name = "pasted groups";
     recompute(s);
 }
 
@@ -376,13 +376,13 @@ void copy_screen_summary(AppState& s) {
 
 void copy_groups_table(AppState& s) {
     if (!s.groups.result.status.ok) return;
-    copy_text(group_table(s.groups.result, TableExportOptions{TableFormat::tsv, s.decimal_comma, false}));
+    copy_text(group_table(s.groups.result, TableExportOptions{TableFormat::tsv, s.handover.decimal_comma, false}));
     publish_notice("Groups table copied (TSV).");
 }
 
 void download_groups_table(AppState& s) {
     if (!s.groups.result.status.ok) return;
-    download_text("tallyproof-groups.csv", "text/csv", group_table(s.groups.result, TableExportOptions{TableFormat::csv, s.decimal_comma, false}));
+    download_text("tallyproof-groups.csv", "text/csv", group_table(s.groups.result, TableExportOptions{TableFormat::csv, s.handover.decimal_comma, false}));
     publish_notice("Groups table downloaded (CSV).");
 }
 

@@ -65,7 +65,7 @@ struct Page {
 Page* g_page = nullptr;  // the one page; owned by main, reached from the browser's callbacks
 
 void want_frames(Page& p, int n) {
-    p.state.frames_to_draw = std::max(p.state.frames_to_draw, n);
+    p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, n);
     if (p.paused) {
         p.paused = false;
         emscripten_resume_main_loop();
@@ -79,7 +79,7 @@ void fit_to_stage(Page& p) {
         p.width = w;
         p.height = h;
         SDL_SetWindowSize(p.window, w, h);
-        p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);
+        p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 3);
     }
 }
 
@@ -96,7 +96,7 @@ std::string print_text(const tallyproof::web::AppState& s) {
     const tallyproof::WriteupOptions o;
     return tallyproof::writeup_sentence(s.analysis, s.result, o) + "\n\n" + s.report;
 }
-std::string print_title(const tallyproof::web::AppState& s) { return s.source_name + " · Tallyproof " TALLYPROOF_VERSION; }
+std::string print_title(const tallyproof::web::AppState& s) { return s.reading.source_name + " · Tallyproof " TALLYPROOF_VERSION; }
 
 // Renders one chart alone, 960 x 540 CSS pixels at 2x, reads it back and hands it to the page;
 // then restores the canvas. Runs inside the same animation frame as a normal frame drawn after
@@ -149,7 +149,7 @@ void take_touch(Page& p, const SDL_Event& e) {
     const ImVec2 at(e.tfinger.x * static_cast<float>(p.width), e.tfinger.y * static_cast<float>(p.height));
     if (!p.theme.touch) {  // the first touch on a device that did not say it had a touch screen
         p.theme.touch = true;
-        p.state.theme_changed = true;
+        p.state.view.theme_changed = true;
     }
     if (e.type == SDL_FINGERDOWN) {
         if (t.mode != Touch::Mode::none) return;  // a second finger: ignored
@@ -188,7 +188,7 @@ void apply_touch_to_mouse(Page& p) {
     tallyproof::web::note_tap(t.tap_frames == 2, t.tap_frames > 0);
     if (t.tap_frames > 0) {
         --t.tap_frames;
-        p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
+        p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 2);
     } else if (t.mode == Touch::Mode::none) {
         io.MousePos = ImVec2(-FLT_MAX, -FLT_MAX);  // no hover left behind where the finger was
         t.drives_mouse = false;
@@ -212,7 +212,7 @@ void apply_touch_scroll(Page& p) {
         }
     }
     t.scroll = ImVec2(0, 0);
-    p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
+    p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 2);
 }
 
 // Feeds this frame's events to ImGui. A key or button released in the same frame as it was
@@ -239,7 +239,7 @@ bool take_events(Page& p) {
         if (e.type == SDL_MOUSEBUTTONDOWN) buttons_down.push_back(e.button.button);
         if (e.type == SDL_FINGERDOWN || e.type == SDL_FINGERMOTION || e.type == SDL_FINGERUP) {
             take_touch(p, e);
-            p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);
+            p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 3);
             continue;
         }
         if (e.type == SDL_MOUSEMOTION || e.type == SDL_MOUSEBUTTONDOWN) p.touch.drives_mouse = false;  // a real mouse
@@ -247,7 +247,7 @@ bool take_events(Page& p) {
             !(e.key.keysym.mod & (KMOD_CTRL | KMOD_ALT))) {
             // Tab walks every control (keyboard_walk), not only ImGui 1.86's text fields.
             if (e.type == SDL_KEYDOWN) tallyproof::web::queue_tab((e.key.keysym.mod & KMOD_SHIFT) != 0);
-            p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);
+            p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 3);
             continue;
         }
         if (e.type == SDL_KEYDOWN && (e.key.keysym.scancode == SDL_SCANCODE_RETURN || e.key.keysym.scancode == SDL_SCANCODE_KP_ENTER) &&
@@ -265,9 +265,9 @@ bool take_events(Page& p) {
             io.KeyAlt = (mod & KMOD_ALT) != 0;
             io.KeySuper = (mod & KMOD_GUI) != 0;
         }
-        p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);  // ImGui settles within a few frames
+        p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 3);  // ImGui settles within a few frames
     }
-    if (!p.deferred.empty()) p.state.frames_to_draw = std::max(p.state.frames_to_draw, 3);
+    if (!p.deferred.empty()) p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 3);
     return !events.empty();
 }
 
@@ -279,27 +279,27 @@ void frame() {
     // Exact and Monte Carlo work runs in the page's own tasks between frames (tp_work), not
     // inside the animation frame, so it never waits for the display's refresh.
     if (tallyproof::web::work_running(p.state)) tallyproof::web::start_work_loop();
-    if (p.state.theme_changed) {
-        tallyproof::web::apply_palette(&p.theme, p.state.dark);
-        p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
-        p.state.theme_changed = false;
+    if (p.state.view.theme_changed) {
+        tallyproof::web::apply_palette(&p.theme, p.state.view.dark);
+        p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 2);
+        p.state.view.theme_changed = false;
     }
-    if (!p.state.exports.empty()) {
-        const tallyproof::web::ChartExport e = p.state.exports.front();
-        p.state.exports.erase(p.state.exports.begin());
+    if (!p.state.handover.exports.empty()) {
+        const tallyproof::web::ChartExport e = p.state.handover.exports.front();
+        p.state.handover.exports.erase(p.state.handover.exports.begin());
         render_chart_export(p, e);
-        if (p.state.exports.empty() && p.state.print_pending) {
-            p.state.print_pending = false;
+        if (p.state.handover.exports.empty() && p.state.handover.print_pending) {
+            p.state.handover.print_pending = false;
             tallyproof::web::print_report(print_text(p.state), print_title(p.state), true, tallyproof::glossary_notes(print_text(p.state), true));
         }
-        p.state.frames_to_draw = std::max(p.state.frames_to_draw, 2);
+        p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 2);
     }
-    if (p.state.frames_to_draw <= 0) {
+    if (p.state.view.frames_to_draw <= 0) {
         p.paused = true;
         emscripten_pause_main_loop();
         return;
     }
-    if (tallyproof::web::work_running(p.state) && !input && p.state.exports.empty()) {
+    if (tallyproof::web::work_running(p.state) && !input && p.state.handover.exports.empty()) {
         // While work runs, a frame without input is drawn only to move the progress bar, about
         // four times a second: each presented frame delays the next work task (by ~50 ms with
         // software WebGL), and nothing else on screen changes.
@@ -307,7 +307,7 @@ void frame() {
         if (now - p.last_job_frame_ms < 250) return;
         p.last_job_frame_ms = now;
     }
-    --p.state.frames_to_draw;
+    --p.state.view.frames_to_draw;
 
     ImGui_ImplOpenGL3_NewFrame();
     ImGui_ImplSDL2_NewFrame();
@@ -363,9 +363,9 @@ EMSCRIPTEN_KEEPALIVE void tp_load_demo(int index) {
 }
 // The system colour scheme changed; followed until the user picks a theme.
 EMSCRIPTEN_KEEPALIVE void tp_system_theme(int dark) {
-    if (!g_page || !g_page->state.theme_from_system) return;
-    g_page->state.dark = dark != 0;
-    g_page->state.theme_changed = true;
+    if (!g_page || !g_page->state.view.theme_from_system) return;
+    g_page->state.view.dark = dark != 0;
+    g_page->state.view.theme_changed = true;
     want_frames(*g_page, 3);
 }
 // The address's fragment changed (a share link opened in this tab).
@@ -405,7 +405,7 @@ EMSCRIPTEN_KEEPALIVE void tp_text_end() {
 // the clipboard) happens within the user's gesture, as browsers require.
 EMSCRIPTEN_KEEPALIVE void tp_frame_now() {
     if (!g_page) return;
-    for (int i = 0; i < 3 && g_page->state.frames_to_draw > 0; ++i) frame();
+    for (int i = 0; i < 3 && g_page->state.view.frames_to_draw > 0; ++i) frame();
 }
 // Before the browser prints: both charts are rendered now and the print layout rebuilt, so the
 // browser's own Print gives the same report as the menu item.
@@ -549,10 +549,10 @@ int main() {
     ImGui_ImplSDL2_InitForOpenGL(page.window, page.gl);
     ImGui_ImplOpenGL3_Init("#version 300 es");
     tallyproof::web::load_fonts(&page.theme, static_cast<float>(std::max(1.0, tallyproof::web::device_pixel_ratio())));
-    page.state.dark = tallyproof::web::system_prefers_dark();
+    page.state.view.dark = tallyproof::web::system_prefers_dark();
     page.theme.touch = tallyproof::web::has_touch_screen();
-    tallyproof::web::apply_palette(&page.theme, page.state.dark);
-    page.state.theme_changed = false;
+    tallyproof::web::apply_palette(&page.theme, page.state.view.dark);
+    page.state.view.theme_changed = false;
 
     tallyproof::web::restore_session(page.state);
     EM_ASM({ if (globalThis.tallyproofPage) globalThis.tallyproofPage.ready(); });

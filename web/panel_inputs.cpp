@@ -72,28 +72,28 @@ void draw_bin_row(AppState& s, const Theme& t) {
     const float apply_w = ImGui::CalcTextSize("Apply").x + style.FramePadding.x * 2;
     bool apply = false;
     ImGui::AlignTextToFramePadding();
-    if (s.pasted_bins.kind == BinChoice::Kind::edges) {
+    if (s.reading.bins.kind == BinChoice::Kind::edges) {
         ImGui::TextUnformatted("Edges");
         ImGui::SameLine();
         ImGui::SetNextItemWidth(-(apply_w + style.ItemSpacing.x));
-        apply |= text_field("##bin-edges", &s.bin_editor.edges, FieldKeys::text, ImGuiInputTextFlags_EnterReturnsTrue, "0, 10, 20, inf");
+        apply |= text_field("##bin-edges", &s.reading.bin_editor.edges, FieldKeys::text, ImGuiInputTextFlags_EnterReturnsTrue, "0, 10, 20, inf");
         mark_widget("bin edges");
         if (ImGui::IsItemHovered()) ImGui::SetTooltip("Bin edges in increasing order, separated by commas; -inf and inf leave the ends open.");
     } else {
         ImGui::TextUnformatted("Bins");
         ImGui::SameLine();
         ImGui::SetNextItemWidth(ImGui::CalcTextSize("00000").x + style.FramePadding.x * 2);
-        apply |= text_field("##bin-count", &s.bin_editor.count, FieldKeys::whole, ImGuiInputTextFlags_CharsDecimal | ImGuiInputTextFlags_EnterReturnsTrue);
+        apply |= text_field("##bin-count", &s.reading.bin_editor.count, FieldKeys::whole, ImGuiInputTextFlags_CharsDecimal | ImGuiInputTextFlags_EnterReturnsTrue);
         mark_widget("number of bins");
         if (ImGui::IsItemHovered()) ImGui::SetTooltip("The number of bins K, from 2 to %d.", kMaxBinsOnPage);
     }
     ImGui::SameLine();
     apply |= ImGui::Button("Apply");
     mark_widget("apply bins");
-    if (s.pasted_bins.kind != BinChoice::Kind::edges) {
+    if (s.reading.bins.kind != BinChoice::Kind::edges) {
         // What the bins are, in case the "Read as" box is too narrow to show it all.
-        const ModelKind model = s.pasted_bins.model.value_or(ModelKind::normal);
-        const char* what = s.pasted_bins.kind == BinChoice::Kind::equal_width ? "of equal width"
+        const ModelKind model = s.reading.bins.model.value_or(ModelKind::normal);
+        const char* what = s.reading.bins.kind == BinChoice::Kind::equal_width ? "of equal width"
                            : model == ModelKind::lognormal                     ? "lognormal fit"
                            : model == ModelKind::exponential                   ? "exponential fit"
                                                                                : "normal fit";
@@ -107,9 +107,9 @@ void draw_bin_row(AppState& s, const Theme& t) {
         }
     }
     if (apply) apply_bin_editor(s);
-    if (!s.bin_editor.error.empty()) {
+    if (!s.reading.bin_editor.error.empty()) {
         ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
-        wrapped_text(("Bins not applied: " + s.bin_editor.error).c_str());
+        wrapped_text(("Bins not applied: " + s.reading.bin_editor.error).c_str());
         ImGui::PopStyleColor();
     }
 }
@@ -307,8 +307,8 @@ void draw_counts_panel(AppState& s, const Theme& t) {
     // Room under the table for the rows that follow it: "Read as", the bins, "+ Add category".
     const bool read_as = offers_other_readings(s), bin_row = shows_bin_editor(s);
     float below = ImGui::GetFrameHeightWithSpacing() * (1.2f + (read_as ? 1 : 0) + (bin_row ? 1 : 0));
-    if (bin_row && !s.bin_editor.error.empty())
-        below += ImGui::CalcTextSize(("Bins not applied: " + s.bin_editor.error).c_str(), nullptr, false, ImGui::GetContentRegionAvail().x).y +
+    if (bin_row && !s.reading.bin_editor.error.empty())
+        below += ImGui::CalcTextSize(("Bins not applied: " + s.reading.bin_editor.error).c_str(), nullptr, false, ImGui::GetContentRegionAvail().x).y +
                  ImGui::GetStyle().ItemSpacing.y;
     const float avail = ImGui::GetContentRegionAvail().y - below;
     const float height = std::max(row_h * 3, std::min(want, std::max(avail, row_h * 3)));
@@ -425,27 +425,27 @@ void draw_counts_panel(AppState& s, const Theme& t) {
         int current = -1;
         DigitTest shown = DigitTest::first;
         const bool digit_model = digit_test_of(s.analysis.model.kind, &shown);
-        const Bins bins = s.pasted_bins.kind;
-        const ModelKind bin_model = s.pasted_bins.model.value_or(ModelKind::normal);
+        const Bins bins = s.reading.bins.kind;
+        const ModelKind bin_model = s.reading.bins.model.value_or(ModelKind::normal);
         for (int i = 0; i < count; ++i) {
             const bool same_digits = readings[i].digits < 0 || (digit_model && readings[i].digits == static_cast<int>(shown));
             const bool same_bins = readings[i].bins == bins && (bins != Bins::equal_probability || readings[i].model == bin_model);
-            const bool same_third = readings[i].third < 0 || (readings[i].third == 1) == s.pasted_previous;
-            if (static_cast<int>(readings[i].shape) == s.pasted_shape && same_digits && same_bins && same_third) current = i;
+            const bool same_third = readings[i].third < 0 || (readings[i].third == 1) == s.reading.previous;
+            if (static_cast<int>(readings[i].shape) == s.reading.shape && same_digits && same_bins && same_third) current = i;
         }
         ImGui::AlignTextToFramePadding();
         ImGui::TextUnformatted("Read as");
         ImGui::SameLine();
         ImGui::SetNextItemWidth(-1);
         const char* preview = s.groups.open ? "groups: one test per group"
-                              : current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.pasted_shape));
+                              : current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.reading.shape));
         if (s.groups.open) current = -1;
         if (ImGui::BeginCombo("##shape", preview,
                               ImGuiComboFlags_HeightLargest)) {  // every reading in view, none behind a scroll
             begin_menu_items(t);
             for (int i = 0; i < count; ++i) {
                 // A previous sample's column is offered where a third column was read.
-                if (readings[i].third == 1 && s.pasted_shape != static_cast<int>(InputShape::label_observed_expected)) continue;
+                if (readings[i].third == 1 && s.reading.shape != static_cast<int>(InputShape::label_observed_expected)) continue;
                 if (ImGui::Selectable(readings[i].name, i == current) && i != current) {
                     if (readings[i].bins != Bins::none) read_paste_into_bins(s, readings[i].bins, readings[i].model);
                     else reread_paste(s, static_cast<int>(readings[i].shape), readings[i].digits, readings[i].third);

@@ -101,7 +101,7 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
                                                  format_significant(r.monte_carlo.standard_error, 2) + ".");
     ImGui::PopStyleColor();
 
-    if (s.job_running) {
+    if (s.work.running) {
         const char* what = s.analysis.pvalue.method == PValueMethod::exact ? "Exact p-value" : "Monte Carlo p-value";
         char label[96];
         std::snprintf(label, sizeof label, "%s: %.0f%%", what, 100 * job_fraction(s));
@@ -251,47 +251,47 @@ void draw_planning_panel(AppState& s, const Theme& t) {
     section_title("How large a sample do I need? (items to inspect, complaints, survey replies)", t);
     muted_wrapped(t, "Power is the chance the test detects a departure of size w (Cohen's w: 0.1 small, 0.3 medium, 0.5 large) "
                      "at α = %s with df = %s.", format_plain(r.alpha).c_str(), format_count(r.df).c_str());
-    if (s.plan_n <= 0) s.plan_n = r.n;
+    if (s.view.plan_n <= 0) s.view.plan_n = r.n;
     ImGui::SetNextItemWidth(140);
-    ImGui::SliderScalar("effect size w", ImGuiDataType_Double, &s.plan_w, &kWMin, &kWMax, "%.3f");
+    ImGui::SliderScalar("effect size w", ImGuiDataType_Double, &s.view.plan_w, &kWMin, &kWMax, "%.3f");
     ImGui::SetNextItemWidth(140);
-    number_field("##plan-n", &s.plan_n, "%.0f", FieldKeys::whole);
+    number_field("##plan-n", &s.view.plan_n, "%.0f", FieldKeys::whole);
     ImGui::SameLine(0, ImGui::GetStyle().ItemInnerSpacing.x);
     ImGui::TextUnformatted("sample size N");
     ImGui::SetNextItemWidth(140);
-    ImGui::SliderScalar("target power", ImGuiDataType_Double, &s.plan_target, &kPowerMin, &kPowerMax, "%.2f");
-    const double power = gof_power(s.plan_w, std::max(1.0, s.plan_n), r.alpha, r.df);
+    ImGui::SliderScalar("target power", ImGuiDataType_Double, &s.view.plan_target, &kPowerMin, &kPowerMax, "%.2f");
+    const double power = gof_power(s.view.plan_w, std::max(1.0, s.view.plan_n), r.alpha, r.df);
     double need = NAN;
-    const Status st = gof_sample_size(s.plan_w, s.plan_target, r.alpha, r.df, &need);
+    const Status st = gof_sample_size(s.view.plan_w, s.view.plan_target, r.alpha, r.df, &need);
     ImGui::Spacing();
     ImGui::PushFont(t.strong);
-    ImGui::Text("Power at N = %s: %s", format_count(std::max(1.0, s.plan_n)).c_str(), format_fixed(power, 3).c_str());
-    if (st.ok) ImGui::Text("N needed for power %s: %s", format_fixed(s.plan_target, 2).c_str(), format_count(need).c_str());
+    ImGui::Text("Power at N = %s: %s", format_count(std::max(1.0, s.view.plan_n)).c_str(), format_fixed(power, 3).c_str());
+    if (st.ok) ImGui::Text("N needed for power %s: %s", format_fixed(s.view.plan_target, 2).c_str(), format_count(need).c_str());
     else wrapped_text(st.message.c_str());
     ImGui::PopFont();
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
     explained_text("planning observed w", "This analysis observed Cohen's w = " + format_fixed(r.effect.w, 3) + " (before the correction for chance) with N = " +
                                               format_count(r.n) + ".");
     ImGui::PopStyleColor();
-    if (ImGui::Button("Use the observed N")) s.plan_n = r.n;
+    if (ImGui::Button("Use the observed N")) s.view.plan_n = r.n;
 }
 
 void draw_writeup_panel(AppState& s, const Theme& t) {
     muted_wrapped(t, "Ready to paste into a report, an email or a spreadsheet.");
-    ImGui::RadioButton("Plain text", &s.writeup_style, 0);
+    ImGui::RadioButton("Plain text", &s.handover.writeup_style, 0);
     mark_widget("Plain text");
     flow_next(radio_width("Markdown"));
-    ImGui::RadioButton("Markdown", &s.writeup_style, 1);
+    ImGui::RadioButton("Markdown", &s.handover.writeup_style, 1);
     mark_widget("Markdown");
     flow_next(radio_width("Spreadsheet (TSV)"));
-    ImGui::RadioButton("Spreadsheet (TSV)", &s.writeup_style, 2);
+    ImGui::RadioButton("Spreadsheet (TSV)", &s.handover.writeup_style, 2);
     explain_item("Spreadsheet (TSV)", "Spreadsheet (TSV)");
     flow_next(radio_width("decimal comma"));
-    ImGui::Checkbox("decimal comma", &s.decimal_comma);
+    ImGui::Checkbox("decimal comma", &s.handover.decimal_comma);
     mark_widget("decimal comma");
     WriteupOptions o;
-    o.style = static_cast<WriteupStyle>(s.writeup_style);
-    o.decimal_comma = s.decimal_comma;
+    o.style = static_cast<WriteupStyle>(s.handover.writeup_style);
+    o.decimal_comma = s.handover.decimal_comma;
     std::string block = writeup(s.analysis, s.result, o);
     const float pad = 2 * ImGui::GetStyle().FramePadding.x;
     if (ImGui::Button("Copy sentence")) copy_writeup(s, true);

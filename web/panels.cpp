@@ -26,12 +26,12 @@ void draw_title(AppState& s, const Theme& t) {
     ImGui::TextUnformatted("Tallyproof");
     ImGui::PopFont();
     const float pad = 2 * ImGui::GetStyle().FramePadding.x, gap = ImGui::GetStyle().ItemSpacing.x;
-    const char* theme_label = s.dark ? "Light theme" : "Dark theme";
+    const char* theme_label = s.view.dark ? "Light theme" : "Dark theme";
     const char* labels[] = {"Open a file", "Paste", "Save & share ▾", "Examples ▾", theme_label, "Copy results"};
     float buttons = 0;
     for (const char* l : labels) buttons += ImGui::CalcTextSize(l).x + pad + (buttons > 0 ? gap : 0);
     const float right = ImGui::GetWindowContentRegionMax().x;
-    std::string subtitle = "chi-square goodness of fit · v" + std::string(TALLYPROOF_VERSION) + " · " + s.source_name;
+    std::string subtitle = "chi-square goodness of fit · v" + std::string(TALLYPROOF_VERSION) + " · " + s.reading.source_name;
     ImGui::SameLine();
     const float room = right - ImGui::GetCursorPosX() - buttons - 16;
     if (ImGui::CalcTextSize(subtitle.c_str()).x > room) subtitle = "v" + std::string(TALLYPROOF_VERSION);
@@ -76,15 +76,15 @@ void draw_title(AppState& s, const Theme& t) {
                 case 2: download_table(s); break;
                 case 3: queue_chart_export(s, ResultTab::curve, static_cast<int>(ImagePurpose::download)); break;
                 case 4: queue_chart_export(s, ResultTab::bars, static_cast<int>(ImagePurpose::download)); break;
-                case 5: queue_chart_export(s, s.tab == ResultTab::bars ? ResultTab::bars : ResultTab::curve, static_cast<int>(ImagePurpose::copy)); break;
+                case 5: queue_chart_export(s, s.view.tab == ResultTab::bars ? ResultTab::bars : ResultTab::curve, static_cast<int>(ImagePurpose::copy)); break;
                 case 6: request_print(s); break;
             }
         }
         ImGui::Separator();
         ImGui::TextDisabled("Recent analyses (kept in this browser)");
-        for (int i = 0; i < static_cast<int>(s.recent.size()); ++i) {
+        for (int i = 0; i < static_cast<int>(s.session.recent.size()); ++i) {
             ImGui::PushID(i);
-            std::string label = s.recent[i].when + "  " + s.recent[i].title;
+            std::string label = s.session.recent[i].when + "  " + s.session.recent[i].title;
             // On a narrow screen a long title is cut (at a character boundary) so the menu stays on screen.
             const float room = ImGui::GetMainViewport()->Size.x - 2 * ImGui::GetStyle().WindowPadding.x - 24 - ImGui::CalcTextSize("Remove").x - 3 * ImGui::GetStyle().FramePadding.x;
             if (ImGui::CalcTextSize(label.c_str()).x > room) {
@@ -102,7 +102,7 @@ void draw_title(AppState& s, const Theme& t) {
             mark_widget(("recent-" + std::to_string(i)).c_str());
             ImGui::PopID();
         }
-        if (s.recent.empty()) ImGui::TextDisabled("none yet");
+        if (s.session.recent.empty()) ImGui::TextDisabled("none yet");
         ImGui::Separator();
         if (ImGui::Selectable("Start fresh")) start_fresh(s);
         mark_widget("Start fresh");
@@ -116,7 +116,7 @@ void draw_title(AppState& s, const Theme& t) {
         begin_menu_items(t);
         for (int i = 0; i < kDemoScenarioCount; ++i) {
             ImGui::PushID(i);
-            if (ImGui::Selectable(kDemoScenarios[i].title, s.demo_index == i)) load_demo(s, i);
+            if (ImGui::Selectable(kDemoScenarios[i].title, s.view.demo_index == i)) load_demo(s, i);
             mark_widget(kDemoScenarios[i].title);
             ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.muted));
             ImGui::Indent(12);
@@ -132,9 +132,9 @@ void draw_title(AppState& s, const Theme& t) {
     }
     next(theme_label);
     if (ImGui::Button(theme_label)) {
-        s.dark = !s.dark;
-        s.theme_from_system = false;
-        s.theme_changed = true;
+        s.view.dark = !s.view.dark;
+        s.view.theme_from_system = false;
+        s.view.theme_changed = true;
     }
     mark_widget("Theme");
     next("Copy results");
@@ -143,23 +143,23 @@ void draw_title(AppState& s, const Theme& t) {
 }
 
 void draw_notice(AppState& s, const Theme& t) {
-    if (s.notice.empty()) return;
-    if (compact_button("OK", t)) s.notice.clear();
+    if (s.view.notice.empty()) return;
+    if (compact_button("OK", t)) s.view.notice.clear();
     mark_widget("notice-ok");
     ImGui::SameLine();
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.accent));
-    wrapped_text(s.notice.c_str());
+    wrapped_text(s.view.notice.c_str());
     ImGui::PopStyleColor();
 }
 
 // The refused line, cell by cell, with the cell the message names boxed in the warning colour.
 void draw_refused_line(const AppState& s, const Theme& t) {
-    ImGui::Text("Line %d:", s.rejected_line);
-    const std::vector<std::string>& cells = s.rejected_cells;
+    ImGui::Text("Line %d:", s.refused.line);
+    const std::vector<std::string>& cells = s.refused.cells;
     ImDrawList* dl = ImGui::GetWindowDrawList();
     for (std::size_t c = 0; c < cells.size() && c < 12; ++c) {
         ImGui::SameLine(0, c == 0 ? 8.0f : 14.0f);
-        const bool marked = static_cast<int>(c) + 1 == s.rejected_column;
+        const bool marked = static_cast<int>(c) + 1 == s.refused.column;
         const std::string shown = cells[c].empty() ? std::string("(empty)") : cells[c].substr(0, 40);
         if (marked) {
             const ImVec2 p = ImGui::GetCursorScreenPos(), size = ImGui::CalcTextSize(shown.c_str());
@@ -180,42 +180,42 @@ void draw_refused_line(const AppState& s, const Theme& t) {
 }
 
 void draw_rejection_notice(AppState& s, const Theme& t) {
-    if (s.rejected_message.empty()) return;
+    if (s.refused.message.empty()) return;
     ImGui::PushStyleColor(ImGuiCol_ChildBg, ImGui::ColorConvertU32ToFloat4(t.warn_bg));
     ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));
     const ImGuiStyle& style = ImGui::GetStyle();
-    const std::string headline = (s.rejected_file.empty() ? "Paste not used: " : "File not used: ") + s.rejected_message;
+    const std::string headline = (s.refused.file.empty() ? "Paste not used: " : "File not used: ") + s.refused.message;
     const float wrap = ImGui::GetContentRegionAvail().x - style.WindowPadding.x * 2;
     ImGui::PushFont(t.strong);
     float h = ImGui::CalcTextSize(headline.c_str(), nullptr, false, wrap).y + style.ItemSpacing.y;
     ImGui::PopFont();
     h += ImGui::GetFrameHeightWithSpacing() * (t.touch && wrap < 560 ? 2.0f : 1.0f);  // the line with its buttons
-    if (!s.rejected_cells.empty()) h += ImGui::GetTextLineHeightWithSpacing() + 2;
+    if (!s.refused.cells.empty()) h += ImGui::GetTextLineHeightWithSpacing() + 2;
     const float editor_h = ImGui::GetTextLineHeight() * 8 + style.FramePadding.y * 2;
-    if (s.fix_open) h += editor_h + style.ItemSpacing.y + ImGui::GetFrameHeightWithSpacing();
+    if (s.refused.fix_open) h += editor_h + style.ItemSpacing.y + ImGui::GetFrameHeightWithSpacing();
     h += style.WindowPadding.y * 2;
     ImGui::BeginChild("rejected", ImVec2(0, h), true, ImGuiWindowFlags_NoScrollbar);
     ImGui::PushFont(t.strong);
     wrapped_text(headline.c_str());
     ImGui::PopFont();
-    if (!s.rejected_cells.empty()) draw_refused_line(s, t);
+    if (!s.refused.cells.empty()) draw_refused_line(s, t);
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("The analysis below is still the previous one.");
-    if (!s.refused_paste.empty() && !s.fix_open) {
+    if (!s.refused.text.empty() && !s.refused.fix_open) {
         flow_next(ImGui::CalcTextSize("Fix it here").x + 2 * ImGui::GetStyle().FramePadding.x);
         if (compact_button("Fix it here", t)) edit_refused_paste(s, true);
         mark_widget("fix it here");
-    } else if (s.refused_paste.empty()) {
-        const char* next = s.rejected_file.empty() ? "Fix the source and paste again." : "Choose another file, or copy the cells and paste them.";
+    } else if (s.refused.text.empty()) {
+        const char* next = s.refused.file.empty() ? "Fix the source and paste again." : "Choose another file, or copy the cells and paste them.";
         flow_next(ImGui::CalcTextSize(next).x);
         ImGui::TextUnformatted(next);
     }
     flow_next(ImGui::CalcTextSize("Dismiss").x + 2 * ImGui::GetStyle().FramePadding.x);
     if (compact_button("Dismiss", t)) dismiss_refusal(s);
     mark_widget("dismiss refusal");
-    if (s.fix_open) {
+    if (s.refused.fix_open) {
         ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.ink));
-        text_field("##fix", &s.fix_text, FieldKeys::multiline, ImGuiInputTextFlags_AllowTabInput, nullptr, ImVec2(-1, editor_h));
+        text_field("##fix", &s.refused.fix_text, FieldKeys::multiline, ImGuiInputTextFlags_AllowTabInput, nullptr, ImVec2(-1, editor_h));
         mark_widget("refused paste editor");
         ImGui::PopStyleColor();
         if (ImGui::Button("Read the edited text")) apply_fixed_paste(s);
@@ -249,7 +249,7 @@ void draw_inputs(AppState& s, const Theme& t, float height) {
     if (panel) ImGui::EndChild();
 }
 
-// The open result view (s.tab), over the room left above its notes and cautions.
+// The open result view (s.view.tab), over the room left above its notes and cautions.
 void draw_view(AppState& s, const Theme& t) {
     const ImVec2 avail = ImGui::GetContentRegionAvail();
     float cautions_h = 0;  // room for the notes and cautions under the view
@@ -258,7 +258,7 @@ void draw_view(AppState& s, const Theme& t) {
             cautions_h += ImGui::CalcTextSize(("Caution: " + w).c_str(), nullptr, false, avail.x).y + ImGui::GetStyle().ItemSpacing.y;
     cautions_h += ImGui::GetFrameHeightWithSpacing() * static_cast<float>(s.result.questions.size());  // "They are counts"
     const ImVec2 area(avail.x, std::max(200.0f, avail.y - cautions_h));
-    switch (s.tab) {
+    switch (s.view.tab) {
         case ResultTab::curve: draw_density_plot(s.curve, s.result, area, t); break;
         case ResultTab::bars: draw_bar_chart(s.result, area, t); break;
         case ResultTab::categories:
@@ -302,7 +302,7 @@ void draw_results(AppState& s, const Theme& t, float height) {
                 const bool open = ImGui::BeginTabItem(tab.name);
                 mark_widget(tab.name);
                 if (open) {
-                    s.tab = tab.tab;
+                    s.view.tab = tab.tab;
                     draw_view(s, t);
                     ImGui::EndTabItem();
                 }
@@ -313,9 +313,9 @@ void draw_results(AppState& s, const Theme& t, float height) {
         // Too narrow for the tab names in full: the views as buttons that wrap, the open one marked.
         for (std::size_t i = 0; i < sizeof tabs / sizeof tabs[0]; ++i) {
             if (i) flow_next(ImGui::CalcTextSize(tabs[i].name).x + 2 * style.FramePadding.x);
-            const bool open = s.tab == tabs[i].tab;
+            const bool open = s.view.tab == tabs[i].tab;
             if (open) ImGui::PushStyleColor(ImGuiCol_Button, style.Colors[ImGuiCol_HeaderActive]);
-            if (ImGui::Button(tabs[i].name)) s.tab = tabs[i].tab;
+            if (ImGui::Button(tabs[i].name)) s.view.tab = tabs[i].tab;
             if (open) ImGui::PopStyleColor();
             mark_widget(tabs[i].name);
         }
@@ -340,9 +340,9 @@ void draw_screen(AppState& s, const Theme& t) {
     ImGui::SetNextWindowPos(vp->Pos);
     ImGui::SetNextWindowSize(vp->Size);
     const bool wide = vp->Size.x >= 900;
-    if (s.focus_screen) {  // keyboard users start on the page, without a click first
+    if (s.view.focus_screen) {  // keyboard users start on the page, without a click first
         ImGui::SetNextWindowFocus();
-        s.focus_screen = false;
+        s.view.focus_screen = false;
     }
     ImGui::Begin("Tallyproof", nullptr,
                  ImGuiWindowFlags_NoDecoration | ImGuiWindowFlags_NoMove | ImGuiWindowFlags_NoSavedSettings |
