@@ -27,6 +27,7 @@
 #include "keyboard_walk.hpp"
 #include "number_reading.hpp"
 #include "merge_categories.hpp"
+#include "page.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
 #include "tallyproof_version.hpp"
@@ -34,33 +35,9 @@
 #include "theme.hpp"
 #include "writeup.hpp"
 
-namespace {
+#include "page.hpp"
 
-// One finger on a touch screen. A tap is a click where the finger lifted; a drag scrolls the
-// table or panel under it (the browser's own scrolling is off over the canvas); a finger held
-// still for a moment before moving presses and drags (sliders, text selection).
-struct Touch {
-    enum class Mode { none, pending, scrolling, pressing };
-    Mode mode = Mode::none;
-    SDL_FingerID finger = 0;
-    ImVec2 start, pos;
-    double down_ms = 0;
-    ImVec2 scroll;             // distance to scroll the panel under the finger by, next frame
-    int tap_frames = 0;        // 2: press this frame; 1: release this frame
-    bool drives_mouse = false; // ImGui's mouse follows the finger (until a real mouse moves)
-};
-
-struct Page {
-    SDL_Window* window = nullptr;
-    SDL_GLContext gl = nullptr;
-    tallyproof::web::AppState state;
-    tallyproof::web::Theme theme;
-    int width = 0, height = 0;
-    bool paused = false;
-    double last_job_frame_ms = 0;  // when a frame last showed a running job's progress
-    std::vector<SDL_Event> deferred;  // events held back to the next frame (see take_events)
-    Touch touch;
-};
+namespace tallyproof::web {
 
 Page* g_page = nullptr;  // the one page; owned by main, reached from the browser's callbacks
 
@@ -72,9 +49,9 @@ void want_frames(Page& p, int n) {
     }
 }
 
-void fit_to_stage(Page& p) {
+static void fit_to_stage(Page& p) {
     int w = 0, h = 0;
-    tallyproof::web::stage_size(&w, &h);
+    stage_size(&w, &h);
     if (w > 0 && h > 0 && (w != p.width || h != p.height)) {
         p.width = w;
         p.height = h;
@@ -83,25 +60,25 @@ void fit_to_stage(Page& p) {
     }
 }
 
-void handle_shortcuts(Page& p) {
+static void handle_shortcuts(Page& p) {
     const ImGuiIO& io = ImGui::GetIO();
     const bool mod = io.KeyCtrl || io.KeySuper;
     if (mod && io.KeyShift && ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_C), false))
-        tallyproof::web::copy_text(p.state.report);
-    if (mod && ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_Enter), false)) tallyproof::web::recompute(p.state);
+        copy_text(p.state.report);
+    if (mod && ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_Enter), false)) recompute(p.state);
 }
 
 // The text of the print layout: the write-up sentence over the full results block.
-std::string print_text(const tallyproof::web::AppState& s) {
+std::string print_text(const AppState& s) {
     const tallyproof::WriteupOptions o;
     return tallyproof::writeup_sentence(s.analysis, s.result, o) + "\n\n" + s.report;
 }
-std::string print_title(const tallyproof::web::AppState& s) { return s.reading.source_name + " · Tallyproof " TALLYPROOF_VERSION; }
+std::string print_title(const AppState& s) { return s.reading.source_name + " · Tallyproof " TALLYPROOF_VERSION; }
 
 // Renders one chart alone, 960 x 540 CSS pixels at 2x, reads it back and hands it to the page;
 // then restores the canvas. Runs inside the same animation frame as a normal frame drawn after
 // it, so the export never shows on screen.
-void render_chart_export(Page& p, const tallyproof::web::ChartExport& e) {
+void render_chart_export(Page& p, const ChartExport& e) {
     using namespace tallyproof::web;
     const int cw = 960, ch = 540, scale = 2, pw = cw * scale, ph = ch * scale;
     int fw = 0, fh = 0;
@@ -144,7 +121,7 @@ void render_chart_export(Page& p, const tallyproof::web::ChartExport& e) {
 constexpr float kDragSlop = 10;          // CSS px a finger moves before a tap becomes a drag
 constexpr double kHoldToPressMs = 450;   // a finger held this long, then moved, presses rather than scrolls
 
-void take_touch(Page& p, const SDL_Event& e) {
+static void take_touch(Page& p, const SDL_Event& e) {
     Touch& t = p.touch;
     const ImVec2 at(e.tfinger.x * static_cast<float>(p.width), e.tfinger.y * static_cast<float>(p.height));
     if (!p.theme.touch) {  // the first touch on a device that did not say it had a touch screen
@@ -178,14 +155,14 @@ void take_touch(Page& p, const SDL_Event& e) {
 }
 
 // After the backend's NewFrame: ImGui's mouse is the finger while a touch drives it.
-void apply_touch_to_mouse(Page& p) {
+static void apply_touch_to_mouse(Page& p) {
     Touch& t = p.touch;
-    tallyproof::web::note_tap(false, false);
+    note_tap(false, false);
     if (!t.drives_mouse) return;
     ImGuiIO& io = ImGui::GetIO();
     io.MousePos = t.pos;
     io.MouseDown[0] = t.mode == Touch::Mode::pressing || t.tap_frames == 2;
-    tallyproof::web::note_tap(t.tap_frames == 2, t.tap_frames > 0);
+    note_tap(t.tap_frames == 2, t.tap_frames > 0);
     if (t.tap_frames > 0) {
         --t.tap_frames;
         p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 2);
@@ -197,7 +174,7 @@ void apply_touch_to_mouse(Page& p) {
 
 // After NewFrame (which found the window under the finger): a drag scrolls the nearest window
 // under it that can scroll that way.
-void apply_touch_scroll(Page& p) {
+static void apply_touch_scroll(Page& p) {
     Touch& t = p.touch;
     if (t.scroll.x == 0 && t.scroll.y == 0) return;
     for (int axis = 0; axis < 2; ++axis) {
@@ -218,7 +195,7 @@ void apply_touch_scroll(Page& p) {
 // Feeds this frame's events to ImGui. A key or button released in the same frame as it was
 // pressed would never be seen as pressed (the loop sleeps while idle, so a quick tap can arrive
 // whole): the release and everything after it wait for the next frame.
-bool take_events(Page& p) {
+static bool take_events(Page& p) {
     std::vector<SDL_Event> events;
     events.swap(p.deferred);
     SDL_Event ev;
@@ -246,13 +223,13 @@ bool take_events(Page& p) {
         if ((e.type == SDL_KEYDOWN || e.type == SDL_KEYUP) && e.key.keysym.scancode == SDL_SCANCODE_TAB &&
             !(e.key.keysym.mod & (KMOD_CTRL | KMOD_ALT))) {
             // Tab walks every control (keyboard_walk), not only ImGui 1.86's text fields.
-            if (e.type == SDL_KEYDOWN) tallyproof::web::queue_tab((e.key.keysym.mod & KMOD_SHIFT) != 0);
+            if (e.type == SDL_KEYDOWN) queue_tab((e.key.keysym.mod & KMOD_SHIFT) != 0);
             p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 3);
             continue;
         }
         if (e.type == SDL_KEYDOWN && (e.key.keysym.scancode == SDL_SCANCODE_RETURN || e.key.keysym.scancode == SDL_SCANCODE_KP_ENTER) &&
             !(e.key.keysym.mod & (KMOD_CTRL | KMOD_ALT | KMOD_GUI)))
-            tallyproof::web::queue_enter();
+            queue_enter();
         ImGui_ImplSDL2_ProcessEvent(&e);
         if (e.type == SDL_KEYDOWN || e.type == SDL_KEYUP) {
             // The backend reads modifiers from SDL_GetModState(), which already reflects every
@@ -275,22 +252,22 @@ void frame() {
     Page& p = *g_page;
     const bool input = take_events(p);
     fit_to_stage(p);
-    tallyproof::web::settle_frame(p.state);  // what the last changes marked due: published and kept once
+    settle_frame(p.state);  // what the last changes marked due: published and kept once
     // Exact and Monte Carlo work runs in the page's own tasks between frames (tp_work), not
     // inside the animation frame, so it never waits for the display's refresh.
-    if (tallyproof::web::work_running(p.state)) tallyproof::web::start_work_loop();
+    if (work_running(p.state)) start_work_loop();
     if (p.state.view.theme_changed) {
-        tallyproof::web::apply_palette(&p.theme, p.state.view.dark);
+        apply_palette(&p.theme, p.state.view.dark);
         p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 2);
         p.state.view.theme_changed = false;
     }
     if (!p.state.handover.exports.empty()) {
-        const tallyproof::web::ChartExport e = p.state.handover.exports.front();
+        const ChartExport e = p.state.handover.exports.front();
         p.state.handover.exports.erase(p.state.handover.exports.begin());
         render_chart_export(p, e);
         if (p.state.handover.exports.empty() && p.state.handover.print_pending) {
             p.state.handover.print_pending = false;
-            tallyproof::web::print_report(print_text(p.state), print_title(p.state), true, tallyproof::glossary_notes(print_text(p.state), true));
+            print_report(print_text(p.state), print_title(p.state), true, tallyproof::glossary_notes(print_text(p.state), true));
         }
         p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 2);
     }
@@ -299,7 +276,7 @@ void frame() {
         emscripten_pause_main_loop();
         return;
     }
-    if (tallyproof::web::work_running(p.state) && !input && p.state.handover.exports.empty()) {
+    if (work_running(p.state) && !input && p.state.handover.exports.empty()) {
         // While work runs, a frame without input is drawn only to move the progress bar, about
         // four times a second: each presented frame delays the next work task (by ~50 ms with
         // software WebGL), and nothing else on screen changes.
@@ -312,17 +289,17 @@ void frame() {
     ImGui_ImplOpenGL3_NewFrame();
     ImGui_ImplSDL2_NewFrame();
     apply_touch_to_mouse(p);
-    tallyproof::web::begin_control_walk();
+    begin_control_walk();
     ImGui::NewFrame();
     apply_touch_scroll(p);
-    tallyproof::web::apply_tab();
+    apply_tab();
     handle_shortcuts(p);
-    tallyproof::web::draw_screen(p.state, p.theme);
-    tallyproof::web::publish_text_entry();
-    tallyproof::web::publish_focus();
+    draw_screen(p.state, p.theme);
+    publish_text_entry();
+    publish_focus();
     ImGui::Render();
-    tallyproof::web::run_clip_audit();
-    tallyproof::web::settle_frame(p.state);  // what this frame's controls changed
+    run_clip_audit();
+    settle_frame(p.state);  // what this frame's controls changed
     int fw = 0, fh = 0;
     SDL_GL_GetDrawableSize(p.window, &fw, &fh);
     glViewport(0, 0, fw, fh);
@@ -332,193 +309,9 @@ void frame() {
     ImGui_ImplOpenGL3_RenderDrawData(ImGui::GetDrawData());
 }
 
-}  // namespace
+}  // namespace tallyproof::web
 
-extern "C" {
-// Called by the page glue with UTF-8 text from a paste event.
-EMSCRIPTEN_KEEPALIVE void tp_paste(const char* text, int length) {
-    if (!g_page || !text || length < 0) return;
-    tallyproof::web::apply_input(g_page->state, std::string(text, static_cast<std::size_t>(length)));
-    want_frames(*g_page, 3);
-}
-// Called by the page glue with the bytes of a dropped or opened file and its name (UTF-8).
-EMSCRIPTEN_KEEPALIVE void tp_open_file(const char* bytes, int length, const char* name) {
-    if (!g_page || !bytes || length < 0) return;
-    tallyproof::web::apply_input(g_page->state, std::string(bytes, static_cast<std::size_t>(length)), name ? name : "");
-    want_frames(*g_page, 3);
-}
-// Called by the page glue on any browser input so the next frames are drawn.
-EMSCRIPTEN_KEEPALIVE void tp_wake() {
-    if (g_page) want_frames(*g_page, 3);
-}
-// Publishes and keeps now what the last changes marked due (the page is being hidden or left).
-EMSCRIPTEN_KEEPALIVE void tp_settle() {
-    if (g_page) tallyproof::web::settle_frame(g_page->state);
-}
-// Loads demo scenario `index` (the Examples menu does the same).
-EMSCRIPTEN_KEEPALIVE void tp_load_demo(int index) {
-    if (!g_page) return;
-    tallyproof::web::load_demo(g_page->state, index);
-    want_frames(*g_page, 3);
-}
-// The system colour scheme changed; followed until the user picks a theme.
-EMSCRIPTEN_KEEPALIVE void tp_system_theme(int dark) {
-    if (!g_page || !g_page->state.view.theme_from_system) return;
-    g_page->state.view.dark = dark != 0;
-    g_page->state.view.theme_changed = true;
-    want_frames(*g_page, 3);
-}
-// The address's fragment changed (a share link opened in this tab).
-EMSCRIPTEN_KEEPALIVE void tp_open_fragment() {
-    if (!g_page) return;
-    const std::string fragment = tallyproof::web::location_fragment();
-    if (!fragment.empty()) tallyproof::web::open_share_fragment(g_page->state, fragment);
-    want_frames(*g_page, 3);
-}
-// Runs exact or Monte Carlo work for about budget_ms; called by the page glue in tasks of its
-// own, back to back while it returns 1. Progress is drawn about four times a second (each frame
-// in software WebGL costs what the work could use), and at once when the job ends.
-EMSCRIPTEN_KEEPALIVE int tp_work(double budget_ms) {
-    if (!g_page || !tallyproof::web::work_running(g_page->state)) return 0;
-    Page& p = *g_page;
-    tallyproof::web::step_job(p.state, budget_ms);
-    const double now = emscripten_get_now();
-    const bool running = tallyproof::web::work_running(p.state);
-    if (!running || now - p.last_job_frame_ms >= 250) want_frames(p, 2);  // frame() stamps the time
-    return running ? 1 : 0;
-}
-// The page's text-entry element changed (typing, composition, deletion, paste, selection): its
-// whole text and selection (UTF-8 byte offsets) replace the active field's.
-EMSCRIPTEN_KEEPALIVE void tp_text_input(const char* text, int length, int selection_start, int selection_end) {
-    if (!g_page) return;
-    tallyproof::web::receive_text_entry(text, length, selection_start, selection_end);
-    want_frames(*g_page, 3);
-}
-// The text-entry element lost focus (the user tapped elsewhere on the page, or closed the keyboard).
-EMSCRIPTEN_KEEPALIVE void tp_text_end() {
-    if (!g_page) return;
-    tallyproof::web::end_text_entry();
-    want_frames(*g_page, 3);
-}
-// Draws the pending frames now, inside the page's handler of a tap or click, so that what the
-// click does (focus a text field and open the on-screen keyboard, open the file picker, read
-// the clipboard) happens within the user's gesture, as browsers require.
-EMSCRIPTEN_KEEPALIVE void tp_frame_now() {
-    if (!g_page) return;
-    for (int i = 0; i < 3 && g_page->state.view.frames_to_draw > 0; ++i) frame();
-}
-// Before the browser prints: both charts are rendered now and the print layout rebuilt, so the
-// browser's own Print gives the same report as the menu item.
-EMSCRIPTEN_KEEPALIVE void tp_prepare_print() {
-    if (!g_page) return;
-    using namespace tallyproof::web;
-    render_chart_export(*g_page, ChartExport{ResultTab::curve, static_cast<int>(ImagePurpose::print)});
-    render_chart_export(*g_page, ChartExport{ResultTab::bars, static_cast<int>(ImagePurpose::print)});
-    print_report(print_text(g_page->state), print_title(g_page->state), false, tallyproof::glossary_notes(print_text(g_page->state), true));
-    want_frames(*g_page, 2);
-}
-// The page's HTML form (shell.html), for screen readers, switch access and keyboard users: each
-// action goes through the same AppState transition as the canvas control it stands for, and a
-// refused value is announced (the live region) like a refused paste.
-enum class FormAction { counts = 0, model = 1, values = 2, alpha = 3, method = 4, merge = 5, copy_writeup = 6, copy_table = 7, download = 8,
-                        answer_question = 9, sort_groups = 10, open_group = 11, back_to_groups = 12, one_sample = 13,
-                        goal = 14 };
-EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
-    if (!g_page || !text) return;
-    using namespace tallyproof::web;
-    AppState& s = g_page->state;
-    const std::string value = text;
-    s.input_error.clear();
-    switch (static_cast<FormAction>(action)) {
-        case FormAction::counts: apply_paste(s, value); break;
-        case FormAction::model: {
-            tallyproof::ModelKind kind{};
-            if (tallyproof::model_kind_from_name(value, &kind) && kind != s.analysis.model.kind) set_model_kind(s, kind);
-            break;
-        }
-        case FormAction::values:
-            s.model_editor.values = value;
-            apply_model_editor(s);
-            break;
-        case FormAction::alpha: apply_alpha_text(s, value); break;
-        case FormAction::method:
-            for (auto m : {tallyproof::PValueMethod::asymptotic, tallyproof::PValueMethod::exact, tallyproof::PValueMethod::monte_carlo})
-                if (value == tallyproof::pvalue_method_name(m) && m != s.analysis.pvalue.method) set_pvalue_method(s, m);
-            break;
-        case FormAction::merge: {
-            tallyproof::MergeRule rule{};
-            if (tallyproof::merge_rule_from_name(value, &rule) && rule != s.analysis.merge.rule) merge_thin_cells(s, rule);
-            break;
-        }
-        case FormAction::copy_writeup: copy_writeup(s, false); break;
-        case FormAction::copy_table: copy_table(s); break;
-        case FormAction::download: download_document(s); break;
-        case FormAction::answer_question: dismiss_question(s, 0); break;  // "They are counts"
-        case FormAction::sort_groups: {  // "q,1": the column's name as the screen document spells it, then 1 ascending / 0 descending
-            const std::string name = value.substr(0, value.find(','));
-            const bool ascending = value.size() > name.size() + 1 && value[name.size() + 1] == '1';
-            const char* names[] = {"name", "n", "statistic", "df", "p_value", "q_value", "w", "flagged"};
-            for (int c = 0; c < 8; ++c)
-                if (name == names[c]) sort_groups(s, static_cast<GroupColumn>(c), ascending);
-            break;
-        }
-        case FormAction::open_group: open_group(s, std::atoi(value.c_str())); break;
-        case FormAction::back_to_groups: back_to_groups(s); break;
-        case FormAction::one_sample: leave_groups(s); break;
-        case FormAction::goal: {  // "": find a departure; a margin w0: show conformity within it
-            if (value.empty()) { set_test_goal(s, false, s.analysis.conformity.margin_w); break; }
-            set_conformity_margin_text(s, value);  // "0.1" is w0, "2 pp" percentage points
-            break;
-        }
-    }
-    if (!s.input_error.empty()) publish_error(s.input_error);
-    want_frames(*g_page, 3);
-}
-// Another tab changed the shared recent list (the storage event): it is read again.
-EMSCRIPTEN_KEEPALIVE void tp_storage_changed() {
-    if (!g_page) return;
-    tallyproof::web::reload_recent(g_page->state);
-    want_frames(*g_page, 3);
-}
-// A key for the canvas that reached another element of the page: Enter, Tab and Escape from the
-// text-entry element, or a key pressed while nothing had focus. `scancode` is SDL's; `mods` bits:
-// 1 Shift, 2 Ctrl, 4 Alt, 8 Meta.
-EMSCRIPTEN_KEEPALIVE void tp_key(int scancode, int down, int mods) {
-    if (!g_page || scancode <= 0 || scancode >= SDL_NUM_SCANCODES) return;
-    SDL_Event e{};
-    e.type = down ? SDL_KEYDOWN : SDL_KEYUP;
-    e.key.state = down ? SDL_PRESSED : SDL_RELEASED;
-    e.key.windowID = SDL_GetWindowID(g_page->window);
-    e.key.keysym.scancode = static_cast<SDL_Scancode>(scancode);
-    e.key.keysym.sym = SDL_GetKeyFromScancode(e.key.keysym.scancode);
-    e.key.keysym.mod = static_cast<Uint16>(((mods & 1) ? KMOD_LSHIFT : 0) | ((mods & 2) ? KMOD_LCTRL : 0) |
-                                           ((mods & 4) ? KMOD_LALT : 0) | ((mods & 8) ? KMOD_LGUI : 0));
-    SDL_PushEvent(&e);
-    want_frames(*g_page, 3);
-}
-// Tab on the canvas: 1 when the focus is on its last control (Shift+Tab: its first), so the
-// browser moves the focus on to the page (the skip link, the form view) instead.
-EMSCRIPTEN_KEEPALIVE int tp_tab_leaves(int backward) {
-    if (!g_page) return 1;
-    const int leaves = tallyproof::web::tab_leaves_canvas(backward != 0) ? 1 : 0;
-    want_frames(*g_page, 3);
-    return leaves;
-}
-// The number of controls a Tab walk passes on the canvas (tests).
-EMSCRIPTEN_KEEPALIVE int tp_control_count() { return tallyproof::web::control_count(); }
-// Audits the next frame for text cut by a clip rectangle (tests; see clip_audit.hpp).
-EMSCRIPTEN_KEEPALIVE void tp_clip_audit() {
-    if (!g_page) return;
-    tallyproof::web::request_clip_audit();
-    want_frames(*g_page, 2);
-}
-// Cancels running exact or Monte Carlo work (the page's Escape key).
-EMSCRIPTEN_KEEPALIVE void tp_cancel() {
-    if (!g_page) return;
-    tallyproof::web::cancel_job(g_page->state);
-    want_frames(*g_page, 3);
-}
-}
+using namespace tallyproof::web;
 
 int main() {
     static Page page;
@@ -532,7 +325,7 @@ int main() {
     SDL_GL_SetAttribute(SDL_GL_CONTEXT_MAJOR_VERSION, 3);
     SDL_GL_SetAttribute(SDL_GL_CONTEXT_MINOR_VERSION, 0);
     SDL_GL_SetAttribute(SDL_GL_DOUBLEBUFFER, 1);
-    tallyproof::web::stage_size(&page.width, &page.height);
+    stage_size(&page.width, &page.height);
     if (page.width <= 0) page.width = 1280;
     if (page.height <= 0) page.height = 800;
     page.window = SDL_CreateWindow("Tallyproof", SDL_WINDOWPOS_CENTERED, SDL_WINDOWPOS_CENTERED, page.width, page.height,
@@ -548,14 +341,15 @@ int main() {
     io.ConfigFlags |= ImGuiConfigFlags_NavEnableKeyboard;
     ImGui_ImplSDL2_InitForOpenGL(page.window, page.gl);
     ImGui_ImplOpenGL3_Init("#version 300 es");
-    tallyproof::web::load_fonts(&page.theme, static_cast<float>(std::max(1.0, tallyproof::web::device_pixel_ratio())));
-    page.state.view.dark = tallyproof::web::system_prefers_dark();
-    page.theme.touch = tallyproof::web::has_touch_screen();
-    tallyproof::web::apply_palette(&page.theme, page.state.view.dark);
+    load_fonts(&page.theme, static_cast<float>(std::max(1.0, device_pixel_ratio())));
+    page.state.view.dark = system_prefers_dark();
+    page.theme.touch = has_touch_screen();
+    apply_palette(&page.theme, page.state.view.dark);
     page.state.view.theme_changed = false;
 
-    tallyproof::web::restore_session(page.state);
+    restore_session(page.state);
     EM_ASM({ if (globalThis.tallyproofPage) globalThis.tallyproofPage.ready(); });
     emscripten_set_main_loop(frame, 0, 1);
     return 0;
 }
+
