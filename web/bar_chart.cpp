@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "axis_ticks.hpp"
+#include "chart_frame.hpp"
 #include "number_format.hpp"
 
 namespace tallyproof::web {
@@ -29,55 +30,23 @@ std::string fit_label(const std::string& s, float width) {
 }  // namespace
 
 void draw_bar_chart(const Result& r, ImVec2 size, const Theme& theme) {
-    ImDrawList* dl = ImGui::GetWindowDrawList();
-    const ImVec2 origin = ImGui::GetCursorScreenPos();
-    ImGui::InvisibleButton("bar-chart", size);
-    const bool hovered = ImGui::IsItemHovered();
     const std::size_t k = r.tested_observed.size();
-    if (k == 0 || size.x < 80 || size.y < 60) return;
-    dl->AddRectFilled(origin, ImVec2(origin.x + size.x, origin.y + size.y), theme.paper, 6.0f);
-    ImGui::PushFont(theme.strong);
-    dl->AddText(ImVec2(origin.x + 12, origin.y + 7), theme.ink, "Observed counts against expected");
-    ImGui::PopFont();
-
-    const float th = ImGui::GetTextLineHeight();
-    // Legend: beside the title when both fit on one line, else under it, wrapped as its items fit
-    // (a phone's width), so it never lies over the title or runs off the chart.
-    const char* legend[] = {"fewer than expected", "more than expected", "expected"};
-    const ImU32 legend_col[] = {theme.fewer, theme.more, theme.expected_mark};
-    float item_w[3], legend_w = 0;
-    for (int i = 0; i < 3; ++i) {
-        item_w[i] = 16 + ImGui::CalcTextSize(legend[i]).x;
-        legend_w += item_w[i] + (i ? 14 : 0);
-    }
-    ImGui::PushFont(theme.strong);
-    const float title_w = ImGui::CalcTextSize("Observed counts against expected").x;
-    ImGui::PopFont();
-    const bool beside = 12 + title_w + 24 + legend_w + 16 <= size.x;
-    float lx = beside ? origin.x + size.x - 16 - legend_w : origin.x + 12, ly = origin.y + (beside ? 8 : 10 + th);
-    for (int i = 0; i < 3; ++i) {
-        if (!beside && lx + item_w[i] > origin.x + size.x - 8 && lx > origin.x + 12) {
-            lx = origin.x + 12;
-            ly += th + 4;
-        }
-        if (i == 2) dl->AddRectFilled(ImVec2(lx, ly + th / 2 - 1), ImVec2(lx + 12, ly + th / 2 + 2), legend_col[i]);
-        else dl->AddRectFilled(ImVec2(lx, ly + 2), ImVec2(lx + 12, ly + th - 2), legend_col[i], 2);
-        dl->AddText(ImVec2(lx + 16, ly), theme.muted, legend[i]);
-        lx += item_w[i] + 14;
-    }
-    const float left = 56, right = 16, top = (beside ? 34 + th : ly - origin.y + th + 20), bottom = 30;
-    const ImVec2 p0(origin.x + left, origin.y + top), p1(origin.x + size.x - right, origin.y + size.y - bottom);
+    const std::string title = "Observed counts against expected";
+    ChartFrame f;
+    if (!begin_chart("bar-chart", title, size, ImVec2(80, 60), theme, &f) || k == 0) return;
+    ImDrawList* dl = f.dl;
+    const bool hovered = f.hovered;
+    const float th = f.line;
+    const float legend_bottom = draw_legend(f, title, {{"fewer than expected", theme.fewer}, {"more than expected", theme.more},
+                                                       {"expected", theme.expected_mark, true}}, theme);
+    set_plot_area(&f, 56, 16, legend_bottom - f.origin.y, 30);
+    const ImVec2 p0 = f.p0, p1 = f.p1;
     double vmax = 0;
     for (std::size_t i = 0; i < k; ++i) vmax = std::max({vmax, r.tested_observed[i], r.tested_expected[i]});
     const std::vector<double> ticks = nice_ticks(0, vmax * 1.05, std::max(2, static_cast<int>((p1.y - p0.y) / 60)));
     const double ytop = ticks.size() >= 2 && ticks.back() >= vmax ? ticks.back() : nice_ceiling(vmax * 1.05);
     auto py = [&](double v) { return static_cast<float>(p1.y - (p1.y - p0.y) * (v / ytop)); };
-    for (double v : nice_ticks(0, ytop, std::max(2, static_cast<int>((p1.y - p0.y) / 60)))) {
-        const float y = py(v);
-        dl->AddLine(ImVec2(p0.x, y), ImVec2(p1.x, y), theme.grid);
-        const std::string s = tick_label(v);
-        dl->AddText(ImVec2(p0.x - ImGui::CalcTextSize(s.c_str()).x - 6, y - th / 2), theme.muted, s.c_str());
-    }
+    draw_value_grid(f, nice_ticks(0, ytop, std::max(2, static_cast<int>((p1.y - p0.y) / 60))), py, theme);
 
     const float slot = (p1.x - p0.x) / static_cast<float>(k);
     const float bar = std::max(2.0f, std::min(slot * 0.66f, 64.0f));
@@ -107,7 +76,7 @@ void draw_bar_chart(const Result& r, ImVec2 size, const Theme& theme) {
         const ImVec2 m = ImGui::GetIO().MousePos;
         if (hovered && m.x >= cx - slot / 2 && m.x < cx + slot / 2) hover_index = static_cast<int>(i);
     }
-    dl->AddLine(ImVec2(p0.x, p1.y), ImVec2(p1.x, p1.y), theme.ink);
+    draw_axes(f, false, theme);
 
     if (hover_index >= 0) {
         const std::size_t i = static_cast<std::size_t>(hover_index);

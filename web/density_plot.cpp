@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "axis_ticks.hpp"
+#include "chart_frame.hpp"
 #include "chi_square_tail.hpp"
 #include "noncentral_chi_square.hpp"
 #include "noncentral_chi_square_density_curve.hpp"
@@ -17,52 +18,72 @@
 
 namespace tallyproof::web {
 
-void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 size, const Theme& theme) {
-    ImDrawList* dl = ImGui::GetWindowDrawList();
-    const ImVec2 origin = ImGui::GetCursorScreenPos();
-    ImGui::InvisibleButton("density-plot", size);
-    const bool hovered = ImGui::IsItemHovered();
-    if (curve.x.size() < 2 || size.x < 80 || size.y < 60) return;
+namespace {
 
+// The hover tip at statistic value x: the density there and the tail area from it.
+void show_density_tip(const Result& result, double x, bool conform, double lambda) {
+    ImGui::BeginTooltip();
+    const char* sym = result.statistic_symbol.c_str();
+    ImGui::Text("%s = %s", sym, format_significant(x, 4).c_str());
+    if (conform) {
+        ImGui::Text("density %s", format_significant(noncentral_chi_square_density(x, result.df, lambda), 3).c_str());
+        ImGui::Text("chance of %s at most this: %s", sym, format_significant(noncentral_chi_square_lower_tail(x, result.df, lambda), 3).c_str());
+    } else {
+        ImGui::Text("density %s", format_significant(chi_square_density(x, result.df), 3).c_str());
+        ImGui::Text("chance of %s at least this: %s", sym, format_probability(chi_square_upper_tail(x, result.df)).c_str());
+    }
+    ImGui::EndTooltip();
+}
+
+// A statistic far beyond the curve: an axis break (two slanted strokes), then the statistic
+// marked on its own short stretch of axis right of the plot, with its value and a label.
+void draw_statistic_past_break(const ChartFrame& f, const Result& result, const Theme& theme) {
+    ImDrawList* dl = f.dl;
+    const ImVec2 p0 = f.p0, p1 = f.p1;
+    const float th = f.line;
+    const float bx = p1.x + 14;
+    dl->AddLine(ImVec2(p1.x, p1.y), ImVec2(bx - 4, p1.y), theme.ink);
+    for (float d : {0.0f, 6.0f}) dl->AddLine(ImVec2(bx - 4 + d, p1.y + 6), ImVec2(bx + 2 + d, p1.y - 6), theme.ink, 1.5f);
+    const float ex = f.origin.x + f.size.x - 16;
+    dl->AddLine(ImVec2(bx + 10, p1.y), ImVec2(ex, p1.y), theme.ink);
+    const float sx = (bx + 10 + ex) / 2;
+    dl->AddLine(ImVec2(sx, p0.y + 2 * th + 16), ImVec2(sx, p1.y), theme.marker, 2.5f);
+    dl->AddTriangleFilled(ImVec2(sx - 6, p0.y + 2 * th + 14), ImVec2(sx + 6, p0.y + 2 * th + 14),
+                          ImVec2(sx, p0.y + 2 * th + 23), theme.marker);
+    ImGui::PushFont(theme.strong);
+    const std::string v = format_significant(result.statistic, 4);
+    dl->AddText(ImVec2(sx - ImGui::CalcTextSize(v.c_str()).x / 2, p1.y + 7), theme.marker, v.c_str());
+    ImGui::PopFont();
+    const std::string l1 = "observed " + result.statistic_symbol + ",";
+    const char* l2 = "far beyond the curve";
+    dl->AddText(ImVec2(ex - ImGui::CalcTextSize(l1.c_str()).x, p0.y), theme.marker, l1.c_str());
+    dl->AddText(ImVec2(ex - ImGui::CalcTextSize(l2).x, p0.y + th), theme.marker, l2);
+}
+
+}  // namespace
+
+void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 size, const Theme& theme) {
     const bool broken = curve.statistic_beyond;
     // Goal "show it conforms": the curve is chi2(df, N w0²) and the region is its lower alpha tail.
     const bool conform = result.conformity && result.conformity->status.ok;
     const double critical = conform ? result.conformity->critical_value : result.critical_value;
     const double lambda = conform ? result.conformity->noncentrality : 0;
-    const float left = 56, right = broken ? 150 : 16, top = 30, bottom = 44;
-    const ImVec2 p0(origin.x + left, origin.y + top);
-    const ImVec2 p1(origin.x + size.x - right, origin.y + size.y - bottom);
-    const double xmin = curve.x_min, xmax = curve.x_max, ymax = curve.y_max;
-    auto px = [&](double x) { return static_cast<float>(p0.x + (p1.x - p0.x) * ((x - xmin) / (xmax - xmin))); };
-    auto py = [&](double y) { return static_cast<float>(p1.y - (p1.y - p0.y) * (y / ymax)); };
-
-    dl->AddRectFilled(origin, ImVec2(origin.x + size.x, origin.y + size.y), theme.paper, 6.0f);
-    ImGui::PushFont(theme.strong);
     const std::string title = conform ? "Noncentral chi-square density if the mix departs by w0 = " +
                                             format_fixed(result.conformity->margin_w, 2) + ": df = " + format_count(result.df) +
                                             ", noncentrality N·w0² = " + format_significant(lambda, 4)
                                       : "Chi-square density, df = " + format_count(result.df);
-    dl->AddText(ImVec2(origin.x + 12, origin.y + 7), theme.ink, title.c_str());
-    ImGui::PopFont();
-
-    const float th = ImGui::GetTextLineHeight();
-    for (double t : nice_ticks(xmin, xmax, std::max(2, static_cast<int>((p1.x - p0.x) / 70)))) {
-        const float x = px(t);
-        dl->AddLine(ImVec2(x, p1.y), ImVec2(x, p1.y + 5), theme.rule);
-        const std::string s = tick_label(t);
-        const float w = ImGui::CalcTextSize(s.c_str()).x;
-        dl->AddText(ImVec2(x - w / 2, p1.y + 7), theme.muted, s.c_str());
-    }
-    for (double t : nice_ticks(0, ymax, std::max(2, static_cast<int>((p1.y - p0.y) / 50)))) {
-        const float y = py(t);
-        dl->AddLine(ImVec2(p0.x, y), ImVec2(p1.x, y), theme.grid);
-        const std::string s = tick_label(t);
-        const float w = ImGui::CalcTextSize(s.c_str()).x;
-        dl->AddText(ImVec2(p0.x - w - 6, y - th / 2), theme.muted, s.c_str());
-    }
-    const std::string xlabel_text = "value of " + result.statistic_symbol;
-    const char* xlabel = xlabel_text.c_str();
-    dl->AddText(ImVec2((p0.x + p1.x) / 2 - ImGui::CalcTextSize(xlabel).x / 2, p1.y + 9 + th), theme.muted, xlabel);
+    ChartFrame f;
+    if (!begin_chart("density-plot", title, size, ImVec2(80, 60), theme, &f) || curve.x.size() < 2) return;
+    ImDrawList* dl = f.dl;
+    const bool hovered = f.hovered;
+    set_plot_area(&f, 56, broken ? 150 : 16, 30, 44);
+    const ImVec2 p0 = f.p0, p1 = f.p1;
+    const double xmin = curve.x_min, xmax = curve.x_max, ymax = curve.y_max;
+    auto px = [&](double x) { return static_cast<float>(p0.x + (p1.x - p0.x) * ((x - xmin) / (xmax - xmin))); };
+    auto py = [&](double y) { return static_cast<float>(p1.y - (p1.y - p0.y) * (y / ymax)); };
+    const float th = f.line;
+    draw_x_ticks(f, nice_ticks(xmin, xmax, std::max(2, static_cast<int>((p1.x - p0.x) / 70))), px, "value of " + result.statistic_symbol, theme);
+    draw_value_grid(f, nice_ticks(0, ymax, std::max(2, static_cast<int>((p1.y - p0.y) / 50))), py, theme);
 
     // Shaded areas: rejection region beyond the critical value, observed tail beyond the statistic.
     auto shade_from = [&](double from, ImU32 colour) {
@@ -107,8 +128,7 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     for (std::size_t i = 0; i < curve.x.size(); ++i) pts.emplace_back(px(curve.x[i]), py(curve.y[i]));
     dl->AddPolyline(pts.data(), static_cast<int>(pts.size()), theme.curve, 0, 2.25f);
     dl->PopClipRect();
-    dl->AddLine(ImVec2(p0.x, p1.y), ImVec2(p1.x, p1.y), theme.ink, 1.0f);
-    dl->AddLine(ImVec2(p0.x, p0.y), ImVec2(p0.x, p1.y), theme.ink, 1.0f);
+    draw_axes(f, true, theme);
 
     if (std::isfinite(critical) && critical <= xmax) {
         const float x = px(critical);
@@ -140,43 +160,15 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
             }
         dl->AddText(ImVec2(tx, p0.y + th + 8), theme.marker, label.c_str());
     } else {
-        // Axis break: two slanted strokes, then the statistic on its own short stretch of axis.
-        const float bx = p1.x + 14;
-        dl->AddLine(ImVec2(p1.x, p1.y), ImVec2(bx - 4, p1.y), theme.ink);
-        for (float d : {0.0f, 6.0f}) dl->AddLine(ImVec2(bx - 4 + d, p1.y + 6), ImVec2(bx + 2 + d, p1.y - 6), theme.ink, 1.5f);
-        const float ex = origin.x + size.x - 16;
-        dl->AddLine(ImVec2(bx + 10, p1.y), ImVec2(ex, p1.y), theme.ink);
-        const float sx = (bx + 10 + ex) / 2;
-        dl->AddLine(ImVec2(sx, p0.y + 2 * th + 16), ImVec2(sx, p1.y), theme.marker, 2.5f);
-        dl->AddTriangleFilled(ImVec2(sx - 6, p0.y + 2 * th + 14), ImVec2(sx + 6, p0.y + 2 * th + 14),
-                              ImVec2(sx, p0.y + 2 * th + 23), theme.marker);
-        const std::string v = format_significant(result.statistic, 4);
-        dl->AddText(ImVec2(sx - ImGui::CalcTextSize(v.c_str()).x / 2, p1.y + 7), theme.marker, v.c_str());
         ImGui::PopFont();
-        const std::string l1_text = "observed " + result.statistic_symbol + ",";
-        const char* l1 = l1_text.c_str();
-        const char* l2 = "far beyond the curve";
-        dl->AddText(ImVec2(ex - ImGui::CalcTextSize(l1).x, p0.y), theme.marker, l1);
-        dl->AddText(ImVec2(ex - ImGui::CalcTextSize(l2).x, p0.y + th), theme.marker, l2);
+        draw_statistic_past_break(f, result, theme);
         ImGui::PushFont(theme.strong);
     }
     ImGui::PopFont();
 
     if (hovered) {
         const double x = xmin + (ImGui::GetIO().MousePos.x - p0.x) / (p1.x - p0.x) * (xmax - xmin);
-        if (x >= xmin && x <= xmax) {
-            ImGui::BeginTooltip();
-            const char* sym = result.statistic_symbol.c_str();
-            ImGui::Text("%s = %s", sym, format_significant(x, 4).c_str());
-            if (conform) {
-                ImGui::Text("density %s", format_significant(noncentral_chi_square_density(x, result.df, lambda), 3).c_str());
-                ImGui::Text("chance of %s at most this: %s", sym, format_significant(noncentral_chi_square_lower_tail(x, result.df, lambda), 3).c_str());
-            } else {
-                ImGui::Text("density %s", format_significant(chi_square_density(x, result.df), 3).c_str());
-                ImGui::Text("chance of %s at least this: %s", sym, format_probability(chi_square_upper_tail(x, result.df)).c_str());
-            }
-            ImGui::EndTooltip();
-        }
+        if (x >= xmin && x <= xmax) show_density_tip(result, x, conform, lambda);
     }
 }
 

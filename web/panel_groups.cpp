@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "axis_ticks.hpp"
+#include "chart_frame.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
@@ -161,19 +162,15 @@ void draw_groups_table(AppState& s, const Theme& t, ImVec2 size) {
 // at each N for a flag, so points above it are the flagged ones.
 void draw_funnel(AppState& s, const Theme& t, ImVec2 size) {
     const GroupsView& v = s.groups;
-    ImDrawList* dl = ImGui::GetWindowDrawList();
-    const ImVec2 origin = ImGui::GetCursorScreenPos();
-    ImGui::InvisibleButton("funnel", size);
+    ChartFrame f;
+    const bool drawn = begin_chart("funnel", "Effect size w against group size N", size, ImVec2(120, 100), t, &f);
     mark_widget("funnel chart");
-    const bool hovered = ImGui::IsItemHovered(), clicked = ImGui::IsItemClicked();
-    if (size.x < 120 || size.y < 100) return;
-    dl->AddRectFilled(origin, ImVec2(origin.x + size.x, origin.y + size.y), t.paper, 6.0f);
-    ImGui::PushFont(t.strong);
-    dl->AddText(ImVec2(origin.x + 12, origin.y + 7), t.ink, "Effect size w against group size N");
-    ImGui::PopFont();
-    const float th = ImGui::GetTextLineHeight();
-    const float left = 56, right = 16, top = 34 + th, bottom = 44;
-    const ImVec2 p0(origin.x + left, origin.y + top), p1(origin.x + size.x - right, origin.y + size.y - bottom);
+    if (!drawn) return;
+    ImDrawList* dl = f.dl;
+    const bool hovered = f.hovered, clicked = f.clicked;
+    const float th = f.line;
+    set_plot_area(&f, 56, 16, 34 + th, 44);
+    const ImVec2 p0 = f.p0, p1 = f.p1;
     double nlo = INFINITY, nhi = 0, wmax = 0;
     for (const GroupRow& g : v.result.groups)
         if (g.tested && g.n > 0) { nlo = std::min(nlo, g.n); nhi = std::max(nhi, g.n); wmax = std::max(wmax, g.w); }
@@ -186,12 +183,7 @@ void draw_funnel(AppState& s, const Theme& t, ImVec2 size) {
     const double ytop = nice_ceiling(std::max(0.05, wmax * 1.1));
     auto px = [&](double n) { return static_cast<float>(p0.x + (p1.x - p0.x) * ((std::log10(n) - lx0) / (lx1 - lx0))); };
     auto py = [&](double w) { return static_cast<float>(p1.y - (p1.y - p0.y) * std::min(1.0, w / ytop)); };
-    for (double w : nice_ticks(0, ytop, std::max(2, static_cast<int>((p1.y - p0.y) / 50)))) {
-        const float y = py(w);
-        dl->AddLine(ImVec2(p0.x, y), ImVec2(p1.x, y), t.grid);
-        const std::string lab = tick_label(w);
-        dl->AddText(ImVec2(p0.x - ImGui::CalcTextSize(lab.c_str()).x - 6, y - th / 2), t.muted, lab.c_str());
-    }
+    draw_value_grid(f, nice_ticks(0, ytop, std::max(2, static_cast<int>((p1.y - p0.y) / 50))), py, t);
     std::vector<double> xticks;  // 1, 2, 5 per decade; every digit where the range is narrow
     for (const std::vector<double>& steps : {std::vector<double>{1, 2, 5}, std::vector<double>{1, 2, 3, 4, 5, 6, 7, 8, 9}}) {
         xticks.clear();
@@ -201,16 +193,8 @@ void draw_funnel(AppState& s, const Theme& t, ImVec2 size) {
         if (xticks.size() >= 3) break;
     }
     if (xticks.size() < 3) xticks = nice_ticks(nlo, nhi, 5);
-    for (double n : xticks) {
-        const float x = px(n);
-        dl->AddLine(ImVec2(x, p1.y), ImVec2(x, p1.y + 5), t.rule);
-        const std::string lab = tick_label(n);
-        dl->AddText(ImVec2(x - ImGui::CalcTextSize(lab.c_str()).x / 2, p1.y + 7), t.muted, lab.c_str());
-    }
-    const char* xlabel = "group size N (log scale)";
-    dl->AddText(ImVec2((p0.x + p1.x) / 2 - ImGui::CalcTextSize(xlabel).x / 2, p1.y + 9 + th), t.muted, xlabel);
-    dl->AddLine(ImVec2(p0.x, p1.y), ImVec2(p1.x, p1.y), t.ink);
-    dl->AddLine(ImVec2(p0.x, p0.y), ImVec2(p0.x, p1.y), t.ink);
+    draw_x_ticks(f, xticks, px, "group size N (log scale)", t);
+    draw_axes(f, true, t);
     if (v.funnel.drawn) {  // the curve leaves the plot at the top where small groups would need w beyond it
         std::vector<ImVec2> line;
         for (std::size_t i = 0; i < v.funnel.n.size(); ++i)

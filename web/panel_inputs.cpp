@@ -288,6 +288,116 @@ bool number_field(const char* id, double* value, const char* format, FieldKeys k
     return true;
 }
 
+// What the last paste was read as, and the other readings on offer ("Read as"); the bins'
+// row under it when the paste was counted into bins.
+static void draw_read_as_row(AppState& s, const Theme& t) {
+    // What the last paste was read as, and the other readings on offer.
+    using Bins = BinChoice::Kind;
+    struct Reading { InputShape shape; int digits; Bins bins; ModelKind model; const char* name; int third = -1; };
+    const Reading readings[] = {
+        {InputShape::label_count, -1, Bins::none, ModelKind::equal, "label and count"},
+        {InputShape::label_observed_expected, -1, Bins::none, ModelKind::equal, "label, observed, expected", 0},
+        {InputShape::label_observed_expected, -1, Bins::none, ModelKind::equal, "label, observed, previous sample", 1},
+        {InputShape::counts_column, -1, Bins::none, ModelKind::equal, "one column of counts"},
+        {InputShape::counts_row, -1, Bins::none, ModelKind::equal, "one row of counts"},
+        {InputShape::raw_text, -1, Bins::none, ModelKind::equal, "raw values to tally"},
+        {InputShape::raw_whole_numbers, -1, Bins::none, ModelKind::equal, "raw whole numbers"},
+        {InputShape::raw_digits, static_cast<int>(DigitTest::first), Bins::none, ModelKind::equal, "first digits of raw numbers"},
+        {InputShape::raw_digits, static_cast<int>(DigitTest::second), Bins::none, ModelKind::equal, "second digits of raw numbers"},
+        {InputShape::raw_digits, static_cast<int>(DigitTest::first_two), Bins::none, ModelKind::equal, "first two digits of raw numbers"},
+        {InputShape::raw_digits, static_cast<int>(DigitTest::last), Bins::none, ModelKind::equal, "last digits of raw numbers"},
+        {InputShape::raw_bins, -1, Bins::equal_width, ModelKind::equal, "measurements in equal-width bins"},
+        {InputShape::raw_bins, -1, Bins::equal_probability, ModelKind::normal, "measurements in equal-probability bins (normal)"},
+        {InputShape::raw_bins, -1, Bins::equal_probability, ModelKind::lognormal, "measurements in equal-probability bins (lognormal)"},
+        {InputShape::raw_bins, -1, Bins::equal_probability, ModelKind::exponential, "measurements in equal-probability bins (exponential)"},
+        {InputShape::raw_bins, -1, Bins::edges, ModelKind::equal, "measurements in bins with stated edges"},
+    };
+    const int count = static_cast<int>(sizeof readings / sizeof readings[0]);
+    int current = -1;
+    DigitTest shown = DigitTest::first;
+    const bool digit_model = digit_test_of(s.analysis.model.kind, &shown);
+    const Bins bins = s.reading.bins.kind;
+    const ModelKind bin_model = s.reading.bins.model.value_or(ModelKind::normal);
+    for (int i = 0; i < count; ++i) {
+        const bool same_digits = readings[i].digits < 0 || (digit_model && readings[i].digits == static_cast<int>(shown));
+        const bool same_bins = readings[i].bins == bins && (bins != Bins::equal_probability || readings[i].model == bin_model);
+        const bool same_third = readings[i].third < 0 || (readings[i].third == 1) == s.reading.previous;
+        if (static_cast<int>(readings[i].shape) == s.reading.shape && same_digits && same_bins && same_third) current = i;
+    }
+    ImGui::AlignTextToFramePadding();
+    ImGui::TextUnformatted("Read as");
+    ImGui::SameLine();
+    ImGui::SetNextItemWidth(-1);
+    const char* preview = s.groups.open ? "groups: one test per group"
+                          : current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.reading.shape));
+    if (s.groups.open) current = -1;
+    if (ImGui::BeginCombo("##shape", preview,
+                          ImGuiComboFlags_HeightLargest)) {  // every reading in view, none behind a scroll
+        begin_menu_items(t);
+        for (int i = 0; i < count; ++i) {
+            // A previous sample's column is offered where a third column was read.
+            if (readings[i].third == 1 && s.reading.shape != static_cast<int>(InputShape::label_observed_expected)) continue;
+            if (ImGui::Selectable(readings[i].name, i == current) && i != current) {
+                if (readings[i].bins != Bins::none) read_paste_into_bins(s, readings[i].bins, readings[i].model);
+                else reread_paste(s, static_cast<int>(readings[i].shape), readings[i].digits, readings[i].third);
+            }
+            mark_widget(readings[i].name);
+        }
+        if (s.groups.offered) {  // the same text as a table of many groups, one test per group
+            const std::string text = s.groups.text;
+            if (ImGui::Selectable("groups: one test per group")) open_groups(s, text, GroupReadOptions{});
+            mark_widget("groups: one test per group");
+        }
+        end_menu_items(t);
+        ImGui::EndCombo();
+    }
+    mark_widget("Read as");
+    if (shows_bin_editor(s)) draw_bin_row(s, t);
+}
+
+// One row of the counts table: the label and count fields, the expected count and share, and
+// the row's move and remove buttons.
+static void draw_count_row(AppState& s, const Theme& t, int i, bool share_column) {
+    const Result& r = s.result;
+    ImGui::PushID(i);
+    ImGui::TableNextRow();
+    ImGui::TableNextColumn();
+    std::string label = s.analysis.categories[i];
+    ImGui::SetNextItemWidth(-1);
+    const bool label_done = text_field("##label", &label, FieldKeys::text, ImGuiInputTextFlags_EnterReturnsTrue) ||
+                            (ImGui::IsItemDeactivatedAfterEdit() && label != s.analysis.categories[i]);
+    mark_widget(("label " + std::to_string(i + 1)).c_str());
+    if (label_done) set_label(s, i, label);
+    ImGui::TableNextColumn();
+    std::string count = format_count(s.analysis.observed[i]);
+    ImGui::SetNextItemWidth(-1);
+    const bool count_done = text_field("##count", &count, FieldKeys::decimal,
+                                       ImGuiInputTextFlags_EnterReturnsTrue) ||
+                            ImGui::IsItemDeactivatedAfterEdit();
+    mark_widget(("count " + std::to_string(i + 1)).c_str());
+    if (count_done) {
+        double v = 0;
+        if (parse_count_cell(count, &v)) { if (v != s.analysis.observed[i]) set_count(s, i, v); }
+        else s.input_error = "\"" + count.substr(0, 20) + "\" is not a count.";
+    }
+    ImGui::TableNextColumn();
+    if (i < static_cast<int>(r.expected_counts.size())) ImGui::TextUnformatted(format_fixed(r.expected_counts[i], 2).c_str());
+    if (share_column) {
+        ImGui::TableNextColumn();
+        if (i < static_cast<int>(r.expected_shares.size())) ImGui::TextUnformatted(format_significant(r.expected_shares[i], 3).c_str());
+    }
+    ImGui::TableNextColumn();
+    if (compact_button("↑", t)) move_row(s, i, -1);
+    if (ImGui::IsItemHovered()) ImGui::SetTooltip("Move up");
+    ImGui::SameLine(0, 2);
+    if (compact_button("↓", t)) move_row(s, i, +1);
+    if (ImGui::IsItemHovered()) ImGui::SetTooltip("Move down");
+    ImGui::SameLine(0, 2);
+    if (compact_button("×", t)) remove_row(s, i);
+    if (ImGui::IsItemHovered()) ImGui::SetTooltip("Remove this category");
+    ImGui::PopID();
+}
+
 void draw_counts_panel(AppState& s, const Theme& t) {
     section_title("Counts", t);
     if (s.groups.open && s.groups.opened < 0)
@@ -349,43 +459,7 @@ void draw_counts_panel(AppState& s, const Theme& t) {
         clipper.Begin(k, row_h);
         while (clipper.Step()) {
             for (int i = clipper.DisplayStart; i < clipper.DisplayEnd; ++i) {
-                ImGui::PushID(i);
-                ImGui::TableNextRow();
-                ImGui::TableNextColumn();
-                std::string label = s.analysis.categories[i];
-                ImGui::SetNextItemWidth(-1);
-                const bool label_done = text_field("##label", &label, FieldKeys::text, ImGuiInputTextFlags_EnterReturnsTrue) ||
-                                        (ImGui::IsItemDeactivatedAfterEdit() && label != s.analysis.categories[i]);
-                mark_widget(("label " + std::to_string(i + 1)).c_str());
-                if (label_done) set_label(s, i, label);
-                ImGui::TableNextColumn();
-                std::string count = format_count(s.analysis.observed[i]);
-                ImGui::SetNextItemWidth(-1);
-                const bool count_done = text_field("##count", &count, FieldKeys::decimal,
-                                                   ImGuiInputTextFlags_EnterReturnsTrue) ||
-                                        ImGui::IsItemDeactivatedAfterEdit();
-                mark_widget(("count " + std::to_string(i + 1)).c_str());
-                if (count_done) {
-                    double v = 0;
-                    if (parse_count_cell(count, &v)) { if (v != s.analysis.observed[i]) set_count(s, i, v); }
-                    else s.input_error = "\"" + count.substr(0, 20) + "\" is not a count.";
-                }
-                ImGui::TableNextColumn();
-                if (i < static_cast<int>(r.expected_counts.size())) ImGui::TextUnformatted(format_fixed(r.expected_counts[i], 2).c_str());
-                if (share_column) {
-                    ImGui::TableNextColumn();
-                    if (i < static_cast<int>(r.expected_shares.size())) ImGui::TextUnformatted(format_significant(r.expected_shares[i], 3).c_str());
-                }
-                ImGui::TableNextColumn();
-                if (compact_button("↑", t)) move_row(s, i, -1);
-                if (ImGui::IsItemHovered()) ImGui::SetTooltip("Move up");
-                ImGui::SameLine(0, 2);
-                if (compact_button("↓", t)) move_row(s, i, +1);
-                if (ImGui::IsItemHovered()) ImGui::SetTooltip("Move down");
-                ImGui::SameLine(0, 2);
-                if (compact_button("×", t)) remove_row(s, i);
-                if (ImGui::IsItemHovered()) ImGui::SetTooltip("Remove this category");
-                ImGui::PopID();
+                draw_count_row(s, t, i, share_column);
             }
         }
         ImGui::TableNextRow();
@@ -399,70 +473,7 @@ void draw_counts_panel(AppState& s, const Theme& t) {
         ImGui::PopFont();
         ImGui::EndTable();
     }
-    if (read_as) {
-        // What the last paste was read as, and the other readings on offer.
-        using Bins = BinChoice::Kind;
-        struct Reading { InputShape shape; int digits; Bins bins; ModelKind model; const char* name; int third = -1; };
-        const Reading readings[] = {
-            {InputShape::label_count, -1, Bins::none, ModelKind::equal, "label and count"},
-            {InputShape::label_observed_expected, -1, Bins::none, ModelKind::equal, "label, observed, expected", 0},
-            {InputShape::label_observed_expected, -1, Bins::none, ModelKind::equal, "label, observed, previous sample", 1},
-            {InputShape::counts_column, -1, Bins::none, ModelKind::equal, "one column of counts"},
-            {InputShape::counts_row, -1, Bins::none, ModelKind::equal, "one row of counts"},
-            {InputShape::raw_text, -1, Bins::none, ModelKind::equal, "raw values to tally"},
-            {InputShape::raw_whole_numbers, -1, Bins::none, ModelKind::equal, "raw whole numbers"},
-            {InputShape::raw_digits, static_cast<int>(DigitTest::first), Bins::none, ModelKind::equal, "first digits of raw numbers"},
-            {InputShape::raw_digits, static_cast<int>(DigitTest::second), Bins::none, ModelKind::equal, "second digits of raw numbers"},
-            {InputShape::raw_digits, static_cast<int>(DigitTest::first_two), Bins::none, ModelKind::equal, "first two digits of raw numbers"},
-            {InputShape::raw_digits, static_cast<int>(DigitTest::last), Bins::none, ModelKind::equal, "last digits of raw numbers"},
-            {InputShape::raw_bins, -1, Bins::equal_width, ModelKind::equal, "measurements in equal-width bins"},
-            {InputShape::raw_bins, -1, Bins::equal_probability, ModelKind::normal, "measurements in equal-probability bins (normal)"},
-            {InputShape::raw_bins, -1, Bins::equal_probability, ModelKind::lognormal, "measurements in equal-probability bins (lognormal)"},
-            {InputShape::raw_bins, -1, Bins::equal_probability, ModelKind::exponential, "measurements in equal-probability bins (exponential)"},
-            {InputShape::raw_bins, -1, Bins::edges, ModelKind::equal, "measurements in bins with stated edges"},
-        };
-        const int count = static_cast<int>(sizeof readings / sizeof readings[0]);
-        int current = -1;
-        DigitTest shown = DigitTest::first;
-        const bool digit_model = digit_test_of(s.analysis.model.kind, &shown);
-        const Bins bins = s.reading.bins.kind;
-        const ModelKind bin_model = s.reading.bins.model.value_or(ModelKind::normal);
-        for (int i = 0; i < count; ++i) {
-            const bool same_digits = readings[i].digits < 0 || (digit_model && readings[i].digits == static_cast<int>(shown));
-            const bool same_bins = readings[i].bins == bins && (bins != Bins::equal_probability || readings[i].model == bin_model);
-            const bool same_third = readings[i].third < 0 || (readings[i].third == 1) == s.reading.previous;
-            if (static_cast<int>(readings[i].shape) == s.reading.shape && same_digits && same_bins && same_third) current = i;
-        }
-        ImGui::AlignTextToFramePadding();
-        ImGui::TextUnformatted("Read as");
-        ImGui::SameLine();
-        ImGui::SetNextItemWidth(-1);
-        const char* preview = s.groups.open ? "groups: one test per group"
-                              : current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.reading.shape));
-        if (s.groups.open) current = -1;
-        if (ImGui::BeginCombo("##shape", preview,
-                              ImGuiComboFlags_HeightLargest)) {  // every reading in view, none behind a scroll
-            begin_menu_items(t);
-            for (int i = 0; i < count; ++i) {
-                // A previous sample's column is offered where a third column was read.
-                if (readings[i].third == 1 && s.reading.shape != static_cast<int>(InputShape::label_observed_expected)) continue;
-                if (ImGui::Selectable(readings[i].name, i == current) && i != current) {
-                    if (readings[i].bins != Bins::none) read_paste_into_bins(s, readings[i].bins, readings[i].model);
-                    else reread_paste(s, static_cast<int>(readings[i].shape), readings[i].digits, readings[i].third);
-                }
-                mark_widget(readings[i].name);
-            }
-            if (s.groups.offered) {  // the same text as a table of many groups, one test per group
-                const std::string text = s.groups.text;
-                if (ImGui::Selectable("groups: one test per group")) open_groups(s, text, GroupReadOptions{});
-                mark_widget("groups: one test per group");
-            }
-            end_menu_items(t);
-            ImGui::EndCombo();
-        }
-        mark_widget("Read as");
-        if (bin_row) draw_bin_row(s, t);
-    }
+    if (read_as) draw_read_as_row(s, t);
     if (ImGui::Button("+ Add category")) add_row(s);
     flow_next(ImGui::GetFrameHeight() + ImGui::CalcTextSize("Categories are in order").x + ImGui::GetStyle().ItemInnerSpacing.x);
     bool ordered = s.analysis.ordered;

@@ -92,101 +92,61 @@ void apply_palette(Theme* t, bool dark) {
         st.ScrollbarSize = 18;
         st.GrabMinSize = 28;
     }
-    ImVec4* c = st.Colors;
-    if (!dark) {
-        t->clear = rgb(246, 244, 239);
-        c[ImGuiCol_WindowBg] = t->clear;
-        c[ImGuiCol_ChildBg] = rgb(255, 255, 252);
-        c[ImGuiCol_PopupBg] = rgb(255, 255, 252);
-        c[ImGuiCol_Text] = rgb(31, 36, 48);
-        c[ImGuiCol_TextDisabled] = rgb(98, 104, 116);
-        c[ImGuiCol_Border] = rgb(219, 214, 203);
-        c[ImGuiCol_FrameBg] = rgb(240, 237, 229);
-        c[ImGuiCol_FrameBgHovered] = rgb(232, 240, 238);
-        c[ImGuiCol_FrameBgActive] = rgb(220, 234, 231);
-        c[ImGuiCol_TableHeaderBg] = rgb(232, 240, 238);
-        c[ImGuiCol_TableRowBgAlt] = rgb(248, 247, 242);
-        c[ImGuiCol_TableBorderStrong] = rgb(200, 196, 186);
-        c[ImGuiCol_TableBorderLight] = rgb(226, 222, 212);
-        c[ImGuiCol_Button] = rgb(27, 127, 121, 0.14f);
-        c[ImGuiCol_ButtonHovered] = rgb(27, 127, 121, 0.28f);
-        c[ImGuiCol_ButtonActive] = rgb(27, 127, 121, 0.42f);
-        c[ImGuiCol_Header] = rgb(27, 127, 121, 0.16f);
-        c[ImGuiCol_HeaderHovered] = rgb(27, 127, 121, 0.26f);
-        c[ImGuiCol_HeaderActive] = rgb(27, 127, 121, 0.36f);
-        c[ImGuiCol_Tab] = rgb(232, 228, 218);
-        c[ImGuiCol_TabHovered] = rgb(27, 127, 121, 0.30f);
-        c[ImGuiCol_TabActive] = rgb(255, 255, 252);
-        c[ImGuiCol_CheckMark] = rgb(27, 127, 121);
-        c[ImGuiCol_SliderGrab] = rgb(27, 127, 121);
-        c[ImGuiCol_NavHighlight] = rgb(72, 61, 160);
-        c[ImGuiCol_ScrollbarBg] = rgb(246, 244, 239);
-        t->paper = IM_COL32(255, 255, 252, 255);
-        t->ink = IM_COL32(31, 36, 48, 255);
-        t->muted = IM_COL32(98, 104, 116, 255);
-        t->rule = IM_COL32(200, 196, 186, 255);
-        t->grid = IM_COL32(0, 0, 0, 18);
-        t->accent = IM_COL32(22, 112, 106, 255);
-        t->curve = IM_COL32(27, 127, 121, 255);
-        t->reject_fill = IM_COL32(201, 98, 62, 70);
-        t->tail_fill = IM_COL32(72, 61, 160, 90);
-        t->marker = IM_COL32(72, 61, 160, 255);
-        t->warn_bg = IM_COL32(253, 236, 220, 255);
-        t->warn_ink = IM_COL32(134, 52, 18, 255);
-        t->ok_bg = IM_COL32(226, 241, 236, 255);
-        t->ok_ink = IM_COL32(18, 94, 82, 255);
-        t->more = IM_COL32(196, 86, 48, 255);
-        t->fewer = IM_COL32(38, 110, 160, 255);
-        t->neutral = IM_COL32(176, 172, 162, 255);
-        t->expected_mark = IM_COL32(31, 36, 48, 255);
-        t->progress = IM_COL32(27, 127, 121, 255);
-    } else {
-        t->clear = rgb(24, 28, 36);
-        c[ImGuiCol_WindowBg] = t->clear;
-        c[ImGuiCol_ChildBg] = rgb(31, 36, 46);
-        c[ImGuiCol_PopupBg] = rgb(36, 41, 52);
-        c[ImGuiCol_Text] = rgb(234, 228, 214);
-        c[ImGuiCol_TextDisabled] = rgb(160, 164, 172);
-        c[ImGuiCol_Border] = rgb(58, 64, 78);
-        c[ImGuiCol_FrameBg] = rgb(42, 48, 60);
-        c[ImGuiCol_FrameBgHovered] = rgb(48, 64, 70);
-        c[ImGuiCol_FrameBgActive] = rgb(52, 76, 80);
-        c[ImGuiCol_TableHeaderBg] = rgb(40, 56, 60);
-        c[ImGuiCol_TableRowBgAlt] = rgb(35, 40, 51);
-        c[ImGuiCol_TableBorderStrong] = rgb(70, 76, 90);
-        c[ImGuiCol_TableBorderLight] = rgb(54, 60, 72);
-        c[ImGuiCol_Button] = rgb(88, 190, 178, 0.18f);
-        c[ImGuiCol_ButtonHovered] = rgb(88, 190, 178, 0.32f);
-        c[ImGuiCol_ButtonActive] = rgb(88, 190, 178, 0.46f);
-        c[ImGuiCol_Header] = rgb(88, 190, 178, 0.18f);
-        c[ImGuiCol_HeaderHovered] = rgb(88, 190, 178, 0.28f);
-        c[ImGuiCol_HeaderActive] = rgb(88, 190, 178, 0.38f);
-        c[ImGuiCol_Tab] = rgb(40, 45, 56);
-        c[ImGuiCol_TabHovered] = rgb(88, 190, 178, 0.32f);
-        c[ImGuiCol_TabActive] = rgb(31, 36, 46);
-        c[ImGuiCol_CheckMark] = rgb(108, 206, 192);
-        c[ImGuiCol_SliderGrab] = rgb(108, 206, 192);
-        c[ImGuiCol_NavHighlight] = rgb(168, 160, 240);
-        t->paper = IM_COL32(31, 36, 46, 255);
-        t->ink = IM_COL32(234, 228, 214, 255);
-        t->muted = IM_COL32(160, 164, 172, 255);
-        t->rule = IM_COL32(84, 90, 104, 255);
-        t->grid = IM_COL32(255, 255, 255, 20);
-        t->accent = IM_COL32(108, 206, 192, 255);
-        t->curve = IM_COL32(108, 206, 192, 255);
-        t->reject_fill = IM_COL32(228, 132, 96, 80);
-        t->tail_fill = IM_COL32(160, 150, 240, 90);
-        t->marker = IM_COL32(178, 168, 250, 255);
-        t->warn_bg = IM_COL32(72, 44, 34, 255);
-        t->warn_ink = IM_COL32(246, 176, 140, 255);
-        t->ok_bg = IM_COL32(30, 62, 60, 255);
-        t->ok_ink = IM_COL32(150, 226, 210, 255);
-        t->more = IM_COL32(232, 128, 92, 255);
-        t->fewer = IM_COL32(98, 168, 226, 255);
-        t->neutral = IM_COL32(110, 116, 128, 255);
-        t->expected_mark = IM_COL32(234, 228, 214, 255);
-        t->progress = IM_COL32(108, 206, 192, 255);
-    }
+    // Every colour once, light and dark side by side: ImGui's style colours, then the theme's own.
+    struct StyleColour { ImGuiCol slot; ImVec4 light, dark; };
+    static const StyleColour kStyleColours[] = {
+        {ImGuiCol_WindowBg,          rgb(246, 244, 239), rgb(24, 28, 36)},
+        {ImGuiCol_ChildBg,           rgb(255, 255, 252), rgb(31, 36, 46)},
+        {ImGuiCol_PopupBg,           rgb(255, 255, 252), rgb(36, 41, 52)},
+        {ImGuiCol_Text,              rgb(31, 36, 48), rgb(234, 228, 214)},
+        {ImGuiCol_TextDisabled,      rgb(98, 104, 116), rgb(160, 164, 172)},
+        {ImGuiCol_Border,            rgb(219, 214, 203), rgb(58, 64, 78)},
+        {ImGuiCol_FrameBg,           rgb(240, 237, 229), rgb(42, 48, 60)},
+        {ImGuiCol_FrameBgHovered,    rgb(232, 240, 238), rgb(48, 64, 70)},
+        {ImGuiCol_FrameBgActive,     rgb(220, 234, 231), rgb(52, 76, 80)},
+        {ImGuiCol_TableHeaderBg,     rgb(232, 240, 238), rgb(40, 56, 60)},
+        {ImGuiCol_TableRowBgAlt,     rgb(248, 247, 242), rgb(35, 40, 51)},
+        {ImGuiCol_TableBorderStrong, rgb(200, 196, 186), rgb(70, 76, 90)},
+        {ImGuiCol_TableBorderLight,  rgb(226, 222, 212), rgb(54, 60, 72)},
+        {ImGuiCol_Button,            rgb(27, 127, 121, 0.14f), rgb(88, 190, 178, 0.18f)},
+        {ImGuiCol_ButtonHovered,     rgb(27, 127, 121, 0.28f), rgb(88, 190, 178, 0.32f)},
+        {ImGuiCol_ButtonActive,      rgb(27, 127, 121, 0.42f), rgb(88, 190, 178, 0.46f)},
+        {ImGuiCol_Header,            rgb(27, 127, 121, 0.16f), rgb(88, 190, 178, 0.18f)},
+        {ImGuiCol_HeaderHovered,     rgb(27, 127, 121, 0.26f), rgb(88, 190, 178, 0.28f)},
+        {ImGuiCol_HeaderActive,      rgb(27, 127, 121, 0.36f), rgb(88, 190, 178, 0.38f)},
+        {ImGuiCol_Tab,               rgb(232, 228, 218), rgb(40, 45, 56)},
+        {ImGuiCol_TabHovered,        rgb(27, 127, 121, 0.30f), rgb(88, 190, 178, 0.32f)},
+        {ImGuiCol_TabActive,         rgb(255, 255, 252), rgb(31, 36, 46)},
+        {ImGuiCol_CheckMark,         rgb(27, 127, 121), rgb(108, 206, 192)},
+        {ImGuiCol_SliderGrab,        rgb(27, 127, 121), rgb(108, 206, 192)},
+        {ImGuiCol_NavHighlight,      rgb(72, 61, 160), rgb(168, 160, 240)},
+        {ImGuiCol_ScrollbarBg,       rgb(246, 244, 239), ImVec4(0.02f, 0.02f, 0.02f, 0.53f)},
+    };
+    struct InkColour { ImU32 Theme::*field; ImU32 light, dark; };
+    static const InkColour kInkColours[] = {
+        {&Theme::paper,         IM_COL32(255, 255, 252, 255), IM_COL32(31, 36, 46, 255)},
+        {&Theme::ink,           IM_COL32(31, 36, 48, 255), IM_COL32(234, 228, 214, 255)},
+        {&Theme::muted,         IM_COL32(98, 104, 116, 255), IM_COL32(160, 164, 172, 255)},
+        {&Theme::rule,          IM_COL32(200, 196, 186, 255), IM_COL32(84, 90, 104, 255)},
+        {&Theme::grid,          IM_COL32(0, 0, 0, 18), IM_COL32(255, 255, 255, 20)},
+        {&Theme::accent,        IM_COL32(22, 112, 106, 255), IM_COL32(108, 206, 192, 255)},
+        {&Theme::curve,         IM_COL32(27, 127, 121, 255), IM_COL32(108, 206, 192, 255)},
+        {&Theme::reject_fill,   IM_COL32(201, 98, 62, 70), IM_COL32(228, 132, 96, 80)},
+        {&Theme::tail_fill,     IM_COL32(72, 61, 160, 90), IM_COL32(160, 150, 240, 90)},
+        {&Theme::marker,        IM_COL32(72, 61, 160, 255), IM_COL32(178, 168, 250, 255)},
+        {&Theme::warn_bg,       IM_COL32(253, 236, 220, 255), IM_COL32(72, 44, 34, 255)},
+        {&Theme::warn_ink,      IM_COL32(134, 52, 18, 255), IM_COL32(246, 176, 140, 255)},
+        {&Theme::ok_bg,         IM_COL32(226, 241, 236, 255), IM_COL32(30, 62, 60, 255)},
+        {&Theme::ok_ink,        IM_COL32(18, 94, 82, 255), IM_COL32(150, 226, 210, 255)},
+        {&Theme::more,          IM_COL32(196, 86, 48, 255), IM_COL32(232, 128, 92, 255)},
+        {&Theme::fewer,         IM_COL32(38, 110, 160, 255), IM_COL32(98, 168, 226, 255)},
+        {&Theme::neutral,       IM_COL32(176, 172, 162, 255), IM_COL32(110, 116, 128, 255)},
+        {&Theme::expected_mark, IM_COL32(31, 36, 48, 255), IM_COL32(234, 228, 214, 255)},
+        {&Theme::progress,      IM_COL32(27, 127, 121, 255), IM_COL32(108, 206, 192, 255)},
+    };
+    for (const StyleColour& s : kStyleColours) st.Colors[s.slot] = dark ? s.dark : s.light;
+    for (const InkColour& i : kInkColours) t->*i.field = dark ? i.dark : i.light;
+    t->clear = st.Colors[ImGuiCol_WindowBg];
 }
 
 ImU32 residual_colour(const Theme& t, double r) {
