@@ -457,6 +457,32 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
     return read_grouped_rows(std::move(rows), sep, options);
 }
 
+// The group column named by `by`: a 1-based number, or a header cell of the first row (any
+// case); empty `by` leaves the first column. Refused by name when there is no such column.
+Status find_group_column(const std::vector<TableRow>& rows, std::size_t width, const std::string& by, std::size_t* group_col,
+                         bool* header_named) {
+    if (by.empty()) return Status::success();
+    const NumberReading n = read_number(by, DecimalMark::point);
+    if (n.ok && n.value == std::floor(n.value) && n.value >= 1 && !n.percent) {
+        if (n.value > static_cast<double>(width))
+            return Status::failure("The group column " + by + " does not exist: the table has " + std::to_string(width) + " columns.");
+        *group_col = static_cast<std::size_t>(n.value) - 1;
+    } else {
+        const auto& head = rows[0].cells;
+        std::size_t i = 0;
+        while (i < head.size() && lower_ascii(head[i]) != lower_ascii(by)) ++i;
+        if (i == head.size()) {
+            std::string names;
+            for (const auto& h : head) names += (names.empty() ? "" : ", ") + quote_cell(h);
+            return Status::failure("No column is named " + quote_cell(by) + "; the first line has " + names +
+                                   " (or give the column's number).", rows[0].line, 0);
+        }
+        *group_col = i;
+        *header_named = true;
+    }
+    return Status::success();
+}
+
 GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options) {
     GroupedCounts out;
     const ParseOptions& parse = options.parse;
@@ -472,30 +498,8 @@ GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const
     // The group column: named by `by` (a header cell or a number), else the first.
     std::size_t group_col = 0;
     bool header_named = false;
-    if (!options.by.empty()) {
-        const NumberReading n = read_number(options.by, DecimalMark::point);
-        if (n.ok && n.value == std::floor(n.value) && n.value >= 1 && !n.percent) {
-            if (n.value > static_cast<double>(width)) {
-                out.status = Status::failure("The group column " + options.by + " does not exist: the table has " +
-                                             std::to_string(width) + " columns.");
-                return out;
-            }
-            group_col = static_cast<std::size_t>(n.value) - 1;
-        } else {
-            const auto& head = rows[0].cells;
-            std::size_t i = 0;
-            while (i < head.size() && lower_ascii(head[i]) != lower_ascii(options.by)) ++i;
-            if (i == head.size()) {
-                std::string names;
-                for (const auto& h : head) names += (names.empty() ? "" : ", ") + quote_cell(h);
-                out.status = Status::failure("No column is named " + quote_cell(options.by) + "; the first line has " + names +
-                                                 " (or give the column's number).", rows[0].line, 0);
-                return out;
-            }
-            group_col = i;
-            header_named = true;
-        }
-    }
+    out.status = find_group_column(rows, width, options.by, &group_col, &header_named);
+    if (!out.status.ok) return out;
     // A header row: named by `by`, or a first row without numbers above rows with some, or the
     // numbered categories of a wide table (0..9, years) above a text cell; or as the options say.
     auto numeric_outside_group = [&](const TableRow& row) {

@@ -76,6 +76,51 @@ Status read_model(const JsonValue& m, Model* model) {
     return Status::success();
 }
 
+// The document's "format": absent, null or "tallyproof/1"; a newer or unknown format is named.
+Status check_format(const JsonValue& doc) {
+    const JsonValue* f = doc.find("format");
+    if (!f || f->is(Type::null)) return Status::success();
+    if (!f->is(Type::string)) return wrong("format", "a string such as \"tallyproof/1\"");
+    if (f->string != kDocumentFormat) {
+        const std::string shown = f->string.substr(0, 30);
+        if (f->string.rfind("tallyproof/", 0) == 0) {
+            const std::string v = f->string.substr(11);
+            const bool number = !v.empty() && v.size() < 9 && v.find_first_not_of("0123456789") == std::string::npos;
+            if (number && std::stol(v) > 1)
+                return Status::failure("This document has format \"" + shown +
+                                       "\", written by a newer version of Tallyproof; this version reads \"tallyproof/1\".");
+            return Status::failure("This document has an unknown format \"" + shown + "\"; this version reads \"tallyproof/1\".");
+        }
+        return Status::failure("This is not a Tallyproof document (format \"" + shown + "\").");
+    }
+    return Status::success();
+}
+
+// The "pvalue" member: method, ordering, Monte Carlo replicates and seed.
+Status read_pvalue_choice(const JsonValue& p, PValueChoice* out) {
+    if (!p.is(Type::object)) return wrong("pvalue", "an object");
+    std::string method = "asymptotic", ordering = "statistic";
+    TP_TRY(read_enum_string(p, "method", "pvalue.", &method));
+    TP_TRY(read_enum_string(p, "ordering", "pvalue.", &ordering));
+    if (method == "asymptotic") out->method = PValueMethod::asymptotic;
+    else if (method == "exact") out->method = PValueMethod::exact;
+    else if (method == "monte-carlo") out->method = PValueMethod::monte_carlo;
+    else return wrong("pvalue.method", "\"asymptotic\", \"exact\" or \"monte-carlo\"");
+    if (ordering == "statistic") out->ordering = ExactOrdering::statistic;
+    else if (ordering == "probability") out->ordering = ExactOrdering::probability;
+    else return wrong("pvalue.ordering", "\"statistic\" or \"probability\"");
+    double replicates = static_cast<double>(out->replicates), seed = static_cast<double>(out->seed);
+    TP_TRY(read_number(p, "replicates", "pvalue.", &replicates));
+    TP_TRY(read_number(p, "seed", "pvalue.", &seed));
+    if (!(replicates >= 1 && replicates <= 1e9) || replicates != std::floor(replicates))
+        return wrong("pvalue.replicates", "a whole number from 1 to 1000000000");
+    if (!(seed >= 0 && seed <= 9007199254740991.0) || seed != std::floor(seed))
+        return wrong("pvalue.seed", "a whole number from 0 to 2^53 - 1");
+    out->replicates = static_cast<std::uint64_t>(replicates);
+    out->seed = static_cast<std::uint64_t>(seed);
+    return Status::success();
+}
+
 }  // namespace
 
 Status read_analysis_document(std::string_view json, Analysis* out) {
@@ -83,21 +128,7 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
     TP_TRY(parse_json(json, &doc));
     if (!doc.is(Type::object)) return Status::failure("The document must be a JSON object.");
     Analysis a;
-    if (const JsonValue* f = doc.find("format"); f && !f->is(Type::null)) {
-        if (!f->is(Type::string)) return wrong("format", "a string such as \"tallyproof/1\"");
-        if (f->string != kDocumentFormat) {
-            const std::string shown = f->string.substr(0, 30);
-            if (f->string.rfind("tallyproof/", 0) == 0) {
-                const std::string v = f->string.substr(11);
-                const bool number = !v.empty() && v.size() < 9 && v.find_first_not_of("0123456789") == std::string::npos;
-                if (number && std::stol(v) > 1)
-                    return Status::failure("This document has format \"" + shown +
-                                           "\", written by a newer version of Tallyproof; this version reads \"tallyproof/1\".");
-                return Status::failure("This document has an unknown format \"" + shown + "\"; this version reads \"tallyproof/1\".");
-            }
-            return Status::failure("This is not a Tallyproof document (format \"" + shown + "\").");
-        }
-    }
+    TP_TRY(check_format(doc));
     if (const JsonValue* c = doc.find("categories"); c && !c->is(Type::null)) {
         if (!c->is(Type::array)) return wrong("categories", "a list of labels");
         for (std::size_t i = 0; i < c->array.size(); ++i) {
@@ -140,28 +171,7 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
         return wrong("statistic", "an object such as {\"lambda\": 1}");
     }
     TP_TRY(read_number(doc, "alpha", "", &a.alpha));
-    if (const JsonValue* p = doc.find("pvalue"); p && !p->is(Type::null)) {
-        if (!p->is(Type::object)) return wrong("pvalue", "an object");
-        std::string method = "asymptotic", ordering = "statistic";
-        TP_TRY(read_enum_string(*p, "method", "pvalue.", &method));
-        TP_TRY(read_enum_string(*p, "ordering", "pvalue.", &ordering));
-        if (method == "asymptotic") a.pvalue.method = PValueMethod::asymptotic;
-        else if (method == "exact") a.pvalue.method = PValueMethod::exact;
-        else if (method == "monte-carlo") a.pvalue.method = PValueMethod::monte_carlo;
-        else return wrong("pvalue.method", "\"asymptotic\", \"exact\" or \"monte-carlo\"");
-        if (ordering == "statistic") a.pvalue.ordering = ExactOrdering::statistic;
-        else if (ordering == "probability") a.pvalue.ordering = ExactOrdering::probability;
-        else return wrong("pvalue.ordering", "\"statistic\" or \"probability\"");
-        double replicates = static_cast<double>(a.pvalue.replicates), seed = static_cast<double>(a.pvalue.seed);
-        TP_TRY(read_number(*p, "replicates", "pvalue.", &replicates));
-        TP_TRY(read_number(*p, "seed", "pvalue.", &seed));
-        if (!(replicates >= 1 && replicates <= 1e9) || replicates != std::floor(replicates))
-            return wrong("pvalue.replicates", "a whole number from 1 to 1000000000");
-        if (!(seed >= 0 && seed <= 9007199254740991.0) || seed != std::floor(seed))
-            return wrong("pvalue.seed", "a whole number from 0 to 2^53 - 1");
-        a.pvalue.replicates = static_cast<std::uint64_t>(replicates);
-        a.pvalue.seed = static_cast<std::uint64_t>(seed);
-    }
+    if (const JsonValue* p = doc.find("pvalue"); p && !p->is(Type::null)) TP_TRY(read_pvalue_choice(*p, &a.pvalue));
     if (const JsonValue* m = doc.find("merge"); m && !m->is(Type::null)) {
         if (!m->is(Type::object)) return wrong("merge", "an object");
         std::string rule = "none";
