@@ -15,6 +15,7 @@
 #include "noncentral_chi_square.hpp"
 #include "noncentral_chi_square_quantile.hpp"
 #include "number_format.hpp"
+#include "number_reading.hpp"
 
 namespace tallyproof {
 namespace {
@@ -187,9 +188,8 @@ bool read_conformity_margin(const std::string& text, double* margin_w, double* m
     }
     while (!t.empty() && t.back() == ' ') t.pop_back();
     while (!t.empty() && t.front() == ' ') t.erase(0, 1);
-    char* end = nullptr;
-    const double v = std::strtod(t.c_str(), &end);
-    if (t.empty() || end == nullptr || *end != '\0' || !std::isfinite(v)) return false;
+    double v = 0;  // the one reader of typed numbers: "0,1" reads as "0.1" does
+    if (t.empty() || !read_typed_number(t, &v) || !std::isfinite(v)) return false;
     (points ? *margin_points : *margin_w) = v;
     return true;
 }

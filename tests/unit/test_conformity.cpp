@@ -154,4 +154,9 @@ TEST_CASE("conformity at chi2 = 0, above noncentrality 1e5, and margins in perce
     CHECK(read_conformity_margin("0.1", &w, &points));
     CHECK((w == 0.1 && std::isnan(points)));
     CHECK(!read_conformity_margin("small", &w, &points));
+    // Typed with a decimal comma, as α and every typed number may be (the one typed-number reader).
+    CHECK(read_conformity_margin("0,1", &w, &points));
+    CHECK((w == 0.1 && std::isnan(points)));
+    CHECK(read_conformity_margin("2,5 pp", &w, &points));
+    CHECK(points == 2.5);
 }
