@@ -15,6 +15,7 @@
 
 #include "effect_size.hpp"
 #include "goodness_of_fit.hpp"
+#include "homogeneity_table.hpp"
 #include "math_policy.hpp"
 #include "mean_absolute_deviation.hpp"
 #include "null_model.hpp"
@@ -141,56 +142,47 @@ bool quick_test_against_shares(const Analysis& base, const std::vector<double>& 
     return true;
 }
 
-// One group against the pooled other groups: a 2 x k' table over the categories seen at all.
+// One group against the pooled other groups: homogeneity_table's 2 x k' table over the
+// categories seen at all, the same test as a sample against a previous one.
 void test_against_rest(const StatisticChoice& statistic, const std::vector<std::string>& categories, const double* row,
                        const std::vector<double>& pooled, double total, GroupRow* g) {
     const std::size_t k = categories.size();
-    const double rest = total - g->n;
-    if (!(rest > 0)) { g->note = "not tested: the other groups have no counts"; return; }
-    std::vector<double> observed, expected;
+    if (!(total - g->n > 0)) { g->note = "not tested: the other groups have no counts"; return; }
+    std::vector<double> current, others;
     std::vector<std::size_t> used;
-    observed.reserve(2 * k);
-    expected.reserve(2 * k);
     for (std::size_t j = 0; j < k; ++j) {
         if (!(pooled[j] > 0)) continue;
         used.push_back(j);
-        observed.push_back(row[j]);
-        expected.push_back(g->n * pooled[j] / total);
+        current.push_back(row[j]);
+        others.push_back(pooled[j] - row[j]);
     }
     const std::size_t kk = used.size();
-    for (std::size_t i = 0; i < kk; ++i) {
-        observed.push_back(pooled[used[i]] - row[used[i]]);
-        expected.push_back(rest * pooled[used[i]] / total);
-    }
     if (kk < 2) { g->note = "not tested: fewer than two categories have counts"; return; }
-    PowerDivergenceOptions options;
-    options.lambda = statistic.lambda;
-    PowerDivergence pd;
-    if (Status s = power_divergence(observed, expected, options, &pd); !s.ok) { g->note = "not tested: " + s.message; return; }
+    HomogeneityTable table;
+    if (Status s = homogeneity_table(current, others, statistic.lambda, &table); !s.ok) { g->note = "not tested: " + s.message; return; }
+    std::vector<double> expected = table.expected_current;
+    expected.insert(expected.end(), table.expected_reference.begin(), table.expected_reference.end());
     ValidityReport validity;
     check_validity(expected, &validity);
     g->tested = true;
-    g->statistic = pd.statistic;
-    g->df = static_cast<double>(kk - 1);
-    g->p = chi_square_upper_tail(pd.statistic, g->df);
+    g->statistic = table.statistic;
+    g->df = table.df;
+    g->p = chi_square_upper_tail(table.statistic, g->df);
     g->method = PValueMethod::asymptotic;
-    g->w = noncentral_w(pd.statistic, total, g->df);
-    g->cohen_w = cohens_w(pd.statistic, total);
+    g->w = noncentral_w(table.statistic, total, g->df);
+    g->cohen_w = cohens_w(table.statistic, total);
     g->thin = !validity.cochran_holds;
     if (g->thin)
         g->note = "thin: smallest expected count " + format_significant(validity.min_expected, 3) +
                   "; asymptotic p-value, treat with care";
-    // Adjusted residuals of the group's row, (O - E) / sqrt(E (1 - n/N) (1 - c/N)).
+    // The group's adjusted residuals (Haberman 1973), flagged beyond a Bonferroni z over its k' cells.
     const boost::math::normal_distribution<double, quiet_policy> z;
     const double critical = boost::math::quantile(boost::math::complement(z, 0.05 / (2.0 * static_cast<double>(kk))));
     for (std::size_t i = 0; i < kk; ++i) {
-        const double e = expected[i];
-        const double v = e * (1 - g->n / total) * (1 - pooled[used[i]] / total);
-        if (!(v > 0)) continue;
-        const double residual = (observed[i] - e) / std::sqrt(v);
-        if (std::fabs(residual) >= critical)
+        const double residual = table.adjusted_residuals[i];
+        if (std::isfinite(residual) && std::fabs(residual) >= critical)
             g->drivers.push_back(GroupDriver{categories[used[i]], residual > 0 ? "more than expected" : "fewer than expected",
-                                             observed[i], e, residual});
+                                             current[i], table.expected_current[i], residual});
     }
 }
 
