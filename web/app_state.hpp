@@ -37,7 +37,7 @@ struct BinEditor {
 };
 constexpr int kMaxBinsOnPage = 1000;
 
-enum class ResultTab { curve, bars, categories, planning, writeup };
+enum class ResultTab { curve, bars, categories, planning, writeup, funnel };  // funnel: the Groups view's chart (images only)
 
 // An analysis kept in the browser's storage (autosave and the recent list).
 struct SavedAnalysis {

@@ -38,8 +38,12 @@ void queue_chart_export(AppState& s, ResultTab chart, int purpose) {
 }
 
 void request_print(AppState& s) {
-    queue_chart_export(s, ResultTab::curve, static_cast<int>(ImagePurpose::print));
-    queue_chart_export(s, ResultTab::bars, static_cast<int>(ImagePurpose::print));
+    if (s.groups.open && s.groups.opened < 0) {  // a screen: its funnel chart (main.cpp prints_screen)
+        queue_chart_export(s, ResultTab::funnel, static_cast<int>(ImagePurpose::print));
+    } else {
+        queue_chart_export(s, ResultTab::curve, static_cast<int>(ImagePurpose::print));
+        queue_chart_export(s, ResultTab::bars, static_cast<int>(ImagePurpose::print));
+    }
     s.handover.print_pending = true;
 }
 

@@ -30,6 +30,7 @@
 #include "page.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
+#include "screen_report.hpp"
 #include "tallyproof_version.hpp"
 #include "text_entry.hpp"
 #include "theme.hpp"
@@ -68,12 +69,21 @@ static void handle_shortcuts(Page& p) {
     if (mod && ImGui::IsKeyPressed(ImGui::GetKeyIndex(ImGuiKey_Enter), false)) recompute(p.state);
 }
 
-// The text of the print layout: the write-up sentence over the full results block.
+// The text of the print layout: the write-up sentence over the full results block; for a screen
+// (the Groups view's table), one page: its summary, the flagged groups with their drivers, the cautions.
 std::string print_text(const AppState& s) {
+    if (prints_screen(s)) return tallyproof::screen_print_text(s.groups.result);
     const tallyproof::WriteupOptions o;
     return tallyproof::writeup_sentence(s.analysis, s.result, o) + "\n\n" + s.report;
 }
 std::string print_title(const AppState& s) { return s.reading.source_name + " · Tallyproof " TALLYPROOF_VERSION; }
+bool prints_screen(const AppState& s) { return s.groups.open && s.groups.opened < 0 && s.groups.result.status.ok; }
+const char* chart_image_name(ResultTab chart) {
+    return chart == ResultTab::bars ? "tallyproof-bars.png" : chart == ResultTab::funnel ? "tallyproof-funnel.png" : "tallyproof-curve.png";
+}
+std::string print_charts(const AppState& s) {
+    return prints_screen(s) ? "tallyproof-funnel.png" : "tallyproof-curve.png,tallyproof-bars.png";
+}
 
 // Renders one chart alone, 960 x 540 CSS pixels at 2x, reads it back and hands it to the page;
 // then restores the canvas. Runs inside the same animation frame as a normal frame drawn after
@@ -100,6 +110,7 @@ void render_chart_export(Page& p, const ChartExport& e) {
     ImGui::PushFont(theme.body);
     const ImVec2 area = ImGui::GetContentRegionAvail();
     if (e.chart == ResultTab::bars) draw_bar_chart(p.state.result, area, theme);
+    else if (e.chart == ResultTab::funnel) draw_funnel(p.state, theme, area);
     else draw_density_plot(p.state.curve, p.state.result, area, theme);
     ImGui::PopFont();
     ImGui::End();
@@ -111,8 +122,7 @@ void render_chart_export(Page& p, const ChartExport& e) {
     std::vector<unsigned char> pixels(static_cast<std::size_t>(pw) * ph * 4);
     glPixelStorei(GL_PACK_ALIGNMENT, 1);
     glReadPixels(0, 0, pw, ph, GL_RGBA, GL_UNSIGNED_BYTE, pixels.data());
-    deliver_image(pixels.data(), pw, ph, e.chart == ResultTab::bars ? "tallyproof-bars.png" : "tallyproof-curve.png",
-                  static_cast<ImagePurpose>(e.purpose));
+    deliver_image(pixels.data(), pw, ph, chart_image_name(e.chart), static_cast<ImagePurpose>(e.purpose));
     io.MousePos = mouse;
     io.FontGlobalScale = p.theme.font_scale;
     emscripten_set_canvas_element_size("#canvas", fw, fh);
@@ -267,7 +277,8 @@ void frame() {
         render_chart_export(p, e);
         if (p.state.handover.exports.empty() && p.state.handover.print_pending) {
             p.state.handover.print_pending = false;
-            print_report(print_text(p.state), print_title(p.state), true, tallyproof::glossary_notes(print_text(p.state), true));
+            print_report(print_text(p.state), print_title(p.state), true, tallyproof::glossary_notes(print_text(p.state), true),
+                         print_charts(p.state));
         }
         p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 2);
     }

@@ -46,5 +46,8 @@ void frame();                                             // one frame of the lo
 void render_chart_export(Page& p, const ChartExport& e);  // one chart alone, off screen, handed to the page
 std::string print_text(const AppState& s);                // the print layout's text
 std::string print_title(const AppState& s);
+bool prints_screen(const AppState& s);                    // the Groups view's table is on screen: print the screen
+const char* chart_image_name(ResultTab chart);            // "tallyproof-curve.png", ...
+std::string print_charts(const AppState& s);              // the chart images the print shows, comma-separated
 
 }  // namespace tallyproof::web

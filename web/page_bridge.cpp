@@ -122,8 +122,9 @@ EM_JS(void, tp_js_download, (const char* name, const char* mime, const char* tex
 EM_JS(void, tp_js_image, (const unsigned char* rgba, int w, int h, const char* name, int purpose), {
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.image(HEAPU8.slice(rgba, rgba + w * h * 4), w, h, UTF8ToString(name), purpose);
 });
-EM_JS(void, tp_js_print, (const char* text, const char* title, int then_print, const char* footnote), {
-    if (globalThis.tallyproofPage) globalThis.tallyproofPage.printReport(UTF8ToString(text), UTF8ToString(title), !!then_print, UTF8ToString(footnote));
+EM_JS(void, tp_js_print, (const char* text, const char* title, int then_print, const char* footnote, const char* charts), {
+    if (globalThis.tallyproofPage) globalThis.tallyproofPage.printReport(UTF8ToString(text), UTF8ToString(title), !!then_print, UTF8ToString(footnote),
+                                                                         UTF8ToString(charts).split(','));
 });
 EM_JS(int, tp_js_touch_screen, (), {
     return (window.matchMedia && window.matchMedia('(pointer: coarse)').matches) ? 1 : 0;
@@ -199,8 +200,9 @@ void download_text(const char* filename, const char* mime, const std::string& te
 void deliver_image(const unsigned char* rgba, int width, int height, const char* name, ImagePurpose purpose) {
     tp_js_image(rgba, width, height, name, static_cast<int>(purpose));
 }
-void print_report(const std::string& text, const std::string& title, bool then_print, const std::string& footnote) {
-    tp_js_print(text.c_str(), title.c_str(), then_print ? 1 : 0, footnote.c_str());
+void print_report(const std::string& text, const std::string& title, bool then_print, const std::string& footnote,
+                  const std::string& charts) {
+    tp_js_print(text.c_str(), title.c_str(), then_print ? 1 : 0, footnote.c_str(), charts.c_str());
 }
 bool has_touch_screen() { return tp_js_touch_screen() != 0; }
 void choose_file() { tp_js_choose_file(); }

@@ -49,7 +49,9 @@ enum class ImagePurpose { download = 0, copy = 1, print = 2 };
 void deliver_image(const unsigned char* rgba, int width, int height, const char* name, ImagePurpose purpose);
 // The print layout (text and the chart images delivered for printing); then the browser's print
 // dialog when `then_print` (the menu item), not when the browser is already printing.
-void print_report(const std::string& text, const std::string& title, bool then_print, const std::string& footnote = "");
+// `charts`: the chart images (names as delivered, comma-separated) printed under the text.
+void print_report(const std::string& text, const std::string& title, bool then_print, const std::string& footnote = "",
+                  const std::string& charts = "tallyproof-curve.png,tallyproof-bars.png");
 
 // Touch screens and the page's own file and clipboard controls.
 bool has_touch_screen();                            // a coarse pointer (phone, tablet): 44 px tap targets

@@ -5,6 +5,7 @@
 #include <emscripten.h>
 
 #include <cstdlib>
+#include <initializer_list>
 #include <string>
 
 #include "clip_audit.hpp"
@@ -101,9 +102,11 @@ EMSCRIPTEN_KEEPALIVE void tp_frame_now() {
 EMSCRIPTEN_KEEPALIVE void tp_prepare_print() {
     if (!g_page) return;
     using namespace tallyproof::web;
-    render_chart_export(*g_page, ChartExport{ResultTab::curve, static_cast<int>(ImagePurpose::print)});
-    render_chart_export(*g_page, ChartExport{ResultTab::bars, static_cast<int>(ImagePurpose::print)});
-    print_report(print_text(g_page->state), print_title(g_page->state), false, tallyproof::glossary_notes(print_text(g_page->state), true));
+    const bool screen = tallyproof::web::prints_screen(g_page->state);
+    for (ResultTab chart : screen ? std::initializer_list<ResultTab>{ResultTab::funnel} : std::initializer_list<ResultTab>{ResultTab::curve, ResultTab::bars})
+        render_chart_export(*g_page, ChartExport{chart, static_cast<int>(ImagePurpose::print)});
+    print_report(print_text(g_page->state), print_title(g_page->state), false, tallyproof::glossary_notes(print_text(g_page->state), true),
+                 tallyproof::web::print_charts(g_page->state));
     want_frames(*g_page, 2);
 }
 // The page's HTML form (shell.html), for screen readers, switch access and keyboard users: each

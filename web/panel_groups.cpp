@@ -158,6 +158,8 @@ void draw_groups_table(AppState& s, const Theme& t, ImVec2 size) {
     ImGui::EndTable();
 }
 
+}  // namespace
+
 // Evidence against size: each group at (N, w) on a log N axis; the funnel curve is the w needed
 // at each N for a flag, so points above it are the flagged ones.
 void draw_funnel(AppState& s, const Theme& t, ImVec2 size) {
@@ -230,7 +232,6 @@ void draw_funnel(AppState& s, const Theme& t, ImVec2 size) {
     }
 }
 
-}  // namespace
 
 void draw_groups_view(AppState& s, const Theme& t) {
     GroupsView& v = s.groups;

@@ -276,6 +276,7 @@ void draw_view(AppState& s, const Theme& t) {
             draw_writeup_panel(s, t);
             ImGui::EndChild();
             break;
+        case ResultTab::funnel: break;  // drawn by the Groups view
     }
 }
 

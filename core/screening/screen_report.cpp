@@ -104,6 +104,28 @@ std::string screen_writeup(const ScreenResult& s) {
     return t;
 }
 
+std::string screen_print_text(const ScreenResult& s, std::size_t max_listed) {
+    std::string t = "Screen of " + std::to_string(s.groups.size()) + " groups against " + s.model_description + " (" +
+                    s.statistic_symbol + ", adjusted by " + multiplicity_method_name(s.choice.adjust) + ", flagged at q <= " +
+                    format_plain(s.choice.q) + ")\n" + screen_summary(s) + "\n\n";
+    const std::vector<std::size_t> flagged = flagged_order(s);
+    if (flagged.empty()) t += "No group was flagged.\n";
+    else t += "Flagged groups, smallest q first:\n";
+    for (std::size_t i = 0; i < flagged.size() && i < max_listed; ++i) {
+        const GroupRow& g = s.groups[flagged[i]];
+        t += "  " + g.name + ": N = " + format_count(g.n) + ", q = " + format_probability(g.q) + ", w = " + format_fixed(g.w, 3);
+        if (!g.drivers.empty()) t += "; driven by " + drivers_text(g);
+        if (g.thin) t += " (" + g.note + ")";
+        t += "\n";
+    }
+    if (flagged.size() > max_listed)
+        t += "  ... and " + std::to_string(flagged.size() - max_listed) +
+             " more flagged groups: every group is in the table (Download CSV/TSV or the analysis file).\n";
+    t += "\n";
+    for (const auto& c : s.cautions) t += "Caution: " + c + "\n";
+    return t;
+}
+
 std::string group_table(const ScreenResult& s, const TableExportOptions& o) {
     std::vector<std::vector<TableCell>> rows;
     rows.push_back({text_cell("group"), text_cell("n"), text_cell("statistic"), text_cell("df"), text_cell("p_value"),

@@ -18,6 +18,9 @@ std::string screen_level_phrase(const ScreenChoice& choice);
 std::string screen_summary(const ScreenResult& s);
 std::string screen_report_text(const ScreenResult& s);                    // summary, table, notes, cautions
 std::string screen_writeup(const ScreenResult& s);                        // summary and cautions, to paste
+// One printed page of a screen: the heading line, the summary, the flagged groups (the first
+// `max_listed` by q) with N, q, w and their drivers, how many more are in the table, the cautions.
+std::string screen_print_text(const ScreenResult& s, std::size_t max_listed = 25);
 std::string group_table(const ScreenResult& s, const TableExportOptions& o);  // one row per group
 // The result document of a screen: the input as the analysis document writes it (categories,
 // settings, groups with observed, screen settings and `view`), so it reads back as the same screen,

@@ -6,6 +6,13 @@
 // 81.56410256410255 for "Dev" (the same invented data as test_groups.mjs).
 import { assert, clickWidget, focusCanvas, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
 import { longTable } from './test_groups.mjs';  // the same twelve invented meter readers
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const here = dirname(fileURLToPath(import.meta.url));
 
 // Trusted input only: the text goes to the clipboard and the page gets it by Ctrl+V (input.mjs).
 async function pasteByClipboard(page, text, ready) {
@@ -39,6 +46,31 @@ async function expectScreen(page, expectedOrder, where) {
 }
 
 export const tests = {
+  async 'printing a screen gives one page: its summary, the flagged group with its drivers, the funnel chart, the cautions'() {
+    await withPage({ permissions: ['clipboard-read', 'clipboard-write'] }, async (page) => {
+      await pasteByClipboard(page, longTable(), screenShown);
+      await expectScreen(page, null, 'pasted');
+      await page.emulateMedia({ media: 'print' });  // the browser's own Print, as Ctrl+P
+      await page.waitForFunction(() => globalThis.tallyproofPage.printReady === true, null, { timeout: 10000 });
+      const alts = await page.evaluate(() => [...document.querySelectorAll('#tp-print img')].map((i) => i.alt));
+      assert(alts.length === 1 && alts[0].startsWith('Effect size w against group size N'), `print images: ${JSON.stringify(alts)}`);
+      const dir = mkdtempSync(join(tmpdir(), 'tp-print-screen-'));
+      const pdf = join(dir, 'screen.pdf');
+      await page.pdf({ path: pdf, format: 'A4' });
+      const pages = /Pages:\s+(\d+)/.exec(execFileSync('pdfinfo', [pdf]).toString());
+      assert(pages && pages[1] === '1', `the printed screen has ${pages && pages[1]} pages`);
+      const text = execFileSync('pdftotext', [pdf, '-']).toString().replace(/\s+/g, ' ');
+      assert(text.includes('1 of 12 groups departs'), `printed summary: ${text.slice(0, 400)}`);
+      assert(/Dev: N = 156, q = [^;]+; driven by /.test(text), `printed flagged group: ${text.slice(0, 600)}`);
+      assert(text.includes('Caution:'), `printed cautions: ${text.slice(0, 800)}`);
+      assert(!text.includes('Chi-square density'), 'the pooled sample is not printed for a screen');
+      execFileSync('pdftoppm', ['-png', '-r', '50', '-f', '1', '-l', '1', pdf, join(dir, 'page')]);
+      const png = ['page-1.png', 'page-01.png'].map((n) => join(dir, n)).find((f) => { try { readFileSync(f); return true; } catch { return false; } });
+      writeFileSync(resolve(here, 'screenshots', 'screen-print-page-1.png'), readFileSync(png));
+      await page.emulateMedia({ media: 'screen' });
+    });
+  },
+
   async 'a screen survives reload, an opened group keeps its way back, a share link and the recent list restore it'() {
     let link = '', sorted = '';
     await withPage({ permissions: ['clipboard-read', 'clipboard-write'] }, async (page) => {

@@ -160,6 +160,14 @@ TEST_CASE("flagged groups name their drivers; a group of zero total is listed, n
     const std::string summary = screen_summary(s);
     CHECK(summary.find("1 of 4 groups departs from") != std::string::npos);
     CHECK(summary.find("false discovery rate of 5% (1 not tested): R2 (q = ") != std::string::npos);
+    // The printed page: the summary, the flagged group with its drivers, and no unflagged group listed.
+    const std::string page = screen_print_text(s);
+    CHECK(page.find(summary) != std::string::npos);
+    CHECK(page.find("Flagged groups, smallest q first:\n  R2: N = 120") != std::string::npos);
+    CHECK(page.find("; driven by 0: more than expected") != std::string::npos);
+    CHECK(page.find("  R1:") == std::string::npos);
+    CHECK(page.find("more flagged groups") == std::string::npos);
+    CHECK(screen_print_text(s, 0).find("... and 1 more flagged groups") != std::string::npos);
     // Against the rest: the same flagged group, with drivers from the adjusted residuals.
     ScreenChoice rest;
     rest.against = ScreenAgainst::rest;
