@@ -1,0 +1,153 @@
+// Design-corrected goodness-of-fit tests (core/survey) against R survey 4.1-1 (svygofchisq,
+// svymean, svychisq's F form) on an invented respondent-level survey with four designs and
+// k = 3, 4 and 12 (tests/reference/make_survey_reference.R writes both CSVs), and bad inputs.
+#include <doctest/doctest.h>
+
+#include "reference_csv.hpp"
+
+#include <cmath>
+#include <fstream>
+#include <sstream>
+#include <string>
+#include <vector>
+
+#include "rao_scott.hpp"
+#include "survey_rows.hpp"
+
+using namespace tallyproof;
+
+namespace {
+
+std::string respondents_text() {
+    std::ifstream in(std::string(TALLYPROOF_REFERENCE_DIR) + "/survey_respondents.csv");
+    std::stringstream ss;
+    ss << in.rdbuf();
+    return ss.str();
+}
+
+std::vector<double> colon_numbers(const std::string& field) {
+    std::vector<double> v;
+    std::stringstream ss(field);
+    std::string item;
+    while (std::getline(ss, item, ':')) v.push_back(std::stod(item));
+    return v;
+}
+
+SurveyColumns design_columns(const std::string& design, const std::string& column) {
+    SurveyColumns c;
+    c.category = column;
+    c.weight = "weight";
+    if (design == "strata" || design == "clusters") c.stratum = "region";
+    if (design == "clusters" || design == "clusters_only") c.cluster = "store";
+    return c;
+}
+
+// Relative closeness, |a - b| <= tol |b|.
+bool close(double a, double b, double tol) { return std::fabs(a - b) <= tol * std::fabs(b); }
+
+}  // namespace
+
+TEST_CASE("Rao-Scott tests against R survey 4.1-1 svygofchisq, every design of the reference table") {
+    // Source: tests/reference/survey_reference.csv (R survey 4.1-1: svygofchisq, svymean(deff = TRUE),
+    // the F form of svychisq); tolerance 1e-8 relative.
+    const std::string text = respondents_text();
+    REQUIRE(!text.empty());
+    const auto rows = tallyproof_test::reference_rows("survey_reference.csv");
+    REQUIRE(rows.size() == 12);
+    for (const auto& f : rows) {
+        const std::string& design = f[0];
+        const std::string& column = f[1];
+        CAPTURE(design);
+        CAPTURE(column);
+        const SurveyRowsReading read = read_survey_rows(text, design_columns(design, column));
+        REQUIRE_MESSAGE(read.status.ok, read.status.message);
+        const std::vector<double> mix = colon_numbers(f[2]);
+        const DesignCorrection d = rao_scott_respondents(read.sample, mix);
+        REQUIRE_MESSAGE(d.status.ok, d.status.message);
+        const double n = std::stod(f[3]), total_weight = std::stod(f[4]);
+        CHECK(d.n == n);
+        CHECK(close(d.total_weight, total_weight, 1e-12));
+        CHECK(d.clusters == std::stoul(f[5]));
+        CHECK(d.strata == std::stoul(f[6]));
+        // svygofchisq's X-squared is on the scale of the weighted totals: X² (nominal n) = X²_T n / N̂.
+        CHECK(close(d.uncorrected_statistic, std::stod(f[7]) * n / total_weight, 1e-8));
+        // Second order: X-squared / scale on df, p.value (R survey 4.1-1 svygofchisq).
+        CHECK(close(d.second_order.statistic, std::stod(f[11]), 1e-8));
+        CHECK(close(d.second_order.df, std::stod(f[9]), 1e-8));
+        CHECK(close(d.second_order.p.p, std::stod(f[10]), 1e-8));
+        // First order from the same eigenvalues (Rao and Scott 1981), p by R's pchisq.
+        CHECK(close(d.first_order.statistic, std::stod(f[12]), 1e-8));
+        CHECK(d.first_order.df == std::stod(f[13]));
+        CHECK(close(d.first_order.p.p, std::stod(f[14]), 1e-8));
+        CHECK(close(d.mean_design_effect, std::stod(f[15]), 1e-8));
+        // F form (svychisq's statistic = "F"), p by R's pf.
+        REQUIRE(d.f_form.available);
+        CHECK(close(d.f_form.statistic, std::stod(f[16]), 1e-8));
+        CHECK(close(d.f_form.numerator_df, std::stod(f[17]), 1e-8));
+        CHECK(close(d.f_form.denominator_df, std::stod(f[18]), 1e-8));
+        CHECK(close(d.f_form.p.p, std::stod(f[19]), 1e-8));
+        // Per-category design effects: R's svymean deff uses the SRS variance with n - 1
+        // (svyvar), ours Kish's n: d_ours = d_R (n - 1) / n.
+        const std::vector<double> deff_r = colon_numbers(f[21]);
+        REQUIRE(deff_r.size() == d.design_effects.size());
+        for (std::size_t j = 0; j < deff_r.size(); ++j) CHECK(close(d.design_effects[j], deff_r[j] * (n - 1) / n, 1e-8));
+        // Tier 2 from these design effects: Rao and Scott's (1981, eq. 4.3) mean design effect,
+        // which R gives as n sum(diag(vcov(svymean)) / p0) / (k - 1).
+        const DesignCorrection t2 = rao_scott_category_effects(d.shares, n, d.design_effects, mix);
+        REQUIRE_MESSAGE(t2.status.ok, t2.status.message);
+        CHECK(close(t2.mean_design_effect, std::stod(f[20]), 1e-8));
+        CHECK(!t2.second_order.available);
+        CHECK(t2.second_order.reason.find("covariances") != std::string::npos);
+        // Generalised design effects: k - 1 of them, averaging to the mean design effect.
+        REQUIRE(d.generalised_design_effects.size() == mix.size() - 1);
+        double sum = 0;
+        for (double e : d.generalised_design_effects) sum += e;
+        CHECK(close(sum / static_cast<double>(mix.size() - 1), d.mean_design_effect, 1e-10));
+    }
+}
+
+TEST_CASE("Crude correction: X² divided by one design effect, Kish's 1 + CV² of the weights") {
+    // Closed form: p̂ = (0.7, 0.3), p0 = (0.5, 0.5), n = 100: X² = n Σ (p̂ − p0)² / p0 = 100 (0.08 + 0.08) = 16.
+    const DesignCorrection d = crude_design_correction({70, 30}, 100, 2.0, {1, 1}, false);
+    REQUIRE(d.status.ok);
+    CHECK(d.uncorrected_statistic == doctest::Approx(16).epsilon(1e-14));
+    CHECK(d.first_order.statistic == doctest::Approx(8).epsilon(1e-14));
+    CHECK(d.effective_n == doctest::Approx(50).epsilon(1e-14));
+    CHECK(!d.second_order.available);
+    // Kish (1965): weights 1, 1, 2, 4: n Σw² / (Σw)² = 4 · 22 / 64 = 1.375.
+    CHECK(kish_design_effect({1, 1, 2, 4}) == doctest::Approx(1.375).epsilon(1e-15));
+    CHECK(!crude_design_correction({70, 30}, 100, 0, {1, 1}, false).status.ok);
+}
+
+TEST_CASE("Survey rows: bad inputs are refused by name") {
+    SurveyColumns c;
+    c.category = "answer";
+    c.weight = "w";
+    auto refusal = [&](const std::string& text) { return read_survey_rows(text, c).status; };
+    CHECK(refusal("answer,w\nA,1\nB,0\nA,2\n").message.find("zero") != std::string::npos);
+    CHECK(refusal("answer,w\nA,1\nB,-2\nA,2\n").message.find("negative") != std::string::npos);
+    CHECK(refusal("answer,w\nA,1\nB,heavy\nA,2\n").message.find("not a number") != std::string::npos);
+    CHECK(refusal("answer,w\nA,1\nB,\nA,2\n").message.find("missing") != std::string::npos);
+    CHECK(refusal("answer,w\nA,1\nA,2\n").message.find("one category") != std::string::npos);
+    c.category = "reply";
+    const Status missing = refusal("answer,w\nA,1\nB,2\n");
+    CHECK(!missing.ok);
+    CHECK(missing.message.find("category column") != std::string::npos);
+    // A stratum with one cluster (a lonely PSU): refused, naming the stratum.
+    c.category = "answer";
+    c.stratum = "region";
+    c.cluster = "store";
+    const Status lonely = refusal("answer,w,region,store\nA,1,N,1\nB,1,N,2\nA,1,S,3\nB,2,S,3\n");
+    REQUIRE(!lonely.ok);
+    CHECK(lonely.message.find("\"S\"") != std::string::npos);
+    CHECK(lonely.message.find("lonely PSU") != std::string::npos);
+    // A cluster column with one value.
+    c.stratum.clear();
+    CHECK(refusal("answer,w,region,store\nA,1,N,1\nB,1,N,1\nA,1,S,1\n").message.find("one value") != std::string::npos);
+}
+
+TEST_CASE("Design correction refuses a stated share of zero and mismatched design effects") {
+    CHECK(!rao_scott_category_effects({50, 30, 20}, 100, {1.2, 1.3}, {1, 1, 1}).status.ok);
+    CHECK(!rao_scott_category_effects({50, 30, 20}, 100, {1.2, 1.3, 1.1}, {1, 1, 0}).status.ok);
+    CHECK(!rao_scott_category_effects({50, 30, 20}, 100, {1.2, -1, 1.1}, {1, 1, 1}).status.ok);
+}
