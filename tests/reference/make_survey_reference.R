@@ -8,7 +8,7 @@
 #                           (second order, Satterthwaite), the first-order Rao-Scott test from the
 #                           same eigenvalues, the F form of svychisq (statistic / trace, df nu and
 #                           nu * degf(design)), Rao and Scott's (1981) mean design effect from
-#                           vcov(svymean()), and svymean's per-category deff.
+#                           vcov(svymean()), and the per-category design effects from the same vcov.
 # Run: Rscript make_survey_reference.R
 suppressMessages(library(survey))
 options(digits = 17)
@@ -41,16 +41,19 @@ d <- do.call(rbind, rows)
 write.csv(d, "survey_respondents.csv", row.names = FALSE, quote = FALSE)
 d <- read.csv("survey_respondents.csv", stringsAsFactors = FALSE)
 
-# Categories in first-seen order (the tool's default), as factor levels.
-first_seen <- function(x) factor(x, levels = unique(x))
-d$channel <- first_seen(d$channel); d$plan <- first_seen(d$plan); d$product <- first_seen(d$product)
+# Categories in sorted order (R's factor() default; the tool's --sorted). Not first-seen order:
+# survey 4.1-1's svygofchisq pairs each category's total with the expected total of the category
+# at the same place in alphabetical order (it splits the expected totals by name, which sorts
+# them), so its design effects are wrong for levels not in alphabetical order; sorted levels
+# avoid that (its X-squared, from chisq.test, is right either way).
+d$channel <- factor(d$channel); d$plan <- factor(d$plan); d$product <- factor(d$product)
 
 designs <- list(
   weights = svydesign(ids = ~1, weights = ~weight, data = d),
   strata = svydesign(ids = ~1, strata = ~region, weights = ~weight, data = d),
   clusters = svydesign(ids = ~store, strata = ~region, weights = ~weight, data = d, nest = TRUE),
   clusters_only = svydesign(ids = ~store, weights = ~weight, data = d))
-# Stated mixes (as ratio terms, in the first-seen order of the levels).
+# Stated mixes (as ratio terms, in the sorted order of the levels).
 mixes <- list(channel = c(25, 30, 20, 25), plan = c(50, 30, 20), product = rep(1, 12))
 
 fmt <- function(x) sprintf("%.17g", x)
@@ -60,7 +63,7 @@ out <- c(paste0("# Source: R ", R.version$major, ".", R.version$minor, ", survey
          "# first_*: X-squared / mean of svygofchisq's nonzero eigenvalues on k - 1 df (Rao and Scott 1981, first order).",
          "# f_*: X-squared / sum(eigenvalues) on df and df * degf(design) (svychisq's statistic = \"F\" form).",
          "# rs81_mean_deff: n * sum(diag(vcov(svymean)) / p0) / (k - 1) (Rao and Scott 1981, eq. 4.3, centred at p-hat).",
-         "# deff: svymean(~column, design, deff = TRUE), R's definition (SRS variance with n - 1); colon-separated.",
+         "# deff: n * diag(vcov(svymean(~column, design))) / (p-hat (1 - p-hat)), Kish's per-category design effect; colon-separated.",
          "# Tolerance stated in tests: 1e-8 relative.",
          "design,column,mix,n,total_weight,clusters,strata,x2_totals,scale,second_df,second_p,second_statistic,first_statistic,first_df,first_p,mean_deff,f_statistic,f_df1,f_df2,f_p,rs81_mean_deff,deff")
 for (dn in names(designs)) {
@@ -76,7 +79,7 @@ for (dn in names(designs)) {
     first <- X2 / (sum(lambda) / (k - 1))
     mean_deff <- sum(lambda) / (k - 1) * n / Nhat
     fstat <- X2 / sum(lambda); ddf <- df2 * degf(des)
-    m <- svymean(f, des, deff = TRUE)
+    m <- svymean(f, des)
     rs81 <- n * sum(diag(vcov(m)) / p0) / (k - 1)
     clusters <- if (dn %in% c("clusters", "clusters_only")) length(unique(paste(d$region, d$store))) else n
     strata <- if (dn %in% c("strata", "clusters")) length(unique(d$region)) else 1
@@ -84,7 +87,7 @@ for (dn in names(designs)) {
                         fmt(X2), fmt(sc), fmt(df2), fmt(r$p.value), fmt(X2 / sc),
                         fmt(first), k - 1, fmt(pchisq(first, k - 1, lower.tail = FALSE)), fmt(mean_deff),
                         fmt(fstat), fmt(df2), fmt(ddf), fmt(pf(fstat, df2, ddf, lower.tail = FALSE)),
-                        fmt(rs81), paste(fmt(unname(deff(m))), collapse = ":"), sep = ","))
+                        fmt(rs81), paste(fmt(unname(n * diag(vcov(m)) / (coef(m) * (1 - coef(m))))), collapse = ":"), sep = ","))
   }
 }
 writeLines(out, "survey_reference.csv")

@@ -36,6 +36,7 @@ std::vector<double> colon_numbers(const std::string& field) {
 SurveyColumns design_columns(const std::string& design, const std::string& column) {
     SurveyColumns c;
     c.category = column;
+    c.sorted = true;  // the reference's levels are sorted (see make_survey_reference.R)
     c.weight = "weight";
     if (design == "strata" || design == "clusters") c.stratum = "region";
     if (design == "clusters" || design == "clusters_only") c.cluster = "store";
@@ -86,11 +87,10 @@ TEST_CASE("Rao-Scott tests against R survey 4.1-1 svygofchisq, every design of t
         CHECK(close(d.f_form.numerator_df, std::stod(f[17]), 1e-8));
         CHECK(close(d.f_form.denominator_df, std::stod(f[18]), 1e-8));
         CHECK(close(d.f_form.p.p, std::stod(f[19]), 1e-8));
-        // Per-category design effects: R's svymean deff uses the SRS variance with n - 1
-        // (svyvar), ours Kish's n: d_ours = d_R (n - 1) / n.
+        // Per-category design effects n Var(p̂_j) / (p̂_j (1 − p̂_j)), Var from R's vcov(svymean()).
         const std::vector<double> deff_r = colon_numbers(f[21]);
         REQUIRE(deff_r.size() == d.design_effects.size());
-        for (std::size_t j = 0; j < deff_r.size(); ++j) CHECK(close(d.design_effects[j], deff_r[j] * (n - 1) / n, 1e-8));
+        for (std::size_t j = 0; j < deff_r.size(); ++j) CHECK(close(d.design_effects[j], deff_r[j], 1e-8));
         // Tier 2 from these design effects: Rao and Scott's (1981, eq. 4.3) mean design effect,
         // which R gives as n sum(diag(vcov(svymean)) / p0) / (k - 1).
         const DesignCorrection t2 = rao_scott_category_effects(d.shares, n, d.design_effects, mix);
