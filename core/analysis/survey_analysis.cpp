@@ -93,10 +93,16 @@ void add_design_correction(const Analysis& a, Result* r) {
                           ") treats the weighted shares as a simple random sample of " + format_count(c.n) +
                           " and so overstates the evidence when the design effect exceeds 1 (mean design effect " +
                           format_significant(c.mean_design_effect, 3) + ", effective n " + format_significant(c.effective_n, 4) + ").");
-    // Per-category diagnostics assume whole counts from a simple random sample: not given here.
+    // Per-category diagnostics assume whole counts from a simple random sample: not given here
+    // (with the weighted counts of respondent rows they are not computed at all).
+    const std::vector<std::string> diagnostic_notes = r->diagnostics.warnings;
     r->warnings.erase(std::remove_if(r->warnings.begin(), r->warnings.end(),
-                                     [](const std::string& w) { return w.rfind("Per-category diagnostics were not computed", 0) == 0; }),
+                                     [&](const std::string& w) {
+                                         return w.rfind("Per-category diagnostics were not computed", 0) == 0 ||
+                                                std::find(diagnostic_notes.begin(), diagnostic_notes.end(), w) != diagnostic_notes.end();
+                                     }),
                       r->warnings.end());
+    r->diagnostics = CategoryDiagnostics{};
     r->warnings.push_back("Per-category residuals and intervals are not given for survey data (they assume a simple random "
                           "sample of whole counts); the table shows each category's weighted count n p̂ and its share of "
                           "the uncorrected χ². The validity check uses the nominal n.");

@@ -87,7 +87,7 @@ std::string design_report_text(const Result& r) {
         s += "Second order (Satterthwaite): χ²/(δ̄(1 + a²)) = " + format_fixed(d.second_order.statistic, 3) + ", df = " +
              format_significant(d.second_order.df, 4) + ", p = " + format_probability(d.second_order.p) +
              (r.design_decided_on == "second-order" ? " (decides)" : "") + "\n";
-    const char* first_name = d.tier == DesignTier::overall_design_effect ? "Crude (χ²/D)" : "First order (χ²/δ̄)";
+    const char* first_name = d.tier == DesignTier::overall_design_effect ? "Crude (χ² / overall design effect)" : "First order (χ²/δ̄)";
     s += std::string(first_name) + " = " + format_fixed(d.first_order.statistic, 3) + ", df = " + format_count(d.first_order.df) +
          ", p = " + format_probability(d.first_order.p) + (r.design_decided_on != "second-order" ? " (decides)" : "") + "\n";
     if (d.f_form.available)
@@ -95,7 +95,7 @@ std::string design_report_text(const Result& r) {
              format_significant(d.f_form.denominator_df, 4) + " df (PSUs − strata = " +
              format_count(static_cast<double>(d.clusters) - static_cast<double>(d.strata)) + "), p = " + format_probability(d.f_form.p) + "\n";
     if (!d.second_order.available) s += "Second order not offered: " + d.second_order.reason + "\n";
-    s += (d.tier == DesignTier::overall_design_effect ? "Design effect D = " : "Mean design effect δ̄ = ") +
+    s += (d.tier == DesignTier::overall_design_effect ? "Overall design effect = " : "Mean design effect δ̄ = ") +
          format_significant(d.mean_design_effect, 4);
     if (!d.generalised_design_effects.empty()) {
         s += " (generalised design effects";

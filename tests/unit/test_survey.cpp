@@ -151,3 +151,27 @@ TEST_CASE("Design correction refuses a stated share of zero and mismatched desig
     CHECK(!rao_scott_category_effects({50, 30, 20}, 100, {1.2, 1.3, 1.1}, {1, 1, 0}).status.ok);
     CHECK(!rao_scott_category_effects({50, 30, 20}, 100, {1.2, -1, 1.1}, {1, 1, 1}).status.ok);
 }
+
+TEST_CASE("The corrected test does not depend on the order of the categories") {
+    // R survey 4.1-1's svygofchisq does (it pairs categories with expected totals in alphabetical
+    // order); ours must give the same result in first-seen and in sorted order. Invariance, 1e-12.
+    const std::string text = respondents_text();
+    SurveyColumns c = design_columns("clusters", "channel");
+    const SurveyRowsReading sorted = read_survey_rows(text, c);
+    c.sorted = false;
+    const SurveyRowsReading seen = read_survey_rows(text, c);
+    REQUIRE(sorted.status.ok);
+    REQUIRE(seen.status.ok);
+    const std::vector<double> mix_sorted{25, 30, 20, 25};  // Online, Partner, Phone, Store
+    std::vector<double> mix_seen;
+    for (const std::string& label : seen.sample.categories)
+        for (std::size_t j = 0; j < sorted.sample.categories.size(); ++j)
+            if (sorted.sample.categories[j] == label) mix_seen.push_back(mix_sorted[j]);
+    REQUIRE(mix_seen.size() == 4);
+    CHECK(seen.sample.categories != sorted.sample.categories);  // the orders do differ
+    const DesignCorrection a = rao_scott_respondents(sorted.sample, mix_sorted);
+    const DesignCorrection b = rao_scott_respondents(seen.sample, mix_seen);
+    CHECK(close(b.second_order.statistic, a.second_order.statistic, 1e-12));
+    CHECK(close(b.second_order.df, a.second_order.df, 1e-12));
+    CHECK(close(b.first_order.statistic, a.first_order.statistic, 1e-12));
+}
