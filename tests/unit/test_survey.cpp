@@ -11,6 +11,8 @@
 #include <string>
 #include <vector>
 
+#include "analysis_document.hpp"
+#include "goodness_of_fit.hpp"
 #include "rao_scott.hpp"
 #include "survey_rows.hpp"
 
@@ -174,4 +176,50 @@ TEST_CASE("The corrected test does not depend on the order of the categories") {
     CHECK(close(b.second_order.statistic, a.second_order.statistic, 1e-12));
     CHECK(close(b.second_order.df, a.second_order.df, 1e-12));
     CHECK(close(b.first_order.statistic, a.first_order.statistic, 1e-12));
+}
+
+TEST_CASE("A saved analysis reopens with its survey design (analysis document round trip)") {
+    // Same inputs, same result: the document carries the respondents' categories, weights,
+    // strata and clusters (docs/analysis-document.md, Survey design); checked against R survey
+    // 4.1-1's second-order p for the clusters-in-strata design of the reference table.
+    const SurveyRowsReading read = read_survey_rows(respondents_text(), design_columns("clusters", "plan"));
+    REQUIRE(read.status.ok);
+    Analysis a;
+    a.categories = read.sample.categories;
+    a.observed = read.counts;
+    a.model.kind = ModelKind::ratio;
+    a.model.values = {50, 30, 20};
+    a.design.requested = true;
+    a.design.sample = read.sample;
+    const Result first = analyse(a);
+    REQUIRE_MESSAGE(first.status.ok, first.status.message);
+    REQUIRE(first.design.has_value());
+    Analysis reopened;
+    const Status s = read_analysis_document(write_analysis_document(a), &reopened);
+    REQUIRE_MESSAGE(s.ok, s.message);
+    CHECK(reopened.design.sample.stratum_column == "region");
+    CHECK(reopened.design.sample.cluster_column == "store");
+    const Result again = analyse(reopened);
+    REQUIRE_MESSAGE(again.status.ok, again.status.message);
+    REQUIRE(again.design.has_value());
+    CHECK(again.p.p == first.p.p);
+    CHECK(again.design->second_order.df == first.design->second_order.df);
+    for (const auto& f : tallyproof_test::reference_rows("survey_reference.csv"))
+        if (f[0] == "clusters" && f[1] == "plan") CHECK(close(again.p.p, std::stod(f[10]), 1e-8));
+    // Tiers 2 and 3 travel too.
+    Analysis t3;
+    t3.categories = {"A", "B", "C"};
+    t3.observed = {50, 30, 20};
+    t3.design.requested = true;
+    t3.design.overall_design_effect = 1.8;
+    Analysis t3r;
+    REQUIRE(read_analysis_document(write_analysis_document(t3), &t3r).ok);
+    CHECK(t3r.design.overall_design_effect == 1.8);
+    t3.design.overall_design_effect = NAN;
+    t3.design.category_design_effects = {1.2, 1.5, 1.1};
+    REQUIRE(read_analysis_document(write_analysis_document(t3), &t3r).ok);
+    CHECK(t3r.design.category_design_effects == std::vector<double>{1.2, 1.5, 1.1});
+    // A respondent's category out of range is refused by name.
+    CHECK(!read_analysis_document("{\"categories\": [\"A\", \"B\"], \"observed\": [1, 1], \"design\": {\"respondents\": "
+                                  "{\"category\": [0, 2], \"weight\": [1, 1]}}}", &t3r).ok);
 }
