@@ -328,8 +328,11 @@ Result analyse(const Analysis& asked) {
     if (a.design.requested) {
         add_design_correction(a, &r);
         if (!r.status.ok) return r;
+        if (asked.conformity.requested)
+            r.warnings.push_back("The conformity test is not offered for survey data: its margin would need the design's "
+                                 "own distribution. Only the test of departure is corrected for the design.");
     }
-    add_plan(a, n, &r);
+    add_plan(a, r.design ? r.design->effective_n : n, &r);  // survey data: power at the effective n
     add_digit_deviation(a, &r);
     suggest_count_models(a, &r);
     add_conformity(a, &r);

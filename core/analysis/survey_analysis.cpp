@@ -24,6 +24,8 @@ Status prepare_design_analysis(const Analysis& a, Analysis* tested) {
                                "design the Rao–Scott correction gives the p-value.");
     if (a.statistic.lambda != power_lambda::pearson || a.statistic.williams)
         return Status::failure("The design correction applies to Pearson's χ² (λ = 1).");
+    // The conformity test's margin would need the design's own noncentral distribution: not offered.
+    tested->conformity = ConformityChoice{};
     if (a.extra_estimated_parameters != 0)
         return Status::failure("Extra estimated parameters are not combined with a survey design.");
     const bool tier2 = !d.category_design_effects.empty();

@@ -163,9 +163,9 @@ std::string report_text(const Analysis& a, const Result& r) {
     }
     if (r.plan.requested) {
         if (r.plan.status.ok)
-            s += "Power at w = " + format_fixed(r.plan.w, 3) + ", N = " + format_count(r.plan.n) + ": " +
-                 format_fixed(r.plan.power, 3) + "; N for power " + format_fixed(r.plan.target_power, 2) + ": " +
-                 format_count(r.plan.n_required) + "\n";
+            s += "Power at w = " + format_fixed(r.plan.w, 3) + (r.design ? ", effective n = " + format_significant(r.plan.n, 4) : ", N = " + format_count(r.plan.n)) + ": " +
+                 format_fixed(r.plan.power, 3) + "; " + (r.design ? "effective n" : "N") + " for power " + format_fixed(r.plan.target_power, 2) + ": " +
+                 format_count(r.plan.n_required) + (r.design ? " (times the mean design effect for the respondents needed)" : "") + "\n";
         else s += "Planning: " + r.plan.status.message + "\n";
     }
     if (r.conformity) {

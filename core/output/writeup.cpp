@@ -197,7 +197,7 @@ std::string sentence(const Analysis& a, const Result& r, const Style& st, const 
         // Survey data: the corrected statistic on its (possibly fractional) df, the correction named.
         const DesignCorrection& d = *r.design;
         const DesignTest& t = d.second_order.available ? d.second_order : d.first_order;
-        std::string df = format_significant(t.df, 3);
+        std::string df = t.df == std::floor(t.df) ? format_count(t.df) : format_significant(t.df, 3);
         if (st.comma) std::replace(df.begin(), df.end(), '.', ',');
         s += ", design-corrected " + statistic_symbol(r.lambda) + "(" + df + ", n = " + grouped(d.n, st) + ") = " + fixed(t.statistic, 2, st);
         s += sep + "p " + p_report(r.p, st);
