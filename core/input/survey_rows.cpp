@@ -91,7 +91,14 @@ SurveyRowsReading read_survey_rows(std::string_view text_in, const SurveyColumns
         named = true;
     }
     double probe = 0;
-    const bool header = named || (choices[1].given && choices[1].index < head.size() && !read_typed_number(head[choices[1].index], &probe));
+    // Columns by number only: a header when the weight cell is not a number, or (no weight column)
+    // when the first line's category occurs nowhere below it (a column's name, not an answer).
+    bool header = named || (choices[1].given && choices[1].index < head.size() && !read_typed_number(head[choices[1].index], &probe));
+    if (!named && !choices[1].given && rows.size() > 1 && choices[0].index < head.size()) {
+        header = true;
+        for (std::size_t r = 1; r < rows.size() && header; ++r)
+            header = !(choices[0].index < rows[r].size() && rows[r][choices[0].index] == head[choices[0].index]);
+    }
     for (const Choice& c : choices) {
         if (!c.given) continue;
         std::size_t width = 0;

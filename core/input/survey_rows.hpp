@@ -2,7 +2,9 @@
 // SurveySample for the design-corrected tests (core/survey): the category, weight, stratum and
 // cluster columns chosen by header name (any case) or 1-based number, as the group column is.
 // Clusters are taken as nested in strata (a cluster label in two strata is two PSUs, R survey's
-// nest = TRUE). Categories in first-seen order, or sorted.
+// nest = TRUE). Categories in first-seen order, or sorted. A column chosen by name needs the
+// header row (the first line); with numbers only, the first line is a header when its weight
+// cell is not a number or, without a weight column, when its category occurs nowhere below it.
 #pragma once
 #include <string>
 #include <string_view>

@@ -223,3 +223,20 @@ TEST_CASE("A saved analysis reopens with its survey design (analysis document ro
     CHECK(!read_analysis_document("{\"categories\": [\"A\", \"B\"], \"observed\": [1, 1], \"design\": {\"respondents\": "
                                   "{\"category\": [0, 2], \"weight\": [1, 1]}}}", &t3r).ok);
 }
+
+TEST_CASE("Survey rows: columns by number, with and without a header row") {
+    SurveyColumns c;
+    c.category = "1";
+    SurveyRowsReading r = read_survey_rows("answer\nA\nB\nA\n", c);
+    REQUIRE(r.status.ok);
+    CHECK(r.sample.categories == std::vector<std::string>{"A", "B"});  // "answer" is the header
+    CHECK(r.sample.category_column == "answer");
+    r = read_survey_rows("A\nB\nA\n", c);
+    REQUIRE(r.status.ok);
+    CHECK(r.counts == std::vector<double>{2, 1});  // the first line is a respondent
+    c.weight = "2";
+    r = read_survey_rows("A,1.5\nB,2\nA,0.5\n", c);
+    REQUIRE(r.status.ok);
+    CHECK(r.sample.weight == std::vector<double>{1.5, 2, 0.5});
+    CHECK(r.sample.weight_column == "column 2");
+}
