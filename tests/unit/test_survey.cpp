@@ -74,6 +74,8 @@ TEST_CASE("Rao-Scott tests against R survey 4.1-1 svygofchisq, every design of t
         CHECK(d.strata == std::stoul(f[6]));
         // svygofchisq's X-squared is on the scale of the weighted totals: X² (nominal n) = X²_T n / N̂.
         CHECK(close(d.uncorrected_statistic, std::stod(f[7]) * n / total_weight, 1e-8));
+        // svygofchisq's scale (on the totals' scale): X²_T / scale = our second-order statistic.
+        CHECK(close(d.uncorrected_statistic / d.second_order.statistic * total_weight / n, std::stod(f[8]), 1e-8));
         // Second order: X-squared / scale on df, p.value (R survey 4.1-1 svygofchisq).
         CHECK(close(d.second_order.statistic, std::stod(f[11]), 1e-8));
         CHECK(close(d.second_order.df, std::stod(f[9]), 1e-8));
@@ -149,6 +151,11 @@ TEST_CASE("Survey rows: bad inputs are refused by name") {
 }
 
 TEST_CASE("Design correction refuses a stated share of zero and mismatched design effects") {
+    // A category with a weighted share of zero is tested (it adds p0 n to X²), not refused:
+    // Rao and Scott (1981, eq. 4.3) by hand, (0.6·3·0.4·1.2 + 0.4·3·0.6·1.3 + 0) / 2 = 0.9.
+    const DesignCorrection zero = rao_scott_category_effects({60, 40, 0}, 100, {1.2, 1.3, 1.1}, {1, 1, 1});
+    REQUIRE(zero.status.ok);
+    CHECK(zero.mean_design_effect == doctest::Approx(0.9).epsilon(1e-14));
     CHECK(!rao_scott_category_effects({50, 30, 20}, 100, {1.2, 1.3}, {1, 1, 1}).status.ok);
     CHECK(!rao_scott_category_effects({50, 30, 20}, 100, {1.2, 1.3, 1.1}, {1, 1, 0}).status.ok);
     CHECK(!rao_scott_category_effects({50, 30, 20}, 100, {1.2, -1, 1.1}, {1, 1, 1}).status.ok);
