@@ -44,9 +44,26 @@ Status prepare_design_analysis(const Analysis& a, Analysis* tested) {
             sum += d.sample.weight[i];
         }
         const double n = static_cast<double>(d.sample.weight.size());
+        // The counts as read must be the respondents per category (a document could say otherwise).
+        std::vector<double> respondents(d.sample.categories.size(), 0.0);
+        for (std::size_t c : d.sample.category) respondents[c] += 1;
+        if (a.observed != respondents || a.categories != d.sample.categories)
+            return Status::failure("The counts and categories do not match the survey design's respondents: \"observed\" must "
+                                   "hold the respondents per category, in the order of \"categories\".");
         tested->categories = d.sample.categories;
         tested->observed.clear();
         for (double t : totals) tested->observed.push_back(n * t / sum);
+        // Their total is n exactly, summed left to right as the analysis sums them (rounding put
+        // on the largest count, where it is smallest relative to it).
+        std::size_t largest = 0;
+        for (std::size_t j = 1; j < totals.size(); ++j)
+            if (tested->observed[j] > tested->observed[largest]) largest = j;
+        for (int pass = 0; pass < 4; ++pass) {
+            double total = 0;
+            for (double o : tested->observed) total += o;
+            if (total == n) break;
+            tested->observed[largest] += n - total;
+        }
     } else if (!tier2 && !tier3) {
         return Status::failure("A survey design needs respondent rows, one design effect per category, or an overall design effect.");
     }

@@ -142,6 +142,7 @@ TEST_CASE("glossary: every abbreviation in the report and the write-up of many a
         s.weight.push_back(1.0 + static_cast<double>(i % 4));
         s.cluster.push_back(i % 4);
         s.stratum.push_back(i % 4 < 2 ? 0 : 1);
+        survey.observed[s.category.back()] += 1;  // the respondents per category
     }
     cases.push_back(survey);
     Analysis crude = counts({50, 30, 20});

@@ -201,6 +201,15 @@ TEST_CASE("A saved analysis reopens with its survey design (analysis document ro
     const Result first = analyse(a);
     REQUIRE_MESSAGE(first.status.ok, first.status.message);
     REQUIRE(first.design.has_value());
+    // The weighted counts n p̂ total n exactly (the invariants of tests/fuzz/fuzz_engine.cpp).
+    CHECK(first.n == 370);
+    double total = 0;
+    for (double o : first.tested_observed) total += o;
+    CHECK(total == first.n);
+    // Counts that are not the design's respondents per category are refused.
+    Analysis mismatched = a;
+    mismatched.observed[0] += 1;
+    CHECK(!analyse(mismatched).status.ok);
     Analysis reopened;
     const Status s = read_analysis_document(write_analysis_document(a), &reopened);
     REQUIRE_MESSAGE(s.ok, s.message);
