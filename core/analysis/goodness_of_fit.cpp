@@ -286,6 +286,9 @@ Result analyse(const Analysis& asked) {
     const Analysis& a = asked.design.requested ? designed : asked;
     Status s = read_counts(a, &r);
     if (!s.ok) { r.status = s; return r; }
+    // Survey rows: n is the number of respondents exactly (the weighted counts n p̂ may sum to it
+    // only up to rounding).
+    if (asked.design.requested && !asked.design.sample.weight.empty()) r.n = static_cast<double>(asked.design.sample.weight.size());
     const double n = r.n;
 
     if (a.model.kind == ModelKind::reference_sample) {  // 2 x k homogeneity: core/analysis/reference_sample_analysis

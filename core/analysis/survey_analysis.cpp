@@ -53,17 +53,6 @@ Status prepare_design_analysis(const Analysis& a, Analysis* tested) {
         tested->categories = d.sample.categories;
         tested->observed.clear();
         for (double t : totals) tested->observed.push_back(n * t / sum);
-        // Their total is n exactly, summed left to right as the analysis sums them (rounding put
-        // on the largest count, where it is smallest relative to it).
-        std::size_t largest = 0;
-        for (std::size_t j = 1; j < totals.size(); ++j)
-            if (tested->observed[j] > tested->observed[largest]) largest = j;
-        for (int pass = 0; pass < 4; ++pass) {
-            double total = 0;
-            for (double o : tested->observed) total += o;
-            if (total == n) break;
-            tested->observed[largest] += n - total;
-        }
     } else if (!tier2 && !tier3) {
         return Status::failure("A survey design needs respondent rows, one design effect per category, or an overall design effect.");
     }
