@@ -106,7 +106,8 @@ std::string design_report_text(const Result& r) {
     if (!d.design_effects.empty()) {
         s += "Design effects per category:";
         for (std::size_t j = 0; j < d.design_effects.size() && j < r.categories.size(); ++j)
-            s += std::string(j ? "," : "") + " " + r.categories[j] + " " + format_significant(d.design_effects[j], 3);
+            s += std::string(j ? "," : "") + " " + r.categories[j] + " " +
+                 (std::isfinite(d.design_effects[j]) ? format_significant(d.design_effects[j], 3) : "not defined (share 0 or 1)");
         s += "\n";
     }
     if (std::isfinite(d.kish_design_effect)) s += "Kish's design effect of the weights (1 + CV²): " + format_significant(d.kish_design_effect, 4) + "\n";
