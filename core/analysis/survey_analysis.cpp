@@ -73,6 +73,7 @@ void add_design_correction(const Analysis& a, Result* r) {
             c.kish_design_effect = kish_design_effect(d.sample.weight);
             c.clusters = survey_psu_count(d.sample);
             c.strata = survey_stratum_count(d.sample);
+            c.clustered = !d.sample.cluster.empty();
         }
         r->design_decided_on = "crude";
     } else {

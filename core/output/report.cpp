@@ -111,7 +111,11 @@ std::string design_report_text(const Result& r) {
         s += "\n";
     }
     if (std::isfinite(d.kish_design_effect)) s += "Kish's design effect of the weights (1 + CV²): " + format_significant(d.kish_design_effect, 4) + "\n";
-    if (d.clusters > 0) s += "PSUs: " + format_count(static_cast<double>(d.clusters)) + " in " + format_count(static_cast<double>(d.strata)) + " strata\n";
+    if (d.clusters > 0) {
+        const std::string strata = format_count(static_cast<double>(d.strata)) + (d.strata == 1 ? " stratum" : " strata");
+        s += d.clustered ? "PSUs: " + format_count(static_cast<double>(d.clusters)) + " clusters in " + strata + "\n"
+                         : "PSUs: each respondent its own (no cluster column), in " + strata + "\n";
+    }
     s += "Uncorrected: " + r.statistic_symbol + " = " + format_fixed(d.uncorrected_statistic, 2) + ", df = " + format_count(d.uncorrected_df) +
          ", p = " + format_probability(d.uncorrected_p) + ". It treats the weighted shares as a simple random sample of " +
          format_count(d.n) + " independent respondents, so where weighting and clustering make the shares vary more than "

@@ -105,6 +105,7 @@ DesignCorrection rao_scott_respondents(const SurveySample& s, const std::vector<
     d.kish_design_effect = kish_design_effect(s.weight);
     d.clusters = survey_psu_count(s);
     d.strata = survey_stratum_count(s);
+    d.clustered = !s.cluster.empty();
 
     // Per-category design effects and SEs of the shares (Kish's deff with n, not n − 1).
     const SquareMatrix Vp = weighted_share_covariance(s);

@@ -50,6 +50,7 @@ struct DesignCorrection {
     double effective_n = 0;                 // n / δ̄
     double kish_design_effect = 0;          // 1 + CV² of the weights (tier 1; NaN otherwise)
     std::size_t clusters = 0, strata = 0;   // PSUs and strata (tier 1)
+    bool clustered = false;                 // a cluster column was given (else each respondent is its own PSU)
     double uncorrected_statistic = 0;       // X² = n Σ (p̂ − p0)² / p0
     double uncorrected_df = 0;              // k − 1
     TailProbability uncorrected_p;
