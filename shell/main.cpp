@@ -14,6 +14,7 @@
 #include "glossary.hpp"
 #include "number_reading.hpp"
 #include "screen_groups.hpp"
+#include "survey_rows.hpp"
 #include "grouped_table.hpp"
 #include "read_input.hpp"
 #include "pvalue_job.hpp"
@@ -109,6 +110,18 @@ const char* kUsage =
     "                         bonferroni, none\n"
     "  --q Q                  flag groups whose adjusted p is at most Q (default 0.05)\n"
     "                         (--table and --writeup then give the groups table and summary)\n"
+    "survey data (design-corrected test, Rao and Scott 1981, 1984; see docs/methods.md):\n"
+    "  --category COLUMN      respondent rows (one per respondent, under a header): the\n"
+    "                         category column, by header name or 1-based number; categories\n"
+    "                         in first-seen order, or --sorted\n"
+    "  --weight COLUMN        the sampling weight column (weights > 0; default: every weight 1)\n"
+    "  --stratum COLUMN       the stratum column (default: one stratum)\n"
+    "  --cluster COLUMN       the cluster (PSU) column, nested in strata (default: each\n"
+    "                         respondent its own PSU); a stratum with one PSU is refused\n"
+    "  --design-effect D      one overall design effect: X2/D, the crude correction; D may be\n"
+    "                         kish (1 + CV2 of the --weight column)\n"
+    "  --design-effects LIST  one design effect per category (1.4,1.2,1.9): first-order\n"
+    "                         Rao-Scott correction of the counts or weighted shares read\n"
     "other:\n"
     "  --glossary             print what each abbreviation and symbol on screen means\n"
     "  --version, --help\n"
@@ -220,6 +233,11 @@ struct CommandLine {
     GroupReadOptions group_input;
     ScreenChoice screen;
     ScreenView screen_view;  // a document's sort and opened group, written back by --json
+    // Survey data: --category and its companions read respondent rows; --design-effect(s) tiers 3 and 2.
+    bool survey = false;
+    SurveyColumns survey_columns;
+    std::string design_effect;                 // --design-effect: a number or "kish"
+    std::string design_effects;                // --design-effects LIST
 };
 
 const std::vector<std::string> kWithValue = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
@@ -314,6 +332,18 @@ int read_command_line(int argc, char** argv, CommandLine* c) {
         else if (arg == "--sorted") c->input.sorted = true;
         else if (arg == "--decimal-comma") c->input.decimal = DecimalMark::comma;
         else if (arg == "--decimal-point") c->input.decimal = DecimalMark::point;
+        else if (arg == "--category" || arg == "--weight" || arg == "--stratum" || arg == "--cluster" ||
+                 arg == "--design-effect" || arg == "--design-effects") {
+            if (i + 1 >= argc) return usage_error(arg + " needs a value");
+            const std::string v = argv[++i];
+            if (v.empty()) return usage_error(arg + " needs a value");
+            if (arg == "--category") { c->survey_columns.category = v; c->survey = true; }
+            else if (arg == "--weight") c->survey_columns.weight = v;
+            else if (arg == "--stratum") c->survey_columns.stratum = v;
+            else if (arg == "--cluster") c->survey_columns.cluster = v;
+            else if (arg == "--design-effect") c->design_effect = v;
+            else c->design_effects = v;
+        }
         else if (arg == "--by" || arg == "--group-shape" || arg == "--group-header" || arg == "--against" || arg == "--adjust" || arg == "--q") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             if (const int r = read_screen_option(arg, argv[++i], c); r != kGoOn) return r;
@@ -329,6 +359,10 @@ int read_command_line(int argc, char** argv, CommandLine* c) {
         else return usage_error("only one input file can be given");
     }
 
+    if (!c->survey && (!c->survey_columns.weight.empty() || !c->survey_columns.stratum.empty() || !c->survey_columns.cluster.empty()))
+        return usage_error("--weight, --stratum and --cluster need --category (respondent rows: the category column)");
+    if (c->survey && c->screening) return usage_error("--category (survey rows) cannot be combined with screening many groups (--by)");
+    if (c->survey) c->survey_columns.sorted = c->input.sorted;
     return kGoOn;
 }
 
@@ -383,6 +417,16 @@ int read_analysis(int argc, char** argv, std::string* text_in, CommandLine* c, A
             }
             c->screen = chosen;
             c->screening = true;
+        }
+    } else if (c->survey) {
+        // Respondent rows: the sample's categories and counts, the design corrected for (core/survey).
+        SurveyRowsReading rows = read_survey_rows(text, c->survey_columns);
+        read = rows.status;
+        if (read.ok) {
+            analysis.categories = rows.sample.categories;
+            analysis.observed = rows.counts;
+            analysis.design.requested = true;
+            analysis.design.sample = std::move(rows.sample);
         }
     } else {
         if (!c->screening && c->input.bins.kind == BinChoice::Kind::equal_probability) {
@@ -541,6 +585,22 @@ int main(int argc, char** argv) {
     Status read;
     if (const int r = read_analysis(argc, argv, &text, &c, &analysis, &groups, &read); r != kGoOn) return r;
     if (const int r = apply_options(c.opts, &analysis); r != kGoOn) return r;
+    if (!c.design_effect.empty() || !c.design_effects.empty()) {
+        if (c.screening) return usage_error("--design-effect(s) cannot be combined with screening many groups (--by)");
+        if (!c.design_effect.empty() && !c.design_effects.empty()) return usage_error("give --design-effect or --design-effects, not both");
+        analysis.design.requested = true;
+        if (c.design_effect == "kish") {
+            if (c.survey_columns.weight.empty()) return usage_error("--design-effect kish needs --category and --weight (respondent rows)");
+            analysis.design.kish = true;
+        } else if (!c.design_effect.empty()) {
+            double d = 0;
+            if (!tallyproof::read_typed_number(c.design_effect, &d) || !(d > 0 && std::isfinite(d)))
+                return usage_error("--design-effect needs a number greater than 0, such as 1.8, or kish");
+            analysis.design.overall_design_effect = d;
+        } else if (!to_list(c.design_effects, &analysis.design.category_design_effects)) {
+            return usage_error("--design-effects needs one number per category, such as 1.4,1.2,1.9");
+        }
+    }
     if (c.screening && analysis.conformity.requested &&
         std::any_of(c.opts.begin(), c.opts.end(), [](const auto& o) { return o.first == "--conformity" || o.first == "--conformity-points"; }))
         return usage_error("--conformity (show one sample conforms within w0) cannot be combined with --by or a document's "

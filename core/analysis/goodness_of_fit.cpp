@@ -19,6 +19,7 @@
 #include "power_analysis.hpp"
 #include "power_divergence.hpp"
 #include "reference_sample_analysis.hpp"
+#include "survey_analysis.hpp"
 
 namespace tallyproof {
 namespace {
@@ -52,7 +53,12 @@ void relabel_integer_groups(const std::vector<std::string>& original, const std:
 }
 
 void add_cautions(const Analysis& a, Result* r) {
-    r->cautions.push_back("The test assumes independent observations from a random sample, and counts, not percentages or rates.");
+    if (a.design.requested)
+        r->cautions.push_back("The design-corrected test assumes the design is described fully (weights, strata, clusters) and "
+                              "treats the clusters as drawn with replacement within strata, which overstates the variance a "
+                              "little when a large share of the clusters was sampled.");
+    else
+        r->cautions.push_back("The test assumes independent observations from a random sample, and counts, not percentages or rates.");
     if (model_is_digit_law(a.model.kind))
         r->cautions.push_back("A digit test that fails is a reason to look closer, never proof of fabrication: many genuine "
                               "data sets do not follow these laws (rounding, thresholds, assigned numbers, small ranges).");
@@ -93,7 +99,8 @@ Status read_counts(const Analysis& a, Result* r) {
     double n = 0;
     for (std::size_t i = 0; i < k; ++i) {
         const double o = a.observed[i];
-        if (!std::isfinite(o) || o < 0 || o != std::floor(o) || o >= 9007199254740992.0)
+        // With a survey design the counts are weighted shares times n, not whole numbers.
+        if (!std::isfinite(o) || o < 0 || (o != std::floor(o) && !a.design.requested) || o >= 9007199254740992.0)
             return refused(r, "The count for \"" + a.categories[i] + "\" must be a non-negative whole number.");
         n += o;
     }
@@ -105,7 +112,7 @@ Status read_counts(const Analysis& a, Result* r) {
                               "(the statistic and p-value are not affected at that precision).");
     // Whole counts that total 100 are counts far more often than percentages (decimals, % signs
     // and a percent header are caught where the paste is read): a quiet question, not a warning.
-    if (n == 100)
+    if (n == 100 && !a.design.requested)
         r->questions.push_back("The counts total 100: are they counts of items, not percentages? A test needs the counts.");
     return Status::success();
 }
@@ -268,10 +275,20 @@ void suggest_count_models(const Analysis& a, Result* r) {
 
 }  // namespace
 
-Result analyse(const Analysis& a) {
+Result analyse(const Analysis& asked) {
     Result r;
+    // Survey data: the weighted shares are tested, then corrected for the design (survey_analysis).
+    Analysis designed;
+    if (asked.design.requested) {
+        const Status prepared = prepare_design_analysis(asked, &designed);
+        if (!prepared.ok) { r.status = prepared; return r; }
+    }
+    const Analysis& a = asked.design.requested ? designed : asked;
     Status s = read_counts(a, &r);
     if (!s.ok) { r.status = s; return r; }
+    // Survey rows: n is the number of respondents exactly (the weighted counts n p̂ may sum to it
+    // only up to rounding).
+    if (asked.design.requested && !asked.design.sample.weight.empty()) r.n = static_cast<double>(asked.design.sample.weight.size());
     const double n = r.n;
 
     if (a.model.kind == ModelKind::reference_sample) {  // 2 x k homogeneity: core/analysis/reference_sample_analysis
@@ -311,7 +328,14 @@ Result analyse(const Analysis& a) {
     if (!s.ok) { r.status = s; return r; }
     add_df_range(a, static_cast<double>(cells.labels.size()), model.estimated_parameters, &r);
     add_diagnostics_and_effects(a, cells, &r);
-    add_plan(a, n, &r);
+    if (a.design.requested) {
+        add_design_correction(a, &r);
+        if (!r.status.ok) return r;
+        if (asked.conformity.requested)
+            r.warnings.push_back("The conformity test is not offered for survey data: its margin would need the design's "
+                                 "own distribution. Only the test of departure is corrected for the design.");
+    }
+    add_plan(a, r.design ? r.design->effective_n : n, &r);  // survey data: power at the effective n
     add_digit_deviation(a, &r);
     suggest_count_models(a, &r);
     add_conformity(a, &r);

@@ -2,7 +2,7 @@
 // analysis document, docs/analysis-document.md): categories with observed counts, the expected
 // mix (the model) and the test settings.
 //
-// Index: ModelKind, Model · StatisticChoice · PValueChoice · MergeChoice · PlanChoice · ConformityChoice · Analysis
+// Index: ModelKind, Model · StatisticChoice · PValueChoice · MergeChoice · PlanChoice · ConformityChoice · DesignChoice · Analysis
 #pragma once
 #include <cstdint>
 #include <limits>
@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "merge_categories.hpp"  // MergeRule
+#include "survey_sample.hpp"      // SurveySample
 
 namespace tallyproof {
 
@@ -87,6 +88,19 @@ struct ConformityChoice {
     double target_power = std::numeric_limits<double>::quiet_NaN();  // planning: default 0.8
 };
 
+// Survey data (core/survey): the design behind the counts, for a design-corrected test (Rao and
+// Scott 1981, 1984). Tier 1: respondent rows (`sample`) with weights, strata and clusters; tier 2:
+// one design effect per category; tier 3: one overall design effect, given or Kish's from the
+// weights. With a sample, the categories and counts are the sample's (weighted shares times the
+// number of respondents); otherwise the counts as read give the shares and n.
+struct DesignChoice {
+    bool requested = false;
+    SurveySample sample;                          // respondent rows (empty: none)
+    std::vector<double> category_design_effects;  // tier 2, one per category
+    double overall_design_effect = std::numeric_limits<double>::quiet_NaN();  // tier 3 (given)
+    bool kish = false;                            // tier 3: D = 1 + CV² of the sample's weights
+};
+
 struct Analysis {
     std::vector<std::string> categories;  // labels, one per category
     std::vector<double> observed;         // non-negative whole counts
@@ -99,6 +113,7 @@ struct Analysis {
     int extra_estimated_parameters = 0;   // parameters estimated elsewhere, each costing one df
     PlanChoice plan;
     ConformityChoice conformity;
+    DesignChoice design;                  // survey data: the design-corrected test (requested: on)
 };
 
 const char* pvalue_method_name(PValueMethod m);  // "asymptotic", "exact", "monte-carlo"

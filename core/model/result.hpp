@@ -15,6 +15,7 @@
 #include "conformity.hpp"
 #include "effect_size.hpp"
 #include "fit_distribution.hpp"
+#include "rao_scott.hpp"
 #include "reference_sample.hpp"
 #include "status.hpp"
 #include "validity.hpp"
@@ -122,6 +123,12 @@ struct Result {
     // Comparison with a previous sample (model kind reference-sample), and the conformity test
     std::optional<ReferenceSampleOutcome> reference;
     std::optional<ConformityResult> conformity;  // when asked for (ok or refused, with its reason)
+
+    // Survey data: the design-corrected test (Analysis::design). `statistic`, `df` and `upper` are
+    // then the uncorrected X² of the weighted shares scaled to the nominal n; `p` and `reject` are
+    // the corrected test's (second order where available, else first order).
+    std::optional<DesignCorrection> design;
+    std::string design_decided_on;          // "second-order", "first-order" or "crude"
 
     std::vector<std::string> warnings;      // plain-language notes about this analysis
     std::vector<std::string> questions;     // quiet checks a user may dismiss ("counts, or percentages?"), not warnings

@@ -57,6 +57,73 @@ Status read_numbers(const JsonValue& v, const std::string& path, std::vector<dou
 
 #define TP_TRY(expr) do { Status s_ = (expr); if (!s_.ok) return s_; } while (0)
 
+// A list of whole-number indices below `limit` (respondents' categories, strata, clusters).
+Status read_indices(const JsonValue& v, const std::string& path, std::size_t limit, std::vector<std::size_t>* out) {
+    std::vector<double> x;
+    TP_TRY(read_numbers(v, path, &x));
+    out->clear();
+    for (std::size_t i = 0; i < x.size(); ++i) {
+        if (!(x[i] >= 0 && x[i] < static_cast<double>(limit) && x[i] == std::floor(x[i])))
+            return wrong(path + "[" + std::to_string(i) + "]", "a whole number from 0 to " + std::to_string(limit) + " − 1");
+        out->push_back(static_cast<std::size_t>(x[i]));
+    }
+    return Status::success();
+}
+
+Status read_labels(const JsonValue& v, const std::string& path, std::vector<std::string>* out) {
+    if (!v.is(Type::array)) return wrong(path, "a list of labels");
+    out->clear();
+    for (std::size_t i = 0; i < v.array.size(); ++i) {
+        if (!v.array[i].is(Type::string)) return wrong(path + "[" + std::to_string(i) + "]", "a string");
+        out->push_back(normalised_label(v.array[i].string));
+    }
+    return Status::success();
+}
+
+// "design" (docs/analysis-document.md, Survey design): respondent rows, design effects per
+// category, or one overall design effect (a number or "kish").
+Status read_design(const JsonValue& d, const std::vector<std::string>& categories, DesignChoice* out) {
+    if (!d.is(Type::object)) return wrong("design", "an object such as {\"design_effect\": 1.8}");
+    DesignChoice c;
+    c.requested = true;
+    if (const JsonValue* r = d.find("respondents"); r && !r->is(Type::null)) {
+        if (!r->is(Type::object)) return wrong("design.respondents", "an object with category and weight lists");
+        SurveySample& s = c.sample;
+        s.categories = categories;
+        const JsonValue* cat = r->find("category");
+        const JsonValue* w = r->find("weight");
+        if (!cat || !w) return wrong("design.respondents", "an object with \"category\" and \"weight\" lists");
+        TP_TRY(read_indices(*cat, "design.respondents.category", categories.size(), &s.category));
+        TP_TRY(read_numbers(*w, "design.respondents.weight", &s.weight));
+        if (s.weight.size() != s.category.size()) return wrong("design.respondents.weight", "one weight per respondent");
+        if (const JsonValue* v = r->find("strata"); v && !v->is(Type::null)) TP_TRY(read_labels(*v, "design.respondents.strata", &s.strata));
+        if (const JsonValue* v = r->find("clusters"); v && !v->is(Type::null)) TP_TRY(read_labels(*v, "design.respondents.clusters", &s.clusters));
+        if (const JsonValue* v = r->find("stratum"); v && !v->is(Type::null)) {
+            TP_TRY(read_indices(*v, "design.respondents.stratum", s.strata.size(), &s.stratum));
+            if (s.stratum.size() != s.weight.size()) return wrong("design.respondents.stratum", "one stratum per respondent");
+        }
+        if (const JsonValue* v = r->find("cluster"); v && !v->is(Type::null)) {
+            TP_TRY(read_indices(*v, "design.respondents.cluster", s.clusters.size(), &s.cluster));
+            if (s.cluster.size() != s.weight.size()) return wrong("design.respondents.cluster", "one cluster per respondent");
+        }
+        if (const JsonValue* cols = r->find("columns"); cols && cols->is(Type::object)) {
+            TP_TRY(read_enum_string(*cols, "category", "design.respondents.columns.", &s.category_column));
+            TP_TRY(read_enum_string(*cols, "weight", "design.respondents.columns.", &s.weight_column));
+            TP_TRY(read_enum_string(*cols, "stratum", "design.respondents.columns.", &s.stratum_column));
+            TP_TRY(read_enum_string(*cols, "cluster", "design.respondents.columns.", &s.cluster_column));
+        }
+    }
+    if (const JsonValue* v = d.find("design_effects"); v && !v->is(Type::null))
+        TP_TRY(read_numbers(*v, "design.design_effects", &c.category_design_effects));
+    if (const JsonValue* v = d.find("design_effect"); v && !v->is(Type::null)) {
+        if (v->is(Type::string) && v->string == "kish") c.kish = true;
+        else if (v->is(Type::number) && v->number > 0 && std::isfinite(v->number)) c.overall_design_effect = v->number;
+        else return wrong("design.design_effect", "a number greater than 0, or \"kish\"");
+    }
+    *out = std::move(c);
+    return Status::success();
+}
+
 Status read_model(const JsonValue& m, Model* model) {
     if (!m.is(Type::object)) return wrong("model", "an object");
     std::string kind = "equal";
@@ -209,9 +276,40 @@ Status read_analysis_document(std::string_view json, Analysis* out) {
             return wrong("conformity.margin_w", "a margin w0 in (0, 1], such as 0.1 (Cohen's small effect), or margin_points");
         }
     }
+    if (const JsonValue* d = doc.find("design"); d && !d->is(Type::null)) TP_TRY(read_design(*d, a.categories, &a.design));
     *out = std::move(a);
     return Status::success();
 }
+
+namespace {
+
+// The survey design's inputs, so a saved analysis reopens with them (read_design reads them back).
+void write_design_inputs(JsonWriter& j, const DesignChoice& d) {
+    if (!d.requested) return;
+    j.key("design").begin_object();
+    const SurveySample& s = d.sample;
+    if (!s.weight.empty()) {
+        auto indices = [&](const char* key, const std::vector<std::size_t>& v) {
+            j.key(key).begin_array();
+            for (std::size_t x : v) j.value(static_cast<double>(x));
+            j.end_array();
+        };
+        j.key("respondents").begin_object();
+        j.key("columns").begin_object().key("category").value(s.category_column).key("weight").value(s.weight_column)
+            .key("stratum").value(s.stratum_column).key("cluster").value(s.cluster_column).end_object();
+        indices("category", s.category);
+        j.key("weight").numbers(s.weight);
+        if (!s.stratum.empty()) { j.key("strata").strings(s.strata); indices("stratum", s.stratum); }
+        if (!s.cluster.empty()) { j.key("clusters").strings(s.clusters); indices("cluster", s.cluster); }
+        j.end_object();
+    }
+    if (!d.category_design_effects.empty()) j.key("design_effects").numbers(d.category_design_effects);
+    if (d.kish) j.key("design_effect").value("kish");
+    else if (std::isfinite(d.overall_design_effect)) j.key("design_effect").value(d.overall_design_effect);
+    j.end_object();
+}
+
+}  // namespace
 
 std::string write_analysis_document(const Analysis& a) {
     JsonWriter j;
@@ -220,6 +318,7 @@ std::string write_analysis_document(const Analysis& a) {
     j.key("categories").strings(a.categories);
     j.key("observed").numbers(a.observed);
     write_analysis_settings(j, a);
+    write_design_inputs(j, a.design);
     j.end_object();
     return j.str();
 }

@@ -86,6 +86,21 @@ const std::vector<GlossaryEntry> kEntries = {
     {"JSON", "A plain-text data format: the analysis file, which reopens the same analysis in Tallyproof."},
     {"PNG", "An image file of the chart, for a slide or a document."},
     {"PDF", "A document file that prints the same everywhere; the browser's print dialog saves one."},
+    {"δ̄", "Mean design effect of survey data: how many times larger the shares' variance is under the survey's design "
+           "(weights, strata, clusters) than in a simple random sample of the same size, averaged over the directions the "
+           "test looks in (Rao and Scott). The corrected test divides χ² by it."},
+    {"a²", "The squared coefficient of variation of the design effects: how unequal they are. The second-order (Satterthwaite) "
+           "correction divides χ² by δ̄(1 + a²) and the df by (1 + a²)."},
+    {"PSU", "Primary sampling unit: the cluster drawn first in a survey (a school, a store, a village), within which "
+            "respondents were then sampled. Respondents of one PSU tend to answer alike."},
+    {"F", "The F statistic of the design-corrected test: the corrected χ² divided by its df, compared with the F "
+          "distribution whose second df comes from the number of PSUs less the number of strata."},
+    {"CV²", "Squared coefficient of variation: the variance of values divided by the square of their mean. Kish's design "
+            "effect of unequal weights is 1 + CV² of the weights."},
+    {"effective n", "The sample size a simple random sample would need to give the same precision as the survey: n divided "
+                    "by the mean design effect."},
+    {"design effect", "A category's design effect: the variance of its share under the survey's design divided by the "
+                      "variance a simple random sample of the same size would give (Kish)."},
 };
 
 // Other spellings of a term in the report and the tables: explained by the same entry.
@@ -93,6 +108,7 @@ const std::vector<std::pair<std::string_view, std::string_view>> kAliases = {
     {"Adj. residual", "Adj. res."},       {"Adjusted residual", "Adj. res."}, {"adjusted residual", "Adj. res."},
     {"Lower-tail p", "lower-tail p"},     {"Asymptotic p", "asymptotic"},     {"Holm-adjusted p", "Holm p"},
     {"Cohen's w before the correction", "Cohen's w"},
+    {"Design effects", "design effect"}, {"Overall design effect", "design effect"}, {"Mean design effect δ̄", "δ̄"},
 };
 
 bool word_byte(unsigned char c) { return (c >= '0' && c <= '9') || (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || c == '_'; }

@@ -79,6 +79,50 @@ std::string method_phrase(const Result& r) {
     return "asymptotic";
 }
 
+std::string design_report_text(const Result& r) {
+    if (!r.design) return "";
+    const DesignCorrection& d = *r.design;
+    std::string s = "Survey design: " + d.correction + "\n";
+    if (d.second_order.available)
+        s += "Second order (Satterthwaite): χ²/(δ̄(1 + a²)) = " + format_fixed(d.second_order.statistic, 3) + ", df = " +
+             format_significant(d.second_order.df, 4) + ", p = " + format_probability(d.second_order.p) +
+             (r.design_decided_on == "second-order" ? " (decides)" : "") + "\n";
+    const char* first_name = d.tier == DesignTier::overall_design_effect ? "Crude (χ² / overall design effect)" : "First order (χ²/δ̄)";
+    s += std::string(first_name) + " = " + format_fixed(d.first_order.statistic, 3) + ", df = " + format_count(d.first_order.df) +
+         ", p = " + format_probability(d.first_order.p) + (r.design_decided_on != "second-order" ? " (decides)" : "") + "\n";
+    if (d.f_form.available)
+        s += "F form: F = " + format_fixed(d.f_form.statistic, 3) + " on " + format_significant(d.f_form.numerator_df, 4) + " and " +
+             format_significant(d.f_form.denominator_df, 4) + " df (PSUs − strata = " +
+             format_count(static_cast<double>(d.clusters) - static_cast<double>(d.strata)) + "), p = " + format_probability(d.f_form.p) + "\n";
+    if (!d.second_order.available) s += "Second order not offered: " + d.second_order.reason + "\n";
+    s += (d.tier == DesignTier::overall_design_effect ? "Overall design effect = " : "Mean design effect δ̄ = ") +
+         format_significant(d.mean_design_effect, 4);
+    if (!d.generalised_design_effects.empty()) {
+        s += " (generalised design effects";
+        for (double e : d.generalised_design_effects) s += " " + format_significant(e, 3);
+        s += "; a² = " + format_significant(d.cv2, 3) + ")";
+    }
+    s += "; effective n = " + format_significant(d.effective_n, 4) + " of " + format_count(d.n) + "\n";
+    if (!d.design_effects.empty()) {
+        s += "Design effects per category:";
+        for (std::size_t j = 0; j < d.design_effects.size() && j < r.categories.size(); ++j)
+            s += std::string(j ? "," : "") + " " + r.categories[j] + " " +
+                 (std::isfinite(d.design_effects[j]) ? format_significant(d.design_effects[j], 3) : "not defined (share 0 or 1)");
+        s += "\n";
+    }
+    if (std::isfinite(d.kish_design_effect)) s += "Kish's design effect of the weights (1 + CV²): " + format_significant(d.kish_design_effect, 4) + "\n";
+    if (d.clusters > 0) {
+        const std::string strata = format_count(static_cast<double>(d.strata)) + (d.strata == 1 ? " stratum" : " strata");
+        s += d.clustered ? "PSUs: " + format_count(static_cast<double>(d.clusters)) + " clusters in " + strata + "\n"
+                         : "PSUs: each respondent its own (no cluster column), in " + strata + "\n";
+    }
+    s += "Uncorrected: " + r.statistic_symbol + " = " + format_fixed(d.uncorrected_statistic, 2) + ", df = " + format_count(d.uncorrected_df) +
+         ", p = " + format_probability(d.uncorrected_p) + ". It treats the weighted shares as a simple random sample of " +
+         format_count(d.n) + " independent respondents, so where weighting and clustering make the shares vary more than "
+         "that (a design effect above 1) it overstates the evidence.\n";
+    return s;
+}
+
 std::string report_text(const Analysis& a, const Result& r) {
     (void)a;
     if (!r.status.ok) return "Not analysed: " + r.status.message + "\n";
@@ -93,6 +137,8 @@ std::string report_text(const Analysis& a, const Result& r) {
          ", k = " + std::to_string(r.observed.size()) + " categories";
     if (r.merged) s += " (" + std::to_string(r.tested_categories.size()) + " after merging)";
     s += "\n";
+    if (r.design) s += design_report_text(r);
+    else
     s += r.statistic_symbol + " = " + format_fixed(r.statistic, 2) + ", df = " + format_count(r.df) + ", p = " + format_probability(r.p) +
          " (" + method_phrase(r) + ")\n";
     if (r.method != PValueMethod::asymptotic) s += "Asymptotic p = " + format_probability(r.upper) + "\n";
@@ -100,9 +146,9 @@ std::string report_text(const Analysis& a, const Result& r) {
     if (r.monte_carlo.computed)
         s += "Monte Carlo: " + grouped(r.monte_carlo.hits) + " of " + grouped(r.monte_carlo.replicates) +
              " replicates at least as extreme; standard error " + format_significant(r.monte_carlo.standard_error, 2) + "\n";
-    s += "Lower-tail p (how often chance gives a fit this close or closer; a tiny value means too good a fit): " +
+    if (!r.design) s += "Lower-tail p (how often chance gives a fit this close or closer; a tiny value means too good a fit): " +
          format_probability(r.exact_lower_computed ? r.exact_lower : r.lower) + (r.exact_lower_computed ? " (exact)\n" : " (asymptotic)\n");
-    s += "Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3) + "\n";
+    if (!r.design) s += "Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3) + "\n";
     s += verdict_sentence(r) + "\n";
     if (!r.model_suggestion.empty()) s += "Suggestion: " + r.model_suggestion + "\n";
     s += "Effect size: w = " + format_fixed(r.effect.estimate, 3) + " (" + r.effect.label + ", corrected for chance)" +
@@ -122,9 +168,9 @@ std::string report_text(const Analysis& a, const Result& r) {
     }
     if (r.plan.requested) {
         if (r.plan.status.ok)
-            s += "Power at w = " + format_fixed(r.plan.w, 3) + ", N = " + format_count(r.plan.n) + ": " +
-                 format_fixed(r.plan.power, 3) + "; N for power " + format_fixed(r.plan.target_power, 2) + ": " +
-                 format_count(r.plan.n_required) + "\n";
+            s += "Power at w = " + format_fixed(r.plan.w, 3) + (r.design ? ", effective n = " + format_significant(r.plan.n, 4) : ", N = " + format_count(r.plan.n)) + ": " +
+                 format_fixed(r.plan.power, 3) + "; " + (r.design ? "effective n" : "N") + " for power " + format_fixed(r.plan.target_power, 2) + ": " +
+                 format_count(r.plan.n_required) + (r.design ? " (times the mean design effect for the respondents needed)" : "") + "\n";
         else s += "Planning: " + r.plan.status.message + "\n";
     }
     if (r.conformity) {
@@ -153,7 +199,7 @@ std::string report_text(const Analysis& a, const Result& r) {
          pad("Contribution", 14) + "Adj. residual\n";
     for (std::size_t i = 0; i < r.tested_categories.size(); ++i) {
         const double adj = i < r.diagnostics.categories.size() ? r.diagnostics.categories[i].adjusted_residual : NAN;
-        s += pad(r.tested_categories[i], wl + 2) + pad(format_count(r.tested_observed[i]), 10) +
+        s += pad(r.tested_categories[i], wl + 2) + pad(r.design ? format_fixed(r.tested_observed[i], 2) : format_count(r.tested_observed[i]), 10) +
              (two ? pad(format_count(r.reference->tested_reference[i]), 10) : "") +
              pad(format_fixed(r.tested_expected[i], 2), 10) + pad(format_fixed(r.contributions[i], 3), 14) +
              format_fixed(adj, 2) + "\n";
@@ -402,6 +448,59 @@ void write_answer(JsonWriter& j, const Result& r) {
 
 }  // namespace
 
+namespace {
+
+void write_design_test(JsonWriter& j, const char* key, const DesignTest& t) {
+    j.key(key);
+    if (!t.available) { j.null(); return; }
+    j.begin_object().key("statistic").value(t.statistic).key("df").value(t.df).key("p_value").value(t.p.p)
+        .key("log10_p_value").value(t.p.log10_p).end_object();
+}
+
+// The survey design's correction (Rao and Scott 1981, 1984): both orders, the F form, the design effects.
+void write_design(JsonWriter& j, const Analysis& a, const Result& r) {
+    if (!r.design) return;
+    const DesignCorrection& d = *r.design;
+    j.key("design").begin_object();
+    j.key("tier").value(design_tier_name(d.tier));
+    j.key("correction").value(d.correction);
+    j.key("decided_on").value(r.design_decided_on);
+    j.key("uncorrected").begin_object().key("statistic").value(d.uncorrected_statistic).key("df").value(d.uncorrected_df)
+        .key("p_value").value(d.uncorrected_p.p).key("log10_p_value").value(d.uncorrected_p.log10_p).end_object();
+    write_design_test(j, "first_order", d.first_order);
+    write_design_test(j, "second_order", d.second_order);
+    if (!d.second_order.available) j.key("second_order_reason").value(d.second_order.reason);
+    j.key("f_form");
+    if (d.f_form.available)
+        j.begin_object().key("statistic").value(d.f_form.statistic).key("numerator_df").value(d.f_form.numerator_df)
+            .key("denominator_df").value(d.f_form.denominator_df).key("p_value").value(d.f_form.p.p).end_object();
+    else j.null();
+    if (!d.f_form.available) j.key("f_form_reason").value(d.f_form.reason);
+    j.key("mean_design_effect").value(d.mean_design_effect);
+    j.key("design_effects");
+    if (d.design_effects.empty()) j.null(); else j.numbers(d.design_effects);
+    j.key("generalised_design_effects");
+    if (d.generalised_design_effects.empty()) j.null(); else j.numbers(d.generalised_design_effects);
+    j.key("cv2_design_effects").value(d.cv2);
+    j.key("effective_n").value(d.effective_n);
+    j.key("nominal_n").value(d.n);
+    j.key("total_weight").value(d.total_weight);
+    j.key("kish_design_effect").value(d.kish_design_effect);
+    j.key("weighted_shares").numbers(d.shares);
+    j.key("standard_errors");
+    if (d.standard_errors.empty()) j.null(); else j.numbers(d.standard_errors);
+    j.key("clusters");
+    if (d.clusters > 0) j.value(static_cast<double>(d.clusters)); else j.null();
+    j.key("strata");
+    if (d.strata > 0) j.value(static_cast<double>(d.strata)); else j.null();
+    const SurveySample& s = a.design.sample;
+    j.key("columns").begin_object().key("category").value(s.category_column).key("weight").value(s.weight_column)
+        .key("stratum").value(s.stratum_column).key("cluster").value(s.cluster_column).end_object();
+    j.end_object();
+}
+
+}  // namespace
+
 std::string report_json(const Analysis& a, const Result& r) {
     JsonWriter j;
     if (!begin_result_document(j, r.status)) {
@@ -420,6 +519,7 @@ std::string report_json(const Analysis& a, const Result& r) {
     write_reference_sample(j, r);
     write_conformity(j, r);
     write_validity(j, r);
+    write_design(j, a, r);
     j.key("warnings").strings(r.warnings);
     j.key("questions").strings(r.questions);
     if (!r.model_suggestion.empty()) j.key("model_suggestion").value(r.model_suggestion);

@@ -18,6 +18,7 @@ std::string conformity_verdict(const Result& r);
 std::string headline_verdict(const Result& r);
 std::string method_phrase(const Result& r);                    // "asymptotic", "exact", "Monte Carlo, B = ..."
 std::string report_text(const Analysis& a, const Result& r);   // multi-line plain text
+std::string design_report_text(const Result& r);               // the survey design's lines ("" without one)
 std::string report_json(const Analysis& a, const Result& r);   // result document (one line)
 // Opens a result document: format, version and, for a refusal, its error, line and column.
 // Returns false for a refusal (the caller adds what it wants and closes the object).

@@ -5,6 +5,7 @@
 // Cressie (1988), Goodness-of-Fit Statistics for Discrete Multivariate Data (from memory).
 #include "writeup.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <vector>
 
@@ -192,6 +193,20 @@ std::string sentence(const Analysis& a, const Result& r, const Style& st, const 
     }
     const std::string sep = list_sep(st);
     const double n_all = r.reference ? r.reference->n_total : r.n;  // a 2 x k table reports both samples' N
+    if (r.design) {
+        // Survey data: the corrected statistic on its (possibly fractional) df, the correction named.
+        const DesignCorrection& d = *r.design;
+        const DesignTest& t = d.second_order.available ? d.second_order : d.first_order;
+        std::string df = t.df == std::floor(t.df) ? format_count(t.df) : format_significant(t.df, 3);
+        if (st.comma) std::replace(df.begin(), df.end(), '.', ',');
+        s += ", design-corrected " + statistic_symbol(r.lambda) + "(" + df + ", n = " + grouped(d.n, st) + ") = " + fixed(t.statistic, 2, st);
+        s += sep + "p " + p_report(r.p, st);
+        s += sep + "w = " + fixed(r.effect.estimate, 2, st);
+        s += " (" + user_text(d.correction, st) + "; mean design effect " + fixed(d.mean_design_effect, 2, st) +
+             "; uncorrected " + statistic_symbol(r.lambda) + " = " + fixed(d.uncorrected_statistic, 2, st) + ", p " +
+             p_report(d.uncorrected_p, st) + ").";
+        return lead + s;
+    }
     s += ", " + statistic_symbol(r.lambda) + "(" + format_count(r.df) + ", N = " + grouped(n_all, st) + ") = " + fixed(r.statistic, 2, st);
     s += sep + "p " + p_report(r.p, st);
     s += sep + "w = " + fixed(r.effect.estimate, 2, st);
@@ -215,7 +230,8 @@ std::string markdown_table(const Result& r, const Style& st) {
     for (std::size_t i = 0; i < r.tested_categories.size(); ++i) {
         const bool d = i < r.diagnostics.categories.size();
         const CategoryDiagnostic* c = d ? &r.diagnostics.categories[i] : nullptr;
-        s += "| " + md(r.tested_categories[i]) + " | " + grouped(i < r.tested_observed.size() ? r.tested_observed[i] : NAN, st) +
+        s += "| " + md(r.tested_categories[i]) + " | " + (r.design ? fixed(i < r.tested_observed.size() ? r.tested_observed[i] : NAN, 2, st)
+                                               : grouped(i < r.tested_observed.size() ? r.tested_observed[i] : NAN, st)) +
              " | " + fixed(i < r.tested_expected.size() ? r.tested_expected[i] : NAN, 2, st) + " | " +
              fixed(i < r.contributions.size() ? r.contributions[i] : NAN, 2, st) + " | " +
              (c ? fixed(c->adjusted_residual, 2, st) : "n/a") + " | " + (c ? p_cell_text(c->adjusted, st) : "n/a") + " | " +
@@ -249,6 +265,16 @@ std::string tsv_block(const Analysis& a, const Result& r, const WriteupOptions& 
     rows.push_back({text_cell("N"), count_cell(r.n)});
     rows.push_back({text_cell("p"), probability_cell(r.p)});
     rows.push_back({text_cell("p-value method"), text_cell(method_text(r, st))});
+    if (r.design) {
+        const DesignCorrection& d = *r.design;
+        const DesignTest& t = d.second_order.available ? d.second_order : d.first_order;
+        rows.push_back({text_cell("Design correction"), text_cell(d.correction)});
+        rows.push_back({text_cell("Corrected statistic"), fixed_cell(t.statistic, 2)});
+        rows.push_back({text_cell("Corrected df"), fixed_cell(t.df, 3)});
+        rows.push_back({text_cell("Mean design effect"), fixed_cell(d.mean_design_effect, 3)});
+        rows.push_back({text_cell("Effective n"), fixed_cell(d.effective_n, 1)});
+        rows.push_back({text_cell("Uncorrected p"), probability_cell(d.uncorrected_p)});
+    }
     rows.push_back({text_cell("Lower-tail p (fit too good?)"), probability_cell(r.exact_lower_computed ? r.exact_lower : r.lower)});
     rows.push_back({text_cell("w (corrected for chance)"), fixed_cell(r.effect.estimate, 2)});
     rows.push_back({text_cell("Cohen's w before the correction, √(χ²/N)"), fixed_cell(r.effect.w, 2)});
@@ -262,7 +288,9 @@ std::string tsv_block(const Analysis& a, const Result& r, const WriteupOptions& 
                     text_cell("Adjusted residual"), text_cell("Adjusted p"), text_cell("Direction")});
     for (std::size_t i = 0; i < r.tested_categories.size(); ++i) {
         const CategoryDiagnostic* c = i < r.diagnostics.categories.size() ? &r.diagnostics.categories[i] : nullptr;
-        rows.push_back({text_cell(r.tested_categories[i]), count_cell(i < r.tested_observed.size() ? r.tested_observed[i] : NAN),
+        rows.push_back({text_cell(r.tested_categories[i]),
+                        r.design ? fixed_cell(i < r.tested_observed.size() ? r.tested_observed[i] : NAN, 2)
+                                 : count_cell(i < r.tested_observed.size() ? r.tested_observed[i] : NAN),
                         fixed_cell(i < r.tested_expected.size() ? r.tested_expected[i] : NAN, 2),
                         fixed_cell(i < r.contributions.size() ? r.contributions[i] : NAN, 2),
                         fixed_cell(c ? c->adjusted_residual : NAN, 2), c ? probability_cell(c->adjusted) : count_cell(NAN),

@@ -49,6 +49,9 @@ inline void check_result(const Analysis& a, const Result& r, bool after_job = fa
         return;
     }
     const std::size_t k = a.observed.size();
+    // With a survey design the counts tested are the weighted shares times n (Result::observed),
+    // which total the same n as the respondents per category that the analysis holds.
+    const std::vector<double>& counts = r.design ? r.observed : a.observed;
     if (r.observed.size() != k || r.categories.size() != k) violated("as-read sizes");
     if (r.expected_shares.size() != k || r.expected_counts.size() != k) violated("expected sizes");
     double n = 0, share_sum = 0;
@@ -73,7 +76,7 @@ inline void check_result(const Analysis& a, const Result& r, bool after_job = fa
         for (std::size_t i : r.merge_map[g]) {
             if (i >= k) violated("merge index out of range", static_cast<double>(i));
             ++seen[i];
-            o += a.observed[i];
+            o += counts[i];
         }
         if (o != r.tested_observed[g]) violated("merged observed equals the sum of its categories", o, r.tested_observed[g]);
         if (!(r.tested_expected[g] > 0) || !std::isfinite(r.tested_expected[g])) violated("tested expected > 0", r.tested_expected[g]);
@@ -81,7 +84,7 @@ inline void check_result(const Analysis& a, const Result& r, bool after_job = fa
     for (std::size_t i = 0; i < k; ++i) {
         const bool dropped = !(r.expected_counts[i] > 0);
         if (seen[i] != (dropped ? 0 : 1)) violated("merge map covers every kept index once", static_cast<double>(i), seen[i]);
-        if (dropped && a.observed[i] > 0) violated("an observed category with zero expected was dropped");
+        if (dropped && counts[i] > 0) violated("an observed category with zero expected was dropped");
     }
     double to = 0, te = 0, cs = 0, cabs = 0;
     for (std::size_t g = 0; g < t; ++g) {
@@ -92,7 +95,8 @@ inline void check_result(const Analysis& a, const Result& r, bool after_job = fa
         cs += c;
         cabs += std::fabs(c);
     }
-    if (n < 9007199254740992.0 && to != n) violated("merged observed total equals N", to, n);
+    // Weighted counts of survey data (n p̂) total n up to rounding; whole counts exactly.
+    if (n < 9007199254740992.0 && (r.design ? !close_rel(to, n, 1e-12) : to != n)) violated("merged observed total equals N", to, n);
     if (!close_rel(te, n, 1e-9)) violated("merged expected total equals N", te, n);
 
     // Statistic and p-values

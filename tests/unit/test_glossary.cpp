@@ -130,6 +130,25 @@ TEST_CASE("glossary: every abbreviation in the report and the write-up of many a
     Analysis thin = counts({4, 1, 2, 9, 1, 3, 12, 8});
     thin.merge.rule = MergeRule::all_at_least_5;
     cases.push_back(thin);
+    // Survey data with weights, strata and clusters (the design-corrected test), and a crude correction.
+    Analysis survey = counts({0, 0, 0});
+    survey.design.requested = true;
+    SurveySample& s = survey.design.sample;
+    s.categories = survey.categories;
+    s.strata = {"North", "South"};
+    s.clusters = {"1", "2", "3", "4"};
+    for (std::size_t i = 0; i < 24; ++i) {
+        s.category.push_back((i * 7 + i / 5) % 3);
+        s.weight.push_back(1.0 + static_cast<double>(i % 4));
+        s.cluster.push_back(i % 4);
+        s.stratum.push_back(i % 4 < 2 ? 0 : 1);
+        survey.observed[s.category.back()] += 1;  // the respondents per category
+    }
+    cases.push_back(survey);
+    Analysis crude = counts({50, 30, 20});
+    crude.design.requested = true;
+    crude.design.overall_design_effect = 1.8;
+    cases.push_back(crude);
 
     // The detector itself finds what a newcomer would stop at (and not the "s" of "Cohen's").
     CHECK(abbreviations("df = 3, N = 5; χ² share of Cohen's w, as TSV, Fei 0.2 and a p") ==
