@@ -9,7 +9,7 @@ import os
 
 # Basic Latin + Latin-1 and Latin Extended-A (labels in European languages), the Greek letters,
 # the punctuation, superscripts and signs the page writes (− × ≤ ≥ ≈ ∞ → ⇥ ⌘ ▲ ▼ ◆ ✓ ⚠ ...).
-UNICODES = ("U+0020-007E,U+00A0-017F,U+0391-03A9,U+03B1-03C9,U+2010-2027,U+2030,U+2032,U+2033,U+2070-208E,"
+UNICODES = ("U+0020-007E,U+00A0-017F,U+0302,U+0304,U+0391-03A9,U+03B1-03C9,U+2010-2027,U+2030,U+2032,U+2033,U+2070-208E,"
             "U+2190-2193,U+21E5,U+2212,U+2218,U+221A,U+221E,U+2248,U+2260,U+2264,U+2265,U+2318,"
             "U+25A0,U+25B2,U+25B8,U+25BC,U+25BE,U+25C6,U+25CF,U+26A0,U+2713")
 

@@ -14,6 +14,7 @@
 #include "label_text.hpp"
 #include "text_decoding.hpp"
 #include "demo_library.hpp"
+#include "density_plot.hpp"
 #include "goodness_of_fit.hpp"
 #include "noncentral_chi_square_density_curve.hpp"
 #include "number_format.hpp"
@@ -23,6 +24,7 @@
 #include "report.hpp"
 #include "pasted_analysis.hpp"
 #include "read_input.hpp"
+#include "survey_rows.hpp"
 
 namespace tallyproof::web {
 namespace {
@@ -105,7 +107,10 @@ bool recompute(AppState& s) {
     if (s.result.conformity && s.result.conformity->status.ok)  // the curve of "departs by exactly w0"
         s.curve = noncentral_density_curve(s.result.df, s.result.conformity->noncentrality,
                                            s.result.conformity->critical_value, s.result.statistic);
-    else s.curve = density_curve(s.result.df, s.result.critical_value, s.result.statistic);
+    else {
+        const CurveTest ct = curve_test(s.result);  // for survey data, the design-corrected test
+        s.curve = density_curve(ct.df, ct.critical, ct.statistic);
+    }
     if (s.analysis.pvalue.method != PValueMethod::asymptotic) {
         start_pvalue_job(s.analysis, s.result, &s.work.job);
         s.work.running = !s.work.job.progress.done;
@@ -452,6 +457,49 @@ void apply_bin_editor(AppState& s) {
     read_bins(s, b);
 }
 
+std::vector<std::string> pasted_header(const AppState& s) {
+    const std::string_view text = s.reading.text;
+    std::string_view line = text.substr(0, text.find('\n'));
+    if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
+    return display_cells(line);
+}
+
+void read_paste_as_survey(AppState& s, const SurveyColumns& columns) {
+    if (s.reading.text.empty()) return;
+    s.reading.survey_columns = columns;
+    SurveyRowsReading rows = read_survey_rows(s.reading.text, columns);
+    if (!rows.status.ok) {
+        s.input_error = rows.status.message;
+        publish_error(s.input_error);
+        s.view.frames_to_draw = 3;
+        return;
+    }
+    const Analysis previous = s.analysis;
+    const bool same_categories = s.analysis.categories == rows.sample.categories;
+    s.analysis.categories = rows.sample.categories;
+    s.analysis.observed = rows.counts;
+    s.analysis.design = DesignChoice{};
+    s.analysis.design.requested = true;
+    s.analysis.design.sample = std::move(rows.sample);
+    s.analysis.merge = MergeChoice{};
+    s.analysis.pvalue.method = PValueMethod::asymptotic;  // the design-corrected tests are asymptotic
+    if (!same_categories) s.analysis.model = Model{};  // equal shares until a mix is stated
+    sync_editor_from_model(s);
+    if (!recompute(s)) {
+        s.analysis = previous;
+        sync_editor_from_model(s);
+        recompute(s);
+        return;
+    }
+    s.reading.survey = true;
+    s.reading.source_name = "survey rows";
+    clear_refusal(s);
+    set_notice(s, "Read as survey rows: one per respondent, category " + columns.category +
+                      (columns.weight.empty() ? "" : ", weight " + columns.weight) +
+                      (columns.stratum.empty() ? "" : ", stratum " + columns.stratum) +
+                      (columns.cluster.empty() ? "" : ", cluster " + columns.cluster) + ". The test is design-corrected (Rao–Scott).");
+}
+
 namespace {
 void read_paste(AppState& s, std::string_view text, const ParseOptions& options) {
     InputReading reading = read_input(text, options);  // one sample, else groups; groups offered beside one sample
@@ -467,6 +515,7 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
         s.session.analysis_id = new_analysis_id();  // the user's own data: a new entry, no example's name
         s.view.demo_index = -1;
         s.analysis.merge = MergeChoice{};
+        s.analysis.design = DesignChoice{};  // a paste read as one sample has no survey design
         // The stated mix, else the previous one while it fits the new counts, else equal shares.
         apply_input_mix(parsed, &s.analysis, &label_notes);
         sync_editor_from_model(s);
@@ -491,6 +540,8 @@ void read_paste(AppState& s, std::string_view text, const ParseOptions& options)
     }
     s.reading.bins = parsed.shape == InputShape::raw_bins ? options.bins : BinChoice{};
     s.reading.bin_editor.error.clear();
+    s.reading.survey = false;
+    s.reading.survey_open = false;
     if (!problem.ok && parsed.shape == InputShape::raw_bins && !s.reading.text.empty()) {
         // Bins the user set: the message shows under them, not as a refused paste.
         s.reading.bin_editor.error = problem.message;

@@ -13,6 +13,7 @@
 #include "paste_parser.hpp"
 #include "pvalue_job.hpp"
 #include "result.hpp"
+#include "survey_rows.hpp"
 
 namespace tallyproof::web {
 
@@ -75,6 +76,9 @@ struct LastReading {
     BinChoice bins;                   // the bins of the last reading (kind none unless it counted into bins)
     BinEditor bin_editor;
     std::string source_name;          // where the counts came from
+    bool survey = false;              // read as survey rows (one per respondent) with these columns
+    bool survey_open = false;         // the survey columns' row is shown (chosen in "Read as")
+    SurveyColumns survey_columns;
 };
 
 // Exact / Monte Carlo work, run a slice per frame.
@@ -163,6 +167,10 @@ void reread_paste(AppState& s, int shape, int digit_test = -1, int third_column 
 void read_paste_into_bins(AppState& s, BinChoice::Kind kind, ModelKind model = ModelKind::normal);
                                                              // the last paste as measurements in bins, with the
                                                              // editor's K or edges (equal probability: under `model`)
+// The last paste as survey rows (one per respondent: category, weight, stratum, cluster columns by
+// header name or number): a design-corrected test (core/survey); refused with core's message.
+void read_paste_as_survey(AppState& s, const SurveyColumns& columns);
+std::vector<std::string> pasted_header(const AppState& s);   // the cells of the last paste's first line
 bool offers_other_readings(const AppState& s);               // the last paste is kept: "Read as" is shown
 bool shows_bin_editor(const AppState& s);                    // ... and it was read into bins: K or edges are shown
 void apply_bin_editor(AppState& s);                          // the typed K or edges, to the current bins reading

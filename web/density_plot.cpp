@@ -18,26 +18,42 @@
 
 namespace tallyproof::web {
 
+CurveTest curve_test(const Result& r) {
+    CurveTest ct{r.statistic, r.df, r.critical_value, r.statistic_symbol, ""};
+    if (r.design && r.design->status.ok) {  // survey data: the curve of the test the verdict rests on
+        const DesignTest& d = r.design->second_order.available ? r.design->second_order : r.design->first_order;
+        if (d.available && d.df > 0) {
+            ct.statistic = d.statistic;
+            ct.df = d.df;
+            ct.critical = chi_square_critical_value(r.alpha, d.df);
+            ct.symbol = "corrected " + r.statistic_symbol;
+            ct.title_note = r.design->second_order.available ? " (design-corrected: Rao–Scott second order)"
+                                                             : " (design-corrected: " + r.design_decided_on + ")";
+        }
+    }
+    return ct;
+}
+
 namespace {
 
 // The hover tip at statistic value x: the density there and the tail area from it.
-void show_density_tip(const Result& result, double x, bool conform, double lambda) {
+void show_density_tip(const CurveTest& ct, double x, bool conform, double lambda) {
     ImGui::BeginTooltip();
-    const char* sym = result.statistic_symbol.c_str();
+    const char* sym = ct.symbol.c_str();
     ImGui::Text("%s = %s", sym, format_significant(x, 4).c_str());
     if (conform) {
-        ImGui::Text("density %s", format_significant(noncentral_chi_square_density(x, result.df, lambda), 3).c_str());
-        ImGui::Text("chance of %s at most this: %s", sym, format_significant(noncentral_chi_square_lower_tail(x, result.df, lambda), 3).c_str());
+        ImGui::Text("density %s", format_significant(noncentral_chi_square_density(x, ct.df, lambda), 3).c_str());
+        ImGui::Text("chance of %s at most this: %s", sym, format_significant(noncentral_chi_square_lower_tail(x, ct.df, lambda), 3).c_str());
     } else {
-        ImGui::Text("density %s", format_significant(chi_square_density(x, result.df), 3).c_str());
-        ImGui::Text("chance of %s at least this: %s", sym, format_probability(chi_square_upper_tail(x, result.df)).c_str());
+        ImGui::Text("density %s", format_significant(chi_square_density(x, ct.df), 3).c_str());
+        ImGui::Text("chance of %s at least this: %s", sym, format_probability(chi_square_upper_tail(x, ct.df)).c_str());
     }
     ImGui::EndTooltip();
 }
 
 // A statistic far beyond the curve: an axis break (two slanted strokes), then the statistic
 // marked on its own short stretch of axis right of the plot, with its value and a label.
-void draw_statistic_past_break(const ChartFrame& f, const Result& result, const Theme& theme) {
+void draw_statistic_past_break(const ChartFrame& f, const CurveTest& ct, const Theme& theme) {
     ImDrawList* dl = f.dl;
     const ImVec2 p0 = f.p0, p1 = f.p1;
     const float th = f.line;
@@ -51,10 +67,10 @@ void draw_statistic_past_break(const ChartFrame& f, const Result& result, const 
     dl->AddTriangleFilled(ImVec2(sx - 6, p0.y + 2 * th + 14), ImVec2(sx + 6, p0.y + 2 * th + 14),
                           ImVec2(sx, p0.y + 2 * th + 23), theme.marker);
     ImGui::PushFont(theme.strong);
-    const std::string v = format_significant(result.statistic, 4);
+    const std::string v = format_significant(ct.statistic, 4);
     dl->AddText(ImVec2(sx - ImGui::CalcTextSize(v.c_str()).x / 2, p1.y + 7), theme.marker, v.c_str());
     ImGui::PopFont();
-    const std::string l1 = "observed " + result.statistic_symbol + ",";
+    const std::string l1 = "observed " + ct.symbol + ",";
     const char* l2 = "far beyond the curve";
     dl->AddText(ImVec2(ex - ImGui::CalcTextSize(l1.c_str()).x, p0.y), theme.marker, l1.c_str());
     dl->AddText(ImVec2(ex - ImGui::CalcTextSize(l2).x, p0.y + th), theme.marker, l2);
@@ -66,12 +82,14 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     const bool broken = curve.statistic_beyond;
     // Goal "show it conforms": the curve is chi2(df, N w0²) and the region is its lower alpha tail.
     const bool conform = result.conformity && result.conformity->status.ok;
-    const double critical = conform ? result.conformity->critical_value : result.critical_value;
+    const CurveTest ct = curve_test(result);
+    const double critical = conform ? result.conformity->critical_value : ct.critical;
     const double lambda = conform ? result.conformity->noncentrality : 0;
     const std::string title = conform ? "Noncentral chi-square density if the mix departs by w0 = " +
-                                            format_fixed(result.conformity->margin_w, 2) + ": df = " + format_count(result.df) +
+                                            format_fixed(result.conformity->margin_w, 2) + ": df = " + format_count(ct.df) +
                                             ", noncentrality N·w0² = " + format_significant(lambda, 4)
-                                      : "Chi-square density, df = " + format_count(result.df);
+                                      : "Chi-square density, df = " + (ct.df == std::floor(ct.df) ? format_count(ct.df) : format_significant(ct.df, 4)) +
+                                            ct.title_note;
     ChartFrame f;
     if (!begin_chart("density-plot", title, size, ImVec2(80, 60), theme, &f) || curve.x.size() < 2) return;
     ImDrawList* dl = f.dl;
@@ -82,7 +100,7 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     auto px = [&](double x) { return static_cast<float>(p0.x + (p1.x - p0.x) * ((x - xmin) / (xmax - xmin))); };
     auto py = [&](double y) { return static_cast<float>(p1.y - (p1.y - p0.y) * (y / ymax)); };
     const float th = f.line;
-    draw_x_ticks(f, nice_ticks(xmin, xmax, std::max(2, static_cast<int>((p1.x - p0.x) / 70))), px, "value of " + result.statistic_symbol, theme);
+    draw_x_ticks(f, nice_ticks(xmin, xmax, std::max(2, static_cast<int>((p1.x - p0.x) / 70))), px, "value of " + ct.symbol, theme);
     draw_value_grid(f, nice_ticks(0, ymax, std::max(2, static_cast<int>((p1.y - p0.y) / 50))), py, theme);
 
     // Shaded areas: rejection region beyond the critical value, observed tail beyond the statistic.
@@ -115,10 +133,10 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     dl->PushClipRect(ImVec2(p0.x, p0.y - 2), ImVec2(p1.x + 2, p1.y + 1), true);
     if (conform) {
         if (std::isfinite(critical)) shade_to(critical, theme.reject_fill);
-        shade_to(broken ? xmax : result.statistic, theme.tail_fill);
+        shade_to(broken ? xmax : ct.statistic, theme.tail_fill);
     } else {
         if (std::isfinite(critical)) shade_from(critical, theme.reject_fill);
-        if (!broken) shade_from(result.statistic, theme.tail_fill);
+        if (!broken) shade_from(ct.statistic, theme.tail_fill);
     }
     dl->PopClipRect();
 
@@ -138,9 +156,9 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
     }
 
     ImGui::PushFont(theme.strong);
-    const std::string stat_label = "observed " + result.statistic_symbol + " = " + (result.statistic < 1e5 ? format_fixed(result.statistic, 2) : format_significant(result.statistic, 4));
+    const std::string stat_label = "observed " + ct.symbol + " = " + (ct.statistic < 1e5 ? format_fixed(ct.statistic, 2) : format_significant(ct.statistic, 4));
     if (!broken) {
-        const float x = px(result.statistic);
+        const float x = px(ct.statistic);
         dl->AddLine(ImVec2(x, p0.y + th + 4), ImVec2(x, p1.y), theme.marker, 2.5f);
         dl->AddTriangleFilled(ImVec2(x - 6, p0.y + th + 2), ImVec2(x + 6, p0.y + th + 2), ImVec2(x, p0.y + th + 11), theme.marker);
         // Right of the marker, else left of it inside the plot (never over the axis's tick
@@ -161,14 +179,14 @@ void draw_density_plot(const DensityCurve& curve, const Result& result, ImVec2 s
         dl->AddText(ImVec2(tx, p0.y + th + 8), theme.marker, label.c_str());
     } else {
         ImGui::PopFont();
-        draw_statistic_past_break(f, result, theme);
+        draw_statistic_past_break(f, ct, theme);
         ImGui::PushFont(theme.strong);
     }
     ImGui::PopFont();
 
     if (hovered) {
         const double x = xmin + (ImGui::GetIO().MousePos.x - p0.x) / (p1.x - p0.x) * (xmax - xmin);
-        if (x >= xmin && x <= xmax) show_density_tip(result, x, conform, lambda);
+        if (x >= xmin && x <= xmax) show_density_tip(ct, x, conform, lambda);
     }
 }
 

@@ -66,6 +66,70 @@ bool parse_count_cell(const std::string& text, double* v) {
     return read_typed_number(text, v) && std::isfinite(*v);
 }
 
+// Survey rows: the columns of the category, weight, stratum and cluster, each chosen from the
+// first line's cells; a change reads the paste again as survey rows (a design-corrected test).
+void draw_survey_row(AppState& s, const Theme& t) {
+    const std::vector<std::string> header = pasted_header(s);
+    SurveyColumns c = s.reading.survey_columns;
+    struct Pick { const char* name; std::string* column; bool optional; const char* tip; };
+    const Pick picks[] = {
+        {"Category", &c.category, false, "The column holding each respondent's category."},
+        {"Weight", &c.weight, true, "The sampling weight of each respondent (none: every weight 1)."},
+        {"Stratum", &c.stratum, true, "The stratum of each respondent (none: one stratum)."},
+        {"Cluster", &c.cluster, true, "The cluster (primary sampling unit) of each respondent, nested in its stratum (none: each respondent its own)."},
+    };
+    bool changed = false;
+    for (const Pick& p : picks) {
+        const std::string shown = p.column->empty() ? std::string("(none)") : *p.column;
+        const float w = std::max(ImGui::CalcTextSize("(none)").x, ImGui::CalcTextSize(shown.c_str()).x) + ImGui::GetFrameHeight() + 16;
+        flow_next(ImGui::CalcTextSize(p.name).x + ImGui::GetStyle().ItemInnerSpacing.x + w);
+        ImGui::BeginGroup();
+        ImGui::AlignTextToFramePadding();
+        ImGui::TextUnformatted(p.name);
+        ImGui::SameLine(0, ImGui::GetStyle().ItemInnerSpacing.x);
+        ImGui::SetNextItemWidth(w);
+        const std::string id = std::string("##survey-") + p.name;
+        if (ImGui::BeginCombo(id.c_str(), shown.c_str(), ImGuiComboFlags_HeightLarge)) {
+            begin_menu_items(t);
+            if (p.optional && ImGui::Selectable("(none)", p.column->empty()) && !p.column->empty()) { p.column->clear(); changed = true; }
+            if (p.optional) mark_widget((std::string("survey ") + p.name + " (none)").c_str());
+            for (const std::string& h : header) {
+                if (h.empty()) continue;
+                if (ImGui::Selectable(h.c_str(), h == *p.column) && h != *p.column) { *p.column = h; changed = true; }
+                mark_widget((std::string("survey ") + p.name + " " + h).c_str());
+            }
+            end_menu_items(t);
+            ImGui::EndCombo();
+        }
+        mark_widget((std::string("survey ") + p.name).c_str());
+        if (ImGui::IsItemHovered()) ImGui::SetTooltip("%s", p.tip);
+        ImGui::EndGroup();
+    }
+    if (changed) read_paste_as_survey(s, c);
+}
+
+// A first guess at the survey columns from the header's names: a weight, stratum and cluster
+// column named as such, and the first other column that is not a respondent's number.
+SurveyColumns guess_survey_columns(const std::vector<std::string>& header) {
+    SurveyColumns c;
+    auto has = [](std::string h, std::initializer_list<const char*> words) {
+        for (char& ch : h) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
+        for (const char* w : words)
+            if (h.find(w) != std::string::npos) return true;
+        return false;
+    };
+    for (const std::string& h : header) {
+        if (c.weight.empty() && has(h, {"weight", "wgt", "pwt"})) c.weight = h;
+        else if (c.stratum.empty() && has(h, {"strat"})) c.stratum = h;
+        else if (c.cluster.empty() && has(h, {"cluster", "psu"})) c.cluster = h;
+    }
+    for (const std::string& h : header)
+        if (c.category.empty() && h != c.weight && h != c.stratum && h != c.cluster && !h.empty() &&
+            !has(h, {"id", "respondent", "number", "no."}))
+            c.category = h;
+    return c;
+}
+
 // The bins of a "measurements in bins" reading: K, or the stated edges, applied on Enter or Apply.
 void draw_bin_row(AppState& s, const Theme& t) {
     const ImGuiStyle& style = ImGui::GetStyle();
@@ -329,8 +393,9 @@ static void draw_read_as_row(AppState& s, const Theme& t) {
     ImGui::SameLine();
     ImGui::SetNextItemWidth(-1);
     const char* preview = s.groups.open ? "groups: one test per group"
+                          : s.reading.survey ? "survey rows: one per respondent (weights, strata, clusters)"
                           : current >= 0 ? readings[current].name : input_shape_name(static_cast<InputShape>(s.reading.shape));
-    if (s.groups.open) current = -1;
+    if (s.groups.open || s.reading.survey) current = -1;
     if (ImGui::BeginCombo("##shape", preview,
                           ImGuiComboFlags_HeightLargest)) {  // every reading in view, none behind a scroll
         begin_menu_items(t);
@@ -343,6 +408,11 @@ static void draw_read_as_row(AppState& s, const Theme& t) {
             }
             mark_widget(readings[i].name);
         }
+        if (ImGui::Selectable("survey rows: one per respondent (weights, strata, clusters)", s.reading.survey)) {
+            s.reading.survey_open = true;
+            read_paste_as_survey(s, s.reading.survey ? s.reading.survey_columns : guess_survey_columns(pasted_header(s)));
+        }
+        mark_widget("survey rows");
         if (s.groups.offered) {  // the same text as a table of many groups, one test per group
             const std::string text = s.groups.text;
             if (ImGui::Selectable("groups: one test per group")) open_groups(s, text, GroupReadOptions{});
@@ -353,6 +423,7 @@ static void draw_read_as_row(AppState& s, const Theme& t) {
     }
     mark_widget("Read as");
     if (shows_bin_editor(s)) draw_bin_row(s, t);
+    if (s.reading.survey || s.reading.survey_open) draw_survey_row(s, t);
 }
 
 // One row of the counts table: the label and count fields, the expected count and share, and
@@ -416,7 +487,8 @@ void draw_counts_panel(AppState& s, const Theme& t) {
     const float want = row_h * static_cast<float>(k + 2) + 8;
     // Room under the table for the rows that follow it: "Read as", the bins, "+ Add category".
     const bool read_as = offers_other_readings(s), bin_row = shows_bin_editor(s);
-    float below = ImGui::GetFrameHeightWithSpacing() * (1.2f + (read_as ? 1 : 0) + (bin_row ? 1 : 0));
+    const bool survey_row = s.reading.survey || s.reading.survey_open;  // names over the four column choices
+    float below = ImGui::GetFrameHeightWithSpacing() * (1.2f + (read_as ? 1 : 0) + (bin_row ? 1 : 0) + (survey_row ? 1.5f : 0));
     if (bin_row && !s.reading.bin_editor.error.empty())
         below += ImGui::CalcTextSize(("Bins not applied: " + s.reading.bin_editor.error).c_str(), nullptr, false, ImGui::GetContentRegionAvail().x).y +
                  ImGui::GetStyle().ItemSpacing.y;

@@ -10,6 +10,7 @@
 #include <string>
 #include <vector>
 
+#include "density_plot.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
@@ -43,7 +44,8 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
     }
     ImGui::PushFont(t.heading);
     const bool conformity = conformity_leads(r);
-    const std::string statistic = r.statistic_symbol + " = " + format_fixed(r.statistic, 2);
+    const CurveTest shown = curve_test(r);  // for survey data, the design-corrected test the verdict rests on
+    const std::string statistic = shown.symbol + " = " + format_fixed(shown.statistic, 2);
     const std::string p = conformity ? "conformity " + p_line(r.conformity->p_value) : p_line(r.p);
     ImGui::TextUnformatted(statistic.c_str());
     explain_item("verdict statistic", statistic);
@@ -52,10 +54,10 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
     ImGui::TextUnformatted(p.c_str());
     explain_item("verdict p", p);
     ImGui::PopFont();
-    explained_text("verdict details", "df = " + format_count(r.df) + "   ·   N = " + format_count(r.n) + "   ·   " + r.statistic_name +
+    explained_text("verdict details", "df = " + (shown.df == std::floor(shown.df) ? format_count(shown.df) : format_significant(shown.df, 4)) + "   ·   N = " + format_count(r.n) + "   ·   " + r.statistic_name +
                                           (conformity ? "   ·   departure test, second: " + p_line(r.p) + " (" + method_phrase(r) + ")"
                                                       : "   ·   p-value: " + method_phrase(r)));
-    explained_text("critical value", "Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(r.critical_value, 3));
+    explained_text("critical value", "Critical value at α = " + format_plain(r.alpha) + ": " + format_fixed(conformity ? r.critical_value : shown.critical, 3));
     if (r.method != PValueMethod::asymptotic) {
         const std::string asymptotic = "asymptotic p = " + format_probability(r.upper);
         flow_next(ImGui::CalcTextSize(asymptotic.c_str()).x + 9);
