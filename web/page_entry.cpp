@@ -7,11 +7,13 @@
 #include <cstdlib>
 #include <initializer_list>
 #include <string>
+#include <vector>
 
 #include "clip_audit.hpp"
 #include "glossary.hpp"
 #include "keyboard_walk.hpp"
 #include "merge_categories.hpp"
+#include "number_reading.hpp"
 #include "page.hpp"
 #include "page_bridge.hpp"
 #include "text_entry.hpp"
@@ -159,6 +161,20 @@ EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
         case FormAction::open_group: open_group(s, std::atoi(value.c_str())); break;
         case FormAction::back_to_groups: back_to_groups(s); break;
         case FormAction::one_sample: leave_groups(s); break;
+        case FormAction::survey: {  // the columns by name or number, in this order; empty ones left out
+            std::vector<std::string> parts(4);
+            std::size_t i = 0;
+            for (char ch : value) {
+                if (ch == ',') { if (++i == parts.size()) break; continue; }
+                parts[i] += ch;
+            }
+            for (auto& p : parts) p = std::string(tallyproof::trim_cell_ends(p));
+            if (s.reading.text.empty()) { s.input_error = "Paste or open the respondents' rows first, then name their columns."; break; }
+            if (parts[0].empty()) { s.input_error = "Name the category column (its header or number) first."; break; }
+            s.reading.survey_open = true;
+            read_paste_as_survey(s, tallyproof::SurveyColumns{parts[0], parts[1], parts[2], parts[3], false});
+            break;
+        }
         case FormAction::goal: {  // "": find a departure; a margin w0: show conformity within it
             if (value.empty()) { set_test_goal(s, false, s.analysis.conformity.margin_w); break; }
             set_conformity_margin_text(s, value);  // "0.1" is w0, "2 pp" percentage points

@@ -64,4 +64,29 @@ export const tests = {
       await screenshot(page, 'survey-rows');
     });
   },
+
+  async 'the form view reads survey rows from the columns typed in its survey field'() {
+    await withPage({}, async (page) => {
+      await openFormView(page);
+      await chooseFile(page, 'survey_respondents.csv', respondents, 'text/csv');
+      await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'error', null, { timeout: 5000 });
+      const survey = page.getByRole('textbox', { name: /Survey rows/ });
+      await typeInto(page, survey, 'channel, weight, region, store', { then: 'Enter' });
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).design?.clusters === 22, null, { timeout: 5000 });
+      const model = page.getByRole('combobox', { name: /expected mix/i });
+      await model.focus();
+      await page.keyboard.type('Ra');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastDocument).model.kind === 'ratio', null, { timeout: 5000 });
+      await typeInto(page, page.getByRole('textbox', { name: /expected mix values/i }), '20:30:25:25', { then: 'Enter' });  // first-seen order, as above
+      await page.waitForFunction(() => Math.abs(JSON.parse(globalThis.tallyproofPage.lastResult).design.second_order.statistic - 7.473091653177697) < 1e-6,
+        null, { timeout: 5000 });  // R survey 4.1-1 svygofchisq (survey_reference.csv, "clusters")
+      const live = await page.getByRole('status').textContent();
+      assert(live.length <= 200, `live region: ${live}`);
+      // A column that is not there is refused by name, and the analysis stays.
+      await typeInto(page, survey, 'channel, weight, county', { then: 'Enter' });
+      await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'error', null, { timeout: 5000 });
+      assert((await page.getByRole('status').textContent()).includes('county'), 'the refusal names the missing column');
+      await closeFormView(page);
+    });
+  },
 };
