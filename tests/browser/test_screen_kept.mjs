@@ -4,7 +4,7 @@
 // list: the Groups view with the same groups, flags and order, an opened group with its way back.
 // Reference: SciPy 1.10, scipy.stats.chisquare([38,12,10,8,11,38,9,12,10,8]) -> statistic
 // 81.56410256410255 for "Dev" (the same invented data as test_groups.mjs).
-import { assert, clickWidget, focusCanvas, lastResult, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
+import { assert, clickWidget, closeFormView, focusCanvas, lastResult, openFormView, pasteText, resultsText, screenshot, withPage } from './harness.mjs';
 import { longTable } from './test_groups.mjs';  // the same twelve invented meter readers
 import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
@@ -46,6 +46,33 @@ async function expectScreen(page, expectedOrder, where) {
 }
 
 export const tests = {
+  async 'the form view pages through every group of a long screen, 200 at a time, by keys'() {
+    await withPage({ permissions: ['clipboard-read', 'clipboard-write'] }, async (page) => {
+      // 450 invented groups of ten digit counts (a wide table under a header of the digits).
+      const rows = ['unit,0,1,2,3,4,5,6,7,8,9'];
+      for (let g = 0; g < 450; g++) rows.push(`U${g},` + Array.from({ length: 10 }, (_, d) => 20 + ((g * 3 + d * 7) % 9)).join(','));
+      await pasteByClipboard(page, rows.join('\n') + '\n', () => document.getElementById('tp-results').textContent.includes('of 450 groups'));
+      await openFormView(page);
+      const caption = () => page.evaluate(() => document.querySelector('#tp-groups-table caption').textContent);
+      const names = () => page.evaluate(() => [...document.querySelectorAll('#tp-groups-table tbody th button')].map((b) => b.textContent));
+      assert((await caption()).includes('groups 1 to 200 of 450'), `caption: ${await caption()}`);
+      const next = page.getByRole('button', { name: 'Next 200 groups' });
+      await next.focus();
+      await page.keyboard.press('Enter');
+      assert((await caption()).includes('groups 201 to 400 of 450'), `caption: ${await caption()}`);
+      await page.keyboard.press('Space');
+      assert((await caption()).includes('groups 401 to 450 of 450'), `caption: ${await caption()}`);
+      const last = await names();
+      assert(last.length === 50 && last.includes('U449'), `last page: ${last.length} rows, ${last.slice(-3)}`);
+      assert(await next.isDisabled(), 'no page after the last');
+      const prev = page.getByRole('button', { name: 'Previous 200 groups' });
+      await prev.focus();
+      await page.keyboard.press('Enter');
+      assert((await caption()).includes('groups 201 to 400 of 450'), `caption after Previous: ${await caption()}`);
+      await closeFormView(page);
+    });
+  },
+
   async 'printing a screen gives one page: its summary, the flagged group with its drivers, the funnel chart, the cautions'() {
     await withPage({ permissions: ['clipboard-read', 'clipboard-write'] }, async (page) => {
       await pasteByClipboard(page, longTable(), screenShown);
