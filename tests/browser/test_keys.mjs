@@ -82,7 +82,7 @@ export const tests = {
     });
   },
 
-  async 'a binary or over-limit Ctrl+V is refused as the Paste button refuses it, the text kept for correction'() {
+  async 'a binary Ctrl+V (a PDF's text) is refused as the Paste button refuses it, the text kept for correction'() {
     await withPage({}, async (page) => {
       await pasteText(page, threeRegions);
       await firstCategory(page, 'North');
@@ -104,6 +104,28 @@ export const tests = {
       await page.waitForFunction(() => globalThis.tallyproofPage.lastRefusal !== '', null, { timeout: 5000 });
       assert(await page.evaluate(() => globalThis.tallyproofPage.lastRefusal) === viaKey, `Paste button: ${viaKey}`);
       await screenshot(page, 'keys-refused-binary');
+    });
+  },
+
+  async 'an over-limit Ctrl+V (270 MB) is refused as the Paste button refuses it, and the analysis stays'() {
+    await withPage({ permissions: ['clipboard-read', 'clipboard-write'] }, async (page) => {
+      await pasteText(page, threeRegions);
+      await firstCategory(page, 'North');
+      // 270 MB of text on the clipboard (written there in the page: sending it from the test
+      // would copy it twice more), then a real Ctrl+V on the focused canvas.
+      await page.evaluate(() => navigator.clipboard.writeText('Region\t12\n'.repeat(27 * 1024 * 1024)));
+      await focusCanvas(page);
+      await page.evaluate(() => { globalThis.tallyproofPage.lastRefusal = ''; });
+      await page.keyboard.press('Control+V');
+      await page.waitForFunction(() => globalThis.tallyproofPage.lastRefusal !== '', null, { timeout: 120000 });
+      const viaKey = await page.evaluate(() => globalThis.tallyproofPage.lastRefusal);
+      assert(viaKey.includes('270 MB') && viaKey.includes('at most 256 MB'), `refusal: ${viaKey}`);
+      await firstCategory(page, 'North');  // the analysis stays
+      await page.evaluate(() => { globalThis.tallyproofPage.lastRefusal = ''; });
+      await clickWidget(page, 'Paste');
+      await page.waitForFunction(() => globalThis.tallyproofPage.lastRefusal !== '', null, { timeout: 120000 });
+      assert(await page.evaluate(() => globalThis.tallyproofPage.lastRefusal) === viaKey, 'the Paste button gives the same refusal');
+      await firstCategory(page, 'North');
     });
   },
 
