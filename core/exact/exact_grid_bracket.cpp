@@ -81,7 +81,7 @@ void completion_indices(const GridBracketState& st, int j, int M, std::int64_t* 
 void run_level(GridBracketState* st) {
     const int k = static_cast<int>(st->s.shares.size()), n = st->s.n, j = st->level;
     const std::int64_t I = threshold_index(*st);
-    const double cut = std::min(1e-18, st->options.error_bound * 1e-10);
+    const double cut = st->light_cut;
     std::vector<GridBracketState::Row> next(static_cast<std::size_t>(n) + 1);
     std::vector<std::int64_t> dst_lo(static_cast<std::size_t>(n) + 1, std::numeric_limits<std::int64_t>::max()),
         dst_hi(static_cast<std::size_t>(n) + 1, std::numeric_limits<std::int64_t>::min());
@@ -278,6 +278,7 @@ Status grid_bracket_start(const OutcomeScores& sc, const GridBracketOptions& opt
     if (!(options.error_bound > 0)) return Status::failure("The exact-test error bound must be positive.");
     st->s = sc;
     st->options = options;
+    st->light_cut = std::min(1e-18, options.error_bound * 1e-10);
     const int k = static_cast<int>(sc.shares.size()), n = sc.n;
     st->shift.assign(static_cast<std::size_t>(k), 0.0);
     st->shift_rest.assign(static_cast<std::size_t>(k) + 1, 0.0);
@@ -372,11 +373,19 @@ WorkProgress grid_bracket_step(GridBracketState* st, std::uint64_t budget) {
         const double width = st->p_high - st->p_low;
         const double round_work = st->work - st->round_start_work;
         ++st->round;
-        const bool enough = st->lattice || grid_bracket_settled(o, st->p_low, st->p_high);
+        bool enough = grid_bracket_settled(o, st->p_low, st->p_high);
+        // A tail p whose width is mostly the light states' mass: lower the cut in proportion (the
+        // lattice then runs once more on the same grid; the grid's next round uses it too).
+        bool cut_lowered = false;
+        if (!enough && st->p_high <= o.tail_p && st->p_low > 0 && st->dropped > 0.1 * o.tail_relative_width * st->p_low) {
+            st->light_cut = std::max(1e-300, st->light_cut * std::min(0.1, 0.01 * o.tail_relative_width * st->p_low / st->dropped));
+            cut_lowered = true;
+        }
+        enough = enough || (st->lattice && !cut_lowered);
         // The width wanted next: a tail p's relative width, else alpha outside, else the bound.
         double wanted = 2 * o.error_bound;
         if (st->p_high <= o.tail_p) wanted = o.tail_relative_width * std::max(st->p_low, 1e-3 * st->p_high);
-        else if (o.alpha > 0 && o.alpha < 1) wanted = std::max(wanted, std::fabs(0.5 * (st->p_low + st->p_high) - o.alpha));
+        else if (o.alpha > 0 && o.alpha < 1) wanted = std::max(wanted, 0.5 * std::fabs(0.5 * (st->p_low + st->p_high) - o.alpha));
         double shrink = std::clamp(wanted / std::max(width, 1e-300), 1.0 / 16, 0.5);
         // Work and cells grow as 1/shrink: the next round must fit the budget left and the memory.
         const double left = o.max_work - st->work;
@@ -388,7 +397,7 @@ WorkProgress grid_bracket_step(GridBracketState* st, std::uint64_t budget) {
             st->inc.clear();
             break;
         }
-        st->h *= shrink;
+        if (!st->lattice) st->h *= shrink;
         st->pass = 0;
         st->round_start_work = st->work;
         st->peak_cells = 0;

@@ -59,6 +59,7 @@ struct GridBracketState {
     std::vector<Row> rows;
     CompensatedSum tail;
     double dropped = 0;                          // mass dropped in the upper pass (added to p_high)
+    double light_cut = 0;                        // states lighter than this are dropped (lowered for a tail p)
     double p_low = 0, p_high = 1;                // best bracket so far
     double work = 0;                             // state updates so far
     double round_start_work = 0;                 // work when this round began
