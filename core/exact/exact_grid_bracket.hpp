@@ -27,12 +27,12 @@ struct GridBracketOptions {
     int max_rounds = 12;        // grid refinements before giving the bracket reached
     double max_work = 2e9;      // work units (state updates) of all rounds; the next round is skipped past it
     double alpha = -1;          // decision aimed at: refinement stops once the bracket excludes it (none if outside (0, 1))
-    double tail_p = 1e-3;       // a bracket wholly at or below it is a tail p: refined toward tail_relative_width
+    double tail_p = 1e-3;       // a bracket reaching down to it may hold a tail p: refined toward tail_relative_width
     double tail_relative_width = 1e-6;  // (p_high - p_low) / p_low wanted for a tail p (six significant figures)
 };
 
-// Whether a bracket [p_low, p_high] needs no more refinement under the options: a tail p at its
-// relative width, else alpha outside the bracket, else the half-width within error_bound.
+// Whether a bracket [p_low, p_high] needs no more refinement under the options: one reaching down
+// to tail_p at its relative width, else alpha outside the bracket, else the half-width within error_bound.
 bool grid_bracket_settled(const GridBracketOptions& options, double p_low, double p_high);
 // Whether the bracket decides the test at alpha (rejecting when p <= alpha): p_high <= alpha or p_low > alpha.
 bool bracket_decides(double p_low, double p_high, double alpha);
