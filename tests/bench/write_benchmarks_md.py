@@ -255,6 +255,10 @@ def bracket_section():
         s("| %d | %d | %d | %s | %.3f | [%.6g, %.6g] | %.3g | %.3g | %s | %s | %s |" % (
             k, n_, shift, method, sec, lo, hi, wid, rel, "yes" if dec == 1 else "no, budget ended", plain, walk))
     s("")
+    s("*Walk* \"not run\": the walk's estimate was over 30 s (or the walk itself was the method chosen). Every")
+    s("row returned a bracket; none was refused for time. Seconds above 1 are the first round, which is not")
+    s("cut short (a coarser one brackets nothing; see kLeastCellsPerCategory in core/exact/exact_grid_bracket.cpp).")
+    s("")
     tails = [r for r in rows if len(r) >= 15 and r[5] <= 1e-3]
     if tails:
         best = min(r[7] for r in tails)
