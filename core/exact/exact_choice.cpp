@@ -12,7 +12,7 @@ namespace tallyproof {
 namespace {
 constexpr double kWalkUnitsPerSecond = 1e8;
 constexpr double kEqualSharesUnitsPerSecond = 2e9;
-constexpr double kGridUnitsPerSecond = 2.5e8;  // state updates: 2.3e8/s at fine grids (bench_exact_bracket, 2026-12-05), 4e8 to 1.5e9 coarse
+constexpr double kGridUnitsPerSecond = 1e9;  // state updates, suffix sums and binomial terms: 0.7e9 to 1.9e9 a second (bench_exact_bracket, 2026-12-05)
 }  // namespace
 
 const char* exact_method_name(ExactMethod m) {

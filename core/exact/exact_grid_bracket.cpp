@@ -100,6 +100,7 @@ void run_level(GridBracketState* st) {
             if (phase == 1) {
                 suffix.assign(row.v.size() + 1, 0.0);
                 for (std::size_t i = row.v.size(); i-- > 0;) suffix[i] = suffix[i + 1] + row.v[i];
+                st->work += static_cast<double>(row.v.size());  // counted too: at fine grids it rivals the updates
             }
             if (j == k - 1) {  // the last category takes the rest
                 if (phase == 0) continue;
@@ -109,6 +110,7 @@ void run_level(GridBracketState* st) {
             }
             int lo = 0, hi = 0;
             const double bounded = binomial_terms(M, st->q[j], st->odds[j], st->s.log_factorial, &pmf, &lo, &hi);
+            st->work += static_cast<double>(hi - lo + 1);  // the terms visited, in both phases
             if (phase == 1 && st->pass == 1) st->dropped += suffix[0] * bounded;
             for (int x = lo; x <= hi; ++x) {
                 const std::int64_t d = st->inc[j][x];
