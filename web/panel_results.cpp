@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "density_plot.hpp"
+#include "exact_bracket_text.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "panels.hpp"
@@ -95,7 +96,7 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
                                         ";  lower-tail p = " + format_probability(r.exact_lower_computed ? r.exact_lower : r.lower) +
                                         (r.exact_lower_computed ? " (exact)" : " (asymptotic)"));
     if (r.df_range.shown && r.estimated_parameters > 0) wrapped_text(r.df_range.note.c_str());
-    if (r.exact.computed) wrapped_text(("Exact p-value, error bound " + format_significant(r.exact.error_bound, 2) + ".").c_str());
+    if (r.exact.computed) wrapped_text((r.exact.bracketed ? exact_bracket_sentence(r) : "Exact p-value, error bound " + format_significant(r.exact.error_bound, 2) + ".").c_str());
     if (r.monte_carlo.computed)
         explained_text("monte carlo counts", "Monte Carlo: " + format_grouped(r.monte_carlo.hits) + " of " +
                                                  format_grouped(r.monte_carlo.replicates) +

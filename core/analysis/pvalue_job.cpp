@@ -38,7 +38,9 @@ void start_pvalue_job(const Analysis& a, const Result& r, PValueJob* job) {
     const MultinomialTestSpec spec = spec_of(a, r);
     if (a.pvalue.method == PValueMethod::exact) {
         job->exact = std::make_unique<ExactJob>();
-        job->status = exact_job_start(spec, ExactChoiceOptions{}, job->exact.get());
+        ExactChoiceOptions eo;
+        eo.alpha = r.alpha;  // the grid bracket refines until it decides the test at alpha
+        job->status = exact_job_start(spec, eo, job->exact.get());
     } else {
         MonteCarloOptions mo;
         mo.replicates = a.pvalue.replicates;
@@ -93,10 +95,10 @@ void finish_pvalue_job(const PValueJob& job, Result* r) {
         }
         r->exact.computed = true;
         r->exact.method = exact_method_name(job.exact->method);
-        if (er.error_bound > ExactChoiceOptions{}.error_bound)
-            r->warnings.push_back("The exact p-value is certified only to within " + format_significant(er.error_bound, 2) +
-                                  " either way (the bracket reached within the time limit); use it with that margin, or "
-                                  "use the Monte Carlo p-value for a tighter estimate.");
+        r->exact.p_lower = er.p_lower;
+        r->exact.p_upper = er.p_upper;
+        r->exact.bracketed = er.relative_error_bound > 1e-9;
+        r->exact.decides_at_alpha = bracket_decides(er.p_lower, er.p_upper, r->alpha);
         if (r->estimated_parameters > 0)
             r->warnings.push_back("The exact p-value is conditional on the fitted shares (it treats them as known); with "
                                   "estimated parameters it is conservative (closer to the p at df " +

@@ -60,6 +60,8 @@ void add_conditional_pvalue(const Analysis& a, const HomogeneityTable& table, Re
         if (s.ok) {
             r->exact.computed = true;
             r->exact.p = er.p;
+            r->exact.p_lower = r->exact.p_upper = er.p.p;  // every table enumerated: a point, the decision exact
+            r->exact.decides_at_alpha = true;
             r->exact.work_units = er.tables;
             out->exact_tables = er.tables;
             r->method = PValueMethod::exact;

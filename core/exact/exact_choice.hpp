@@ -3,7 +3,8 @@
 // programme over sums of squares (equal_shares_exact). The choice is made on estimated time
 // (work estimates over rates measured natively on one core, tests/bench/bench_exact_dp). A table
 // neither finishes within the limit gets the certified grid bracket (grid_bracket_exact), refined
-// as far as the time limit allows; its half-width is the reported error bound.
+// until it decides the test at alpha (a tail p: to six significant figures) or the time limit
+// ends; the bracket reached is returned, never refused for time (result.p_lower, p_upper).
 #pragma once
 #include <cstdint>
 #include <memory>
@@ -23,6 +24,7 @@ const char* exact_method_name(ExactMethod m);  // "branch-and-bound", "equal-sha
 struct ExactChoiceOptions {
     double max_seconds = 1.0;   // the time limit, natively (the page takes up to about twice as long)
     double error_bound = 1e-6;  // wanted bound of the grid bracket (the other methods do far better)
+    double alpha = -1;          // the test's alpha: the grid stops refining once its bracket excludes it (none if outside (0, 1))
 };
 
 struct ExactJob {

@@ -205,6 +205,8 @@ Status equal_shares_exact_result(const EqualSharesExactState& st, ExactMultinomi
     const double rel = st.k * (4 * log_size + 3.0 * st.n + 8) * kEps + (st.n + 2.0 * st.k) * kEps;
     r->error_bound = rel * p + st.dropped;
     r->relative_error_bound = r->error_bound / p;
+    r->p_lower = std::max(0.0, p - r->error_bound);
+    r->p_upper = std::min(1.0, p + r->error_bound);
     r->work_units = static_cast<std::uint64_t>(st.k);
     r->nodes = 0;
     r->estimated_work = st.estimated_work;

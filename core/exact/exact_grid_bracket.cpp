@@ -4,6 +4,10 @@
 // programme over categories with conditional binomial masses (Johnson, Kemp & Kotz 2005, sect.
 // 11.2 for the multinomial as sequential binomials), so the two results bracket the true p.
 // Dropped light states only lower pass 0 and are added to pass 1: the bracket stays certified.
+// Refinement is aimed at what the bracket must show (Keich & Nagarajan 2006, J. Comput. Graph.
+// Stat. 15:779-802, refine a lattice only as far as the question needs): each round's grid is
+// chosen from the width wanted (alpha outside, or a tail p's relative width) and from the work
+// and memory the last round took, so the rounds stay within the budget.
 #include "exact_grid_bracket.hpp"
 
 #include <algorithm>
@@ -18,7 +22,13 @@ namespace tallyproof {
 namespace {
 
 constexpr double kEps = std::numeric_limits<double>::epsilon();
-constexpr double kInitialCells = 2000;  // grid cells across the threshold in the first round
+constexpr double kInitialCells = 2000;  // grid cells across the threshold in the first round, budget allowing
+constexpr double kLeastInitialCells = 64;  // the coarsest first round (large k and N: a wide first bracket)
+// and at least this many cells a category: the rounding moves a score by up to k cells, so a grid of
+// fewer than a few k cells brackets nothing and prunes nothing (measured natively, bench_exact_bracket
+// shares 1..100: N = 1000 at 64 cells gave [6e-14, 1] in 0.2 s, at 4 k cells [3.6e-11, 5.1e-9] in 0.3 s;
+// N = 5000 at 64 cells [2e-34, 1] in 1.2 s, at 4 k cells [3e-18, 4.5e-11] in 1.3 s, at 8 k cells 3.8 s).
+constexpr double kLeastCellsPerCategory = 4;
 constexpr double kMaxCells = 6e6;       // grid cells of all rows of one level, at most (48 MB a copy)
 
 double shifted_threshold(const GridBracketState& st) { return st.s.threshold - st.shift_rest[0]; }
@@ -76,7 +86,7 @@ void completion_indices(const GridBracketState& st, int j, int M, std::int64_t* 
 void run_level(GridBracketState* st) {
     const int k = static_cast<int>(st->s.shares.size()), n = st->s.n, j = st->level;
     const std::int64_t I = threshold_index(*st);
-    const double cut = std::min(1e-18, st->options.error_bound * 1e-10);
+    const double cut = st->light_cut;
     std::vector<GridBracketState::Row> next(static_cast<std::size_t>(n) + 1);
     std::vector<std::int64_t> dst_lo(static_cast<std::size_t>(n) + 1, std::numeric_limits<std::int64_t>::max()),
         dst_hi(static_cast<std::size_t>(n) + 1, std::numeric_limits<std::int64_t>::min());
@@ -90,6 +100,7 @@ void run_level(GridBracketState* st) {
             if (phase == 1) {
                 suffix.assign(row.v.size() + 1, 0.0);
                 for (std::size_t i = row.v.size(); i-- > 0;) suffix[i] = suffix[i + 1] + row.v[i];
+                st->work += static_cast<double>(row.v.size());  // counted too: at fine grids it rivals the updates
             }
             if (j == k - 1) {  // the last category takes the rest
                 if (phase == 0) continue;
@@ -99,6 +110,7 @@ void run_level(GridBracketState* st) {
             }
             int lo = 0, hi = 0;
             const double bounded = binomial_terms(M, st->q[j], st->odds[j], st->s.log_factorial, &pmf, &lo, &hi);
+            st->work += static_cast<double>(hi - lo + 1);  // the terms visited, in both phases
             if (phase == 1 && st->pass == 1) st->dropped += suffix[0] * bounded;
             for (int x = lo; x <= hi; ++x) {
                 const std::int64_t d = st->inc[j][x];
@@ -156,8 +168,20 @@ void run_level(GridBracketState* st) {
             row.lo += static_cast<std::int64_t>(a);
         }
     }
+    double cells = 0;
+    for (const auto& row : next) cells += static_cast<double>(row.v.size());
+    st->cells = cells;
+    st->peak_cells = std::max(st->peak_cells, cells);
     st->rows.swap(next);
     ++st->level;
+}
+
+// Work units of one round (both passes) times its grid width: rows x binomial terms x categories
+// over the span a prefix's completions straddle (the terms of estimate_grid_bracket_work).
+double round_work_times_width(const OutcomeScores& sc, double span) {
+    const double k = static_cast<double>(sc.shares.size()), n = sc.n;
+    const double states = std::min(n + 1, 16 * std::sqrt(n / 4) + 1), terms = 18 * std::sqrt(n / k) + 3;
+    return 2 * k * states * terms * std::min(span, 12 * std::sqrt(2 * k));
 }
 
 // Denominator q <= 1000 with |v - p/q| <= 1e-12 v (continued fractions), or 0.
@@ -227,6 +251,19 @@ double missed_ties(const GridBracketState& st) {
 
 }  // namespace
 
+bool bracket_decides(double p_low, double p_high, double alpha) {
+    if (!(alpha > 0 && alpha < 1)) return false;
+    return p_high <= alpha || p_low > alpha;
+}
+
+bool grid_bracket_settled(const GridBracketOptions& o, double p_low, double p_high) {
+    // A bracket reaching down to the tail may hold a tail p: it is refined toward six figures even
+    // when it already decides the test (the decision does not change; the figures do).
+    if (p_low <= o.tail_p) return p_high - p_low <= o.tail_relative_width * p_low;
+    if (bracket_decides(p_low, p_high, o.alpha)) return true;
+    return p_high - p_low <= 2 * o.error_bound;
+}
+
 double estimate_grid_bracket_work(const OutcomeScores& sc, double error_bound) {
     const double k = static_cast<double>(sc.shares.size()), n = sc.n;
     if (k < 2) return 1;
@@ -250,6 +287,7 @@ Status grid_bracket_start(const OutcomeScores& sc, const GridBracketOptions& opt
     if (!(options.error_bound > 0)) return Status::failure("The exact-test error bound must be positive.");
     st->s = sc;
     st->options = options;
+    st->light_cut = std::min(1e-18, options.error_bound * 1e-10);
     const int k = static_cast<int>(sc.shares.size()), n = sc.n;
     st->shift.assign(static_cast<std::size_t>(k), 0.0);
     st->shift_rest.assign(static_cast<std::size_t>(k) + 1, 0.0);
@@ -287,7 +325,10 @@ Status grid_bracket_start(const OutcomeScores& sc, const GridBracketOptions& opt
         st->progress.fraction = 1;
         return Status::success();
     }
-    st->h = span / kInitialCells;
+    // The first round takes at most a quarter of the budget (a coarser grid at large k and N), so
+    // later rounds have room to refine; it is never coarser than kLeastInitialCells cells.
+    const double first_h = round_work_times_width(sc, span) / std::max(1.0, options.max_work / 4);
+    st->h = std::min(span / std::max(kLeastInitialCells, kLeastCellsPerCategory * k), std::max(span / kInitialCells, first_h));
     const double unit = pearson_lattice_unit(sc);
     // The lattice closes the bracket in one round, but that round is not bounded by max_work as the
     // refinements are: taken only when its estimated state updates (cells x categories x the count
@@ -325,28 +366,50 @@ WorkProgress grid_bracket_step(GridBracketState* st, std::uint64_t budget) {
         if (st->level < k) continue;
         if (st->pass == 0) {
             st->p_low = std::max(st->p_low, std::min(1.0, st->tail.value() + missed_ties(*st)));
+            if (!st->lattice && grid_bracket_settled(st->options, st->p_low, st->p_high)) {  // with the last round's p_high
+                ++st->round;
+                pr.done = true;
+                st->rows.clear();
+                st->inc.clear();
+                break;
+            }
             st->pass = 1;
             begin_pass(st);
             continue;
         }
         st->p_high = std::min(st->p_high, std::min(1.0, st->tail.value() + st->dropped));
+        const GridBracketOptions& o = st->options;
         const double width = st->p_high - st->p_low;
-        const double round_work = st->work;
+        const double round_work = st->work - st->round_start_work;
         ++st->round;
-        const double shrink = std::clamp(st->options.error_bound / std::max(width, 1e-300), 1.0 / 16, 0.5);
-        const bool enough = width <= 2 * st->options.error_bound || st->lattice;
-        // Memory: rows hold at most the cells below the threshold; keep them to kMaxCells in all.
-        const double cells = shifted_threshold(*st) / (st->h * shrink) * (st->s.n + 1.0);
-        const bool too_costly = st->round >= st->options.max_rounds || round_work * (1 + 1 / shrink) > st->options.max_work ||
-                                cells > kMaxCells;
+        bool enough = grid_bracket_settled(o, st->p_low, st->p_high);
+        // A tail p whose width is mostly the light states' mass: lower the cut in proportion (the
+        // lattice then runs once more on the same grid; the grid's next round uses it too).
+        bool cut_lowered = false;
+        if (!enough && st->p_low <= o.tail_p && st->p_low > 0 && st->dropped > 0.1 * o.tail_relative_width * st->p_low) {
+            st->light_cut = std::max(1e-300, st->light_cut * std::min(0.1, 0.01 * o.tail_relative_width * st->p_low / st->dropped));
+            cut_lowered = true;
+        }
+        enough = enough || (st->lattice && !cut_lowered);
+        // The width wanted next: a tail p's relative width, else alpha outside, else the bound.
+        double wanted = 2 * o.error_bound;
+        if (st->p_low <= o.tail_p) wanted = o.tail_relative_width * std::max(st->p_low, 1e-3 * st->p_high);
+        else if (o.alpha > 0 && o.alpha < 1) wanted = std::max(wanted, 0.5 * std::fabs(0.5 * (st->p_low + st->p_high) - o.alpha));
+        double shrink = std::clamp(wanted / std::max(width, 1e-300), 1.0 / 16, 0.5);
+        // Work and cells grow as 1/shrink: the next round must fit the budget left and the memory.
+        const double left = o.max_work - st->work;
+        shrink = std::max({shrink, 1.25 * round_work / std::max(left, 1e-300), 1.25 * st->peak_cells / kMaxCells});
+        const bool too_costly = st->round >= o.max_rounds || shrink > 0.5;
         if (enough || too_costly) {
             pr.done = true;
             st->rows.clear();
             st->inc.clear();
             break;
         }
-        st->h *= shrink;
+        if (!st->lattice) st->h *= shrink;
         st->pass = 0;
+        st->round_start_work = st->work;
+        st->peak_cells = 0;
         begin_pass(st);
     }
     if (pr.done) {
@@ -375,6 +438,8 @@ Status grid_bracket_result(const GridBracketState& st, ExactMultinomialResult* r
     r->p.log10_p = std::min(0.0, std::log10(p));
     r->error_bound = 0.5 * (hi - lo);
     r->relative_error_bound = r->error_bound / p;
+    r->p_lower = lo;
+    r->p_upper = hi;
     r->work_units = static_cast<std::uint64_t>(st.work);
     r->estimated_work = st.estimated_work;
     r->total_outcomes = multinomial_outcome_count(st.s.n, k);

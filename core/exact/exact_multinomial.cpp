@@ -447,6 +447,8 @@ Status exact_multinomial_result(const ExactMultinomialState& st, ExactMultinomia
     const double trunc = st.truncated / scaled;  // relative
     r->relative_error_bound += trunc;
     r->error_bound = r->relative_error_bound * p;
+    r->p_lower = std::max(0.0, p - r->error_bound);
+    r->p_upper = std::min(1.0, p + r->error_bound);
     r->work_units = st.progress.units_done;
     r->nodes = st.nodes;
     r->estimated_work = st.estimated_work;

@@ -65,6 +65,7 @@ struct ExactMultinomialResult {
     TailProbability p;                 // the exact p-value (log10 kept where p underflows)
     double error_bound = 0;            // bound on |computed p - exact p| (rounding + truncation)
     double relative_error_bound = 0;   // error_bound / p
+    double p_lower = 0, p_upper = 1;   // certified bracket on the exact p (the grid's bounds; p -+ error_bound otherwise)
     std::uint64_t work_units = 0;      // outcome evaluations: boundary searches and tail terms
     std::uint64_t nodes = 0;           // count prefixes visited
     double estimated_work = 0;         // the estimate made before starting

@@ -35,8 +35,11 @@ struct ExactOutcome {
     bool requested = false, computed = false;
     TailProbability p;
     double error_bound = 0;
+    double p_lower = 0, p_upper = 1;  // certified bracket on the exact p (p -+ error_bound for the enumerations)
+    bool bracketed = false;           // a bracket rather than a point (the grid's, wider than 1e-9 of p)
+    bool decides_at_alpha = false;    // the bracket lies wholly at or below alpha or above it: the decision is exact
     double work_units = 0;
-    std::string method;   // exact_method_name: "branch-and-bound", "equal-shares-dp"
+    std::string method;   // exact_method_name: "branch-and-bound", "equal-shares-dp", "grid-bracket"
     std::string refusal;  // why it was not computed (too costly: use Monte Carlo)
 };
 

@@ -6,6 +6,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "exact_bracket_text.hpp"
 #include "glossary.hpp"
 #include "json_writer.hpp"
 #include "number_format.hpp"
@@ -71,7 +72,7 @@ std::string headline_verdict(const Result& r) {
 
 std::string method_phrase(const Result& r) {
     switch (r.method) {
-        case PValueMethod::exact: return "exact";
+        case PValueMethod::exact: return r.exact.bracketed ? "exact, the midpoint of its certified bracket" : "exact";
         case PValueMethod::monte_carlo:
             return "Monte Carlo, " + grouped(r.monte_carlo.replicates) + " replicates, seed " + std::to_string(r.monte_carlo.seed);
         case PValueMethod::asymptotic: break;
@@ -142,7 +143,8 @@ std::string report_text(const Analysis& a, const Result& r) {
     s += r.statistic_symbol + " = " + format_fixed(r.statistic, 2) + ", df = " + format_count(r.df) + ", p = " + format_probability(r.p) +
          " (" + method_phrase(r) + ")\n";
     if (r.method != PValueMethod::asymptotic) s += "Asymptotic p = " + format_probability(r.upper) + "\n";
-    if (r.exact.computed) s += "Exact p error bound: " + format_significant(r.exact.error_bound, 2) + "\n";
+    if (r.exact.computed && r.exact.bracketed) s += exact_bracket_sentence(r) + "\n";
+    else if (r.exact.computed) s += "Exact p error bound: " + format_significant(r.exact.error_bound, 2) + "\n";
     if (r.monte_carlo.computed)
         s += "Monte Carlo: " + grouped(r.monte_carlo.hits) + " of " + grouped(r.monte_carlo.replicates) +
              " replicates at least as extreme; standard error " + format_significant(r.monte_carlo.standard_error, 2) + "\n";
@@ -348,7 +350,10 @@ void write_pvalue_methods(JsonWriter& j, const Analysis& a, const Result& r) {
         j.key("exact").begin_object().key("ordering").value(ordering);
         if (r.exact.computed) j.key("p_value").value(r.exact.p.p).key("log10_p_value").value(r.exact.p.log10_p)
                                   .key("error_bound").value(r.exact.error_bound).key("work_units").value(r.exact.work_units)
-                                  .key("method").value(r.exact.method);
+                                  .key("method").value(r.exact.method)
+                                  .key("bracket").begin_object().key("lower").value(r.exact.p_lower).key("upper").value(r.exact.p_upper)
+                                  .key("alpha").value(r.alpha).key("decides_at_alpha").value(r.exact.decides_at_alpha)
+                                  .key("budget_ended").value(r.exact.bracketed && !r.exact.decides_at_alpha).end_object();
         else {
             j.key("refusal").value(r.exact.refusal);
             if (!r.exact.method.empty()) j.key("method").value(r.exact.method);

@@ -9,6 +9,7 @@
 #include <cmath>
 #include <vector>
 
+#include "exact_bracket_text.hpp"
 #include "number_format.hpp"
 #include "power_divergence.hpp"
 #include "report.hpp"  // conformity_verdict
@@ -161,6 +162,7 @@ std::vector<std::string> notes(const Analysis& a, const Result& r, const Style& 
         out.push_back(std::string(named.size() == 1 ? "The category that drives the result (" : "The categories that drive the result (") +
                       user_text(r.diagnostics.rule, st) + "): " + joined_labels(named) + ".");
     }
+    if (r.exact.computed && r.exact.bracketed) out.push_back(user_text(exact_bracket_sentence(r), st));
     if (r.exact.requested && !r.exact.computed)
         out.push_back("An exact p-value was not computed" + (r.exact.refusal.empty() ? std::string() : " (" + r.exact.refusal + ")") +
                       "; the p-value shown is asymptotic.");

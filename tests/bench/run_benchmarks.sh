@@ -1,10 +1,11 @@
 #!/usr/bin/env bash
 # Builds the benchmark programs (Release, build/bench), runs them and the same workloads through
 # R 4.2 (Rscript) and SciPy 1.10 (/usr/bin/python3), and writes docs/benchmarks.md. Not a test.
-# Usage: tests/bench/run_benchmarks.sh [--quick | --exact-only]   (JOBS=N for the build, default 1;
+# Usage: tests/bench/run_benchmarks.sh [--quick | --exact-only | --bracket-only]   (JOBS=N for the build, default 1;
 # --quick runs the R and NumPy Monte Carlo at a tenth of the replicates, for trying the script out;
 # --exact-only runs only bench_exact_dp, numpy_exact_dp.py, bench_monte_carlo and numpy_monte_carlo.py
-# and rewrites only their section of docs/benchmarks.md, keeping the others)
+# and rewrites only their section of docs/benchmarks.md, keeping the others; --bracket-only runs only
+# bench_exact_bracket and rewrites only the decision-aimed bracket's section)
 set -euo pipefail
 top=$(cd "$(dirname "$0")/../.." && pwd)
 dir="$top/build/bench"
@@ -25,6 +26,19 @@ exact_and_many_categories() {
     /usr/bin/python3 "$top/tests/bench/numpy_monte_carlo.py" | tee "$out/numpy_monte_carlo.txt"
     cat /proc/loadavg > "$out/loadavg_exact.txt"
 }
+# The decision-aimed bracket (issue 32), with the walk as reference where it fits.
+exact_bracket() {
+    echo "== exact p-values, decision-aimed bracket (bench_exact_bracket)"
+    "$bin/bench_exact_bracket" walk | tee "$out/bench_exact_bracket.txt"
+    cat /proc/loadavg > "$out/loadavg_bracket.txt"
+}
+if [ "$quick" = "--bracket-only" ]; then
+    cmake --build "$dir" -j"$jobs" --target bench_exact_bracket >/dev/null
+    exact_bracket
+    /usr/bin/python3 "$top/tests/bench/write_benchmarks_md.py" "$out" "$top/docs/benchmarks.md" --bracket-section-only
+    echo "rewrote the decision-aimed bracket's section of $top/docs/benchmarks.md"
+    exit 0
+fi
 if [ "$quick" = "--exact-only" ]; then
     for t in bench_exact_dp bench_monte_carlo; do cmake --build "$dir" -j"$jobs" --target "$t" >/dev/null; done
     exact_and_many_categories
@@ -32,7 +46,7 @@ if [ "$quick" = "--exact-only" ]; then
     echo "rewrote the exact and many-categories section of $top/docs/benchmarks.md"
     exit 0
 fi
-targets="bench_tails bench_pvalues bench_tail_grid bench_exact_dp bench_monte_carlo tallyproof"
+targets="bench_tails bench_pvalues bench_tail_grid bench_exact_dp bench_exact_bracket bench_monte_carlo tallyproof"
 help=$(cmake --build "$dir" --target help)
 case "$help" in *bench_parse*) targets="$targets bench_parse" ;; esac
 # shellcheck disable=SC2086
@@ -45,6 +59,7 @@ else
     rm -f "$out/bench_parse.txt"
 fi
 exact_and_many_categories
+exact_bracket
 echo "== one million raw values, whole process, beside R and NumPy/SciPy"
 /usr/bin/python3 "$top/tests/bench/parse_reference.py" "$dir/shell/tallyproof" | tee "$out/parse_reference.txt"
 echo "== screening 10,000 groups, whole process, beside NumPy/SciPy/statsmodels"

@@ -190,16 +190,24 @@ TEST_CASE("X² with rational shares is exact on the lattice; the choice picks th
     CHECK(m == ExactMethod::walk);  // tiny tables: the walk is fastest
 }
 
-TEST_CASE("a bracket too wide to be a p-value is refused; cancel stops the programmes") {
-    MultinomialTestSpec far;  // p about 1e-300: nothing certifies it within the limit
+TEST_CASE("a table past the time limit gets the bracket reached, not a refusal; cancel stops the programmes") {
+    MultinomialTestSpec far;  // p about 1e-300: the equal-shares programme would take too long
     far.observed = {100, 200, 300, 400, 500, 600, 700, 800, 900, 1000};
     far.null_shares.assign(10, 1.0);
     ExactChoiceOptions o;
     o.max_seconds = 0.05;
+    o.alpha = 0.05;
     ExactMultinomialResult e;
-    const Status s = exact_p_value(far, o, &e);
-    CHECK_FALSE(s.ok);
-    CHECK(s.message.find("Monte Carlo") != std::string::npos);
+    ExactMethod m{};
+    const Status s = exact_p_value(far, o, &e, &m);
+    REQUIRE(s.ok);
+    CHECK(m == ExactMethod::grid_bracket);
+    CHECK(e.p_lower <= e.p.p);
+    CHECK(e.p.p <= e.p_upper);
+    // Markov's inequality, P(X² >= t) <= E[X²] / t = (k - 1) / t (X² = 1500 here), bounds the
+    // certified lower end; the bracket decides the test at 0.05 (the whole bracket below it).
+    CHECK(e.p_lower <= 9.0 / 1500);
+    CHECK(e.p_upper <= 0.05);
 
     OutcomeScores sc;
     REQUIRE(make_outcome_scores(spec_of(kEqualCases[0], ExtremeOrdering::statistic, 1.0), &sc).ok);
