@@ -66,7 +66,7 @@ Status exact_lower_tail(const std::vector<double>& observed, const std::vector<d
     OutcomeScores s;
     Status st = make_outcome_scores(spec, &s);
     if (!st.ok) return st;
-    Walk w{s, {}, s.observed_score + kTieRelativeTolerance * std::max(1.0, std::fabs(s.observed_score))};
+    Walk w{s, {}, s.observed_score + kTieRelativeTolerance * std::max(1.0, std::fabs(s.observed_score)), {}};
     for (double pi : s.shares) w.log_pi.push_back(std::log(pi));
     w.zero_suffix.assign(s.shares.size() + 1, 0.0);
     for (std::size_t j = s.shares.size(); j-- > 0;) w.zero_suffix[j] = w.zero_suffix[j + 1] + s.score[j][0];

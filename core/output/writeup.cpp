@@ -136,10 +136,12 @@ std::vector<std::string> notes(const Analysis& a, const Result& r, const Style& 
         }
         if (groups.size() == 1)
             out.push_back("Categories " + groups[0] + " were merged so that " + rule_text(a, st) + ".");
-        else
-            out.push_back("Categories were merged in " + std::to_string(groups.size()) + " groups (" +
-                          [&] { std::string s; for (std::size_t i = 0; i < groups.size(); ++i) s += (i ? "; " : "") + groups[i]; return s; }() +
-                          ") so that " + rule_text(a, st) + ".");
+        else {
+            std::string joined;
+            for (std::size_t i = 0; i < groups.size(); ++i) joined += (i ? "; " : "") + groups[i];
+            out.push_back("Categories were merged in " + std::to_string(groups.size()) + " groups (" + joined + ") so that " +
+                          rule_text(a, st) + ".");
+        }
     }
     if (r.estimated_parameters > 0) {
         const double cells = static_cast<double>(r.tested_categories.size());
