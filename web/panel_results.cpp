@@ -47,7 +47,9 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
     const bool conformity = conformity_leads(r);
     const CurveTest shown = curve_test(r);  // for survey data, the design-corrected test the verdict rests on
     const std::string statistic = shown.symbol + " = " + format_fixed(shown.statistic, 2);
-    const std::string p = conformity ? "conformity " + p_line(r.conformity->p_value) : p_line(r.p);
+    const std::string p = conformity ? "conformity " + p_line(r.conformity->p_value)
+                          : exact_bracket_is_wide(r) ? headline_p_text(r)  // a wide exact bracket: its upper end
+                                                     : p_line(r.p);
     ImGui::TextUnformatted(statistic.c_str());
     explain_item("verdict statistic", statistic);
     if (ImGui::GetItemRectMax().x + 18 + ImGui::CalcTextSize(p.c_str()).x <= ImGui::GetWindowPos().x + ImGui::GetWindowContentRegionMax().x)

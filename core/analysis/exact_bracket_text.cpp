@@ -46,4 +46,13 @@ std::string exact_bracket_sentence(const Result& r) {
            " (the decision shown uses its midpoint); use the Monte Carlo p-value for a tighter estimate.";
 }
 
+bool exact_bracket_is_wide(const Result& r) {
+    return r.method == PValueMethod::exact && r.exact.computed && r.exact.bracketed && r.exact.p_upper > 10 * r.exact.p_lower;
+}
+
+std::string headline_p_text(const Result& r) {
+    if (exact_bracket_is_wide(r)) return "p ≤ " + bracket_bound_text(r.exact.p_upper, 2, true);
+    return "p = " + format_probability(r.p);
+}
+
 }  // namespace tallyproof

@@ -72,7 +72,9 @@ std::string headline_verdict(const Result& r) {
 
 std::string method_phrase(const Result& r) {
     switch (r.method) {
-        case PValueMethod::exact: return r.exact.bracketed ? "exact, the midpoint of its certified bracket" : "exact";
+        case PValueMethod::exact:
+            return !r.exact.bracketed ? "exact" : exact_bracket_is_wide(r) ? "exact, the upper end of its certified bracket"
+                                                                            : "exact, the midpoint of its certified bracket";
         case PValueMethod::monte_carlo:
             return "Monte Carlo, " + grouped(r.monte_carlo.replicates) + " replicates, seed " + std::to_string(r.monte_carlo.seed);
         case PValueMethod::asymptotic: break;
@@ -140,7 +142,7 @@ std::string report_text(const Analysis& a, const Result& r) {
     s += "\n";
     if (r.design) s += design_report_text(r);
     else
-    s += r.statistic_symbol + " = " + format_fixed(r.statistic, 2) + ", df = " + format_count(r.df) + ", p = " + format_probability(r.p) +
+    s += r.statistic_symbol + " = " + format_fixed(r.statistic, 2) + ", df = " + format_count(r.df) + ", " + headline_p_text(r) +
          " (" + method_phrase(r) + ")\n";
     if (r.method != PValueMethod::asymptotic) s += "Asymptotic p = " + format_probability(r.upper) + "\n";
     if (r.exact.computed && r.exact.bracketed) s += exact_bracket_sentence(r) + "\n";

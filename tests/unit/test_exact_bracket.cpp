@@ -319,6 +319,14 @@ TEST_CASE("the analysis records the bracket and its decision, and the report say
         if (r.exact.bracketed) {
             CHECK(text.find(exact_bracket_sentence(r)) != std::string::npos);
             CHECK(text.find(r.exact.decides_at_alpha ? "exact decision at α" : "budget ended") != std::string::npos);
+            // A bracket wider than a factor of ten is headed by its upper end, never its midpoint.
+            if (r.exact.p_upper > 10 * r.exact.p_lower) {
+                CHECK(exact_bracket_is_wide(r));
+                CHECK(text.find(", p ≤ " + bracket_bound_text(r.exact.p_upper, 2, true) + " (exact, the upper end of its certified bracket)") !=
+                      std::string::npos);
+            } else {
+                CHECK(text.find("the midpoint of its certified bracket") != std::string::npos);
+            }
         }
         const std::string json = report_json(a, r);
         CHECK(json.find("\"bracket\":{\"lower\":") != std::string::npos);
