@@ -7,6 +7,7 @@
 #include <algorithm>
 #include <cmath>
 #include <initializer_list>
+#include <limits>
 #include <cstdlib>
 #include <cstring>
 
@@ -781,6 +782,58 @@ bool apply_alpha_text(AppState& s, const std::string& text) {
     s.analysis.alpha = alpha;
     if (!recompute(s)) {
         s.analysis.alpha = previous;
+        return false;
+    }
+    return true;
+}
+
+std::string design_effect_text(const Analysis& a) {
+    const DesignChoice& d = a.design;
+    if (!d.requested) return "";
+    if (d.kish) return "kish";
+    if (std::isfinite(d.overall_design_effect)) return format_plain(d.overall_design_effect);
+    return list_text(d.category_design_effects, ", ");
+}
+
+bool apply_design_effect_text(AppState& s, const std::string& text) {
+    const std::size_t b = text.find_first_not_of(" \t"), e = text.find_last_not_of(" \t");
+    const std::string t = b == std::string::npos ? "" : text.substr(b, e - b + 1);
+    if (t == design_effect_text(s.analysis)) return true;
+    auto refuse = [&](const std::string& why) {
+        s.input_error = why;
+        publish_error(s.input_error);
+        s.view.frames_to_draw = 3;
+        return false;
+    };
+    const Analysis previous = s.analysis;
+    DesignChoice& d = s.analysis.design;
+    const bool rows = !d.sample.categories.empty();  // survey rows keep their design; the effects come on top
+    d.category_design_effects.clear();
+    d.overall_design_effect = std::numeric_limits<double>::quiet_NaN();
+    d.kish = false;
+    if (t.empty()) {
+        d.requested = rows;
+    } else if (t == "kish" || t == "Kish") {
+        if (!rows) return s.analysis = previous, refuse("Kish's design effect comes from the weights of survey rows: read the respondents' rows as survey rows first.");
+        d.requested = true;
+        d.kish = true;
+    } else {
+        std::vector<double> v;
+        std::string error;
+        if (!read_list(t, &v, &error)) return s.analysis = previous, refuse("Design effect: " + error);
+        for (double x : v)
+            if (!(x > 0 && std::isfinite(x)))
+                return s.analysis = previous, refuse("A design effect must be a number above 0, such as 1.8; \"" + t.substr(0, 20) + "\" is not.");
+        if (v.size() != 1 && v.size() != s.analysis.observed.size())
+            return s.analysis = previous, refuse("Give one design effect for the whole sample, or one per category (" +
+                                                 std::to_string(s.analysis.observed.size()) + "); " + std::to_string(v.size()) + " were given.");
+        d.requested = true;
+        if (v.size() == 1) d.overall_design_effect = v[0];
+        else d.category_design_effects = v;
+    }
+    if (!recompute(s)) {
+        s.analysis = previous;
+        recompute(s);
         return false;
     }
     return true;

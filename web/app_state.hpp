@@ -187,7 +187,12 @@ void merge_thin_cells(AppState& s, MergeRule rule);          // one-click remedy
 void undo_merge(AppState& s);
 void merge_look_alike_labels(AppState& s);                   // joins the categories whose labels look the same
 void set_pvalue_method(AppState& s, PValueMethod method);
-bool apply_alpha_text(AppState& s, const std::string& text);  // typed α (0 < α < 1); false: refused, message in input_error
+bool apply_alpha_text(AppState& s, const std::string& text);
+// Survey design effects typed for counts or weighted shares: "" none, one number (tier 3: the
+// crude correction X²/D), one per category (tier 2: first-order Rao–Scott), or "kish" (1 + CV² of
+// the survey rows' weights). false: refused, message in input_error, the analysis kept.
+bool apply_design_effect_text(AppState& s, const std::string& text);
+std::string design_effect_text(const Analysis& a);              // the design effects as the field shows them  // typed α (0 < α < 1); false: refused, message in input_error
 void copy_writeup(AppState& s, bool sentence_only);          // the write-up in the chosen style (block, or the sentence)
 void copy_table(AppState& s);                                 // the per-category table as TSV
 // The test's goal: find a departure (false) or show the mix conforms within w0 (true, 0 < margin_w <= 1).

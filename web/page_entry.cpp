@@ -175,6 +175,7 @@ EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
             read_paste_as_survey(s, tallyproof::SurveyColumns{parts[0], parts[1], parts[2], parts[3], false});
             break;
         }
+        case FormAction::design_effect: apply_design_effect_text(s, value); break;
         case FormAction::goal: {  // "": find a departure; a margin w0: show conformity within it
             if (value.empty()) { set_test_goal(s, false, s.analysis.conformity.margin_w); break; }
             set_conformity_margin_text(s, value);  // "0.1" is w0, "2 pp" percentage points

@@ -82,7 +82,7 @@ export const tests = {
     });
   },
 
-  async 'a binary Ctrl+V (a PDF's text) is refused as the Paste button refuses it, the text kept for correction'() {
+  async 'a binary Ctrl+V (the text of a PDF) is refused as the Paste button refuses it, the text kept for correction'() {
     await withPage({}, async (page) => {
       await pasteText(page, threeRegions);
       await firstCategory(page, 'North');

@@ -10,7 +10,7 @@
 import { readFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { assert, chooseFile, clickWidget, lastResult, openFormView, closeFormView, resultsText, screenshot, typeInto, withPage } from './harness.mjs';
+import { assert, chooseFile, clickWidget, lastResult, openFormView, closeFormView, pasteText, resultsText, screenshot, typeInto, withPage } from './harness.mjs';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const respondents = readFileSync(resolve(here, '../reference/survey_respondents.csv'));
@@ -86,6 +86,39 @@ export const tests = {
       await typeInto(page, survey, 'channel, weight, county', { then: 'Enter' });
       await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'error', null, { timeout: 5000 });
       assert((await page.getByRole('status').textContent()).includes('county'), 'the refusal names the missing column');
+      await closeFormView(page);
+    });
+  },
+
+  async 'design effects typed for counts: one overall (crude) on the canvas, one per category in the form view'() {
+    await withPage({ permissions: ['clipboard-read', 'clipboard-write'] }, async (page) => {
+      // Invented counts of three shifts. SciPy 1.10: chisquare([48, 61, 35]) -> 7.041666666666667,
+      // p 0.02957477924664611; chi2.sf(7.041666666666667 / 2, 2) -> 0.17197319339550018.
+      await pasteText(page, 'Early\t48\nDay\t61\nNight\t35\n');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).categories?.[0] === 'Early', null, { timeout: 5000 });
+      await clickWidget(page, 'design effect');
+      await page.keyboard.type('2', { delay: 20 });
+      await page.keyboard.press('Enter');
+      await page.waitForFunction(() => JSON.parse(globalThis.tallyproofPage.lastResult).design, null, { timeout: 5000 });
+      let r = await lastResult(page);
+      assert(Math.abs(r.p_value - 0.17197319339550018) < 1e-12, `crude p ${r.p_value}`);  // SciPy chi2.sf
+      assert(Math.abs(r.design.uncorrected.p_value - 0.02957477924664611) < 1e-12, 'the uncorrected p beside it');  // SciPy chisquare
+      assert((await resultsText(page)).includes('crude correction'), 'labelled as the crude correction');
+      await openFormView(page);
+      const deff = page.getByRole('textbox', { name: /Design effect/ });
+      assert(await deff.inputValue() === '2', `the form shows the design effect: ${await deff.inputValue()}`);
+      await typeInto(page, deff, '1.4, 1.2', { then: 'Enter' });  // two for three categories: refused
+      await page.waitForFunction(() => document.getElementById('tp-results').dataset.state === 'error', null, { timeout: 5000 });
+      assert((await page.getByRole('status').textContent()).includes('one per category (3)'), 'the refusal says how many');
+      await typeInto(page, deff, '1.4, 1.2, 1.9', { then: 'Enter' });
+      await page.waitForFunction(() => (JSON.parse(globalThis.tallyproofPage.lastResult).design || {}).design_effects?.length === 3, null, { timeout: 5000 });
+      r = await lastResult(page);
+      assert(r.design.second_order === null || r.design.second_order.statistic === undefined || !r.design.second_order.available,
+        `tier 2 offers no second order: ${JSON.stringify(r.design.second_order)}`);
+      await typeInto(page, deff, '', { then: 'Enter' });  // none again: the plain test, SciPy's p
+      await page.waitForFunction(() => !JSON.parse(globalThis.tallyproofPage.lastResult).design, null, { timeout: 5000 });
+      r = await lastResult(page);
+      assert(Math.abs(r.p_value - 0.02957477924664611) < 1e-12, `plain p ${r.p_value}`);  // SciPy chisquare
       await closeFormView(page);
     });
   },
