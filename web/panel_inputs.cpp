@@ -666,7 +666,7 @@ void draw_test_panel(AppState& s, const Theme& t) {
     ImGui::SameLine();
     std::string deff = design_effect_text(a);
     ImGui::SetNextItemWidth(std::min(220.0f, ImGui::GetContentRegionAvail().x));
-    const bool deff_done = text_field("##design-effect", &deff, FieldKeys::text, ImGuiInputTextFlags_EnterReturnsTrue, "survey data: 1.8, or one per category") ||
+    const bool deff_done = text_field("##design-effect", &deff, FieldKeys::text, ImGuiInputTextFlags_EnterReturnsTrue, "none") ||
                            ImGui::IsItemDeactivatedAfterEdit();
     mark_widget("design effect");
     if (ImGui::IsItemHovered())
