@@ -659,20 +659,6 @@ void draw_test_panel(AppState& s, const Theme& t) {
                             ImGui::IsItemDeactivatedAfterEdit();
     mark_widget("alpha");
     if (alpha_done) apply_alpha_text(s, alpha);
-    // Survey data given as counts or weighted shares: the design effects from the survey's report.
-    ImGui::AlignTextToFramePadding();
-    ImGui::TextUnformatted("Design effect");
-    explain_item("design effect label", "design effect");
-    ImGui::SameLine();
-    std::string deff = design_effect_text(a);
-    ImGui::SetNextItemWidth(std::min(220.0f, ImGui::GetContentRegionAvail().x));
-    const bool deff_done = text_field("##design-effect", &deff, FieldKeys::text, ImGuiInputTextFlags_EnterReturnsTrue, "none") ||
-                           ImGui::IsItemDeactivatedAfterEdit();
-    mark_widget("design effect");
-    if (ImGui::IsItemHovered())
-        ImGui::SetTooltip("Survey data: one design effect for the whole sample (the crude correction χ²/D), one per category "
-                          "(first-order Rao–Scott), or kish for survey rows' weights. Empty: none.");
-    if (deff_done) apply_design_effect_text(s, deff);
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("p-value");
     ImGui::SameLine(74);
@@ -743,6 +729,20 @@ void draw_test_panel(AppState& s, const Theme& t) {
         ImGui::SameLine(0, ImGui::GetStyle().ItemInnerSpacing.x);
         ImGui::TextUnformatted("minimum");
     }
+    // Survey data given as counts or weighted shares: the design effects from the survey's report.
+    ImGui::AlignTextToFramePadding();
+    ImGui::TextUnformatted("Design effect");
+    explain_item("design effect label", "design effect");
+    ImGui::SameLine();
+    std::string deff = design_effect_text(a);
+    ImGui::SetNextItemWidth(std::min(220.0f, ImGui::GetContentRegionAvail().x));
+    const bool deff_done = text_field("##design-effect", &deff, FieldKeys::text, ImGuiInputTextFlags_EnterReturnsTrue, "none") ||
+                           ImGui::IsItemDeactivatedAfterEdit();
+    mark_widget("design effect");
+    if (ImGui::IsItemHovered())
+        ImGui::SetTooltip("Survey data: one design effect for the whole sample (the crude correction χ²/D), one per category "
+                          "(first-order Rao–Scott), or kish for survey rows' weights. Empty: none.");
+    if (deff_done) apply_design_effect_text(s, deff);
 }
 
 }  // namespace tallyproof::web
