@@ -10,6 +10,8 @@
 #include <utility>
 #include <vector>
 
+#include <unistd.h>
+
 #include "analysis_document.hpp"
 #include "glossary.hpp"
 #include "number_reading.hpp"
@@ -17,6 +19,7 @@
 #include "survey_rows.hpp"
 #include "grouped_table.hpp"
 #include "read_input.hpp"
+#include "stream_tally.hpp"
 #include "pvalue_job.hpp"
 #include "report.hpp"
 #include "screen_document.hpp"
@@ -43,6 +46,8 @@ const char* kUsage =
     "  --raw                  the cells are raw observations, one per cell or line\n"
     "  --case-fold            raw text: upper and lower case are one category\n"
     "  --sorted               raw text: categories in sorted order (default: first seen)\n"
+    "  --read-whole           with --digits: read the whole input before tallying (at most\n"
+    "                         256 MB) instead of streaming it 1 MiB at a time\n"
     "  --decimal-comma        numbers use a decimal comma (1.234,5)\n"
     "  --decimal-point        numbers use a decimal point (1,234.5)\n"
     "  --shape S              override the detected shape: label-count, label-observed-expected,\n"
@@ -222,6 +227,7 @@ constexpr int kGoOn = -1;  // a step went well: the next one follows
 // What the command line asks for.
 struct CommandLine {
     bool json = false;
+    bool read_whole = false;  // --read-whole: --digits input read whole, not streamed
     std::string table_format, writeup_style;  // --table csv|tsv, --writeup plain|markdown|tsv
     bool out_decimal_comma = false;
     bool byte_order_mark = false;  // --byte-order-mark: --table output for a spreadsheet file
@@ -330,6 +336,7 @@ int read_command_line(int argc, char** argv, CommandLine* c) {
         else if (arg == "--raw") c->input.raw = true;
         else if (arg == "--case-fold") c->input.case_fold = true;
         else if (arg == "--sorted") c->input.sorted = true;
+        else if (arg == "--read-whole") c->read_whole = true;
         else if (arg == "--decimal-comma") c->input.decimal = DecimalMark::comma;
         else if (arg == "--decimal-point") c->input.decimal = DecimalMark::point;
         else if (arg == "--category" || arg == "--weight" || arg == "--stratum" || arg == "--cluster" ||
@@ -464,6 +471,88 @@ int read_analysis(int argc, char** argv, std::string* text_in, CommandLine* c, A
     return kGoOn;
 }
 
+constexpr std::size_t kStreamChunk = 1u << 20;  // raw digits are read 1 MiB at a time
+constexpr std::size_t kProgressEvery = 64u << 20;  // progress on a terminal every 64 MB
+
+// Fills `buf` from `in` up to its size; returns the bytes read (fewer only at the end or on error).
+std::size_t read_chunk(std::FILE* in, char* buf, std::size_t size) {
+    std::size_t got = 0;
+    for (std::size_t n; got < size && (n = std::fread(buf + got, 1, size - got, in)) > 0;) got += n;
+    return got;
+}
+
+// --digits on raw numbers: the first MiB decides the shape (read_input, as for the whole text);
+// when the input is longer and reads as a raw-digits tally, the rest is streamed through core's
+// DigitStreamTally in 1 MiB pieces cut at line ends, so memory does not grow with the input and
+// the 256 MB limit does not apply. Otherwise `text` receives the whole input and the caller reads
+// it as before. Returns kGoOn with *streamed set when the reading is in `reading`, or an exit status.
+int read_streamed_digits(const std::string& path, const CommandLine& c, std::string* text, ParsedInput* reading, bool* streamed) {
+    *streamed = false;
+    const bool from_stdin = path.empty() || path == "-";
+    const std::string name = from_stdin ? "standard input" : path;
+    std::FILE* in = from_stdin ? stdin : std::fopen(path.c_str(), "rb");
+    if (in == nullptr) return cannot_read(path, errno);
+    struct Closer { std::FILE* f; bool own; ~Closer() { if (own) std::fclose(f); } } closer{in, !from_stdin};
+    std::string buf(kStreamChunk, '\0');
+    errno = 0;
+    std::size_t got = read_chunk(in, buf.data(), buf.size());
+    if (std::ferror(in)) return cannot_read(name, errno != 0 ? errno : EIO);
+    buf.resize(got);
+    const std::size_t cut = buf.find_last_of('\n');
+    std::string first = got == kStreamChunk && cut != std::string::npos ? buf.substr(0, cut + 1) : std::string();
+    TextDecoding decoded;
+    if (!first.empty()) {
+        std::string probe = first;
+        decoded = decode_text(&probe);
+    }
+    const std::size_t lead = first.find_first_not_of(" \t\r\n");
+    ParsedInput head;
+    if (!first.empty() && decoded.status.ok && decoded.notice.empty() && lead != std::string::npos && first[lead] != '{') {
+        ReadInputOptions how;
+        how.groups = GroupsReading::never;
+        head = read_input(first, c.input, how).sample;
+    }
+    if (first.empty() || !DigitStreamTally::continues(head)) {
+        // Not streamed: the whole input, read as before (its chunk first).
+        *text = std::move(buf);
+        if (got == kStreamChunk) {
+            char more[65536];
+            for (std::size_t n; (n = std::fread(more, 1, sizeof more, in)) > 0;) text->append(more, n);
+            if (std::ferror(in)) return cannot_read(name, errno != 0 ? errno : EIO);
+        }
+        return kGoOn;
+    }
+    const bool progress = isatty(fileno(stderr)) != 0;
+    DigitStreamTally tally(head);
+    std::size_t total = first.size();
+    tally.feed(first);
+    std::string carry = buf.substr(first.size());
+    std::size_t next_progress = kProgressEvery;
+    for (bool at_end = false; !at_end && tally.status().ok;) {
+        buf.assign(carry);
+        buf.resize(carry.size() + kStreamChunk);
+        got = read_chunk(in, buf.data() + carry.size(), kStreamChunk);
+        if (std::ferror(in)) return cannot_read(name + " (after line " + std::to_string(tally.lines()) + ")", errno != 0 ? errno : EIO);
+        at_end = got < kStreamChunk;
+        buf.resize(carry.size() + got);
+        const std::size_t end = at_end ? buf.size() : buf.find_last_of('\n') + 1;  // a piece of whole lines
+        if (!at_end && end == 0) {  // one line longer than a chunk: keep it whole
+            carry = buf;
+            continue;
+        }
+        tally.feed(std::string_view(buf).substr(0, end));
+        total += got;
+        carry = buf.substr(end);
+        if (progress && total >= next_progress) {
+            std::fprintf(stderr, "read %.1f GB, %zu values\n", static_cast<double>(total) / 1e9, tally.values());
+            next_progress += kProgressEvery;
+        }
+    }
+    *reading = tally.finish(first.size(), total);
+    *streamed = true;
+    return kGoOn;
+}
+
 // The options that set the analysis (--model, --alpha, ...), over what the input stated.
 int apply_options(const std::vector<std::pair<std::string, std::string>>& opts, Analysis* analysis_out) {
     Analysis& analysis = *analysis_out;
@@ -579,11 +668,27 @@ int main(int argc, char** argv) {
     for (int i = 1; i < argc; ++i) g_json = g_json || std::strcmp(argv[i], "--json") == 0;
     if (const int r = read_command_line(argc, argv, &c); r != kGoOn) return r;
     std::string text;
-    if (const int r = read_input_text(c.path, &text); r != kGoOn) return r;
     Analysis analysis;
     GroupedCounts groups;
     Status read;
-    if (const int r = read_analysis(argc, argv, &text, &c, &analysis, &groups, &read); r != kGoOn) return r;
+    bool streamed = false;
+    if (c.input.digits && !c.screening && !c.survey && !c.read_whole) {
+        ParsedInput reading;
+        if (const int r = read_streamed_digits(c.path, c, &text, &reading, &streamed); r != kGoOn) return r;
+        if (streamed) {
+            read = reading.status;
+            std::vector<std::string> notes = reading.notes;
+            apply_input_mix(reading, &analysis, &notes);
+            if (!c.json && read.ok)
+                for (const auto& note : notes) std::fprintf(stderr, "note: %s\n", note.c_str());
+            if (!c.json && read.ok)
+                for (const auto& alt : reading.alternatives) std::fprintf(stderr, "alternative: %s\n", alt.c_str());
+        }
+    } else if (const int r = read_input_text(c.path, &text); r != kGoOn) {
+        return r;
+    }
+    if (!streamed)
+        if (const int r = read_analysis(argc, argv, &text, &c, &analysis, &groups, &read); r != kGoOn) return r;
     if (const int r = apply_options(c.opts, &analysis); r != kGoOn) return r;
     if (!c.design_effect.empty() || !c.design_effects.empty()) {
         if (c.screening) return usage_error("--design-effect(s) cannot be combined with screening many groups (--by)");

@@ -150,6 +150,10 @@ void tally_raw_digits(const RawSource& src, DigitTest test, ParsedInput* out) {
     });
     const DigitTally total = counter.tally();
     if (!read.ok) { add_problem(out, read.line, read.column, read.message); return; }
+    put_digit_tally(total, first_where, test, out);
+}
+
+void put_digit_tally(const DigitTally& total, const std::pair<int, int>* first_where, DigitTest test, ParsedInput* out) {
     out->digit_test = test;
     out->ordered = true;
     for (std::size_t i = 0; i < total.digits.size(); ++i) {

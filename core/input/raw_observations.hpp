@@ -4,9 +4,11 @@
 // minimum and maximum filled with zero counts, or a digit of each number (digit_extraction).
 #pragma once
 #include <string>
+#include <utility>
 #include <string_view>
 
 #include "delimited_text.hpp"
+#include "digit_extraction.hpp"
 #include "number_reading.hpp"
 #include "parsed_input.hpp"
 
@@ -68,5 +70,10 @@ void tally_raw_whole_numbers(const RawSource& src, const ParseOptions& options, 
 
 // The digit `test` of each number (digit_extraction's DigitCounter), one value at a time.
 void tally_raw_digits(const RawSource& src, DigitTest test, ParsedInput* out);
+
+// What tally_raw_digits puts into `out` once the values are counted: the categories, counts and
+// notes of `total` (`first_where`: line and column of the first value left out, per
+// DigitExclusion). Shared with the streamed tally (stream_tally.hpp), so both say the same.
+void put_digit_tally(const DigitTally& total, const std::pair<int, int>* first_where, DigitTest test, ParsedInput* out);
 
 }  // namespace tallyproof
