@@ -133,9 +133,11 @@ export const tests = {
       const before = await page.evaluate(() => globalThis.tallyproofPage.lastDocument);
       for (let i = 0; i < 3; i++) { await page.keyboard.press('ArrowDown'); await page.waitForTimeout(60); }
       await notBlank(page, 'screen-keyboard');
-      // Walk down the controls with the arrow key to the last one (the merge rule), open it with
-      // Space, move to the next rule and choose it with Space.
+      // Walk down the controls with the arrow key to the last one (the design effect field), one up
+      // to the merge rule, open it with Space, move to the next rule and choose it with Space.
       for (let i = 0; i < 40; i++) { await page.keyboard.press('ArrowDown'); await page.waitForTimeout(25); }
+      await page.keyboard.press('ArrowUp');
+      await page.waitForTimeout(60);
       await page.keyboard.press('Space');
       await page.waitForTimeout(100);
       await page.keyboard.press('ArrowDown');
