@@ -25,7 +25,7 @@ CurveTest curve_test(const Result& r) {
         if (d.available && d.df > 0) {
             ct.statistic = d.statistic;
             ct.df = d.df;
-            ct.critical = chi_square_critical_value(r.alpha, d.df);
+            // r.critical_value is already the corrected test's (survey_analysis), so it stays.
             ct.symbol = "corrected " + r.statistic_symbol;
             ct.title_note = r.design->second_order.available ? " (design-corrected: Rao–Scott second order)"
                                                              : " (design-corrected: " + r.design_decided_on + ")";

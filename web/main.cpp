@@ -81,6 +81,10 @@ bool prints_screen(const AppState& s) { return s.groups.open && s.groups.opened 
 const char* chart_image_name(ResultTab chart) {
     return chart == ResultTab::bars ? "tallyproof-bars.png" : chart == ResultTab::funnel ? "tallyproof-funnel.png" : "tallyproof-curve.png";
 }
+void lay_out_print(const AppState& s, bool then_print) {
+    const std::string text = print_text(s);
+    print_report(text, print_title(s), then_print, tallyproof::glossary_notes(text, true), print_charts(s));
+}
 std::string print_charts(const AppState& s) {
     return prints_screen(s) ? "tallyproof-funnel.png" : "tallyproof-curve.png,tallyproof-bars.png";
 }
@@ -277,8 +281,7 @@ void frame() {
         render_chart_export(p, e);
         if (p.state.handover.exports.empty() && p.state.handover.print_pending) {
             p.state.handover.print_pending = false;
-            print_report(print_text(p.state), print_title(p.state), true, tallyproof::glossary_notes(print_text(p.state), true),
-                         print_charts(p.state));
+            lay_out_print(p.state, true);
         }
         p.state.view.frames_to_draw = std::max(p.state.view.frames_to_draw, 2);
     }

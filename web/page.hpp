@@ -49,5 +49,6 @@ std::string print_title(const AppState& s);
 bool prints_screen(const AppState& s);                    // the Groups view's table is on screen: print the screen
 const char* chart_image_name(ResultTab chart);            // "tallyproof-curve.png", ...
 std::string print_charts(const AppState& s);              // the chart images the print shows, comma-separated
+void lay_out_print(const AppState& s, bool then_print);   // the print layout (text, title, symbols, charts), then print
 
 }  // namespace tallyproof::web

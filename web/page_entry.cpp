@@ -23,8 +23,6 @@ using tallyproof::web::Page;
 using tallyproof::web::want_frames;
 using tallyproof::web::frame;
 using tallyproof::web::render_chart_export;
-using tallyproof::web::print_text;
-using tallyproof::web::print_title;
 
 extern "C" {
 // Called by the page glue with UTF-8 text from a paste event.
@@ -107,8 +105,7 @@ EMSCRIPTEN_KEEPALIVE void tp_prepare_print() {
     const bool screen = tallyproof::web::prints_screen(g_page->state);
     for (ResultTab chart : screen ? std::initializer_list<ResultTab>{ResultTab::funnel} : std::initializer_list<ResultTab>{ResultTab::curve, ResultTab::bars})
         render_chart_export(*g_page, ChartExport{chart, static_cast<int>(ImagePurpose::print)});
-    print_report(print_text(g_page->state), print_title(g_page->state), false, tallyproof::glossary_notes(print_text(g_page->state), true),
-                 tallyproof::web::print_charts(g_page->state));
+    tallyproof::web::lay_out_print(g_page->state, false);
     want_frames(*g_page, 2);
 }
 // The page's HTML form (shell.html), for screen readers, switch access and keyboard users: each

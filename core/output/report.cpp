@@ -15,6 +15,13 @@
 namespace tallyproof {
 namespace {
 
+// A list member, or null where the list is empty (not given for this kind of result).
+void numbers_or_null(JsonWriter& j, const char* key, const std::vector<double>& v) {
+    j.key(key);
+    if (v.empty()) j.null();
+    else j.numbers(v);
+}
+
 std::string pad(const std::string& s, std::size_t width) {
     std::size_t cps = 0;  // width in code points, so labels with accents or Greek line up
     for (unsigned char c : s) cps += (c & 0xC0) != 0x80;
@@ -484,18 +491,15 @@ void write_design(JsonWriter& j, const Analysis& a, const Result& r) {
     else j.null();
     if (!d.f_form.available) j.key("f_form_reason").value(d.f_form.reason);
     j.key("mean_design_effect").value(d.mean_design_effect);
-    j.key("design_effects");
-    if (d.design_effects.empty()) j.null(); else j.numbers(d.design_effects);
-    j.key("generalised_design_effects");
-    if (d.generalised_design_effects.empty()) j.null(); else j.numbers(d.generalised_design_effects);
+    numbers_or_null(j, "design_effects", d.design_effects);
+    numbers_or_null(j, "generalised_design_effects", d.generalised_design_effects);
     j.key("cv2_design_effects").value(d.cv2);
     j.key("effective_n").value(d.effective_n);
     j.key("nominal_n").value(d.n);
     j.key("total_weight").value(d.total_weight);
     j.key("kish_design_effect").value(d.kish_design_effect);
     j.key("weighted_shares").numbers(d.shares);
-    j.key("standard_errors");
-    if (d.standard_errors.empty()) j.null(); else j.numbers(d.standard_errors);
+    numbers_or_null(j, "standard_errors", d.standard_errors);
     j.key("clusters");
     if (d.clusters > 0) j.value(static_cast<double>(d.clusters)); else j.null();
     j.key("strata");
