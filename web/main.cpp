@@ -290,6 +290,13 @@ void frame() {
         emscripten_pause_main_loop();
         return;
     }
+    if (p.canvas_hidden) {
+        // Under the form view a drawn frame is never seen, yet software WebGL still runs it: each
+        // key typed in the form queued ~50 ms of it, which the browser then waited for (seconds)
+        // on the first frame the canvas was shown again.
+        p.state.view.frames_to_draw = 0;
+        return;
+    }
     if (work_running(p.state) && !input && p.state.handover.exports.empty()) {
         // While work runs, a frame without input is drawn only to move the progress bar, about
         // four times a second: each presented frame delays the next work task (by ~50 ms with

@@ -33,6 +33,7 @@ struct Page {
     Theme theme;
     int width = 0, height = 0;
     bool paused = false;
+    bool canvas_hidden = false;  // the form view covers the canvas: state moves on, nothing is drawn
     double last_job_frame_ms = 0;  // when a frame last showed a running job's progress
     std::vector<SDL_Event> deferred;  // events held back to the next frame (see take_events)
     Touch touch;

@@ -41,6 +41,12 @@ EMSCRIPTEN_KEEPALIVE void tp_open_file(const char* bytes, int length, const char
 EMSCRIPTEN_KEEPALIVE void tp_wake() {
     if (g_page) want_frames(*g_page, 3);
 }
+// Called by the page glue when the form view covers the canvas (1) or leaves it (0).
+EMSCRIPTEN_KEEPALIVE void tp_canvas_hidden(int hidden) {
+    if (!g_page) return;
+    g_page->canvas_hidden = hidden != 0;
+    want_frames(*g_page, 3);
+}
 // Publishes and keeps now what the last changes marked due (the page is being hidden or left).
 EMSCRIPTEN_KEEPALIVE void tp_settle() {
     if (g_page) tallyproof::web::settle_frame(g_page->state);

@@ -5,11 +5,13 @@ import { fileURLToPath } from 'node:url';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const only = process.argv[2];
+const named = process.argv[3];  // a part of the test's name, to run one test
 let failed = 0, passed = 0;
 for (const file of readdirSync(here).filter((f) => /^test_.*\.mjs$/.test(f)).sort()) {
   if (only && !file.includes(only)) continue;
   const { tests } = await import(`./${file}`);
   for (const [name, fn] of Object.entries(tests)) {
+    if (named && !name.includes(named)) continue;
     const t0 = Date.now();
     let timer;
     try {
