@@ -65,23 +65,12 @@ export async function openFormView(page) {
 }
 // Back to the canvas: the form's own button, pressed with Enter.
 export async function closeFormView(page) {
-  if (process.env.TP_DEBUG_FORM) await page.evaluate(() => {
-    globalThis.__log = [];
-    const wrap = (proto, name) => { const f = proto[name]; proto[name] = function (...a) { globalThis.__log.push(name + ' ' + (this.id || this.tagName || a[0]) + ' ' + JSON.stringify(a).slice(0, 40) + ' ' + new Error().stack.split('\n').slice(2, 5).join('|')); return f.apply(this, a); }; };
-    wrap(HTMLElement.prototype, 'focus'); wrap(DOMTokenList.prototype, 'toggle'); wrap(DOMTokenList.prototype, 'add');
-    document.addEventListener('focusin', (e) => globalThis.__log.push('focusin ' + (e.target.id || e.target.tagName)), true);
-    document.addEventListener('click', (e) => globalThis.__log.push('click ' + (e.target.id || e.target.tagName)), true);
-    new PerformanceObserver((l) => l.getEntries().forEach((e) => globalThis.__log.push('long ' + Math.round(e.duration)))).observe({ type: 'longtask' });
-    const t0 = performance.now(); let n = 0;
-    const tick = () => { n++; if (n < 5) globalThis.__log.push('raf ' + Math.round(performance.now() - t0)); requestAnimationFrame(tick); };
-    requestAnimationFrame(tick); setInterval(() => globalThis.__log.push('rafs ' + n + ' vis ' + document.visibilityState), 1000);
-  });
   await page.focus('#tp-f-close');
   await page.keyboard.press('Enter');
   try {
     await page.waitForFunction(() => !document.body.classList.contains('tp-form-view'), null, { timeout: 3000 });
   } catch (e) {
-    const why = await page.evaluate(() => ({ body: document.body.className, log: globalThis.__log, active: document.activeElement && (document.activeElement.id || document.activeElement.tagName),
+    const why = await page.evaluate(() => ({ body: document.body.className, active: document.activeElement && (document.activeElement.id || document.activeElement.tagName),
       state: document.getElementById('tp-results').dataset.state, live: document.getElementById('tp-live')?.textContent }));
     throw new Error(`the form view stayed open: ${JSON.stringify(why)}`);
   }
