@@ -4,6 +4,7 @@
 // (1,048,576 rows, 16,384 columns in LibreOffice) cost nothing.
 #include "ods_sheets.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdlib>
 #include <set>
@@ -23,7 +24,7 @@ std::size_t count_attribute(const XmlAttributes& a, std::string_view local, cons
     const char* v = a.find(local, uri);
     if (v == nullptr) return 1;
     const unsigned long long n = std::strtoull(v, nullptr, 10);
-    return n == 0 ? 1 : n > (1ull << 40) ? (1ull << 40) : static_cast<std::size_t>(n);
+    return n == 0 ? 1 : n > (1ull << 30) ? (std::size_t{1} << 30) : static_cast<std::size_t>(n);
 }
 
 // 19.385 time-value: an ISO 8601 duration "PT13H45M00S" as "13:45:00" (hours may pass 24).
@@ -155,7 +156,7 @@ void ContentEvents::end_cell() {
     if (has_formula && !typed && value.empty()) sheet().formulas_without_value.push_back(SheetCell{row + 1, first, {}});
     if (span_rows > 1 || span_columns > 1)
         sheet().merged.push_back(CellRange{row + 1, row + span_rows, first, first + span_columns - 1});
-    column += cell_repeat;
+    column = std::min(column + cell_repeat, workbook_max_columns + 1);  // past the last column: a value there is refused
     if (value.empty()) return;
     if (column > workbook_max_columns) {
         refuse(keep_cell(&sheet(), row + 1, column, value, &kept));
@@ -171,7 +172,7 @@ void ContentEvents::end_row() {
                 if (Status s = keep_cell(&sheet(), row + r + 1, c.column, c.text, &kept); !s.ok) { refuse(s); break; }
             }
     }
-    row += row_repeat;
+    row = std::min(row + row_repeat, workbook_max_rows + 1);  // no wrap-around of a 32-bit size_t (wasm)
 }
 
 }  // namespace

@@ -105,6 +105,7 @@ Status choose_sheet(const WorkbookReading& r, const WorkbookChoice& choice, std:
             notes->push_back("The only sheet with values, \"" + r.sheets[i].name + "\", is hidden in the workbook; it was read.");
             return Status::success();
         }
+    if (r.sheets.empty()) return Status::failure("The workbook has no sheets.");
     return Status::failure("The workbook holds no cells with values in any sheet (its sheets are " + sheet_list(r.sheets) + ").");
 }
 

@@ -99,12 +99,12 @@ ZipArchive read_zip_directory(std::string_view b, const ZipBudget& budget) {
         }
         if (e.local_offset >= end || e.stored_size > end - e.local_offset) { zip.status = corrupt("the part " + e.name + " lies outside the file"); return zip; }
         if (Status s = check_entry(e, budget); !s.ok) { zip.status = s; return zip; }
-        declared += e.inflated_size;
-        if (declared > budget.max_inflated_bytes) {
+        if (e.inflated_size > budget.max_inflated_bytes - declared) {  // declared <= the budget: no overflow
             zip.status = Status::failure("The workbook's parts would inflate to more than " + std::to_string(budget.max_inflated_bytes >> 20) +
                                          " MB: refused as a decompression bomb (or a workbook too large to read here).");
             return zip;
         }
+        declared += e.inflated_size;
         zip.entries.push_back(std::move(e));
         at += kCentralSize + name_len + extra_len + comment_len;
     }
@@ -130,7 +130,7 @@ Status read_zip_entry(std::string_view b, const ZipEntry& e, const ZipBudget& bu
     if (at + kLocalSize > b.size() || le32(b, at) != kLocalHeader) return corrupt("the part " + e.name + " has no local header");
     const std::size_t data = at + kLocalSize + le16(b, at + 26) + le16(b, at + 28);
     if (data > b.size() || e.stored_size > b.size() - data) return corrupt("the part " + e.name + " is cut short");
-    if (zip->inflated_so_far + e.inflated_size > budget.max_inflated_bytes)
+    if (e.inflated_size > budget.max_inflated_bytes - zip->inflated_so_far)
         return Status::failure("The workbook's parts inflate to more than " + std::to_string(budget.max_inflated_bytes >> 20) +
                                " MB: refused as a decompression bomb.");
     const std::string_view stored = b.substr(data, e.stored_size);
