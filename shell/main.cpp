@@ -27,6 +27,7 @@
 #include "screen_report.hpp"
 #include "table_export.hpp"
 #include "text_decoding.hpp"
+#include "workbook_member.hpp"
 #include "writeup.hpp"
 #include "tallyproof_version.hpp"
 
@@ -251,6 +252,7 @@ struct CommandLine {
     std::string design_effect;                 // --design-effect: a number or "kish"
     std::string design_effects;                // --design-effects LIST
     WorkbookChoice workbook;                   // --sheet, --range: which cells of a workbook are read
+    InputText workbook_read;                   // what was read of a workbook (its text moved out): --json's "workbook"
 };
 
 const std::vector<std::string> kWithValue = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
@@ -430,6 +432,7 @@ int read_analysis(int argc, char** argv, std::string* text_in, CommandLine* c, A
     if (!input.notice.empty() && !c->json) std::fprintf(stderr, "note: %s\n", input.notice.c_str());
     if (!c->json)
         for (const auto& note : input.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
+    c->workbook_read = std::move(input);
     const std::size_t first = text.find_first_not_of(" \t\r\n");
     if (first != std::string::npos && text[first] == '{') {
         read = read_analysis_document(text, &analysis);
@@ -652,7 +655,11 @@ int write_screen(const CommandLine& c, const Analysis& analysis, const GroupedCo
     if (!read.ok) s.status = read;
     else s = screen_groups(analysis, groups, c.screen);
     int screen_written = 0;
-    if (c.json) screen_written = write_output(screen_json(analysis, groups, s, &c.screen_view) + "\n", "the result document (--json)");
+    if (c.json) {
+        std::string doc = screen_json(analysis, groups, s, &c.screen_view);
+        add_workbook_member(&doc, c.workbook_read);
+        screen_written = write_output(doc + "\n", "the result document (--json)");
+    }
     else if (s.status.ok && !c.table_format.empty())
         screen_written = write_output(group_table(s, TableExportOptions{c.table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
                                                                         c.out_decimal_comma, c.byte_order_mark}),
@@ -670,7 +677,11 @@ int write_result(const CommandLine& c, const Analysis& analysis, const Status& r
     if (!read.ok) result.status = read;
     else result = analyse_completely(analysis);
     int written = 0;
-    if (c.json) written = write_output(report_json(analysis, result) + "\n", "the result document (--json)");
+    if (c.json) {
+        std::string doc = report_json(analysis, result);
+        add_workbook_member(&doc, c.workbook_read);
+        written = write_output(doc + "\n", "the result document (--json)");
+    }
     else if (result.status.ok && !c.table_format.empty())
         written = write_output(category_table(result, TableExportOptions{c.table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
                                                                          c.out_decimal_comma, c.byte_order_mark}),

@@ -21,6 +21,7 @@ InputText input_text(std::string bytes, std::string_view name, const WorkbookCho
     out.status = r.status;
     out.sheets = r.sheets;
     out.sheet_index = r.sheet_index;
+    out.range = r.range;
     out.notes = std::move(r.notes);
     if (!r.status.ok) return out;
     out.text = std::move(r.text);

@@ -96,6 +96,7 @@ else:
             check(code == 0, f"{name}.{ext}: exits 0 ({got.get('error')} {err})")
             same_result(got, want, f"{name}.{ext}")
         # By content from standard input (no file name to go by).
+        check(got.get("workbook", {}).get("sheet") == name and "workbook" not in want, f"{name}.{ext}: --json names the sheet read")
         code, got, _ = result(opts, None, open(os.path.join(work, name + ".xlsx"), "rb").read())
         check(code == 0, f"{name}.xlsx on standard input: exits 0")
         same_result(got, want, f"{name}.xlsx on standard input")
@@ -148,6 +149,9 @@ if openpyxl:
         check(("B8 has a formula with no saved value" in r.stderr) != formula_saved, f"{what}: formula note {r.stderr}")
         code, got, _ = result(["--range", "A2:B6"], path)
         check(code == 0, f"{what}: --range A2:B6 analysed")
+        check(got.get("workbook") == {"sheet": "Counts", "range": "A2:B6", "sheets": [
+            {"name": "Readme", "hidden": True}, {"name": "Counts", "hidden": False}, {"name": "Plan", "hidden": False}]},
+            f"{what}: --json's workbook member {got.get('workbook')}")
         same_result(got, want, f"{what} A2:B6")
         # Dates as ISO 8601 text and booleans as TRUE/FALSE: read as raw text, their categories.
         code, got, _ = result(["--range", "C3:C6", "--raw"], path)
