@@ -18,6 +18,7 @@
 #include "screen_groups.hpp"
 #include "survey_rows.hpp"
 #include "grouped_table.hpp"
+#include "input_text.hpp"
 #include "read_input.hpp"
 #include "stream_tally.hpp"
 #include "pvalue_job.hpp"
@@ -26,6 +27,7 @@
 #include "screen_report.hpp"
 #include "table_export.hpp"
 #include "text_decoding.hpp"
+#include "workbook_member.hpp"
 #include "writeup.hpp"
 #include "tallyproof_version.hpp"
 
@@ -34,7 +36,8 @@ namespace {
 const char* kUsage =
     "usage: tallyproof [options] [FILE]\n"
     "Chi-square goodness-of-fit test of counts read from FILE (or standard input): pasted\n"
-    "text (lines of label<TAB>count, or one count per line) or an analysis document (JSON).\n"
+    "text (lines of label<TAB>count, or one count per line), a workbook (.xlsx or .ods: its\n"
+    "cells are read as pasted text) or an analysis document (JSON).\n"
     "\n"
     "input (pasted text; the shape, separator and number format are detected):\n"
     "  --digits D             tally a digit of raw numbers: first, second, first-two, last\n"
@@ -53,6 +56,10 @@ const char* kUsage =
     "  --shape S              override the detected shape: label-count, label-observed-expected,\n"
     "                         counts-column, counts-row, raw-text, raw-whole-numbers,\n"
     "                         raw-digits, raw-bins\n"
+    "  --sheet NAME|NUMBER    workbook: the sheet to read, by name or 1-based number (default:\n"
+    "                         the first visible sheet with values)\n"
+    "  --range A1:D20         workbook: the cells to read (also B:D, 3:9 or C4; default: the\n"
+    "                         sheet's used range); both are refused for an input that is text\n"
     "  --third-column C       what a third column (label, observed, third) holds: auto (default;\n"
     "                         a previous sample when its header names one, such as Last month,\n"
     "                         Baseline or Control; else expected values), expected, or previous\n"
@@ -244,6 +251,8 @@ struct CommandLine {
     SurveyColumns survey_columns;
     std::string design_effect;                 // --design-effect: a number or "kish"
     std::string design_effects;                // --design-effects LIST
+    WorkbookChoice workbook;                   // --sheet, --range: which cells of a workbook are read
+    InputText workbook_read;                   // what was read of a workbook (its text moved out): --json's "workbook"
 };
 
 const std::vector<std::string> kWithValue = {"--alpha", "--model", "--values", "--param", "--edges", "--extra-params",
@@ -351,6 +360,16 @@ int read_command_line(int argc, char** argv, CommandLine* c) {
             else if (arg == "--design-effect") c->design_effect = v;
             else c->design_effects = v;
         }
+        else if (arg == "--sheet" || arg == "--range") {
+            if (i + 1 >= argc) return usage_error(arg + " needs a value");
+            const std::string v = argv[++i];
+            CellRange range;
+            if (arg == "--sheet" && v.empty()) return usage_error("--sheet needs a sheet's name or its number (1 for the first)");
+            if (arg == "--range") {
+                if (const Status s = parse_cell_range(v, &range); !s.ok) return usage_error("--range: " + s.message);
+            }
+            (arg == "--sheet" ? c->workbook.sheet : c->workbook.range) = v;
+        }
         else if (arg == "--by" || arg == "--group-shape" || arg == "--group-header" || arg == "--against" || arg == "--adjust" || arg == "--q") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             if (const int r = read_screen_option(arg, argv[++i], c); r != kGoOn) return r;
@@ -398,13 +417,22 @@ int read_analysis(int argc, char** argv, std::string* text_in, CommandLine* c, A
     Analysis& analysis = *analysis_out;
     GroupedCounts& groups = *groups_out;
     Status& read = *read_out;
-    const TextDecoding decoded = decode_text(&text);  // UTF-8 without a mark, or refused as not text
-    if (!decoded.status.ok) {
-        std::fprintf(stderr, "tallyproof: %s\n", decoded.status.message.c_str());
-        print_error_document(decoded.status.message);
+    // A workbook's chosen cells as tab-separated text, or the text decoded: UTF-8 without a mark, or refused.
+    const bool from_stdin = c->path.empty() || c->path == "-";
+    InputText input = input_text(std::move(text), from_stdin ? "standard input" : c->path, c->workbook);
+    if (input.status.ok && !input.from_workbook && (!c->workbook.sheet.empty() || !c->workbook.range.empty()))
+        return usage_error("--sheet and --range choose cells of a workbook (.xlsx or .ods); " +
+                           (from_stdin ? std::string("standard input") : c->path) + " is text");
+    if (!input.status.ok) {
+        std::fprintf(stderr, "tallyproof: %s\n", input.status.message.c_str());
+        print_error_document(input.status.message);
         return kRefused;
     }
-    if (!decoded.notice.empty() && !c->json) std::fprintf(stderr, "note: %s\n", decoded.notice.c_str());
+    text = std::move(input.text);
+    if (!input.notice.empty() && !c->json) std::fprintf(stderr, "note: %s\n", input.notice.c_str());
+    if (!c->json)
+        for (const auto& note : input.notes) std::fprintf(stderr, "note: %s\n", note.c_str());
+    c->workbook_read = std::move(input);
     const std::size_t first = text.find_first_not_of(" \t\r\n");
     if (first != std::string::npos && text[first] == '{') {
         read = read_analysis_document(text, &analysis);
@@ -627,7 +655,11 @@ int write_screen(const CommandLine& c, const Analysis& analysis, const GroupedCo
     if (!read.ok) s.status = read;
     else s = screen_groups(analysis, groups, c.screen);
     int screen_written = 0;
-    if (c.json) screen_written = write_output(screen_json(analysis, groups, s, &c.screen_view) + "\n", "the result document (--json)");
+    if (c.json) {
+        std::string doc = screen_json(analysis, groups, s, &c.screen_view);
+        add_workbook_member(&doc, c.workbook_read);
+        screen_written = write_output(doc + "\n", "the result document (--json)");
+    }
     else if (s.status.ok && !c.table_format.empty())
         screen_written = write_output(group_table(s, TableExportOptions{c.table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
                                                                         c.out_decimal_comma, c.byte_order_mark}),
@@ -645,7 +677,11 @@ int write_result(const CommandLine& c, const Analysis& analysis, const Status& r
     if (!read.ok) result.status = read;
     else result = analyse_completely(analysis);
     int written = 0;
-    if (c.json) written = write_output(report_json(analysis, result) + "\n", "the result document (--json)");
+    if (c.json) {
+        std::string doc = report_json(analysis, result);
+        add_workbook_member(&doc, c.workbook_read);
+        written = write_output(doc + "\n", "the result document (--json)");
+    }
     else if (result.status.ok && !c.table_format.empty())
         written = write_output(category_table(result, TableExportOptions{c.table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
                                                                          c.out_decimal_comma, c.byte_order_mark}),
@@ -672,7 +708,7 @@ int main(int argc, char** argv) {
     GroupedCounts groups;
     Status read;
     bool streamed = false;
-    if (c.input.digits && !c.screening && !c.survey && !c.read_whole) {
+    if (c.input.digits && !c.screening && !c.survey && !c.read_whole && c.workbook.sheet.empty() && c.workbook.range.empty()) {
         ParsedInput reading;
         if (const int r = read_streamed_digits(c.path, c, &text, &reading, &streamed); r != kGoOn) return r;
         if (streamed) {

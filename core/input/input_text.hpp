@@ -4,6 +4,7 @@
 #pragma once
 #include <cstddef>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "status.hpp"
@@ -19,6 +20,7 @@ struct InputText {
     bool from_workbook = false;
     std::vector<WorkbookSheetInfo> sheets;  // from_workbook: every sheet, for a choice of another
     std::size_t sheet_index = 0;            // from_workbook: the sheet read (0-based)
+    CellRange range;                        // from_workbook: the cells read (1-based, closed)
     std::vector<std::string> notes;         // from_workbook: read_workbook's notes
 };
 

@@ -28,6 +28,12 @@ std::size_t column_number(std::string_view letters) {
 
 std::string cell_name(std::size_t row, std::size_t column) { return column_letters(column) + std::to_string(row); }
 
+std::string range_name(const CellRange& r) {
+    const std::string first = cell_name(r.first_row, r.first_column);
+    if (r.first_row == r.last_row && r.first_column == r.last_column) return first;
+    return first + ":" + cell_name(r.last_row, r.last_column);
+}
+
 namespace {
 
 // Reads an optional '$', then letters; returns how many characters were used (0 if none).

@@ -28,6 +28,7 @@ inline constexpr std::size_t workbook_max_columns = 16384;
 std::string column_letters(std::size_t column);                  // 1 -> "A", 27 -> "AA"; "" for 0
 std::size_t column_number(std::string_view letters);             // "AA" -> 27; 0 if not letters or beyond XFD
 std::string cell_name(std::size_t row, std::size_t column);      // (7, 2) -> "B7"
+std::string range_name(const CellRange& range);                  // "A1:C12"; "B4" for one cell (a closed range)
 // "B7" -> row 7, column 2 (a "$" before either part is allowed, as in $B$7); false if not a cell.
 bool parse_cell_name(std::string_view text, std::size_t* row, std::size_t* column);
 // "A1:D20", "$A$1:$D$20", "B:D", "3:9", "C4" (lower case too); the reversed "D20:A1" is put in order.
