@@ -65,6 +65,35 @@ def calc_sheets(path):
     return sheets
 
 
+def calc_fods_cells(path, sheet):
+    """One sheet's cells as (value-type, value or text) through LibreOffice's flat ODF export
+    (OpenDocument 1.3 part 3, 19.385 office:value-type, 19.382 office:value: the value in full)."""
+    import xml.etree.ElementTree as ET
+    ns = {"table": "urn:oasis:names:tc:opendocument:xmlns:table:1.0", "office": "urn:oasis:names:tc:opendocument:xmlns:office:1.0",
+          "text": "urn:oasis:names:tc:opendocument:xmlns:text:1.0"}
+    out = os.path.join(work, "fods")
+    subprocess.run([soffice, f"-env:UserInstallation=file://{work}/profile", "--headless", "--convert-to", "fods", "--outdir", out, path],
+                   capture_output=True, timeout=180, env=dict(os.environ, HOME=work), check=True)
+    root = ET.parse(os.path.join(out, os.path.basename(path)[:-5] + ".fods")).getroot()
+    for t in root.iter(f"{{{ns['table']}}}table"):
+        if t.get(f"{{{ns['table']}}}name") != sheet:
+            continue
+        rows = []
+        for row in t.iter(f"{{{ns['table']}}}table-row"):
+            cells = []
+            for c in row.iter(f"{{{ns['table']}}}table-cell"):
+                if c.get(f"{{{ns['table']}}}formula"):
+                    cells.append(("formula", c.get(f"{{{ns['table']}}}formula")))
+                    continue
+                kind = c.get(f"{{{ns['office']}}}value-type")
+                text = "".join("".join(p.itertext()) for p in c.iter(f"{{{ns['text']}}}p"))
+                repeat = int(c.get(f"{{{ns['table']}}}number-columns-repeated", "1"))
+                cells += [(kind, float(c.get(f"{{{ns['office']}}}value")) if kind == "float" else text)] * min(repeat, 50)
+            rows.append(cells)
+        return rows
+    return []
+
+
 def num(s):
     try:
         return float(s)
@@ -72,8 +101,10 @@ def num(s):
         return None
 
 
-def same(a, b, rel=1e-15):
-    """Equal to the last bits a decimal export can carry (LibreOffice writes up to 17 digits)."""
+def same(a, b, rel=5e-15):
+    """Equal within LibreOffice's CSV export, which writes at most 15 significant digits (half a unit
+    of the 15th digit: 5e-15 relative). The exact doubles are checked through the .fods export and
+    openpyxl below."""
     return a is not None and b is not None and (a == b or abs(a - b) <= rel * max(abs(a), abs(b)))
 
 
@@ -132,6 +163,18 @@ if soffice:
             check(within_print(got or "", q[1]), f"Numbers {q[0]}: {got} vs --writeup tsv {q[1]}")
         elif q[0] != "Note":
             check(got == q[1], f"Numbers {q[0]}: {got!r} vs --writeup tsv {q[1]!r}")
+    # Calc's own reading of the cells: labels are strings, nothing is a formula, numbers are numbers
+    # (LibreOffice 7.4 saves office:value to 15 significant digits too, so `same` again; the exact
+    # doubles in the file are checked by openpyxl below).
+    fods = calc_fods_cells(one, "Categories")
+    check(not any(k == "formula" for r in fods for k, _ in r), "Calc (fods): no cell became a formula")
+    for i, label in enumerate(LABELS):
+        row = fods[i + 1] if i + 1 < len(fods) else []
+        check(row[:1] == [("string", label)], f"Calc (fods): {label!r} is a string: {row[:1]}")
+        for col, values in full.items():
+            if len(row) > col:
+                check(row[col][0] == "float" and same(row[col][1], values[i]),
+                      f"Calc (fods) {label} col {col}: {row[col]} vs --json {values[i]!r}")
 else:
     print("skip: LibreOffice is not installed (Debian libreoffice-calc-nogui); workbooks not converted back")
 
