@@ -128,7 +128,7 @@ TEST_CASE("XML text: the five specials escaped, characters XML 1.0 refuses and b
     CHECK(xml_escaped("a&b<c>\"d'") == "a&amp;b&lt;c&gt;&quot;d'");
     CHECK(xml_escaped("tab\tline\nret\r") == "tab\tline\nret&#13;");
     const std::string fffd = "\xEF\xBF\xBD";
-    CHECK(xml_escaped(std::string("a\x01" "b\x1F" "c\x7F", 7)) == "a" + fffd + "b" + fffd + "c\x7F");  // U+007F is allowed by [2]
+    CHECK(xml_escaped(std::string("a\x01" "b\x1F" "c\x7F", 6)) == "a" + fffd + "b" + fffd + "c\x7F");  // U+007F is allowed by [2]
     CHECK(xml_escaped(std::string("nul\0", 4)) == "nul" + fffd);
     CHECK(xml_escaped("\xEF\xBF\xBE") == fffd);                      // U+FFFE is not a Char
     CHECK(xml_escaped("\xC3\x28") == fffd + "(");                     // a lead byte without its continuation
