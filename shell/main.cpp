@@ -23,8 +23,10 @@
 #include "stream_tally.hpp"
 #include "pvalue_job.hpp"
 #include "report.hpp"
+#include "result_workbook.hpp"
 #include "screen_document.hpp"
 #include "screen_report.hpp"
+#include "screen_workbook.hpp"
 #include "table_export.hpp"
 #include "text_decoding.hpp"
 #include "workbook_member.hpp"
@@ -66,7 +68,10 @@ const char* kUsage =
     "                         (a previous sample's counts: test of homogeneity of the two samples)\n"
     "output:\n"
     "  --json                 print the result document as JSON\n"
-    "  --table csv|tsv        print the per-category table for a spreadsheet (formulas neutralised)\n"
+    "  --table csv|tsv|xlsx   print the per-category table for a spreadsheet (formulas neutralised);\n"
+    "                         xlsx: a workbook with sheets Categories and Numbers (the write-up's\n"
+    "                         quantities), numbers in full precision, labels always text; it is\n"
+    "                         binary, so redirect it to a file: --table xlsx data.txt > table.xlsx\n"
     "  --writeup plain|markdown|tsv\n"
     "                         print the results block to paste into a report\n"
     "  --output-decimal-comma write numbers with a decimal comma (CSV then uses ';')\n"
@@ -121,7 +126,8 @@ const char* kUsage =
     "  --adjust M             across groups: bh (default, false discovery rate), holm,\n"
     "                         bonferroni, none\n"
     "  --q Q                  flag groups whose adjusted p is at most Q (default 0.05)\n"
-    "                         (--table and --writeup then give the groups table and summary)\n"
+    "                         (--table and --writeup then give the groups table and summary;\n"
+    "                         --table xlsx a workbook with sheets Groups and Screen)\n"
     "survey data (design-corrected test, Rao and Scott 1981, 1984; see docs/methods.md):\n"
     "  --category COLUMN      respondent rows (one per respondent, under a header): the\n"
     "                         category column, by header name or 1-based number; categories\n"
@@ -181,6 +187,13 @@ int write_output(const std::string& text, const char* what) {
     if (written && flushed && closed) return 0;
     std::fprintf(stderr, "tallyproof: could not write %s to standard output: %s\n", what,
                  std::strerror(error != 0 ? error : errno != 0 ? errno : EIO));
+    return kCannotWrite;
+}
+
+// A workbook's bytes from core; empty ones mean core could not build it.
+int write_workbook(const std::string& bytes, const char* what) {
+    if (!bytes.empty()) return write_output(bytes, what);
+    std::fprintf(stderr, "tallyproof: could not build %s (out of memory)\n", what);
     return kCannotWrite;
 }
 
@@ -334,7 +347,7 @@ int read_command_line(int argc, char** argv, CommandLine* c) {
         else if (arg == "--table" || arg == "--writeup") {
             if (i + 1 >= argc) return usage_error(arg + " needs a value");
             const std::string v = argv[++i];
-            if (arg == "--table" && v != "csv" && v != "tsv") return usage_error("--table must be csv or tsv");
+            if (arg == "--table" && v != "csv" && v != "tsv" && v != "xlsx") return usage_error("--table must be csv, tsv or xlsx");
             if (arg == "--writeup" && v != "plain" && v != "markdown" && v != "tsv") return usage_error("--writeup must be plain, markdown or tsv");
             (arg == "--table" ? c->table_format : c->writeup_style) = v;
         } else if (arg == "--output-decimal-comma") c->out_decimal_comma = true;
@@ -389,6 +402,8 @@ int read_command_line(int argc, char** argv, CommandLine* c) {
         return usage_error("--weight, --stratum and --cluster need --category (respondent rows: the category column)");
     if (c->survey && c->screening) return usage_error("--category (survey rows) cannot be combined with screening many groups (--by)");
     if (c->survey) c->survey_columns.sorted = c->input.sorted;
+    if (c->table_format == "xlsx" && !c->json && isatty(fileno(stdout)) != 0)
+        return usage_error("--table xlsx writes a binary workbook; redirect standard output to a file, such as > table.xlsx");
     return kGoOn;
 }
 
@@ -659,7 +674,7 @@ int write_screen(const CommandLine& c, const Analysis& analysis, const GroupedCo
         std::string doc = screen_json(analysis, groups, s, &c.screen_view);
         add_workbook_member(&doc, c.workbook_read);
         screen_written = write_output(doc + "\n", "the result document (--json)");
-    }
+    } else if (s.status.ok && c.table_format == "xlsx") screen_written = write_workbook(screen_workbook(s), "the groups workbook (--table xlsx)");
     else if (s.status.ok && !c.table_format.empty())
         screen_written = write_output(group_table(s, TableExportOptions{c.table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
                                                                         c.out_decimal_comma, c.byte_order_mark}),
@@ -681,7 +696,7 @@ int write_result(const CommandLine& c, const Analysis& analysis, const Status& r
         std::string doc = report_json(analysis, result);
         add_workbook_member(&doc, c.workbook_read);
         written = write_output(doc + "\n", "the result document (--json)");
-    }
+    } else if (result.status.ok && c.table_format == "xlsx") written = write_workbook(result_workbook(analysis, result), "the workbook (--table xlsx)");
     else if (result.status.ok && !c.table_format.empty())
         written = write_output(category_table(result, TableExportOptions{c.table_format == "csv" ? TableFormat::csv : TableFormat::tsv,
                                                                          c.out_decimal_comma, c.byte_order_mark}),

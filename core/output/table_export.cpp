@@ -42,7 +42,7 @@ TableCell number_cell(double x, int significant_digits) {
     if (x == 0) x = 0;  // no "-0"
     char buf[48];
     std::snprintf(buf, sizeof buf, "%.*g", significant_digits < 1 ? 1 : (significant_digits > 17 ? 17 : significant_digits), x);
-    return TableCell{true, buf};
+    return TableCell{true, buf, x};
 }
 
 TableCell count_cell(double x) {
@@ -50,16 +50,19 @@ TableCell count_cell(double x) {
     if (x == std::floor(x) && std::fabs(x) < 1e15) {
         char buf[32];
         std::snprintf(buf, sizeof buf, "%.0f", x == 0 ? 0.0 : x);
-        return TableCell{true, buf};
+        return TableCell{true, buf, x == 0 ? 0.0 : x};
     }
     return number_cell(x, 6);
 }
 
 TableCell probability_cell(const TailProbability& p) {
     if (std::isnan(p.p)) return TableCell{true, ""};
-    if (p.p > 0 || std::isinf(p.log10_p) || std::isnan(p.log10_p)) return number_cell(p.p, 4);
-    // Below the double range: mantissa and exponent from log10, so it is never written as 0.
-    return TableCell{true, format_power_of_ten(p.log10_p, 3, ExponentStyle::e_notation)};
+    TableCell c = p.p > 0 || std::isinf(p.log10_p) || std::isnan(p.log10_p)
+                      ? number_cell(p.p, 4)
+                      // Below the double range: mantissa and exponent from log10, so it is never written as 0.
+                      : TableCell{true, format_power_of_ten(p.log10_p, 3, ExponentStyle::e_notation)};
+    c.probability = true;
+    return c;
 }
 
 char table_separator(const TableExportOptions& o) {
@@ -108,7 +111,9 @@ std::string write_table(const std::vector<std::vector<TableCell>>& rows, const T
     return out;
 }
 
-std::string category_table(const Result& r, const TableExportOptions& o) {
+std::vector<std::vector<TableCell>> category_rows(const Result& r, bool decimal_comma) {
+    TableExportOptions o;
+    o.decimal_comma = decimal_comma;
     // Sison-Glaz's simultaneous intervals, or Goodman's where those are not given (a total above
     // 1e8, α below 1e-10): the header names the method, so no interval column is left empty.
     bool sison = false;  // Sison-Glaz is left out for every cell at once (the total, α) or not at all
@@ -123,7 +128,7 @@ std::string category_table(const Result& r, const TableExportOptions& o) {
                     text_cell("Adjusted residual"), text_cell("Category p"),
                     text_cell(std::string("Adjusted p (") + adjustment_label(r.diagnostics.adjustment) + ")"),
                     text_cell("Direction"), text_cell(sg + "lower"), text_cell(sg + "upper")});
-    if (!r.status.ok) return write_table(rows, o);
+    if (!r.status.ok) return rows;
     const std::size_t k = r.tested_categories.size();
     for (std::size_t i = 0; i < k; ++i) {
         const double obs = i < r.tested_observed.size() ? r.tested_observed[i] : NAN;
@@ -143,7 +148,9 @@ std::string category_table(const Result& r, const TableExportOptions& o) {
         }
         rows.push_back(std::move(row));
     }
-    return write_table(rows, o);
+    return rows;
 }
+
+std::string category_table(const Result& r, const TableExportOptions& o) { return write_table(category_rows(r, o.decimal_comma), o); }
 
 }  // namespace tallyproof

@@ -4,6 +4,7 @@
 // or carriage return gets a leading single quote; numbers we format stay bare numbers.
 // Exact by construction: every value is the Result's own, written to 6 significant digits.
 #pragma once
+#include <limits>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -22,9 +23,14 @@ struct TableExportOptions {
 
 // A cell: a number we formatted (never prefixed; '.' becomes ',' with decimal_comma) or text
 // (neutralised and quoted as needed). An empty number cell stands for a value that is not available.
+// A number cell also keeps the Result's own double (`value`, NaN when there is none), which a
+// workbook stores in full precision; `probability` marks a p-value (a workbook shows it 0.000E+00).
+// A p-value below the double range has no `value` (NaN) and its text from log10, "3.16e-401".
 struct TableCell {
     bool is_number = false;
     std::string text;
+    double value = std::numeric_limits<double>::quiet_NaN();
+    bool probability = false;
 };
 TableCell text_cell(std::string text);
 TableCell number_cell(double x, int significant_digits = 6);  // "%.6g"; empty when not finite
@@ -40,6 +46,9 @@ std::string write_table(const std::vector<std::vector<TableCell>>& rows, const T
 
 // Tested categories (after merging): label, observed, expected, observed and expected share,
 // contribution, Pearson and adjusted residual, category p, adjusted p, direction, Sison-Glaz interval.
+// The rows (header first) that the CSV/TSV table and the workbook's sheet are both written from;
+// `decimal_comma` only changes the confidence level in the interval's header ("95% " stays).
+std::vector<std::vector<TableCell>> category_rows(const Result& r, bool decimal_comma = false);
 std::string category_table(const Result& r, const TableExportOptions& o);
 
 }  // namespace tallyproof

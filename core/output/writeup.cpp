@@ -247,19 +247,18 @@ std::string markdown_table(const Result& r, const Style& st) {
 TableCell fixed_cell(double x, int decimals) {  // a number cell at print precision
     if (!std::isfinite(x)) return TableCell{true, ""};
     Style plain;
-    return TableCell{true, fixed(x, decimals, plain)};
+    return TableCell{true, fixed(x, decimals, plain), x};  // printed rounded; the value kept whole for a workbook
 }
 
-std::string tsv_block(const Analysis& a, const Result& r, const WriteupOptions& o) {
-    TableExportOptions t;
-    t.format = TableFormat::tsv;
-    t.decimal_comma = o.decimal_comma;
+// The quantities of the write-up as (name, value) rows: the TSV style's first block and the
+// workbook's "Numbers" sheet.
+std::vector<std::vector<TableCell>> quantity_rows(const Analysis& a, const Result& r, const WriteupOptions& o) {
     Style st;
     st.comma = o.decimal_comma;
     std::vector<std::vector<TableCell>> rows;
     if (!r.status.ok) {
         rows.push_back({text_cell("Not analysed"), text_cell(r.status.message)});
-        return write_table(rows, t);
+        return rows;
     }
     const EffectSizeInterval& iv = r.effect.w_interval;
     rows.push_back({text_cell("Test"), text_cell(test_name(r).substr(2))});
@@ -287,6 +286,15 @@ std::string tsv_block(const Analysis& a, const Result& r, const WriteupOptions& 
     rows.push_back({text_cell("Conclusion"), text_cell((r.reject ? "not consistent with " : "no evidence against ") + mix_phrase(a))});
     rows.push_back({text_cell("Sentence"), text_cell(sentence(a, r, st, o.subject))});
     for (const auto& n : notes(a, r, st)) rows.push_back({text_cell("Note"), text_cell(n)});
+    return rows;
+}
+
+std::string tsv_block(const Analysis& a, const Result& r, const WriteupOptions& o) {
+    TableExportOptions t;
+    t.format = TableFormat::tsv;
+    t.decimal_comma = o.decimal_comma;
+    std::vector<std::vector<TableCell>> rows = quantity_rows(a, r, o);
+    if (!r.status.ok) return write_table(rows, t);
     rows.push_back({});
     rows.push_back({text_cell("Category"), text_cell("Observed"), text_cell("Expected"), text_cell("Contribution"),
                     text_cell("Adjusted residual"), text_cell("Adjusted p"), text_cell("Direction")});
@@ -310,6 +318,10 @@ std::string writeup_sentence(const Analysis& a, const Result& r, const WriteupOp
     st.comma = o.decimal_comma;
     st.markdown = o.style == WriteupStyle::markdown;
     return sentence(a, r, st, o.subject);
+}
+
+std::vector<std::vector<TableCell>> writeup_quantities(const Analysis& a, const Result& r, const WriteupOptions& o) {
+    return quantity_rows(a, r, o);
 }
 
 std::string writeup(const Analysis& a, const Result& r, const WriteupOptions& o) {

@@ -6,9 +6,11 @@
 #pragma once
 #include "power_divergence.hpp"  // statistic_symbol
 #include <string>
+#include <vector>
 
 #include "analysis.hpp"
 #include "result.hpp"
+#include "table_export.hpp"
 
 namespace tallyproof {
 
@@ -26,5 +28,10 @@ std::string writeup_sentence(const Analysis& a, const Result& r, const WriteupOp
 // The whole block in the chosen style: sentence, notes (merging, estimated parameters, small
 // expected counts, a p-value method that was refused) and the table of tested categories.
 std::string writeup(const Analysis& a, const Result& r, const WriteupOptions& o);
+// The write-up's quantities as (name, value) rows: test, statistic symbol and value, df, N, p, the
+// p-value method, the design correction, lower-tail p, w with its interval, conclusion, sentence,
+// notes. The TSV style begins with them; a workbook's "Numbers" sheet holds them (number cells
+// keep the Result's double).
+std::vector<std::vector<TableCell>> writeup_quantities(const Analysis& a, const Result& r, const WriteupOptions& o);
 
 }  // namespace tallyproof

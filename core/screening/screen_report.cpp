@@ -126,7 +126,7 @@ std::string screen_print_text(const ScreenResult& s, std::size_t max_listed) {
     return t;
 }
 
-std::string group_table(const ScreenResult& s, const TableExportOptions& o) {
+std::vector<std::vector<TableCell>> group_rows(const ScreenResult& s) {
     std::vector<std::vector<TableCell>> rows;
     rows.push_back({text_cell("group"), text_cell("n"), text_cell("statistic"), text_cell("df"), text_cell("p_value"),
                     text_cell("q_value"), text_cell("w"), text_cell("mad"), text_cell("mad_band"), text_cell("flagged"),
@@ -140,8 +140,10 @@ std::string group_table(const ScreenResult& s, const TableExportOptions& o) {
                         text_cell(g.thin ? "yes" : "no"), text_cell(g.tested ? pvalue_method_name(g.method) : ""),
                         text_cell(drivers_text(g)), text_cell(g.note)});
     }
-    return write_table(rows, o);
+    return rows;
 }
+
+std::string group_table(const ScreenResult& s, const TableExportOptions& o) { return write_table(group_rows(s), o); }
 
 std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s, const ScreenView* view) {
     JsonWriter j;

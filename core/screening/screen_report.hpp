@@ -4,6 +4,7 @@
 // screening section of the result document (docs/analysis-document.md, "Screening").
 #pragma once
 #include <string>
+#include <vector>
 
 #include "analysis.hpp"
 #include "screen_groups.hpp"
@@ -21,6 +22,8 @@ std::string screen_writeup(const ScreenResult& s);                        // sum
 // One printed page of a screen: the heading line, the summary, the flagged groups (the first
 // `max_listed` by q) with N, q, w and their drivers, how many more are in the table, the cautions.
 std::string screen_print_text(const ScreenResult& s, std::size_t max_listed = 25);
+// The groups table's rows (header first), which the CSV/TSV table and the workbook's sheet share.
+std::vector<std::vector<TableCell>> group_rows(const ScreenResult& s);
 std::string group_table(const ScreenResult& s, const TableExportOptions& o);  // one row per group
 // The result document of a screen: the input as the analysis document writes it (categories,
 // settings, groups with observed, screen settings and `view`), so it reads back as the same screen,
