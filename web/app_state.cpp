@@ -26,6 +26,8 @@
 #include "pasted_analysis.hpp"
 #include "read_input.hpp"
 #include "survey_rows.hpp"
+#include "input_text.hpp"
+#include "json_writer.hpp"
 
 namespace tallyproof::web {
 namespace {
@@ -403,25 +405,73 @@ void apply_paste(AppState& s, std::string_view text) {
     read_paste(s, text, ParseOptions{});
 }
 
-void apply_input(AppState& s, std::string bytes, std::string_view file_name) {
+namespace {
+// The workbook's sheets to the form view's list (an empty list when none is open).
+void publish_sheet_list(const AppState& s) {
+    JsonWriter j;
+    j.begin_array();
+    for (const WorkbookSheetInfo& w : s.reading.workbook.sheets)
+        j.begin_object().key("name").value(w.name).key("hidden").value(w.hidden).key("empty").value(w.empty).end_object();
+    j.end_array();
+    publish_sheets(j.str(), static_cast<int>(s.reading.workbook.sheet));
+}
+
+// Bytes of a file or paste read with `choice` (a workbook's sheet): refused, or its text read.
+void read_input_bytes(AppState& s, std::string bytes, std::string_view file_name, const WorkbookChoice& choice) {
     // New data while an exact or Monte Carlo p-value is being worked out: that work is for the old
     // data, so it stops, and the page says so (whether or not the new data is read).
     const bool stopped = s.work.running;
     if (stopped) cancel_job(s);
     const std::string stopped_note = stopped ? "The p-value being worked out for the previous data was stopped." : "";
-    const TextDecoding d = decode_text(&bytes);
-    if (!d.status.ok) {
+    // A workbook's bytes are kept while its counts are on screen, to read another of its sheets.
+    WorkbookSource source;
+    if (workbook_kind(bytes) != WorkbookKind::none) {
+        source.bytes = bytes;
+        source.name = std::string(file_name);
+    }
+    const bool pasted = file_name.empty() && source.bytes.empty();
+    InputText in = input_text(std::move(bytes), file_name, choice);
+    if (in.from_workbook) {
+        source.sheets = in.sheets;
+        source.sheet = in.sheet_index;
+    }
+    s.reading.workbook = std::move(source);
+    if (!s.reading.workbook.sheets.empty()) publish_sheet_list(s);
+    else if (!s.reading.workbook.bytes.empty()) s.reading.workbook = WorkbookSource{};
+    if (!in.status.ok) {
         const std::string who = file_name.empty() ? std::string() : std::string(file_name.substr(0, 80)) + ": ";
         // A pasted text stays editable; a binary file's bytes are not worth editing.
-        record_refusal(s, file_name.empty() ? std::string_view(bytes) : std::string_view(), Status::failure(who + d.status.message));
+        record_refusal(s, pasted ? std::string_view(in.text) : std::string_view(), Status::failure(who + in.status.message));
         s.refused.file = std::string(file_name);
         if (stopped) set_notice(s, stopped_note);
         return;
     }
-    apply_paste(s, bytes);
+    apply_paste(s, in.text);
     if (!s.refused.message.empty()) s.refused.file = std::string(file_name);
-    if (!d.notice.empty() && s.refused.message.empty()) set_notice(s, d.notice + (s.view.notice.empty() ? "" : " " + s.view.notice));
+    std::string notice = in.notice;
+    for (const std::string& n : in.notes) notice += (notice.empty() ? "" : " ") + n;
+    if (!notice.empty() && s.refused.message.empty()) set_notice(s, notice + (s.view.notice.empty() ? "" : " " + s.view.notice));
     if (stopped) set_notice(s, stopped_note + (s.view.notice.empty() ? "" : " " + s.view.notice));
+}
+}  // namespace
+
+void apply_input(AppState& s, std::string bytes, std::string_view file_name) {
+    const bool had_workbook = !s.reading.workbook.sheets.empty();
+    read_input_bytes(s, std::move(bytes), file_name, WorkbookChoice{});
+    if (had_workbook && s.reading.workbook.sheets.empty()) publish_sheet_list(s);  // the page's sheet list goes
+}
+
+void choose_sheet(AppState& s, int index) {
+    const WorkbookSource w = s.reading.workbook;
+    if (w.bytes.empty() || index < 0 || static_cast<std::size_t>(index) >= w.sheets.size()) return;
+    WorkbookChoice choice;
+    choice.sheet = std::to_string(index + 1);
+    read_input_bytes(s, w.bytes, w.name, choice);
+    if (s.reading.workbook.sheets.empty()) {  // refused as a whole: the list stays for another choice
+        s.reading.workbook = w;
+        s.reading.workbook.sheet = static_cast<std::size_t>(index);
+        publish_sheet_list(s);
+    }
 }
 
 void reread_paste(AppState& s, int shape, int digit_test, int third_column) {

@@ -14,6 +14,7 @@
 #include "pvalue_job.hpp"
 #include "result.hpp"
 #include "survey_rows.hpp"
+#include "workbook_reading.hpp"
 
 namespace tallyproof::web {
 
@@ -69,6 +70,14 @@ struct Refusal {
 };
 
 // The last paste that was read, so the user can have it read as another shape.
+// The workbook the counts were read from (.xlsx, .ods), kept so another of its sheets can be read.
+struct WorkbookSource {
+    std::string bytes;                       // the file as opened (empty: the counts came from elsewhere)
+    std::string name;                        // the file's name
+    std::vector<WorkbookSheetInfo> sheets;   // every sheet, in the workbook's order
+    std::size_t sheet = 0;                   // the sheet read (0-based)
+};
+
 struct LastReading {
     std::string text;
     int shape = -1;                   // InputShape as detected (or chosen), -1 when nothing pasted
@@ -79,6 +88,7 @@ struct LastReading {
     bool survey = false;              // read as survey rows (one per respondent) with these columns
     bool survey_open = false;         // the survey columns' row is shown (chosen in "Read as")
     SurveyColumns survey_columns;
+    WorkbookSource workbook;          // set when the last file opened was a workbook
 };
 
 // Exact / Monte Carlo work, run a slice per frame.
@@ -155,6 +165,9 @@ void apply_paste(AppState& s, std::string_view text);        // counts, or a doc
 // by core's text_decoding (UTF-8, UTF-16, Windows-1252), then read as apply_paste; a file that is
 // not text (an image, a workbook, ...) is refused saying so, and the old data is kept.
 void apply_input(AppState& s, std::string bytes, std::string_view file_name = {});
+// Reads sheet `index` (0-based) of the workbook last opened, as the file was read (a refusal
+// keeps the analysis; the sheet list stays for another choice).
+void choose_sheet(AppState& s, int index);
 constexpr std::size_t kFixableBytes = 1u << 20;               // refused pastes up to 1 MB can be edited on the page
 void edit_refused_paste(AppState& s, bool open);             // show or hide the editor of the refused paste
 void apply_fixed_paste(AppState& s);                         // read the edited paste as a new paste
@@ -215,6 +228,7 @@ void reload_recent(AppState& s);              // another tab changed the list: r
 void copy_share_link(AppState& s);
 void download_document(AppState& s);      // the analysis document (JSON)
 void download_table(AppState& s);         // the per-category table (CSV)
+void download_workbook(AppState& s);      // the per-category table and the write-up's numbers (.xlsx)
 void queue_chart_export(AppState& s, ResultTab chart, int purpose);
 void request_print(AppState& s);          // chart images first, then the print layout
 

@@ -1,6 +1,7 @@
 // The Groups view's transitions: a screen read from a paste or a document, its settings, the
 // table's order, and opening one group as a single analysis with the screen kept behind it.
 #include "groups_state.hpp"
+#include "screen_workbook.hpp"
 
 #include <emscripten.h>
 
@@ -384,6 +385,14 @@ void download_groups_table(AppState& s) {
     if (!s.groups.result.status.ok) return;
     download_text("tallyproof-groups.csv", "text/csv", group_table(s.groups.result, TableExportOptions{TableFormat::csv, s.handover.decimal_comma, false}));
     publish_notice("Groups table downloaded (CSV).");
+}
+
+void download_groups_workbook(AppState& s) {
+    if (!s.groups.result.status.ok) return;
+    const std::string bytes = screen_workbook(s.groups.result);
+    if (bytes.empty()) return;
+    download_bytes("tallyproof-groups.xlsx", "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet", bytes);
+    publish_notice("Groups workbook downloaded (.xlsx).");
 }
 
 std::string group_banner(const AppState& s) {

@@ -67,6 +67,7 @@ void drop_screen_job(AppState& s);            // stops it silently (a new screen
 void copy_screen_summary(AppState& s);        // the write-up of the screen: summary and cautions
 void copy_groups_table(AppState& s);          // one row per group, TSV for a spreadsheet
 void download_groups_table(AppState& s);      // the same as a CSV file
+void download_groups_workbook(AppState& s);   // the groups table and the screen's numbers (.xlsx)
 std::string group_banner(const AppState& s);
 void show_groups_place(const AppState& s);    // mirrors the view's place into the form view  // "Group Ben (2 of 40): flagged, q = 0.0012"
 

@@ -1,6 +1,7 @@
 // Handing the result over: the write-up and table copied, the analysis file and the table
 // downloaded, chart images queued for export and print.
 #include "app_state.hpp"
+#include "result_workbook.hpp"
 #include "app_state_internal.hpp"
 
 #include <algorithm>
@@ -25,6 +26,13 @@ void copy_table(AppState& s) {
 void download_document(AppState& s) {
     download_text("tallyproof-analysis.json", "application/json", analysis_document(s));
     set_notice(s, "Analysis file downloaded.");
+}
+
+void download_workbook(AppState& s) {
+    const std::string bytes = result_workbook(s.analysis, s.result);
+    if (bytes.empty()) return;
+    download_bytes("tallyproof-categories.xlsx", "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet", bytes);
+    set_notice(s, "Workbook downloaded (.xlsx): the per-category table and the write-up's numbers.");
 }
 
 void download_table(AppState& s) {

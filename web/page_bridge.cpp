@@ -49,6 +49,11 @@ EM_JS(void, tp_js_groups_view, (int shown, const char* order, const char* banner
         globalThis.tallyproofPage.showGroupsView(!!shown, UTF8ToString(order), UTF8ToString(banner));
 });
 
+EM_JS(void, tp_js_sheets, (const char* sheets, int chosen), {
+    if (globalThis.tallyproofPage && globalThis.tallyproofPage.showSheets)
+        globalThis.tallyproofPage.showSheets(JSON.parse(UTF8ToString(sheets)), chosen);
+});
+
 EM_JS(char*, tp_js_storage_get, (const char* key), {
     var v = null;
     try { v = window.localStorage.getItem(UTF8ToString(key)); } catch (e) { v = null; }
@@ -119,6 +124,9 @@ EM_JS(char*, tp_js_time, (), {
 EM_JS(void, tp_js_download, (const char* name, const char* mime, const char* text), {
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.download(UTF8ToString(name), UTF8ToString(mime), UTF8ToString(text));
 });
+EM_JS(void, tp_js_download_bytes, (const char* name, const char* mime, const unsigned char* bytes, int length), {
+    if (globalThis.tallyproofPage) globalThis.tallyproofPage.downloadBytes(UTF8ToString(name), UTF8ToString(mime), HEAPU8.slice(bytes, bytes + length));
+});
 EM_JS(void, tp_js_image, (const unsigned char* rgba, int w, int h, const char* name, int purpose), {
     if (globalThis.tallyproofPage) globalThis.tallyproofPage.image(HEAPU8.slice(rgba, rgba + w * h * 4), w, h, UTF8ToString(name), purpose);
 });
@@ -172,6 +180,7 @@ void mark_explained(const char* name, const std::string& shown) {
 void publish_groups_view(bool screen_shown, const std::string& order_json, const std::string& banner) {
     tp_js_groups_view(screen_shown ? 1 : 0, order_json.c_str(), banner.c_str());
 }
+void publish_sheets(const std::string& sheets_json, int chosen) { tp_js_sheets(sheets_json.c_str(), chosen); }
 void note_tooltip(const std::string& text) { tp_js_tooltip(text.c_str()); }  // each frame it shows
 
 std::string storage_get(const char* key) { return take(tp_js_storage_get(key)); }
@@ -197,6 +206,9 @@ std::string location_fragment() { return take(tp_js_fragment()); }
 std::string page_address() { return take(tp_js_address()); }
 std::string local_time_text() { return take(tp_js_time()); }
 void download_text(const char* filename, const char* mime, const std::string& text) { tp_js_download(filename, mime, text.c_str()); }
+void download_bytes(const char* filename, const char* mime, const std::string& bytes) {
+    tp_js_download_bytes(filename, mime, reinterpret_cast<const unsigned char*>(bytes.data()), static_cast<int>(bytes.size()));
+}
 void deliver_image(const unsigned char* rgba, int width, int height, const char* name, ImagePurpose purpose) {
     tp_js_image(rgba, width, height, name, static_cast<int>(purpose));
 }

@@ -26,6 +26,9 @@ void note_tooltip(const std::string& text);
 // The Groups view's place, mirrored into the form view: whether the screen is shown, the order
 // of its table (group indices, as JSON), and the banner of a group opened from it ("" when none).
 void publish_groups_view(bool screen_shown, const std::string& order_json, const std::string& banner);
+// The sheets of the workbook last opened, mirrored into the form view's sheet list: a JSON array
+// of {name, hidden, empty}, and the sheet read (0-based); an empty array when no workbook is open.
+void publish_sheets(const std::string& sheets_json, int chosen);
 
 // Browser storage (localStorage, shared by the tabs; empty string when absent or refused; set is
 // false when refused or full), this tab's own storage (sessionStorage), and the URL fragment.
@@ -45,6 +48,7 @@ std::string local_time_text();                      // e.g. "2026-12-01 22:40" i
 // Files leaving the page (never uploaded): a text download, and a chart image (RGBA rows
 // bottom-up, as glReadPixels gives them) saved, copied or kept for printing.
 void download_text(const char* filename, const char* mime, const std::string& text);
+void download_bytes(const char* filename, const char* mime, const std::string& bytes);  // a binary file (.xlsx)
 enum class ImagePurpose { download = 0, copy = 1, print = 2 };
 void deliver_image(const unsigned char* rgba, int width, int height, const char* name, ImagePurpose purpose);
 // The print layout (text and the chart images delivered for printing); then the browser's print

@@ -163,6 +163,11 @@ EMSCRIPTEN_KEEPALIVE void tp_form(int action, const char* text) {
         }
         case FormAction::open_group: open_group(s, std::atoi(value.c_str())); break;
         case FormAction::back_to_groups: back_to_groups(s); break;
+        case FormAction::sheet: choose_sheet(s, std::atoi(value.c_str())); break;
+        case FormAction::download_xlsx:
+            if (s.groups.open && s.groups.opened < 0) download_groups_workbook(s);
+            else download_workbook(s);
+            break;
         case FormAction::one_sample: leave_groups(s); break;
         case FormAction::survey: {  // the columns by name or number, in this order; empty ones left out
             std::vector<std::string> parts(4);

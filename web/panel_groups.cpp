@@ -326,6 +326,9 @@ void draw_groups_view(AppState& s, const Theme& t) {
         flow_next(ImGui::CalcTextSize("Download table (CSV)").x + pad);
         if (ImGui::Button("Download table (CSV)")) download_groups_table(s);
         explain_item("Download groups table", "Download table (CSV)");
+        flow_next(ImGui::CalcTextSize("Download workbook (.xlsx)").x + pad);
+        if (ImGui::Button("Download workbook (.xlsx)")) download_groups_workbook(s);
+        mark_widget("Download groups workbook");
     }
     if (!s.input_error.empty()) {
         ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.warn_ink));

@@ -352,6 +352,38 @@ bool number_field(const char* id, double* value, const char* format, FieldKeys k
     return true;
 }
 
+// The sheet of the workbook last opened, chosen from its sheets (shown when it has two or more).
+bool shows_sheet_row(const AppState& s) { return s.reading.workbook.sheets.size() > 1; }
+
+void draw_sheet_row(AppState& s, const Theme& t) {
+    const WorkbookSource& w = s.reading.workbook;
+    if (w.sheets.size() < 2) return;
+    auto name_of = [](const WorkbookSheetInfo& i) {
+        return i.name + (i.hidden ? " (hidden)" : "") + (i.empty ? " (empty)" : "");
+    };
+    const std::string shown = w.sheet < w.sheets.size() ? name_of(w.sheets[w.sheet]) : std::string();
+    ImGui::AlignTextToFramePadding();
+    ImGui::TextUnformatted("Sheet");
+    ImGui::SameLine();
+    ImGui::SetNextItemWidth(-1);
+    int chosen = -1;
+    if (ImGui::BeginCombo("##sheet", shown.c_str(), ImGuiComboFlags_HeightLarge)) {
+        begin_menu_items(t);
+        for (std::size_t i = 0; i < w.sheets.size(); ++i) {
+            const std::string label = name_of(w.sheets[i]);
+            ImGui::PushID(static_cast<int>(i));
+            if (ImGui::Selectable(label.c_str(), i == w.sheet) && i != w.sheet) chosen = static_cast<int>(i);
+            mark_widget(("sheet " + w.sheets[i].name).c_str());
+            ImGui::PopID();
+        }
+        end_menu_items(t);
+        ImGui::EndCombo();
+    }
+    mark_widget("Sheet");
+    if (ImGui::IsItemHovered()) ImGui::SetTooltip("The sheet of %s the counts are read from", w.name.c_str());
+    if (chosen >= 0) choose_sheet(s, chosen);
+}
+
 // What the last paste was read as, and the other readings on offer ("Read as"); the bins'
 // row under it when the paste was counted into bins.
 static void draw_read_as_row(AppState& s, const Theme& t) {
@@ -488,7 +520,8 @@ void draw_counts_panel(AppState& s, const Theme& t) {
     // Room under the table for the rows that follow it: "Read as", the bins, "+ Add category".
     const bool read_as = offers_other_readings(s), bin_row = shows_bin_editor(s);
     const bool survey_row = s.reading.survey || s.reading.survey_open;  // names over the four column choices
-    float below = ImGui::GetFrameHeightWithSpacing() * (1.2f + (read_as ? 1 : 0) + (bin_row ? 1 : 0) + (survey_row ? 1.5f : 0));
+    float below = ImGui::GetFrameHeightWithSpacing() * (1.2f + (read_as ? 1 : 0) + (bin_row ? 1 : 0) + (survey_row ? 1.5f : 0) +
+                                                        (shows_sheet_row(s) ? 1 : 0));
     if (bin_row && !s.reading.bin_editor.error.empty())
         below += ImGui::CalcTextSize(("Bins not applied: " + s.reading.bin_editor.error).c_str(), nullptr, false, ImGui::GetContentRegionAvail().x).y +
                  ImGui::GetStyle().ItemSpacing.y;
@@ -545,6 +578,7 @@ void draw_counts_panel(AppState& s, const Theme& t) {
         ImGui::PopFont();
         ImGui::EndTable();
     }
+    if (shows_sheet_row(s)) draw_sheet_row(s, t);
     if (read_as) draw_read_as_row(s, t);
     if (ImGui::Button("+ Add category")) add_row(s);
     flow_next(ImGui::GetFrameHeight() + ImGui::CalcTextSize("Categories are in order").x + ImGui::GetStyle().ItemInnerSpacing.x);

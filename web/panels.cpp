@@ -53,7 +53,7 @@ void draw_title(AppState& s, const Theme& t) {
     };
     if (ImGui::Button("Open a file")) choose_file();
     mark_widget("Open a file");
-    if (ImGui::IsItemHovered()) ImGui::SetTooltip("A .csv, .tsv, .txt or .json file, read here in the browser, never uploaded");
+    if (ImGui::IsItemHovered()) ImGui::SetTooltip("A .csv, .tsv, .txt, .json, .xlsx or .ods file, read here in the browser, never uploaded");
     next("Paste");
     if (ImGui::Button("Paste")) paste_from_clipboard();
     mark_widget("Paste");
@@ -64,7 +64,7 @@ void draw_title(AppState& s, const Theme& t) {
     if (ImGui::BeginPopup("save")) {
         begin_menu_items(t);
         struct Item { const char* label; int action; };
-        const Item items[] = {{"Copy share link", 0}, {"Download analysis (JSON)", 1}, {"Download table (CSV)", 2},
+        const Item items[] = {{"Copy share link", 0}, {"Download analysis (JSON)", 1}, {"Download table (CSV)", 2}, {"Download workbook (.xlsx)", 7},
                               {"Save curve as PNG", 3}, {"Save bars as PNG", 4}, {"Copy chart image", 5}, {"Print or save as PDF", 6}};
         for (const auto& it : items) {
             const bool chosen = ImGui::Selectable(it.label);
@@ -78,6 +78,7 @@ void draw_title(AppState& s, const Theme& t) {
                 case 4: queue_chart_export(s, ResultTab::bars, static_cast<int>(ImagePurpose::download)); break;
                 case 5: queue_chart_export(s, s.view.tab == ResultTab::bars ? ResultTab::bars : ResultTab::curve, static_cast<int>(ImagePurpose::copy)); break;
                 case 6: request_print(s); break;
+                case 7: download_workbook(s); break;
             }
         }
         ImGui::Separator();
@@ -193,12 +194,19 @@ void draw_rejection_notice(AppState& s, const Theme& t) {
     if (!s.refused.cells.empty()) h += ImGui::GetTextLineHeightWithSpacing() + 2;
     const float editor_h = ImGui::GetTextLineHeight() * 8 + style.FramePadding.y * 2;
     if (s.refused.fix_open) h += editor_h + style.ItemSpacing.y + ImGui::GetFrameHeightWithSpacing();
+    const bool sheets = shows_sheet_row(s) && !s.refused.file.empty() && s.refused.file == s.reading.workbook.name;
+    if (sheets) h += ImGui::GetFrameHeightWithSpacing();
     h += style.WindowPadding.y * 2;
     ImGui::BeginChild("rejected", ImVec2(0, h), true, ImGuiWindowFlags_NoScrollbar);
     ImGui::PushFont(t.strong);
     wrapped_text(headline.c_str());
     ImGui::PopFont();
     if (!s.refused.cells.empty()) draw_refused_line(s, t);
+    if (sheets) {  // another sheet of the same workbook may hold the counts
+        ImGui::PushStyleColor(ImGuiCol_Text, ImGui::ColorConvertU32ToFloat4(t.ink));
+        draw_sheet_row(s, t);
+        ImGui::PopStyleColor();
+    }
     ImGui::AlignTextToFramePadding();
     ImGui::TextUnformatted("The analysis below is still the previous one.");
     if (!s.refused.text.empty() && !s.refused.fix_open) {

@@ -43,6 +43,8 @@ void explained_text(const char* name, const std::string& text);  // wrapped_text
 bool compact_button(const char* label, const Theme& theme);   // SmallButton; a 44 px target on touch screens
 void begin_menu_items(const Theme& theme);                    // popup and combo items 44 px apart on touch screens...
 void end_menu_items(const Theme& theme);                      // ...until here
+bool shows_sheet_row(const AppState& s);                      // the last file opened is a workbook of 2+ sheets
+void draw_sheet_row(AppState& s, const Theme& t);              // its sheets, one to choose ("Sheet")
 void flow_next(float width);       // SameLine if an item `width` wide still fits, else the next line
 float radio_width(const char* label);                        // a RadioButton's or Checkbox's width
 // A number in a text field (page text entry): true when a new value was committed (Enter or leaving it).

@@ -154,7 +154,7 @@ std::string package(const std::vector<WorkbookSheet>& given) {
     for (const auto& sh : sheets) wanted.push_back(sh.name);
     const std::vector<std::string> names = valid_sheet_names(wanted);
     SharedStrings strings;
-    std::vector<ZipEntry> parts;
+    std::vector<ZipPart> parts;
     parts.push_back({"[Content_Types].xml", content_types_xml(sheets.size())});
     parts.push_back({"_rels/.rels", std::string(kXmlHead) + "<Relationships xmlns=\"" + kPkgRel + "\">" +
                                         relationship("rId1", "officeDocument", "xl/workbook.xml") + "</Relationships>"});

@@ -53,7 +53,7 @@ struct Written {
 
 // The fields a local header and its central directory header share (APPNOTE 4.3.7 / 4.3.12,
 // from "version needed to extract" to "extra field length").
-void common_fields(std::string& out, const ZipEntry& e, const Written& w) {
+void common_fields(std::string& out, const ZipPart& e, const Written& w) {
     put16(out, kVersionNeeded);
     put16(out, w.flags);
     put16(out, w.method);
@@ -66,12 +66,12 @@ void common_fields(std::string& out, const ZipEntry& e, const Written& w) {
     put16(out, 0);  // no extra field
 }
 
-std::string archive(const std::vector<ZipEntry>& entries) {
+std::string archive(const std::vector<ZipPart>& entries) {
     if (entries.size() > 0xFFFF) return {};
     std::string out;
     std::vector<Written> written;
     written.reserve(entries.size());
-    for (const ZipEntry& e : entries) {
+    for (const ZipPart& e : entries) {
         if (e.data.size() > kMax32 || e.name.size() > 0xFFFF || out.size() > kMax32) return {};
         Written w;
         w.offset = static_cast<std::uint32_t>(out.size());
@@ -118,7 +118,7 @@ std::string archive(const std::vector<ZipEntry>& entries) {
 
 }  // namespace
 
-std::string zip_archive(const std::vector<ZipEntry>& entries) {
+std::string zip_archive(const std::vector<ZipPart>& entries) {
     try {
         return archive(entries);
     } catch (const std::bad_alloc&) {

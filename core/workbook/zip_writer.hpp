@@ -9,12 +9,12 @@
 
 namespace tallyproof {
 
-struct ZipEntry {
+struct ZipPart {
     std::string name;  // path inside the archive, '/'-separated (UTF-8; flagged as such when not ASCII)
     std::string data;  // the entry's bytes
 };
 
 // The archive's bytes; empty when it cannot be written (too large for ZIP without ZIP64, no memory).
-std::string zip_archive(const std::vector<ZipEntry>& entries);
+std::string zip_archive(const std::vector<ZipPart>& entries);
 
 }  // namespace tallyproof

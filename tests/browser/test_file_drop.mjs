@@ -36,7 +36,8 @@ export const tests = {
       await dropFile(page, head, 'tally.xlsx');
       await page.waitForFunction(() => globalThis.tallyproofPage.lastRefusal !== '', null, { timeout: 5000 });
       const wb = await page.evaluate(() => globalThis.tallyproofPage.lastRefusal);
-      assert(wb.includes('a spreadsheet workbook (.xlsx)') && wb.includes('Save it as CSV'), `workbook refusal: ${wb}`);
+      // Workbooks are read since issue 29: this one, cut short after two headers, is refused as damaged.
+      assert(wb.includes('damaged or incomplete') && wb.includes('copy the cells'), `workbook refusal: ${wb}`);
       assert((await lastResult(page)).categories[0] === 'Known A', 'the previous analysis stays after a workbook');
     });
   },

@@ -112,7 +112,7 @@ TEST_CASE("a ZIP archive reads back entry by entry, deflated or stored, byte for
         x ^= x << 13; x ^= x >> 17; x ^= x << 5;
         noise.push_back(static_cast<char>(x & 0xFF));
     }
-    const std::vector<ZipEntry> in = {{"a.txt", std::string(5000, 'a') + "end"}, {"dir/noise.bin", noise}, {"empty", ""},
+    const std::vector<ZipPart> in = {{"a.txt", std::string(5000, 'a') + "end"}, {"dir/noise.bin", noise}, {"empty", ""},
                                       {"123456789", "123456789"}};
     const std::string zip = zip_archive(in);
     const auto out = read_zip(zip);
