@@ -13,7 +13,7 @@ InputText input_text(std::string bytes, std::string_view name, const WorkbookCho
         const TextDecoding decoded = decode_text(&bytes);
         out.status = decoded.status;
         out.notice = decoded.notice;
-        if (out.status.ok) out.text = std::move(bytes);
+        out.text = std::move(bytes);  // refused: the bytes as given, so a paste can be shown for correction
         return out;
     }
     WorkbookReading r = read_workbook(bytes, choice);

@@ -15,7 +15,7 @@ namespace tallyproof {
 
 struct InputText {
     Status status;                          // !ok: refused (not text, or a workbook refused), by name
-    std::string text;                       // UTF-8 text for read_input
+    std::string text;                       // UTF-8 text for read_input; refused as not text: the bytes as given
     std::string notice;                     // a plain sentence: the decoding, or which sheet and range were read
     bool from_workbook = false;
     std::vector<WorkbookSheetInfo> sheets;  // from_workbook: every sheet, for a choice of another
