@@ -125,9 +125,10 @@ bool recompute(AppState& s) {
     return true;
 }
 
-bool work_running(const AppState& s) { return s.work.running || s.groups.screening; }
+bool work_running(const AppState& s) { return s.work.running || s.groups.screening || s.pasting.running; }
 
 void step_job(AppState& s, double budget_ms) {
+    if (s.pasting.running) return step_paste_job(s, budget_ms);
     if (s.groups.screening && !s.work.running) return step_screen(s, budget_ms);
     if (!s.work.running) return;
     const double start = emscripten_get_now(), until = start + budget_ms;
@@ -152,6 +153,7 @@ void step_job(AppState& s, double budget_ms) {
 }
 
 void cancel_job(AppState& s) {
+    if (s.pasting.running && !s.work.running) return cancel_paste_job(s);
     if (s.groups.screening && !s.work.running) return cancel_screen(s);
     if (!s.work.running) return;
     cancel_pvalue_job(&s.work.job);
@@ -162,6 +164,7 @@ void cancel_job(AppState& s) {
 }
 
 double job_fraction(const AppState& s) {
+    if (s.pasting.running) return input_read_fraction(s.pasting.job);
     return s.groups.screening && !s.work.running ? s.groups.job.progress.fraction : s.work.job.progress.fraction;
 }
 
@@ -308,6 +311,8 @@ bool open_document(AppState& s, std::string_view json) {
 
 namespace {
 void read_paste(AppState& s, std::string_view text, const ParseOptions& options);
+void apply_reading(AppState& s, std::string_view text, const ParseOptions& options, InputReading reading);
+void after_reading(AppState& s, std::string_view file_name, const std::string& notice);
 
 // A screen document (groups, settings, view): the Groups view as it was left, the opened group
 // with its way back. The settings are the base every group is tested with.
@@ -416,12 +421,20 @@ void publish_sheet_list(const AppState& s) {
     publish_sheets(j.str(), static_cast<int>(s.reading.workbook.sheet));
 }
 
+// What follows a file's or paste's reading: the file named in a refusal, the file's own notice
+// (and a stopped p-value's) before the reading's.
+void after_reading(AppState& s, std::string_view file_name, const std::string& notice) {
+    if (!s.refused.message.empty()) s.refused.file = std::string(file_name);
+    if (!notice.empty() && s.refused.message.empty()) set_notice(s, notice + (s.view.notice.empty() ? "" : " " + s.view.notice));
+}
+
 // Bytes of a file or paste read with `choice` (a workbook's sheet): refused, or its text read.
 void read_input_bytes(AppState& s, std::string bytes, std::string_view file_name, const WorkbookChoice& choice) {
     // New data while an exact or Monte Carlo p-value is being worked out: that work is for the old
     // data, so it stops, and the page says so (whether or not the new data is read).
     const bool stopped = s.work.running;
     if (stopped) cancel_job(s);
+    drop_paste_job(s);  // a text still being read is replaced
     const std::string stopped_note = stopped ? "The p-value being worked out for the previous data was stopped." : "";
     // A workbook's bytes are kept while its counts are on screen, to read another of its sheets.
     WorkbookSource source;
@@ -446,12 +459,16 @@ void read_input_bytes(AppState& s, std::string bytes, std::string_view file_name
         if (stopped) set_notice(s, stopped_note);
         return;
     }
-    apply_paste(s, in.text);
-    if (!s.refused.message.empty()) s.refused.file = std::string(file_name);
     std::string notice = in.notice;
     for (const std::string& n : in.notes) notice += (notice.empty() ? "" : " ") + n;
-    if (!notice.empty() && s.refused.message.empty()) set_notice(s, notice + (s.view.notice.empty() ? "" : " " + s.view.notice));
-    if (stopped) set_notice(s, stopped_note + (s.view.notice.empty() ? "" : " " + s.view.notice));
+    if (stopped) notice = stopped_note + (notice.empty() ? "" : " " + notice);
+    apply_paste(s, in.text);
+    if (s.pasting.running) {  // a long text: the rest when its reading is done (finish_paste_job)
+        s.pasting.file = std::string(file_name);
+        s.pasting.notice = notice;
+        return;
+    }
+    after_reading(s, file_name, notice);
 }
 }  // namespace
 
@@ -553,7 +570,25 @@ void read_paste_as_survey(AppState& s, const SurveyColumns& columns) {
 
 namespace {
 void read_paste(AppState& s, std::string_view text, const ParseOptions& options) {
-    InputReading reading = read_input(text, options);  // one sample, else groups; groups offered beside one sample
+    drop_paste_job(s);
+    if (text.size() < kSlicedReadBytes) {
+        apply_reading(s, text, options, read_input(text, options));  // one sample, else groups; groups offered beside one sample
+        return;
+    }
+    // A long text is read in slices (step_paste_job); the counts on screen stay until it is read.
+    PasteJob& p = s.pasting;
+    p.text.assign(text.data(), text.size());
+    p.options = options;
+    p.file.clear();
+    p.notice.clear();
+    start_input_read(p.text, options, ReadInputOptions{}, &p.job);
+    p.running = true;
+    set_progress(0, true);
+    start_work_loop();
+    s.view.frames_to_draw = 3;
+}
+
+void apply_reading(AppState& s, std::string_view text, const ParseOptions& options, InputReading reading) {
     const ParsedInput& parsed = reading.sample;
     Status problem = reading.status;  // the one-sample refusal, or the groups' own (read_input)
     GroupsView previous_groups = std::move(s.groups);  // a new one-sample reading closes the screen...
@@ -887,6 +922,58 @@ bool apply_design_effect_text(AppState& s, const std::string& text) {
         return false;
     }
     return true;
+}
+
+}  // namespace tallyproof::web
+
+namespace tallyproof::web {
+
+void drop_paste_job(AppState& s) {
+    if (!s.pasting.running) return;
+    s.pasting = PasteJob{};
+}
+
+void step_paste_job(AppState& s, double budget_ms) {
+    PasteJob& p = s.pasting;
+    if (!p.running) return;
+    const double until = emscripten_get_now() + budget_ms;
+    // As step_job: a small first slice, then slices sized from the measured rate (rows per ms).
+    std::size_t slice = 2000;
+    bool done = false;
+    for (;;) {
+        const double t0 = emscripten_get_now();
+        done = step_input_read(&p.job, slice);
+        if (done) break;
+        const double now = emscripten_get_now(), left = until - now, took = now - t0;
+        if (left <= 0.5) break;
+        // Rows differ in cost between the stages (splitting, reading, notes): a slice at most doubles.
+        const double rate = static_cast<double>(slice) / std::max(took, 0.05);
+        slice = static_cast<std::size_t>(std::clamp(std::min(rate * left * 0.8, 2.0 * static_cast<double>(slice)), 200.0, 1048576.0));
+    }
+    if (!done) {
+        set_progress(input_read_fraction(p.job), true);
+        return;
+    }
+    // Read: applied as a short text's reading is, then the file's notice.
+    PasteJob finished = std::move(p);
+    s.pasting = PasteJob{};
+    set_progress(1, false);
+    InputReading reading = std::move(finished.job.result);
+    finished.job = InputReadJob{};  // its views of the text go before the text is handed on
+    apply_reading(s, finished.text, finished.options, std::move(reading));
+    after_reading(s, finished.file, finished.notice);
+    s.view.frames_to_draw = 3;
+}
+
+void cancel_paste_job(AppState& s) {
+    if (!s.pasting.running) return;
+    const double fraction = input_read_fraction(s.pasting.job);
+    drop_paste_job(s);
+    set_progress(fraction, false);
+    set_notice(s, "Reading stopped at " + std::to_string(static_cast<int>(100 * fraction)) +
+                      "%: the counts on screen are the ones before it.");
+    publish_notice("Reading cancelled.");
+    s.view.frames_to_draw = 3;
 }
 
 }  // namespace tallyproof::web

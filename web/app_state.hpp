@@ -12,6 +12,7 @@
 #include "groups_state.hpp"
 #include "paste_parser.hpp"
 #include "pvalue_job.hpp"
+#include "read_input.hpp"
 #include "result.hpp"
 #include "survey_rows.hpp"
 #include "workbook_reading.hpp"
@@ -98,6 +99,18 @@ struct Work {
     double started_ms = 0;
 };
 
+// A long paste or file read in slices (core's InputReadJob), so the page answers while 100,000
+// rows are read; the counts on screen stay until the reading is done, and Cancel keeps them.
+struct PasteJob {
+    bool running = false;
+    std::string text;             // the text being read (the job holds views of it)
+    ParseOptions options;
+    InputReadJob job;
+    std::string file;             // the file it came from ("" for a paste)
+    std::string notice;           // the file reading's own notice, shown with the reading's
+};
+constexpr std::size_t kSlicedReadBytes = 1u << 18;  // texts this long are read in slices
+
 // The session: what is kept in the browser (autosave, recent list) and what is due to be
 // published to the page and kept, done once per frame by settle_frame().
 struct Session {
@@ -146,6 +159,7 @@ struct AppState {
     std::string report;              // plain-text results block (also mirrored into the page)
 
     Work work;
+    PasteJob pasting;
     Refusal refused;
     LastReading reading;
     GroupsView groups;               // many groups at once: the screen read from the last paste
@@ -217,6 +231,9 @@ bool recompute(AppState& s);                                 // false: input_err
 bool work_running(const AppState& s);                        // exact / Monte Carlo work, or a screen being tested
 void step_job(AppState& s, double budget_ms);                // a slice of exact / Monte Carlo work (else of the screen)
 void cancel_job(AppState& s);
+void step_paste_job(AppState& s, double budget_ms);          // a slice of a long text's reading (apply_paste)
+void cancel_paste_job(AppState& s);                          // the counts on screen stay
+void drop_paste_job(AppState& s);                            // stops it silently (new data replace it)
 double job_fraction(const AppState& s);
 
 void restore_session(AppState& s);

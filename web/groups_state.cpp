@@ -121,15 +121,29 @@ void publish_screen(AppState& s) { s.session.due_publish = Session::Publish::scr
 
 void publish_screen_now(AppState& s, const std::string& document) {
     GroupsView& v = s.groups;
-    v.report = v.result.status.ok ? screen_report_text(v.result) : "Not screened: " + v.result.status.message + "\n";
+    v.report = !v.result.status.ok ? "Not screened: " + v.result.status.message + "\n"
+               : v.result.groups.size() <= kSpokenRows ? screen_report_text(v.result) : std::string();
     // The live region reads out the screen; above kSpokenRows groups its table of every group would
     // cost the page seconds of layout for text no one listens through: the write-up (summary,
     // flagged groups with their drivers, cautions) then, and the whole table by Copy or Download.
     std::string spoken = v.report;
-    if (v.result.status.ok && v.result.groups.size() > kSpokenRows)
+    if (v.result.status.ok && v.result.groups.size() > kSpokenRows)  // (v.report is then left empty)
         spoken = screen_writeup(v.result) + "The table of all " + format_grouped(static_cast<std::uint64_t>(v.result.groups.size())) +
                  " groups: Copy table (TSV) or Download table (CSV).\n";
-    publish_result(spoken, screen_json(v.base, v.counts, v.result), document);
+    publish_result(spoken, screen_json(v.base, v.counts, v.result, nullptr, screen_listed_whole(s)), document);
+}
+
+bool screen_listed_whole(const AppState& s) { return s.groups.counts.groups.size() <= kListedGroups; }
+
+bool screen_kept_whole(const AppState& s) {
+    return s.groups.counts.groups.size() * s.groups.counts.categories.size() <= kKeptScreenCells;
+}
+
+std::string screen_rows_json(const AppState& s, std::size_t start, std::size_t count) {
+    const GroupsView& v = s.groups;
+    std::vector<std::size_t> at;
+    for (std::size_t i = start; i < v.order.size() && i < start + count; ++i) at.push_back(v.order[i]);
+    return screen_group_rows_json(v.counts, v.result, at);
 }
 
 namespace {
@@ -186,14 +200,14 @@ bool open_groups_document(AppState& s, const GroupedCounts& counts, const Screen
 
 namespace {
 
-constexpr std::uint64_t kFirstScreenSlice = 2000;  // work units (a group by the short path: 1)
+constexpr std::uint64_t kFirstScreenSlice = 16000;  // work units (a group by the short path: 8)
 
 // The finished job's screen shown, sorted, published and kept.
 void finish_screen(AppState& s) {
     GroupsView& v = s.groups;
     v.screening = false;
     v.result = std::move(v.job.result);
-    v.job = ScreenJob{};  // its copy of the groups is no longer needed
+    v.job = ScreenJob{};
     v.funnel = screen_funnel(v.result);
     order_rows(v);
     if (v.opened < 0) publish_screen(s);
@@ -217,7 +231,7 @@ void recompute_groups(AppState& s) {
     if (!v.open) return;
     drop_screen_job(s);
     v.base = s.analysis;  // its model, statistic, merging and p-value settings; counts are each group's own
-    start_screen_job(v.base, v.counts, v.choice, &v.job);
+    start_screen_job_on(v.base, v.counts, v.choice, &v.job);  // v.counts stays as it is while the job runs
     const WorkProgress p = step_screen_job(&v.job, kFirstScreenSlice);  // a small screen is done here
     if (p.done) { finish_screen(s); return; }
     // The rest in the page's work tasks (step_screen); the table waits for the whole screen, as
@@ -247,10 +261,10 @@ void step_screen(AppState& s, double budget_ms) {
         if (p.done || p.cancelled) break;
         const double now = emscripten_get_now(), left = until - now, took = now - t0;
         if (left <= 0.5) break;
+        // Groups differ in cost (a total, a short test, an exact p): a slice at most doubles.
         const double rate = static_cast<double>(slice) / std::max(took, 0.05);
-        slice = static_cast<std::uint64_t>(std::clamp(rate * left * 0.9, 100.0, 1048576.0));
+        slice = static_cast<std::uint64_t>(std::clamp(std::min(rate * left * 0.8, 2.0 * static_cast<double>(slice)), 100.0, 1048576.0));
     }
-    if (p.done) { finish_screen(s); return; }
     set_progress(p.fraction, true);
 }
 

@@ -51,6 +51,16 @@ void apply_screen_view(AppState& s, const ScreenView& view);
 // The analysis document of the screen on the page (groups, settings, sort, opened group): what
 // autosave, the recent list, the share link and the analysis file carry while the screen is open.
 std::string screen_document(const AppState& s);
+// A screen this large is handed to the page without its table of every group (the form view asks
+// for a page of rows at a time: screen_rows_json) and is not autosaved whole (browsers keep about
+// 5 MB a site; its document is larger, and writing it would hold the page for seconds).
+constexpr std::size_t kListedGroups = 5000;       // more groups: the result JSON lists none
+constexpr std::size_t kKeptScreenCells = 200000;  // more groups x categories: not autosaved
+bool screen_listed_whole(const AppState& s);
+bool screen_kept_whole(const AppState& s);
+// The rows shown at places [start, start + count) of the Groups view's order, as the "groups"
+// objects of the result document, each with its "index" in the screen.
+std::string screen_rows_json(const AppState& s, std::size_t start, std::size_t count);
 std::string screen_title(const AppState& s);  // "40 groups · Benford's first-digit law · 1 flagged"
 void set_screen_choice(AppState& s, const ScreenChoice& choice);  // against, adjustment, q
 // Groups whose names look the same (GroupedCounts::look_alike_groups) joined, each under its

@@ -47,6 +47,15 @@ EMSCRIPTEN_KEEPALIVE void tp_canvas_hidden(int hidden) {
     g_page->canvas_hidden = hidden != 0;
     want_frames(*g_page, 3);
 }
+// The Groups view's rows at places [start, start + count) of its order, as JSON (the form view
+// pages through a screen too large to hand over whole); valid until the next call.
+EMSCRIPTEN_KEEPALIVE const char* tp_screen_rows(int start, int count) {
+    static std::string rows;
+    rows = g_page && start >= 0 && count > 0
+               ? tallyproof::web::screen_rows_json(g_page->state, static_cast<std::size_t>(start), static_cast<std::size_t>(count))
+               : std::string("[]");
+    return rows.c_str();
+}
 // Publishes and keeps now what the last changes marked due (the page is being hidden or left).
 EMSCRIPTEN_KEEPALIVE void tp_settle() {
     if (g_page) tallyproof::web::settle_frame(g_page->state);

@@ -106,6 +106,15 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
                                                  format_significant(r.monte_carlo.standard_error, 2) + ".");
     ImGui::PopStyleColor();
 
+    if (s.pasting.running) {  // a long text being read: the counts below are the ones before it
+        char label[96];
+        std::snprintf(label, sizeof label, "Reading the new data: %.0f%%", 100 * job_fraction(s));
+        ImGui::PushStyleColor(ImGuiCol_PlotHistogram, ImGui::ColorConvertU32ToFloat4(t.progress));
+        ImGui::ProgressBar(static_cast<float>(job_fraction(s)), ImVec2(std::min(360.0f, ImGui::GetContentRegionAvail().x - 90), 0), label);
+        ImGui::PopStyleColor();
+        ImGui::SameLine();
+        if (ImGui::Button("Cancel##reading")) cancel_paste_job(s); mark_widget("Cancel reading");
+    }
     if (s.work.running) {
         const char* what = s.analysis.pvalue.method == PValueMethod::exact ? "Exact p-value" : "Monte Carlo p-value";
         char label[96];

@@ -187,10 +187,17 @@ void publish(AppState& s) {
 void settle_frame(AppState& s) {
     Session& due = s.session;
     if (due.due_publish == Session::Publish::none && !due.due_save) return;
-    const std::string document = analysis_document(s);
+    // A screen too large to keep whole: its document (megabytes) is built only when saved as a
+    // file; the page gets the pooled sample's settings, and the notice says why it is not kept.
+    const bool whole = !s.groups.open || screen_kept_whole(s);
+    const std::string document = whole ? analysis_document(s) : write_analysis_document(s.analysis);
     if (due.due_publish == Session::Publish::analysis) publish_result(s.report, report_json(s.analysis, s.result), document);
     if (due.due_publish == Session::Publish::screen) publish_screen_now(s, document);
-    if (due.due_save) remember(s, document);
+    if (due.due_save && whole) remember(s, document);
+    else if (due.due_save && s.groups.result.status.ok)
+        set_notice(s, "A screen of " + format_grouped(static_cast<std::uint64_t>(s.groups.counts.groups.size())) +
+                          " groups is too large to keep in this browser (it keeps about 5 MB a site): Save & share, "
+                          "Download analysis (JSON) keeps it, and opening that file returns to it.");
     due.due_publish = Session::Publish::none;
     due.due_save = false;
 }

@@ -58,28 +58,6 @@ bool read_count(const std::string& cell, int line, int column, DecimalMark mark,
     return true;
 }
 
-// Group names in first-seen order, with the line each first appears on. Names are normalised
-// (label_text.hpp); a group written in two Unicode forms is one group, and is remembered to be noted.
-struct GroupIndex {
-    std::unordered_map<std::string, std::size_t> index;
-    std::vector<std::string> first_spelling;  // the cell as first written, per group
-    std::vector<unsigned char> noted;         // per group: already in `respelled`
-    std::vector<std::size_t> respelled;       // groups met in more than one spelling
-    std::size_t find_or_add(const std::string& name, const std::string& spelling, int line, GroupedCounts* out) {
-        const auto [it, fresh] = index.emplace(name, out->groups.size());
-        if (fresh) {
-            out->groups.push_back(name);
-            out->group_lines.push_back(line);
-            first_spelling.push_back(spelling);
-            noted.push_back(0);
-        } else if (!noted[it->second] && spelling != first_spelling[it->second]) {
-            noted[it->second] = 1;
-            respelled.push_back(it->second);
-        }
-        return it->second;
-    }
-};
-
 // The group cell of a data row, normalised into `name` (its cell as written in `spelling`), or a
 // located problem when it is empty (false).
 bool group_cell(const TableRow& row, std::size_t column, GroupedCounts* out, std::string* name, std::string* spelling) {
@@ -110,7 +88,7 @@ bool whole_number_labels(const std::vector<std::string>& labels, std::vector<dou
 }
 
 // A note naming groups whose rows wrote the name in more than one Unicode form (read as one group).
-void note_respelled(const GroupIndex& groups, GroupedCounts* out) {
+void note_respelled(const GroupNameIndex& groups, GroupedCounts* out) {
     if (groups.respelled.empty()) return;
     out->notes.push_back(std::string(groups.respelled.size() == 1 ? "The group " : "Groups ") +
                          quoted_labels(out->groups, groups.respelled) + (groups.respelled.size() == 1 ? " is" : " are") +
@@ -147,45 +125,47 @@ bool numbered_header_row(const std::vector<TableRow>& rows, std::size_t group_co
     return below > 0 && 10 * alike <= below;
 }
 
-// Long table: group, category, count on every line (in the columns found by the caller).
-void read_long_rows(const std::vector<TableRow>& rows, std::size_t first, std::size_t group_col, std::size_t category_col,
-                    std::size_t count_col, DecimalMark mark, GroupedCounts* out) {
-    GroupIndex groups;
-    std::unordered_map<std::string, std::size_t> categories;
-    struct Cell { std::size_t group, category; double count; };
-    std::vector<Cell> cells;
-    cells.reserve(rows.size() - first);
+// Long table: group, category, count on every line (in the columns found by the caller). One row
+// read; false when a limit stops the reading.
+bool read_long_row(GroupedRowsJob& j, const TableRow& row) {
+    GroupedCounts* out = &j.out;
+    std::string name, spelling;
+    if (!group_cell(row, j.group_col, out, &name, &spelling)) return true;
+    const std::string label = normalised_label(cell_at(row, j.category_col));
+    if (label.empty()) {
+        const int col = static_cast<int>(j.category_col) + 1;
+        add_group_problem(out, row.line, col, cell_location(row.line, col) + "the category cell of group " + quote_cell(name) + " is empty.");
+        return true;
+    }
+    double count = 0;
+    if (!read_count(cell_at(row, j.count_col), row.line, static_cast<int>(j.count_col) + 1, j.mark, out, &count)) return true;
+    const std::size_t widest = std::max({j.group_col, j.category_col, j.count_col});
+    if (row.cells.size() > widest + 1) {
+        const int col = static_cast<int>(widest) + 2;
+        add_group_problem(out, row.line, col, cell_location(row.line, col) + "found " + std::to_string(row.cells.size()) +
+                                                  " cells; expected group, category and count on every line.");
+        return true;
+    }
+    const std::size_t g = j.names.find_or_add(name, spelling, row.line, out);
+    const auto [it, fresh] = j.category_index.emplace(label, out->categories.size());
+    if (fresh) out->categories.push_back(label);
+    j.cells.push_back(GroupedRowsJob::LongCell{g, it->second, count});
+    if (out->groups.size() > kMaxGroups || out->categories.size() > kMaxCategories) {
+        add_group_problem(out, row.line, 0, cell_location(row.line, 0) + "more than " + std::to_string(kMaxGroups) +
+                                                " groups or " + std::to_string(kMaxCategories) + " categories; expected fewer.");
+        return false;
+    }
+    return true;
+}
+
+// The long table's rows read: the counts placed, categories in numeric order when whole numbers.
+void finish_long_rows(GroupedRowsJob& j) {
+    GroupedCounts* out = &j.out;
+    if (!out->status.ok) return;
+    const std::vector<TableRow>& rows = j.rows;
+    const auto& cells = j.cells;
     std::size_t repeated = 0;
     int first_repeat = 0;
-    for (std::size_t r = first; r < rows.size(); ++r) {
-        const TableRow& row = rows[r];
-        std::string name, spelling;
-        if (!group_cell(row, group_col, out, &name, &spelling)) continue;
-        const std::string label = normalised_label(cell_at(row, category_col));
-        if (label.empty()) {
-            const int col = static_cast<int>(category_col) + 1;
-            add_group_problem(out, row.line, col, cell_location(row.line, col) + "the category cell of group " + quote_cell(name) + " is empty.");
-            continue;
-        }
-        double count = 0;
-        if (!read_count(cell_at(row, count_col), row.line, static_cast<int>(count_col) + 1, mark, out, &count)) continue;
-        if (row.cells.size() > std::max({group_col, category_col, count_col}) + 1) {
-            const int col = static_cast<int>(std::max({group_col, category_col, count_col})) + 2;
-            add_group_problem(out, row.line, col, cell_location(row.line, col) + "found " + std::to_string(row.cells.size()) +
-                                                      " cells; expected group, category and count on every line.");
-            continue;
-        }
-        const std::size_t g = groups.find_or_add(name, spelling, row.line, out);
-        const auto [it, fresh] = categories.emplace(label, out->categories.size());
-        if (fresh) out->categories.push_back(label);
-        cells.push_back(Cell{g, it->second, count});
-        if (out->groups.size() > kMaxGroups || out->categories.size() > kMaxCategories) {
-            add_group_problem(out, row.line, 0, cell_location(row.line, 0) + "more than " + std::to_string(kMaxGroups) +
-                                                    " groups or " + std::to_string(kMaxCategories) + " categories; expected fewer.");
-            return;
-        }
-    }
-    if (!out->status.ok) return;
     const std::size_t k = out->categories.size();
     if (out->groups.size() * k > kMaxGroupCells) {
         out->status = Status::failure(std::to_string(out->groups.size()) + " groups of " + std::to_string(k) +
@@ -210,7 +190,7 @@ void read_long_rows(const std::vector<TableRow>& rows, std::size_t first, std::s
     for (std::size_t i = 0; i < cells.size(); ++i) {
         const std::size_t at = cells[i].group * k + position[cells[i].category];
         out->counts[at] += cells[i].count;
-        if (seen[at] && repeated++ == 0) first_repeat = rows[first + i].line;
+        if (seen[at] && repeated++ == 0) first_repeat = rows[j.first + i].line;
         seen[at] = 1;
     }
     std::size_t missing = 0, first_missing = 0;
@@ -226,57 +206,63 @@ void read_long_rows(const std::vector<TableRow>& rows, std::size_t first, std::s
     if (repeated > 0)
         out->notes.push_back(std::to_string(repeated) + " rows repeat a group and category already seen (first on line " +
                              std::to_string(first_repeat) + "): their counts were added together.");
-    note_respelled(groups, out);
+    note_respelled(j.names, out);
 }
 
-// Wide table: a header row naming the categories, then one row per group.
-void read_wide_rows(const std::vector<TableRow>& rows, std::size_t first, std::size_t group_col, DecimalMark mark,
-                    GroupedCounts* out) {
-    std::size_t width = 0;
-    for (const auto& r : rows) width = std::max(width, r.cells.size());
-    std::vector<std::size_t> count_cols;
+// Wide table: a header row naming the categories, then one row per group. The categories from
+// the header (false: too many).
+bool begin_wide_rows(GroupedRowsJob& j, std::size_t width) {
+    GroupedCounts* out = &j.out;
     for (std::size_t c = 0; c < width; ++c)
-        if (c != group_col) count_cols.push_back(c);
-    for (std::size_t i = 0; i < count_cols.size(); ++i) {
-        std::string label = first == 1 ? normalised_label(cell_at(rows[0], count_cols[i])) : "";
+        if (c != j.group_col) j.count_cols.push_back(c);
+    for (std::size_t i = 0; i < j.count_cols.size(); ++i) {
+        std::string label = j.first == 1 ? normalised_label(cell_at(j.rows[0], j.count_cols[i])) : "";
         if (label.empty()) label = "Category " + std::to_string(i + 1);
         out->categories.push_back(label);
     }
+    if (out->categories.size() > kMaxCategories) { out->status = Status::failure("More than " + std::to_string(kMaxCategories) + " category columns."); return false; }
+    return true;
+}
+
+// One row of a wide table read; false when a limit stops the reading.
+bool read_wide_row(GroupedRowsJob& j, const TableRow& row) {
+    GroupedCounts* out = &j.out;
     const std::size_t k = out->categories.size();
-    if (k > kMaxCategories) { out->status = Status::failure("More than " + std::to_string(kMaxCategories) + " category columns."); return; }
-    GroupIndex groups;
-    for (std::size_t r = first; r < rows.size(); ++r) {
-        const TableRow& row = rows[r];
-        std::string name, spelling;
-        if (!group_cell(row, group_col, out, &name, &spelling)) continue;
-        const std::size_t before = out->groups.size();
-        const std::size_t g = groups.find_or_add(name, spelling, row.line, out);
-        if (out->groups.size() == before) {
-            out->group_problem = true;
-            add_group_problem(out, row.line, static_cast<int>(group_col) + 1,
-                              cell_location(row.line, static_cast<int>(group_col) + 1) + "the group " + quote_cell(name) +
-                                  " appears again (first on line " + std::to_string(out->group_lines[g]) +
-                                  (spelling != groups.first_spelling[g] ? ", written there in another Unicode form; group names are compared in NFC" : "") +
-                                  "); a wide table has one row per group.");
-            continue;
-        }
-        if (out->groups.size() > kMaxGroups || out->groups.size() * k > kMaxGroupCells) {
-            add_group_problem(out, row.line, 0, cell_location(row.line, 0) + "too many groups; screen fewer at once.");
-            return;
-        }
-        out->counts.resize(out->groups.size() * k, 0.0);
-        for (std::size_t i = 0; i < k; ++i) {
-            const std::string& cell = cell_at(row, count_cols[i]);
-            double count = 0;
-            if (cell.empty()) continue;  // an empty cell is a zero count (noted below)
-            if (read_count(cell, row.line, static_cast<int>(count_cols[i]) + 1, mark, out, &count)) out->counts[g * k + i] = count;
-        }
+    std::string name, spelling;
+    if (!group_cell(row, j.group_col, out, &name, &spelling)) return true;
+    const std::size_t before = out->groups.size();
+    const std::size_t g = j.names.find_or_add(name, spelling, row.line, out);
+    if (out->groups.size() == before) {
+        out->group_problem = true;
+        add_group_problem(out, row.line, static_cast<int>(j.group_col) + 1,
+                          cell_location(row.line, static_cast<int>(j.group_col) + 1) + "the group " + quote_cell(name) +
+                              " appears again (first on line " + std::to_string(out->group_lines[g]) +
+                              (spelling != j.names.first_spelling[g] ? ", written there in another Unicode form; group names are compared in NFC" : "") +
+                              "); a wide table has one row per group.");
+        return true;
     }
+    if (out->groups.size() > kMaxGroups || out->groups.size() * k > kMaxGroupCells) {
+        add_group_problem(out, row.line, 0, cell_location(row.line, 0) + "too many groups; screen fewer at once.");
+        return false;
+    }
+    out->counts.resize(out->groups.size() * k, 0.0);
+    for (std::size_t i = 0; i < k; ++i) {
+        const std::string& cell = cell_at(row, j.count_cols[i]);
+        double count = 0;
+        if (cell.empty()) continue;  // an empty cell is a zero count (noted below)
+        if (read_count(cell, row.line, static_cast<int>(j.count_cols[i]) + 1, j.mark, out, &count)) out->counts[g * k + i] = count;
+    }
+    return true;
+}
+
+void finish_wide_rows(GroupedRowsJob& j) {
+    GroupedCounts* out = &j.out;
     if (!out->status.ok) return;
     std::vector<double> values;
     out->ordered = whole_number_labels(out->categories, &values);
     out->notes.push_back("Read a wide table: " + std::to_string(out->groups.size()) + " groups (one per row), " +
-                         std::to_string(k) + " categories (one per column" + (first == 1 ? ", named by the header row" : "") + ").");
+                         std::to_string(out->categories.size()) + " categories (one per column" +
+                         (j.first == 1 ? ", named by the header row" : "") + ").");
 }
 
 // A message about the values read one per line, with "line N" (and its "column 1") turned into
@@ -307,7 +293,7 @@ std::string original_lines(const std::string& message, const std::vector<int>& l
 // every group is counted into the same categories.
 void read_raw_rows(const std::vector<TableRow>& rows, std::size_t first, std::size_t group_col, std::size_t value_col,
                    const ParseOptions& parse, GroupedCounts* out) {
-    GroupIndex groups;
+    GroupNameIndex groups;
     std::vector<std::string> texts;  // the values of each group, one per line
     std::vector<std::vector<int>> lines;  // original line of each value, per group
     std::string pooled;
@@ -397,6 +383,20 @@ GroupShape detect_group_shape(const std::vector<TableRow>& rows, std::size_t fir
 
 }  // namespace
 
+std::size_t GroupNameIndex::find_or_add(const std::string& name, const std::string& spelling, int line, GroupedCounts* out) {
+    const auto [it, fresh] = index.emplace(name, out->groups.size());
+    if (fresh) {
+        out->groups.push_back(name);
+        out->group_lines.push_back(line);
+        first_spelling.push_back(spelling);
+        noted.push_back(0);
+    } else if (!noted[it->second] && spelling != first_spelling[it->second]) {
+        noted[it->second] = 1;
+        respelled.push_back(it->second);
+    }
+    return it->second;
+}
+
 std::string group_look_alike_note(const std::vector<std::string>& groups, const std::vector<std::vector<std::size_t>>& alike) {
     if (alike.empty()) return "";
     std::string s;
@@ -423,38 +423,33 @@ bool group_shape_from_name(const std::string& name, GroupShape* shape) {
     return true;
 }
 
-GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& options) {
-    GroupedCounts out;
+void start_grouped_text(std::string_view text, const GroupReadOptions& options, GroupedRowsJob* job) {
+    { GroupedRowsJob fresh; std::swap(*job, fresh); }
+    job->options = options;
     if (text.size() > kMaxInputBytes) {
-        out.status = Status::failure("The pasted text has more than " + std::to_string(kMaxInputBytes >> 20) + " MB.");
-        return out;
+        job->out.status = Status::failure("The pasted text has more than " + std::to_string(kMaxInputBytes >> 20) + " MB.");
+        job->done = true;
+        return;
     }
     text = skip_byte_order_mark(text);
-    const ParseOptions& parse = options.parse;
-    const Separator sep = parse.separator ? *parse.separator : detect_separator(text);
-    std::vector<TableRow> rows;
-    {
-        DelimitedReader reader(text, sep);
-        Record rec;
-        while (reader.next(&rec)) {
-            if (rec.blank()) continue;
-            if (rows.size() == kMaxGroupRows) {
-                out.status = Status::failure(cell_location(rec.line, 0) + "more than " + std::to_string(kMaxGroupRows) +
-                                                 " rows; screen at most that many rows at once.", rec.line, 0);
-                return out;
-            }
-            TableRow row;
-            row.line = rec.line;
-            row.cells.reserve(rec.cells.size());
-            for (auto c : rec.cells) row.cells.emplace_back(c);
-            rows.push_back(std::move(row));
-        }
-        if (!reader.status().ok) {
-            add_group_problem(&out, reader.status().line, reader.status().column, reader.status().message);
-            return out;
-        }
-    }
-    return read_grouped_rows(std::move(rows), sep, options);
+    job->text = text;
+    job->sep = options.parse.separator ? *options.parse.separator : detect_separator(text);
+    job->reader = DelimitedReader(text, job->sep);
+    job->splitting = true;
+}
+
+void start_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options, GroupedRowsJob* job) {
+    { GroupedRowsJob fresh; std::swap(*job, fresh); }
+    job->options = options;
+    job->sep = sep;
+    job->rows = std::move(rows);
+}
+
+GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& options) {
+    GroupedRowsJob job;
+    start_grouped_text(text, options, &job);
+    while (!step_grouped_rows(&job, 0)) {}
+    return std::move(job.out);
 }
 
 // The group column named by `by`: a 1-based number, or a header cell of the first row (any
@@ -483,23 +478,29 @@ Status find_group_column(const std::vector<TableRow>& rows, std::size_t width, c
     return Status::success();
 }
 
-GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options) {
-    GroupedCounts out;
+namespace {
+
+// The table's layout from its rows (all split): group column, header row, shape, the columns
+// read. False when that already refuses the table (job->out says why).
+bool plan_grouped_rows(GroupedRowsJob& j) {
+    GroupedCounts& out = j.out;
+    const std::vector<TableRow>& rows = j.rows;
+    const GroupReadOptions& options = j.options;
     const ParseOptions& parse = options.parse;
-    if (rows.empty()) { out.status = Status::failure("Nothing to read: the pasted text is empty."); return out; }
+    if (rows.empty()) { out.status = Status::failure("Nothing to read: the pasted text is empty."); return false; }
     std::size_t width = 0;
     for (const auto& r : rows) width = std::max(width, r.cells.size());
     if (width < 2) {
         out.status = Status::failure("Line " + std::to_string(rows[0].line) +
                                      ": only one column; screening needs a group column beside the categories or values.", rows[0].line, 0);
-        return out;
+        return false;
     }
 
     // The group column: named by `by` (a header cell or a number), else the first.
     std::size_t group_col = 0;
     bool header_named = false;
     out.status = find_group_column(rows, width, options.by, &group_col, &header_named);
-    if (!out.status.ok) return out;
+    if (!out.status.ok) return false;
     // A header row: named by `by`, or a first row without numbers above rows with some, or the
     // numbered categories of a wide table (0..9, years) above a text cell; or as the options say.
     auto numeric_outside_group = [&](const TableRow& row) {
@@ -507,8 +508,12 @@ GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const
         for (std::size_t c = 0; c < row.cells.size(); ++c) n += c != group_col && looks_numeric(row.cells[c]);
         return n;
     };
+    // Decided once per first row (the numbered header's check and the reading ask for the same).
+    std::optional<GroupShape> detected[2];
     auto detect_shape = [&](std::size_t first) {
-        return options.shape ? *options.shape : detect_group_shape(rows, first, group_col, width, parse);
+        if (options.shape) return *options.shape;
+        if (!detected[first]) detected[first] = detect_group_shape(rows, first, group_col, width, parse);
+        return *detected[first];
     };
     bool header = header_named || (rows.size() >= 2 && numeric_outside_group(rows[0]) == 0 && numeric_outside_group(rows[1]) > 0);
     double step = 0;
@@ -517,7 +522,7 @@ GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const
         header = numbered = true;
     if (options.header) header = *options.header;
     const std::size_t first = header ? 1 : 0;
-    if (rows.size() <= first) { out.status = Status::failure("Only a header row: no groups to read."); return out; }
+    if (rows.size() <= first) { out.status = Status::failure("Only a header row: no groups to read."); return false; }
     out.header = header;
     out.numbered_header = numbered;
     out.group_column = static_cast<int>(group_col) + 1;
@@ -525,13 +530,18 @@ GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const
     if (out.group_column_name.empty()) out.group_column_name = "column " + std::to_string(out.group_column);
     const GroupShape shape = detect_shape(first);
     out.shape = shape;
-    const DecimalMark mark = parse.decimal ? *parse.decimal : sep == Separator::semicolon ? DecimalMark::comma : DecimalMark::point;
+    j.mark = parse.decimal ? *parse.decimal : j.sep == Separator::semicolon ? DecimalMark::comma : DecimalMark::point;
+    j.group_col = group_col;
+    j.first = first;
+    j.next = first;
+    j.numbered = numbered;
+    j.step = step;
     std::vector<std::size_t> others;
     for (std::size_t c = 0; c < width; ++c)
         if (c != group_col) others.push_back(c);
     switch (shape) {
         case GroupShape::long_table: {
-            if (others.size() < 2) { out.status = Status::failure("A long table needs three columns: group, category and count."); return out; }
+            if (others.size() < 2) { out.status = Status::failure("A long table needs three columns: group, category and count."); return false; }
             // The count column: the last of the two further columns unless only the other holds numbers.
             std::size_t category_col = others[0], count_col = others[1];
             std::size_t numeric0 = 0, numeric1 = 0;
@@ -540,32 +550,48 @@ GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const
                 numeric1 += looks_numeric(cell_at(rows[r], others[1]));
             }
             if (numeric1 == 0 && numeric0 > 0) std::swap(category_col, count_col);
-            read_long_rows(rows, first, group_col, category_col, count_col, mark, &out);
-            break;
+            j.category_col = category_col;
+            j.count_col = count_col;
+            j.cells.reserve(rows.size() - first);
+            return true;
         }
-        case GroupShape::wide_table: read_wide_rows(rows, first, group_col, mark, &out); break;
+        case GroupShape::wide_table: return begin_wide_rows(j, width);
         case GroupShape::raw_values:
             if (others.size() != 1) {
                 out.status = Status::failure("Raw values with a group column need two columns: group and value (found " +
                                              std::to_string(width) + ").");
-                return out;
+                return false;
             }
-            read_raw_rows(rows, first, group_col, others[0], parse, &out);
-            break;
+            j.value_col = others[0];
+            j.next = rows.size();  // read whole at the end (read_raw_rows)
+            return true;
+    }
+    return true;
+}
+
+// The rows read: the shape's last step, then the notes and checks every shape shares.
+void finish_grouped_rows(GroupedRowsJob& j) {
+    GroupedCounts& out = j.out;
+    const std::vector<TableRow>& rows = j.rows;
+    const GroupShape shape = out.shape;
+    switch (shape) {
+        case GroupShape::long_table: finish_long_rows(j); break;
+        case GroupShape::wide_table: finish_wide_rows(j); break;
+        case GroupShape::raw_values: read_raw_rows(rows, j.first, j.group_col, j.value_col, j.options.parse, &out); break;
     }
     // Raw values with a group column are only offered as groups, so their refusals stay one sample's.
     if (shape == GroupShape::raw_values) out.group_problem = false;
-    if (!out.status.ok) return out;
-    if (numbered)
+    if (!out.status.ok) return;
+    if (j.numbered)
         out.notes.insert(out.notes.begin(), "Line " + std::to_string(rows[0].line) + " read as a header row: its cells " +
                                                 quote_cell(out.categories[0]) + ", " + quote_cell(out.categories[1]) + " ... " +
-                                                quote_cell(out.categories.back()) + " are numbers in steps of " + format_plain(step) + " beside the text " +
+                                                quote_cell(out.categories.back()) + " are numbers in steps of " + format_plain(j.step) + " beside the text " +
                                                 quote_cell(out.group_column_name) + ", so they name the categories (detected; the line can be read as a group instead).");
-    else if (header) out.notes.insert(out.notes.begin(), "Line " + std::to_string(rows[0].line) + " read as a header row.");
-    out.notes.insert(out.notes.begin(), std::string("Groups read from ") + (header ? "column " + std::to_string(out.group_column) + " (" + quote_cell(out.group_column_name) + ")"
+    else if (out.header) out.notes.insert(out.notes.begin(), "Line " + std::to_string(rows[0].line) + " read as a header row.");
+    out.notes.insert(out.notes.begin(), std::string("Groups read from ") + (out.header ? "column " + std::to_string(out.group_column) + " (" + quote_cell(out.group_column_name) + ")"
                                                                                       : out.group_column_name) +
                                             " as a " + group_shape_name(shape) + " table" +
-                                            (options.by.empty() ? " (detected; another group column can be chosen)." : "."));
+                                            (j.options.by.empty() ? " (detected; another group column can be chosen)." : "."));
     out.look_alike_groups = look_alike_groups(out.groups);
     if (!out.look_alike_groups.empty()) out.notes.push_back(group_look_alike_note(out.groups, out.look_alike_groups));
     if (std::any_of(out.groups.begin(), out.groups.end(), [](const std::string& g) { return g.find("<U+") != std::string::npos; }))
@@ -576,13 +602,90 @@ GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const
         out.status = Status::failure("Only one group (" + quote_cell(out.groups.empty() ? "" : out.groups[0]) +
                                          "): screening compares two or more groups; read its counts as one sample instead.",
                                      out.group_lines.empty() ? 0 : out.group_lines[0], out.group_column);
-        return out;
+        return;
     }
     if (out.categories.size() < 2) {
         out.status = Status::failure("Only one category: a goodness-of-fit test needs at least two.");
-        return out;
+        return;
     }
-    return out;
+}
+
+}  // namespace
+
+bool step_grouped_rows(GroupedRowsJob* job, std::size_t budget) {
+    GroupedRowsJob& j = *job;
+    if (j.done) return true;
+    const std::size_t limit = budget == 0 ? static_cast<std::size_t>(-1) : budget;
+    if (j.splitting) {
+        Record rec;
+        for (std::size_t n = 0; n < limit; ++n) {
+            if (!j.reader.next(&rec)) {
+                j.splitting = false;
+                if (!j.reader.status().ok) {
+                    add_group_problem(&j.out, j.reader.status().line, j.reader.status().column, j.reader.status().message);
+                    j.done = true;
+                    return true;
+                }
+                return false;  // the layout is decided at the next step
+            }
+            if (rec.blank()) continue;
+            if (j.rows.size() == kMaxGroupRows) {
+                j.out.status = Status::failure(cell_location(rec.line, 0) + "more than " + std::to_string(kMaxGroupRows) +
+                                                   " rows; screen at most that many rows at once.", rec.line, 0);
+                j.done = true;
+                return true;
+            }
+            TableRow row;
+            row.line = rec.line;
+            row.cells.reserve(rec.cells.size());
+            for (auto c : rec.cells) row.cells.emplace_back(c);
+            j.rows.push_back(std::move(row));
+        }
+        return false;
+    }
+    if (!j.planned) {
+        j.planned = true;
+        if (!plan_grouped_rows(j)) { j.done = true; return true; }
+        return false;
+    }
+    if (j.releasing) {  // the rows' memory handed back a budget at a time (a million cells take a while)
+        for (std::size_t n = 0; n < limit && !j.rows.empty(); ++n) j.rows.pop_back();
+        if (!j.rows.empty()) return false;
+        j.rows.shrink_to_fit();
+        j.done = true;
+        return true;
+    }
+    if (!j.rows_read) {
+        const bool long_table = j.out.shape == GroupShape::long_table;
+        for (std::size_t n = 0; n < limit && j.next < j.rows.size() && !j.stopped; ++n, ++j.next)
+            j.stopped = !(long_table ? read_long_row(j, j.rows[j.next]) : read_wide_row(j, j.rows[j.next]));
+        if (j.next < j.rows.size() && !j.stopped) return false;
+        j.rows_read = true;
+        if (budget != 0) return false;  // the notes and checks at the next step
+    }
+    finish_grouped_rows(j);
+    if (budget != 0 && !j.rows.empty()) {
+        j.releasing = true;
+        return false;
+    }
+    j.done = true;
+    return true;
+}
+
+double grouped_rows_fraction(const GroupedRowsJob& j) {
+    if (j.done) return 1.0;
+    // Splitting counts for the first half, reading the rows for the second.
+    if (j.splitting) return j.text.empty() ? 0.0 : 0.5 * static_cast<double>(j.reader.offset()) / static_cast<double>(j.text.size());
+    const double split = j.text.empty() ? 0.0 : 0.5;
+    const double read = j.rows.empty() ? 0.0 : static_cast<double>(j.next) / static_cast<double>(j.rows.size());
+    return std::min(0.99, split + (1.0 - split) * read);
+}
+
+GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options) {
+    GroupedRowsJob job;
+    start_grouped_rows(std::move(rows), sep, options, &job);
+    while (!step_grouped_rows(&job, 0)) {}
+    return std::move(job.out);
 }
 
 }  // namespace tallyproof

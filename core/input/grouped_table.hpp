@@ -6,11 +6,14 @@
 // The group column and the shape are detected and stated in notes; both can be overridden.
 // Rules are common practice for spreadsheet exports, each stated in the note it produces.
 #pragma once
+#include <cstddef>
 #include <optional>
 #include <string>
 #include <string_view>
+#include <unordered_map>
 #include <vector>
 
+#include "delimited_text.hpp"
 #include "parsed_input.hpp"
 
 namespace tallyproof {
@@ -67,5 +70,47 @@ GroupedCounts read_grouped_text(std::string_view text, const GroupReadOptions& o
 // The same, from the text's non-blank rows already split with separator `sep` (parse_input's
 // `rows`): the text is not split again.
 GroupedCounts read_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options = {});
+
+
+// Group names in first-seen order, as read: each group's index by its normalised name, the cell
+// as first written, and the groups met in more than one Unicode form (noted once).
+struct GroupNameIndex {
+    std::unordered_map<std::string, std::size_t> index;
+    std::vector<std::string> first_spelling;  // the cell as first written, per group
+    std::vector<unsigned char> noted;         // per group: already in `respelled`
+    std::vector<std::size_t> respelled;       // groups met in more than one spelling
+    std::size_t find_or_add(const std::string& name, const std::string& spelling, int line, GroupedCounts* out);
+};
+
+// read_grouped_text / read_grouped_rows in steps, for a caller that must stay responsive (the
+// page): the text split a budget of rows per step, the table's layout decided, its rows read a
+// budget per step, then the notes and checks. The same operations in the same order as the
+// one-call readers, so the same reading. A text given must outlive the job.
+struct GroupedRowsJob {
+    GroupedCounts out;              // complete when `done`
+    bool done = false;
+    // The run's state.
+    GroupReadOptions options;
+    Separator sep = Separator::tab;
+    std::string_view text;          // being split (start_grouped_text)
+    DelimitedReader reader{std::string_view(), Separator::tab};
+    bool splitting = false, planned = false, stopped = false, rows_read = false, releasing = false;
+    std::vector<TableRow> rows;
+    std::size_t next = 0, first = 0, group_col = 0, category_col = 0, count_col = 0, value_col = 0;
+    std::vector<std::size_t> count_cols;  // a wide table's category columns
+    DecimalMark mark = DecimalMark::point;
+    bool numbered = false;
+    double step = 0;                // the numbered header's step
+    GroupNameIndex names;
+    std::unordered_map<std::string, std::size_t> category_index;  // a long table's categories
+    struct LongCell { std::size_t group, category; double count; };
+    std::vector<LongCell> cells;    // a long table's rows read
+};
+void start_grouped_text(std::string_view text, const GroupReadOptions& options, GroupedRowsJob* job);
+void start_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options, GroupedRowsJob* job);
+// About `budget` rows split or read (0: all); true when done (then job->out is the reading).
+bool step_grouped_rows(GroupedRowsJob* job, std::size_t budget);
+// Share of the job done, in [0, 1): for progress.
+double grouped_rows_fraction(const GroupedRowsJob& job);
 
 }  // namespace tallyproof

@@ -36,32 +36,9 @@ TableRow to_row(const Record& rec) {
     return row;
 }
 
-// The rest of a table after its sampled rows (`rec` the first row past the sample when `more`),
-// then the table read; `rows_out` receives the rows when all of them were read.
-void read_table_text(DelimitedReader& reader, Record& rec, bool more, std::vector<TableRow>& rows,
-                     std::vector<TableRow>& grouped, bool words, InputShape shape, Separator sep,
-                     const ParseOptions& options, ParsedInput* out, std::vector<TableRow>* rows_out) {
-    if (more) {  // the rest of a table: bounded by the category limit
-        rows.push_back(to_row(rec));
-        while (reader.next(&rec)) {
-            if (rec.blank()) continue;
-            if (rows.size() >= kMaxCategories + 1) {  // room for a header row
-                out->status = Status::failure(cell_location(rec.line, 0) + "more than " + std::to_string(kMaxCategories) +
-                                                  " rows; expected a table of at most that many categories.",
-                                              rec.line, 0);
-                return;
-            }
-            rows.push_back(to_row(rec));
-        }
-        if (!reader.status().ok) {
-            add_problem(out, reader.status().line, reader.status().column, reader.status().message);
-            return;
-        }
-        if (words) {
-            grouped = rows;
-            regroup_space_words(&grouped);
-        }
-    }
+// The table read from its rows (all split), with the note on what was read.
+void read_table_rows(const std::vector<TableRow>& rows, const std::vector<TableRow>& grouped, bool words, InputShape shape,
+                     Separator sep, const ParseOptions& options, ParsedInput* out) {
     read_table(words ? grouped : rows, options, out);
     if (out->status.ok)
         out->notes.insert(out->notes.begin(), "Read " + std::to_string(out->categories.size()) + " categories as " +
@@ -69,7 +46,6 @@ void read_table_text(DelimitedReader& reader, Record& rec, bool more, std::vecto
                                                        ? "label, observed and a previous sample's count"
                                                        : input_shape_words(shape)) + " (" + separated(sep) + ", " +
                                                   decimal_mark_name(out->decimal) + ").");
-    if (rows_out) *rows_out = std::move(rows);
 }
 
 // Raw observations: the whole text streamed into a tally; `rows` (the sample) decide the
@@ -121,18 +97,21 @@ void read_raw_text(std::string_view text, const std::vector<TableRow>& rows, con
 
 }  // namespace
 
-ParsedInput parse_input(std::string_view text, const ParseOptions& options, std::vector<TableRow>* rows_out) {
-    ParsedInput out;
-    if (rows_out) rows_out->clear();
+void start_paste_reading(std::string_view text, const ParseOptions& options, PasteReading* r) {
+    { PasteReading fresh; std::swap(*r, fresh); }
+    r->options = options;
+    ParsedInput& out = r->out;
+    r->done = true;  // until the shape is decided
     if (text.size() > kMaxInputBytes) {
         out.status = Status::failure("The pasted text has " + std::to_string(text.size() >> 20) +
                                      " MB; at most " + std::to_string(kMaxInputBytes >> 20) + " MB can be read.");
-        return out;
+        return;
     }
     text = skip_byte_order_mark(text);
+    r->text = text;
     if (trim_cell(text).empty() && text.find_first_not_of(" \t\r\n\v\f") == std::string_view::npos) {
         out.status = Status::failure("Nothing to read: the pasted text is empty.");
-        return out;
+        return;
     }
     const bool numbers_expected = options.digits || options.bins.kind != BinChoice::Kind::none ||
                                   (options.decimal && *options.decimal == DecimalMark::comma);
@@ -140,42 +119,94 @@ ParsedInput parse_input(std::string_view text, const ParseOptions& options, std:
     out.separator = sep;
 
     // Sample the leading rows; the shape is decided from them.
-    DelimitedReader reader(text, sep);
+    r->reader = DelimitedReader(text, sep);
     Record rec;
-    std::vector<TableRow> rows;
-    bool more = false;
-    while (reader.next(&rec)) {
+    std::vector<TableRow>& rows = r->rows;
+    while (r->reader.next(&rec)) {
         if (rec.blank()) continue;
-        if (rows.size() == kSampleRows) { more = true; break; }
+        if (rows.size() == kSampleRows) { r->more = true; break; }
         rows.push_back(to_row(rec));
     }
-    if (!more && !reader.status().ok) {
-        add_problem(&out, reader.status().line, reader.status().column, reader.status().message);
-        return out;
+    if (!r->more && !r->reader.status().ok) {
+        add_problem(&out, r->reader.status().line, r->reader.status().column, r->reader.status().message);
+        rows.clear();
+        return;
     }
     if (rows.empty()) {
         out.status = Status::failure("No counts found: paste lines of label and count.");
-        return out;
+        return;
     }
-    const bool words = sep == Separator::spaces;
-    std::vector<TableRow> grouped;
-    if (words) {
-        grouped = rows;
-        regroup_space_words(&grouped);
+    r->words = sep == Separator::spaces;
+    if (r->words) {
+        r->grouped = rows;
+        regroup_space_words(&r->grouped);
     }
     std::string why;
-    const InputShape shape = options.shape ? *options.shape : detect_shape(words ? grouped : rows, more, options, &why);
+    const InputShape shape = options.shape ? *options.shape : detect_shape(r->words ? r->grouped : rows, r->more, options, &why);
     out.shape = shape;
     if (!why.empty()) {
         out.notes.push_back(why);
         out.alternatives.push_back("Read as a single column of counts instead, with the counts-column shape.");
     }
-    if (!is_raw(shape)) read_table_text(reader, rec, more, rows, grouped, words, shape, sep, options, &out, rows_out);
-    else {
-        read_raw_text(text, rows, grouped, words, shape, sep, options, &out);
-        if (rows_out && !more) *rows_out = std::move(rows);
+    if (!is_raw(shape) && r->more) rows.push_back(to_row(rec));  // the rest of a table follows, in steps
+    r->all_rows = !r->more;
+    r->done = false;
+}
+
+bool step_paste_reading(PasteReading* r, std::size_t budget) {
+    if (r->done) return true;
+    ParsedInput& out = r->out;
+    std::vector<TableRow>& rows = r->rows;
+    const Separator sep = out.separator;
+    if (is_raw(out.shape)) {  // raw observations: the whole text streamed into a tally, in one step
+        read_raw_text(r->text, rows, r->grouped, r->words, out.shape, sep, r->options, &out);
+        if (!r->all_rows) rows.clear();
+        r->done = true;
+        return true;
     }
-    return out;
+    if (!r->all_rows) {  // the rest of a table: bounded by the category limit
+        Record rec;
+        for (std::size_t n = 0; n < budget || budget == 0; ++n) {
+            if (!r->reader.next(&rec)) {
+                if (!r->reader.status().ok) {
+                    add_problem(&out, r->reader.status().line, r->reader.status().column, r->reader.status().message);
+                    rows.clear();
+                    r->done = true;
+                    return true;
+                }
+                if (r->words) {
+                    r->grouped = rows;
+                    regroup_space_words(&r->grouped);
+                }
+                r->all_rows = true;
+                return false;  // the table is read at the next step
+            }
+            if (rec.blank()) continue;
+            if (rows.size() >= kMaxCategories + 1) {  // room for a header row
+                out.status = Status::failure(cell_location(rec.line, 0) + "more than " + std::to_string(kMaxCategories) +
+                                                 " rows; expected a table of at most that many categories.",
+                                             rec.line, 0);
+                rows.clear();
+                r->done = true;
+                return true;
+            }
+            rows.push_back(to_row(rec));
+        }
+        return false;
+    }
+    read_table_rows(rows, r->grouped, r->words, out.shape, sep, r->options, &out);
+    r->done = true;
+    return true;
+}
+
+std::size_t paste_reading_offset(const PasteReading& r) { return r.done || r.all_rows ? r.text.size() : r.reader.offset(); }
+
+ParsedInput parse_input(std::string_view text, const ParseOptions& options, std::vector<TableRow>* rows_out) {
+    PasteReading r;
+    start_paste_reading(text, options, &r);
+    while (!step_paste_reading(&r, 0)) {}
+    if (rows_out) *rows_out = std::move(r.rows);
+    return std::move(r.out);
 }
 
 ParsedCounts parse_counts(std::string_view text) {

@@ -2,6 +2,8 @@
 // one also tried as groups, to offer; the expected mix kept only while it fits the new counts.
 #include "read_input.hpp"
 
+#include <algorithm>
+
 #include "paste_parser.hpp"
 #include "pasted_analysis.hpp"
 
@@ -35,48 +37,110 @@ GroupedCounts read_refused_as_groups(std::string_view text, const ParseOptions& 
     return taken_as_groups(read_grouped_text(text, read));
 }
 
-InputReading read_input(std::string_view text, const ParseOptions& parse, const ReadInputOptions& options) {
-    InputReading out;
+void start_input_read(std::string_view text, const ParseOptions& parse, const ReadInputOptions& options, InputReadJob* job) {
+    { InputReadJob fresh; std::swap(*job, fresh); }
+    job->text = text;
+    job->parse = parse;
+    job->options = options;
     if (options.groups == GroupsReading::always) {
         GroupReadOptions read = options.group;
         read.parse = parse;
-        out.groups = read_grouped_text(text, read);
-        out.status = out.groups.status;
-        out.kind = out.status.ok ? InputKind::groups : InputKind::refused;
-        return out;
+        start_grouped_text(text, read, &job->groups);
+        job->stage = 3;
+        return;
     }
-    std::vector<TableRow> rows;  // every row of the text, when the one-sample reader split them all
-    out.sample = parse_input(text, parse, &rows);
-    out.status = out.sample.status;
-    if (out.status.ok) {
-        out.kind = InputKind::sample;
-        // The same text may also read as groups (a wide table of two categories): offered, not chosen.
-        if (options.groups == GroupsReading::automatic && options.offer_groups && text.size() <= kMaxOfferedGroupsBytes) {
-            const GroupReadOptions defaults;
-            GroupedCounts offered = !rows.empty() && splits_alike(parse, defaults.parse)
-                                        ? read_grouped_rows(std::move(rows), out.sample.separator, defaults)
-                                        : read_grouped_text(text, defaults);
+    start_paste_reading(text, parse, &job->sample);
+}
+
+namespace {
+// The groups reader started on the rows the one-sample reader split, when it split them all
+// and the two split alike; else on the text.
+void start_groups(InputReadJob& j, const GroupReadOptions& read, std::vector<TableRow> rows) {
+    if (!rows.empty() && splits_alike(j.parse, read.parse)) start_grouped_rows(std::move(rows), j.result.sample.separator, read, &j.groups);
+    else start_grouped_text(j.text, read, &j.groups);
+}
+}  // namespace
+
+bool step_input_read(InputReadJob* job, std::size_t budget) {
+    InputReadJob& j = *job;
+    if (j.done) return true;
+    InputReading& out = j.result;
+    switch (j.stage) {
+        case 0: {  // one sample
+            if (!step_paste_reading(&j.sample, budget)) return false;
+            out.sample = std::move(j.sample.out);
+            std::vector<TableRow> rows = std::move(j.sample.rows);  // every row of the text, when the one-sample reader split them all
+            { PasteReading spent; std::swap(j.sample, spent); }
+            out.status = out.sample.status;
+            if (out.status.ok) {
+                out.kind = InputKind::sample;
+                // The same text may also read as groups (a wide table of two categories): offered, not chosen.
+                if (j.options.groups == GroupsReading::automatic && j.options.offer_groups && j.text.size() <= kMaxOfferedGroupsBytes) {
+                    start_groups(j, GroupReadOptions{}, std::move(rows));
+                    j.stage = 1;
+                    return false;
+                }
+                j.done = true;
+                return true;
+            }
+            // Not one sample, but perhaps many. Bins the user set keep their refusal: it belongs to them.
+            if (j.options.groups == GroupsReading::never || out.sample.shape == InputShape::raw_bins) { j.done = true; return true; }
+            GroupReadOptions read;
+            read.parse = j.parse;
+            start_groups(j, read, std::move(rows));
+            j.stage = 2;
+            return false;
+        }
+        case 1: {  // offered beside one sample
+            if (!step_grouped_rows(&j.groups, budget)) return false;
+            GroupedCounts& offered = j.groups.out;
             out.groups_offered = offered.status.ok && offered.groups.size() >= 2;
             if (out.groups_offered) out.groups = std::move(offered);
+            break;
         }
-        return out;
+        case 2: {  // tried after the one-sample refusal
+            if (!step_grouped_rows(&j.groups, budget)) return false;
+            GroupedCounts groups = taken_as_groups(std::move(j.groups.out));
+            if (groups.status.ok) {
+                out.kind = InputKind::groups;
+                out.groups = std::move(groups);
+            } else if (groups.group_problem) {
+                // A table of groups refused for its groups (one group, an empty or missing group
+                // cell): the groups reader's message, the one `tallyproof --by` gives, says what is wrong.
+                out.status = groups.status;
+            }
+            break;
+        }
+        default: {  // groups only
+            if (!step_grouped_rows(&j.groups, budget)) return false;
+            out.groups = std::move(j.groups.out);
+            out.status = out.groups.status;
+            out.kind = out.status.ok ? InputKind::groups : InputKind::refused;
+            break;
+        }
     }
-    // Not one sample, but perhaps many. Bins the user set keep their refusal: it belongs to them.
-    if (options.groups == GroupsReading::never || out.sample.shape == InputShape::raw_bins) return out;
-    GroupReadOptions read;
-    read.parse = parse;
-    GroupedCounts groups = taken_as_groups(!rows.empty() && splits_alike(parse, read.parse)
-                                               ? read_grouped_rows(std::move(rows), out.sample.separator, read)
-                                               : read_grouped_text(text, read));
-    if (groups.status.ok) {
-        out.kind = InputKind::groups;
-        out.groups = std::move(groups);
-    } else if (groups.group_problem) {
-        // A table of groups refused for its groups (one group, an empty or missing group cell):
-        // the groups reader's message, the one `tallyproof --by` gives, says what is wrong.
-        out.status = groups.status;
+    { GroupedRowsJob spent; std::swap(j.groups, spent); }
+    j.done = true;
+    return true;
+}
+
+double input_read_fraction(const InputReadJob& j) {
+    if (j.done) return 1.0;
+    // The one-sample reading's split is most of the work when it splits the whole table; the
+    // groups' reading follows it.
+    if (j.stage == 0) {
+        const std::size_t size = j.sample.text.size();
+        return size == 0 ? 0.0 : 0.3 * static_cast<double>(paste_reading_offset(j.sample)) / static_cast<double>(size);
     }
-    return out;
+    if (j.stage == 3) return grouped_rows_fraction(j.groups);
+    return std::min(0.99, 0.3 + 0.7 * grouped_rows_fraction(j.groups));
+}
+
+InputReading read_input(std::string_view text, const ParseOptions& parse, const ReadInputOptions& options) {
+    InputReadJob job;
+    start_input_read(text, parse, options, &job);
+    while (!step_input_read(&job, 0)) {}
+    return std::move(job.result);
 }
 
 bool mix_fits_new_counts(const Model& model, std::size_t categories) {

@@ -12,6 +12,7 @@
 #include "analysis.hpp"
 #include "grouped_table.hpp"
 #include "parsed_input.hpp"
+#include "paste_parser.hpp"
 
 namespace tallyproof {
 
@@ -46,6 +47,27 @@ struct InputReading {
 // values of groups). The text is split into rows once: the groups offered beside a one-sample
 // reading are read from the rows the one-sample reader split, when it split them all.
 InputReading read_input(std::string_view text, const ParseOptions& parse, const ReadInputOptions& options = {});
+
+// read_input in steps, for a caller that must stay responsive (the page reading a long table of
+// 100,000 groups): the text split and read a budget of rows per step (PasteReading, then
+// GroupedRowsJob). The same operations in the same order as read_input, which runs it to the end,
+// so the same reading. `text` must outlive the job.
+struct InputReadJob {
+    InputReading result;  // complete when `done`
+    bool done = false;
+    // The run's state.
+    std::string_view text;
+    ParseOptions parse;
+    ReadInputOptions options;
+    int stage = 0;        // 0 one sample, 1 groups offered beside it, 2 groups tried after its refusal, 3 groups only
+    PasteReading sample;
+    GroupedRowsJob groups;
+};
+void start_input_read(std::string_view text, const ParseOptions& parse, const ReadInputOptions& options, InputReadJob* job);
+// About `budget` rows split or read (0: all); true when done (then job->result is the reading).
+bool step_input_read(InputReadJob* job, std::size_t budget);
+// Share of the reading done, in [0, 1): for progress.
+double input_read_fraction(const InputReadJob& job);
 
 // The groups tried when a text is refused as one sample (GroupsReading::automatic): status ok
 // only when it reads as a long or wide table of two or more groups. `parse` as for read_input.

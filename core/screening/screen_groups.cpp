@@ -199,11 +199,13 @@ bool screen_against_from_name(const std::string& name, ScreenAgainst* against) {
 
 namespace {
 
-constexpr std::uint64_t kShortPathUnits = 1;   // a group by the short path or against the rest
-constexpr std::uint64_t kAnalysisUnits = 25;   // a group by the whole single analysis (measured: ~25x)
+// Work units, in proportion to their cost, so that a slice sized from one phase's rate fits the next.
+constexpr std::uint64_t kTallyUnits = 1;       // a group totalled before the tests
+constexpr std::uint64_t kShortPathUnits = 8;   // a group by the short path or against the rest (estimated: a statistic and a tail, ~8x a total)
+constexpr std::uint64_t kAnalysisUnits = 200;  // a group by the whole single analysis (measured: ~25x the short path)
 
-// Checks the input and sets up the pooled counts, the shared shares and the Monte Carlo budget;
-// false (result.status set) when the screen is refused.
+// Checks the input's shape and sets up the run (the totals, pooled counts, shared shares and Monte
+// Carlo budget come in tally_step, in slices); false (result.status set) when the screen is refused.
 bool set_up(ScreenJob& j, const GroupedCounts& counts) {
     const Analysis& base = j.base;
     const ScreenChoice& choice = j.choice;
@@ -227,9 +229,27 @@ bool set_up(ScreenJob& j, const GroupedCounts& counts) {
 
     j.pooled.assign(k, 0.0);
     j.total = 0;
-    s.groups.resize(groups);
-    for (std::size_t g = 0; g < groups; ++g) {
-        GroupRow& row = s.groups[g];
+    s.groups.clear();
+    s.groups.reserve(groups);  // the rows come in tally_step
+    j.quick.assign(groups, 0);
+    j.next = 0;
+    j.phase = -1;  // each group's total first (tally_step), then the tests
+    j.progress = WorkProgress{};
+    j.progress.units_estimate = groups * (kTallyUnits + kShortPathUnits);
+    return true;
+}
+
+// Each group's name and total, and the pooled counts, up to `budget` groups; when every group is
+// tallied, the checks that need the totals and the shares every group is tested against.
+// False when the screen is refused (s.status).
+bool tally_step(ScreenJob& j, const GroupedCounts& counts, std::uint64_t budget, std::uint64_t* spent) {
+    const Analysis& base = j.base;
+    const ScreenChoice& choice = j.choice;
+    ScreenResult& s = j.result;
+    const std::size_t k = counts.categories.size(), groups = counts.groups.size();
+    for (; j.next < groups && *spent < budget; ++j.next, *spent += kTallyUnits) {
+        const std::size_t g = j.next;
+        GroupRow& row = s.groups.emplace_back();
         row.name = counts.groups[g];
         row.line = g < counts.group_lines.size() ? counts.group_lines[g] : 0;
         for (std::size_t c = 0; c < k; ++c) {
@@ -244,6 +264,7 @@ bool set_up(ScreenJob& j, const GroupedCounts& counts) {
         }
         j.total += row.n;
     }
+    if (j.next < groups) return true;
     if (!(j.total > 0)) { s.status = Status::failure("Every group has a total of zero: there is nothing to test."); return false; }
 
     // One Monte Carlo budget for the whole screen (monte_carlo.hpp): refused at once when the groups'
@@ -252,21 +273,18 @@ bool set_up(ScreenJob& j, const GroupedCounts& counts) {
     if (choice.against == ScreenAgainst::model && base.pvalue.method == PValueMethod::monte_carlo) {
         std::size_t simulated = 0;
         for (const auto& row : s.groups) simulated += row.n > 0;
-        const Status budget = monte_carlo_within_budget(static_cast<double>(base.pvalue.replicates) * static_cast<double>(simulated),
-                                                        static_cast<double>(k),
-                                                        "tables of " + std::to_string(k) + " categories: " +
-                                                            format_grouped(base.pvalue.replicates) + " for each of " +
-                                                            std::to_string(simulated) + " groups");
-        if (!budget.ok) { s.status = budget; return false; }
+        const Status budget_left = monte_carlo_within_budget(static_cast<double>(base.pvalue.replicates) * static_cast<double>(simulated),
+                                                             static_cast<double>(k),
+                                                             "tables of " + std::to_string(k) + " categories: " +
+                                                                 format_grouped(base.pvalue.replicates) + " for each of " +
+                                                                 std::to_string(simulated) + " groups");
+        if (!budget_left.ok) { s.status = budget_left; return false; }
     }
     std::string shared_description;
     j.shares = choice.against == ScreenAgainst::model ? shared_shares(base, counts.categories, j.pooled, &shared_description)
                                                       : std::vector<double>{};
-    j.quick.assign(groups, 0);
     j.next = 0;
     j.phase = 0;
-    j.progress = WorkProgress{};
-    j.progress.units_estimate = groups;
     return true;
 }
 
@@ -347,6 +365,7 @@ WorkProgress step(ScreenJob& j, const GroupedCounts& counts, std::uint64_t budge
     const std::size_t k = counts.categories.size(), groups = counts.groups.size();
     ScreenResult& s = j.result;
     std::uint64_t spent = 0;
+    if (j.phase == -1 && !tally_step(j, counts, budget, &spent)) { mark_done(j); return pr; }
     while (j.phase == 0 && j.next < groups && spent < budget) {
         const std::size_t g = j.next++;
         GroupRow& row = s.groups[g];
@@ -373,7 +392,7 @@ WorkProgress step(ScreenJob& j, const GroupedCounts& counts, std::uint64_t budge
     if (j.phase == 0 && j.next == groups) {
         if (!adjust(j)) { mark_done(j); return pr; }
         j.phase = 1;
-        pr.units_estimate = groups + j.flagged_quick.size() * kAnalysisUnits;
+        pr.units_estimate = groups * (kTallyUnits + kShortPathUnits) + j.flagged_quick.size() * kAnalysisUnits;
     }
     while (j.phase == 1 && j.next < j.flagged_quick.size() && spent < budget) {
         const std::size_t g = j.flagged_quick[j.next++];  // the drivers come from the whole single analysis
@@ -392,7 +411,8 @@ WorkProgress step(ScreenJob& j, const GroupedCounts& counts, std::uint64_t budge
     pr.units_done += spent;
     // Testing is nine tenths of the bar, the drivers of flagged groups the rest (their number is known
     // only once every group is tested), so the fraction never goes back.
-    const double f = j.phase == 0 ? 0.9 * static_cast<double>(j.next) / static_cast<double>(groups)
+    const double f = j.phase == -1 ? 0.0
+                     : j.phase == 0 ? 0.9 * static_cast<double>(j.next) / static_cast<double>(groups)
                                   : 0.9 + 0.1 * static_cast<double>(j.next) / static_cast<double>(std::max<std::size_t>(j.flagged_quick.size(), 1));
     pr.fraction = std::max(pr.fraction, std::min(f, 0.99));
     return pr;
@@ -404,12 +424,25 @@ void start_screen_job(const Analysis& base, GroupedCounts counts, const ScreenCh
     job->base = base;
     job->choice = choice;
     job->counts = std::move(counts);
+    job->viewed = nullptr;
     job->cancel_requested = false;
     job->progress = WorkProgress{};
     if (!set_up(*job, job->counts)) mark_done(*job);
 }
 
-WorkProgress step_screen_job(ScreenJob* job, std::uint64_t budget) { return step(*job, job->counts, budget); }
+void start_screen_job_on(const Analysis& base, const GroupedCounts& counts, const ScreenChoice& choice, ScreenJob* job) {
+    job->base = base;
+    job->choice = choice;
+    job->counts = GroupedCounts{};
+    job->viewed = &counts;
+    job->cancel_requested = false;
+    job->progress = WorkProgress{};
+    if (!set_up(*job, counts)) mark_done(*job);
+}
+
+WorkProgress step_screen_job(ScreenJob* job, std::uint64_t budget) {
+    return step(*job, job->viewed ? *job->viewed : job->counts, budget);
+}
 
 void cancel_screen_job(ScreenJob* job) {
     job->cancel_requested = true;

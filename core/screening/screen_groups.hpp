@@ -67,12 +67,13 @@ struct ScreenResult {
 };
 
 // The screen in slices, as the exact and Monte Carlo jobs run (work_slice.hpp): the page tests a
-// few thousand groups a slice with progress and cancel. A step does about `budget` units (a group by
-// the short path or against the rest: 1; a group by the whole single analysis: 25); the finished
-// job's result is bit-identical to screen_groups' (the same operations in the same order).
+// few thousand groups a slice with progress and cancel. A step does about `budget` units (a group
+// totalled: 1; tested by the short path or against the rest: 8; by the whole single analysis: 200);
+// the finished job's result is bit-identical to screen_groups' (the same operations in the same order).
 struct ScreenJob {
     Analysis base;
-    GroupedCounts counts;            // the groups screened (the job's own copy)
+    GroupedCounts counts;            // the groups screened (the job's own copy)...
+    const GroupedCounts* viewed = nullptr;  // ...or the caller's (start_screen_job_on)
     ScreenChoice choice;
     ScreenResult result;             // complete when progress.done (a refusal: result.status)
     WorkProgress progress;
@@ -82,10 +83,13 @@ struct ScreenJob {
     std::vector<unsigned char> quick;         // tested by the short path
     std::vector<std::size_t> flagged_quick;   // ...and flagged: their drivers come next
     std::size_t next = 0;
-    int phase = 0;                   // 0 testing groups, 1 drivers of flagged groups, 2 done
+    int phase = 0;                   // -1 totalling groups, 0 testing them, 1 drivers of flagged groups, 2 done
     bool cancel_requested = false;
 };
 void start_screen_job(const Analysis& base, GroupedCounts counts, const ScreenChoice& choice, ScreenJob* job);
+// The same on the caller's counts, not a copy (100,000 groups copied hold a page for a tenth of a
+// second): they must outlive the job and stay unchanged while it runs.
+void start_screen_job_on(const Analysis& base, const GroupedCounts& counts, const ScreenChoice& choice, ScreenJob* job);
 WorkProgress step_screen_job(ScreenJob* job, std::uint64_t budget);
 void cancel_screen_job(ScreenJob* job);   // the next step reports cancelled; no result
 

@@ -145,7 +145,54 @@ std::vector<std::vector<TableCell>> group_rows(const ScreenResult& s) {
 
 std::string group_table(const ScreenResult& s, const TableExportOptions& o) { return write_table(group_rows(s), o); }
 
-std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s, const ScreenView* view) {
+namespace {
+// One group's object of the result document's "groups" list.
+void write_group_row(JsonWriter& j, const GroupedCounts& counts, const ScreenResult& s, std::size_t gi) {
+    const std::size_t k = s.categories.size();
+    const double na = std::nan("");
+    const GroupRow& g = s.groups[gi];
+    j.begin_object();
+    j.key("name").value(g.name);
+    if (counts.counts.size() == s.groups.size() * k)
+        j.key("observed").numbers(std::vector<double>(counts.counts.begin() + static_cast<std::ptrdiff_t>(gi * k),
+                                                      counts.counts.begin() + static_cast<std::ptrdiff_t>((gi + 1) * k)));
+    j.key("n").value(g.n);
+    j.key("tested").value(g.tested);
+    j.key("statistic").value(g.tested ? g.statistic : na);
+    j.key("df").value(g.tested ? g.df : na);
+    j.key("method").value(g.tested ? pvalue_method_name(g.method) : "");
+    j.key("p_value").value(g.tested ? g.p.p : na);
+    j.key("log10_p_value").value(g.tested ? g.p.log10_p : na);
+    j.key("q_value").value(g.tested ? g.q.p : na);
+    j.key("log10_q_value").value(g.tested ? g.q.log10_p : na);
+    j.key("w").value(g.tested ? g.w : na);  // chance-corrected, as effect_size.w of a single analysis
+    j.key("cohen_w").value(g.tested ? g.cohen_w : na);
+    if (g.digits) j.key("mad").value(g.mad).key("mad_band").value(g.band);
+    else j.key("mad").null();
+    j.key("thin").value(g.thin);
+    j.key("flagged").value(g.flagged);
+    j.key("drivers").begin_array();
+    for (const auto& d : g.drivers)
+        j.begin_object().key("category").value(d.category).key("direction").value(d.direction)
+            .key("observed").value(d.observed).key("expected").value(d.expected)
+            .key("adjusted_residual").value(d.adjusted_residual).end_object();
+    j.end_array();
+    if (!g.note.empty()) j.key("note").value(g.note);
+    if (g.line > 0) j.key("line").value(static_cast<double>(g.line));
+    j.end_object();
+}
+}  // namespace
+
+std::string screen_group_rows_json(const GroupedCounts& counts, const ScreenResult& s, const std::vector<std::size_t>& groups) {
+    JsonWriter j;
+    j.begin_array();
+    for (const std::size_t gi : groups)
+        if (gi < s.groups.size()) write_group_row(j, counts, s, gi);
+    j.end_array();
+    return j.str();
+}
+
+std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s, const ScreenView* view, bool list_groups) {
     JsonWriter j;
     if (!begin_result_document(j, s.status)) {
         j.end_object();
@@ -165,43 +212,12 @@ std::string screen_json(const Analysis& base, const GroupedCounts& counts, const
         .key("tested").value(static_cast<double>(s.tested))
         .key("flagged").value(static_cast<double>(s.flagged))
         .key("thin").value(static_cast<double>(s.thin))
-        .key("summary").value(screen_summary(s))
-        .end_object();
-    const std::size_t k = s.categories.size();
+        .key("summary").value(screen_summary(s));
+    if (!list_groups) j.key("groups_listed").value(false);
+    j.end_object();
     j.key("groups").begin_array();
-    const double na = std::nan("");
-    for (std::size_t gi = 0; gi < s.groups.size(); ++gi) {
-        const GroupRow& g = s.groups[gi];
-        j.begin_object();
-        j.key("name").value(g.name);
-        if (counts.counts.size() == s.groups.size() * k)
-            j.key("observed").numbers(std::vector<double>(counts.counts.begin() + static_cast<std::ptrdiff_t>(gi * k),
-                                                          counts.counts.begin() + static_cast<std::ptrdiff_t>((gi + 1) * k)));
-        j.key("n").value(g.n);
-        j.key("tested").value(g.tested);
-        j.key("statistic").value(g.tested ? g.statistic : na);
-        j.key("df").value(g.tested ? g.df : na);
-        j.key("method").value(g.tested ? pvalue_method_name(g.method) : "");
-        j.key("p_value").value(g.tested ? g.p.p : na);
-        j.key("log10_p_value").value(g.tested ? g.p.log10_p : na);
-        j.key("q_value").value(g.tested ? g.q.p : na);
-        j.key("log10_q_value").value(g.tested ? g.q.log10_p : na);
-        j.key("w").value(g.tested ? g.w : na);  // chance-corrected, as effect_size.w of a single analysis
-        j.key("cohen_w").value(g.tested ? g.cohen_w : na);
-        if (g.digits) j.key("mad").value(g.mad).key("mad_band").value(g.band);
-        else j.key("mad").null();
-        j.key("thin").value(g.thin);
-        j.key("flagged").value(g.flagged);
-        j.key("drivers").begin_array();
-        for (const auto& d : g.drivers)
-            j.begin_object().key("category").value(d.category).key("direction").value(d.direction)
-                .key("observed").value(d.observed).key("expected").value(d.expected)
-                .key("adjusted_residual").value(d.adjusted_residual).end_object();
-        j.end_array();
-        if (!g.note.empty()) j.key("note").value(g.note);
-        if (g.line > 0) j.key("line").value(static_cast<double>(g.line));
-        j.end_object();
-    }
+    if (list_groups)
+        for (std::size_t gi = 0; gi < s.groups.size(); ++gi) write_group_row(j, counts, s, gi);
     j.end_array();
     j.key("notes").strings(s.notes);
     j.key("reading_notes").strings(counts.notes);

@@ -28,6 +28,11 @@ std::string group_table(const ScreenResult& s, const TableExportOptions& o);  //
 // The result document of a screen: the input as the analysis document writes it (categories,
 // settings, groups with observed, screen settings and `view`), so it reads back as the same screen,
 // and the output.
-std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s, const ScreenView* view = nullptr);
+// With `list_groups` false the "groups" list is empty and screen.groups_listed is false: the page's
+// summary of a screen too large to hand over whole (its rows are asked for a page at a time).
+std::string screen_json(const Analysis& base, const GroupedCounts& counts, const ScreenResult& s, const ScreenView* view = nullptr,
+                        bool list_groups = true);
+// The "groups" objects of screen_json for the groups given (indices into s.groups), in that order.
+std::string screen_group_rows_json(const GroupedCounts& counts, const ScreenResult& s, const std::vector<std::size_t>& groups);
 
 }  // namespace tallyproof
