@@ -5,7 +5,8 @@
 # --quick runs the R and NumPy Monte Carlo at a tenth of the replicates, for trying the script out;
 # --exact-only runs only bench_exact_dp, numpy_exact_dp.py, bench_monte_carlo and numpy_monte_carlo.py
 # and rewrites only their section of docs/benchmarks.md, keeping the others; --bracket-only runs only
-# bench_exact_bracket and rewrites only the decision-aimed bracket's section)
+# bench_exact_bracket, bench_exact_reference and bench_exact_tail_width and rewrites only the
+# decision-aimed bracket's section)
 set -euo pipefail
 top=$(cd "$(dirname "$0")/../.." && pwd)
 dir="$top/build/bench"
@@ -26,14 +27,21 @@ exact_and_many_categories() {
     /usr/bin/python3 "$top/tests/bench/numpy_monte_carlo.py" | tee "$out/numpy_monte_carlo.txt"
     cat /proc/loadavg > "$out/loadavg_exact.txt"
 }
-# The decision-aimed bracket (issue 32), with the walk as reference where it fits.
+# The decision-aimed bracket (issue 32), with the walk as reference where it fits; the same exact p
+# beside the 1e7-replicate NumPy Monte Carlo reference; the relative width reached for tail p.
 exact_bracket() {
     echo "== exact p-values, decision-aimed bracket (bench_exact_bracket)"
     "$bin/bench_exact_bracket" walk | tee "$out/bench_exact_bracket.txt"
     cat /proc/loadavg > "$out/loadavg_bracket.txt"
+    echo "== the exact p beside NumPy Monte Carlo (bench_exact_reference)"
+    "$bin/bench_exact_reference" | tee "$out/bench_exact_reference.txt"
+    cat /proc/loadavg > "$out/loadavg_reference.txt"
+    echo "== tail p: relative width of the grid bracket (bench_exact_tail_width)"
+    "$bin/bench_exact_tail_width" | tee "$out/bench_exact_tail_width.txt"
+    cat /proc/loadavg > "$out/loadavg_tail_width.txt"
 }
 if [ "$quick" = "--bracket-only" ]; then
-    cmake --build "$dir" -j"$jobs" --target bench_exact_bracket >/dev/null
+    for t in bench_exact_bracket bench_exact_reference bench_exact_tail_width; do cmake --build "$dir" -j"$jobs" --target "$t" >/dev/null; done
     exact_bracket
     /usr/bin/python3 "$top/tests/bench/write_benchmarks_md.py" "$out" "$top/docs/benchmarks.md" --bracket-section-only
     echo "rewrote the decision-aimed bracket's section of $top/docs/benchmarks.md"
@@ -46,7 +54,7 @@ if [ "$quick" = "--exact-only" ]; then
     echo "rewrote the exact and many-categories section of $top/docs/benchmarks.md"
     exit 0
 fi
-targets="bench_tails bench_pvalues bench_tail_grid bench_exact_dp bench_exact_bracket bench_monte_carlo tallyproof"
+targets="bench_tails bench_pvalues bench_tail_grid bench_exact_dp bench_exact_bracket bench_exact_reference bench_exact_tail_width bench_monte_carlo tallyproof"
 help=$(cmake --build "$dir" --target help)
 case "$help" in *bench_parse*) targets="$targets bench_parse" ;; esac
 # shellcheck disable=SC2086

@@ -2,14 +2,18 @@
 // certified bracket, the decision called exact only when the bracket excludes alpha and then the
 // one a brute-force enumeration gives, tail p-values to a relative bracket of 1e-6 where the
 // chosen method reaches it, and the words the report gives. References: a brute-force odometer
-// over every outcome (written here, as in test_exact_dp.cpp), and Markov's inequality
-// P(X² >= t) <= E[X²] / t with E[X²] = k - 1 exactly under the multinomial (Cramér 1946, 30.1).
+// over every outcome (brute_force_multinomial.hpp, shared with test_exact_dp.cpp), and Markov's inequality
+// P(X² >= t) <= E[X²] / t with E[X²] = k - 1 exactly under the multinomial (Cramér 1946, 30.1),
+// and where enumeration is infeasible (k = 10..100, N to 5000) NumPy Monte Carlo with 1e7 replicates
+// a table (tests/reference/exact_monte_carlo.csv, generate_exact_monte_carlo.py).
 #include <doctest/doctest.h>
 
 #include <cmath>
 #include <string>
 #include <vector>
 
+#include "brute_force_multinomial.hpp"
+#include "reference_csv.hpp"
 #include "exact_bracket_text.hpp"
 #include "exact_choice.hpp"
 #include "exact_grid_bracket.hpp"
@@ -21,50 +25,8 @@ using namespace tallyproof;
 
 namespace {
 
-struct Case {
-    std::vector<int> observed;
-    std::vector<double> shares;  // need not sum to 1
-};
-
-// P(X² >= observed) (or P(outcome probability <= observed)) by visiting every outcome.
-double brute_force_p(const Case& c, ExtremeOrdering ordering) {
-    const std::size_t k = c.observed.size();
-    int n = 0;
-    double total = 0;
-    for (int v : c.observed) n += v;
-    for (double s : c.shares) total += s;
-    auto log_p = [&](const std::vector<int>& x) {
-        double l = std::lgamma(n + 1.0);
-        for (std::size_t i = 0; i < k; ++i) l += x[i] * std::log(c.shares[i] / total) - std::lgamma(x[i] + 1.0);
-        return l;
-    };
-    auto pearson = [&](const std::vector<int>& x) {
-        double t = 0;
-        for (std::size_t i = 0; i < k; ++i) {
-            const double e = n * c.shares[i] / total;
-            t += (x[i] - e) * (x[i] - e) / e;
-        }
-        return t;
-    };
-    const double l_obs = log_p(c.observed), t_obs = pearson(c.observed);
-    std::vector<int> x(k, 0);
-    double p = 0;
-    for (;;) {
-        int used = 0;
-        for (std::size_t i = 0; i + 1 < k; ++i) used += x[i];
-        if (used <= n) {
-            x[k - 1] = n - used;
-            const bool extreme = ordering == ExtremeOrdering::probability ? log_p(x) <= l_obs + 1e-9
-                                                                          : pearson(x) >= t_obs - 1e-9 * std::fabs(t_obs);
-            if (extreme) p += std::exp(log_p(x));
-        }
-        std::size_t i = 0;
-        while (i + 1 < k && x[i] == n) x[i++] = 0;
-        if (i + 1 >= k) break;
-        ++x[i];
-    }
-    return p;
-}
+using Case = tallyproof_test::EnumeratedTable;
+using tallyproof_test::brute_force_p;
 
 MultinomialTestSpec spec_of(const Case& c, ExtremeOrdering ordering) {
     MultinomialTestSpec s;
@@ -331,5 +293,57 @@ TEST_CASE("the analysis records the bracket and its decision, and the report say
         const std::string json = report_json(a, r);
         CHECK(json.find("\"bracket\":{\"lower\":") != std::string::npos);
         CHECK(json.find("\"decides_at_alpha\":") != std::string::npos);
+    }
+}
+
+TEST_CASE("brackets past brute force agree with 1e7-replicate NumPy Monte Carlo (exact_monte_carlo.csv)") {
+    // Each table through the analysis as a user runs it (exact p, 1 s budget) at alpha = 0.05 and
+    // 0.01. Why 5 SE: the true p lies in the certified bracket, so p_hat falls more than 5 SE outside
+    // it only if p_hat strays 5 SE from the true p: 5.7e-7 a row under the normal approximation, at
+    // most 1.9e-6 for a count of 100 hits (Poisson tails, SciPy 1.10 poisson.sf; every row has >= 100),
+    // so below 2.5e-5 for the family of 12 rows (the two alphas share a row's p_hat). A bracket
+    // missing p by 5 SE fails: 0.05% of p at p near 0.9, 1% near alpha, half of p at p = 1e-5.
+    const auto rows = tallyproof_test::reference_rows("exact_monte_carlo.csv");
+    REQUIRE(rows.size() == 12);
+    for (const auto& row : rows) {
+        REQUIRE(row.size() == 12);
+        const std::vector<double> observed = tallyproof_test::split_numbers(row[3]);
+        const std::vector<double> shares = tallyproof_test::split_numbers(row[4]);
+        const double x2 = std::stod(row[6]), hits = std::stod(row[8]), p_hat = std::stod(row[9]), se = std::stod(row[10]);
+        CAPTURE(row[0]);
+        REQUIRE(hits >= 100);
+        Analysis a;
+        for (std::size_t j = 0; j < observed.size(); ++j) a.categories.push_back("c" + std::to_string(j + 1));
+        a.observed = observed;
+        a.model.kind = ModelKind::ratio;  // the shares as given, any total (rescaled to sum 1, as NumPy's pi)
+        a.model.values = shares;
+        a.pvalue.method = PValueMethod::exact;
+        for (double alpha : {0.05, 0.01}) {
+            CAPTURE(alpha);
+            a.alpha = alpha;
+            const Result r = analyse_completely(a);
+            CAPTURE(r.status.message);
+            REQUIRE(r.status.ok);
+            CAPTURE(r.exact.refusal);
+            REQUIRE(r.exact.computed);  // never refused for time (k <= 100, N <= 5000)
+            CHECK(r.statistic == doctest::Approx(x2).epsilon(1e-12));  // NumPy's X², float64
+            CAPTURE(r.exact.method);
+            CAPTURE(p_hat);
+            CAPTURE(se);
+            CAPTURE(r.exact.p_lower);
+            CAPTURE(r.exact.p_upper);
+            CHECK(r.exact.p_lower <= r.p.p);
+            CHECK(r.p.p <= r.exact.p_upper);
+            CHECK(r.exact.p_lower - 5 * se <= p_hat);
+            CHECK(p_hat <= r.exact.p_upper + 5 * se);
+            // An exact decision only when alpha lies outside the bracket, and then Monte Carlo's
+            // wherever p_hat is clearly (5 SE) on one side of alpha.
+            CHECK(r.exact.decides_at_alpha == (r.exact.p_upper <= alpha || r.exact.p_lower > alpha));
+            if (r.exact.decides_at_alpha) {
+                CHECK(r.reject == (r.exact.p_upper <= alpha));
+                if (p_hat > alpha + 5 * se) CHECK_FALSE(r.reject);
+                if (p_hat < alpha - 5 * se) CHECK(r.reject);
+            }
+        }
     }
 }

@@ -1,6 +1,6 @@
 // The polynomial exact methods (equal_shares_exact, grid_bracket_exact, exact_choice) against a
-// brute-force enumeration written here (every outcome visited by an odometer, probabilities as
-// N! prod pi^x / x!, statistic from the Cressie-Read definition), against the branch-and-bound
+// brute-force enumeration (brute_force_multinomial.hpp: every outcome visited by an odometer,
+// probabilities as N! prod pi^x / x!, statistic from the Cressie-Read definition), against the branch-and-bound
 // walk where both run, and the bracket containing the brute-force p for every ordering.
 #include <doctest/doctest.h>
 
@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "brute_force_multinomial.hpp"
 #include "exact_equal_shares.hpp"
 #include "exact_choice.hpp"
 #include "exact_multinomial.hpp"
@@ -17,52 +18,9 @@ using namespace tallyproof;
 
 namespace {
 
-struct Case {
-    std::vector<int> observed;
-    std::vector<double> shares;  // need not sum to 1
-};
+using Case = tallyproof_test::EnumeratedTable;
 
-// P(extreme) by visiting every outcome with the same total (odometer over the first k - 1 counts).
-double enumerate_p(const Case& c, ExtremeOrdering ordering, double lambda) {
-    const std::size_t k = c.observed.size();
-    int n = 0;
-    double total = 0;
-    for (int v : c.observed) n += v;
-    for (double s : c.shares) total += s;
-    auto log_p = [&](const std::vector<int>& x) {
-        double l = std::lgamma(n + 1.0);
-        for (std::size_t i = 0; i < k; ++i) l += x[i] * std::log(c.shares[i] / total) - std::lgamma(x[i] + 1.0);
-        return l;
-    };
-    auto statistic = [&](const std::vector<int>& x) {
-        double t = 0;
-        for (std::size_t i = 0; i < k; ++i) {
-            const double o = x[i], e = n * c.shares[i] / total;
-            if (lambda == 0) t += o > 0 ? 2 * o * std::log(o / e) : 0.0;
-            else t += 2 / (lambda * (lambda + 1)) * ((o > 0 ? std::pow(o, lambda + 1) * std::pow(e, -lambda) : 0.0) - o);
-        }
-        return t;
-    };
-    const double l_obs = log_p(c.observed), t_obs = statistic(c.observed);
-    // Outcomes as compositions of n: x[0..k-2] by nested counting, x[k-1] the rest.
-    std::vector<int> x(k, 0);
-    double p = 0;
-    for (;;) {
-        int used = 0;
-        for (std::size_t i = 0; i + 1 < k; ++i) used += x[i];
-        if (used <= n) {
-            x[k - 1] = n - used;
-            const bool extreme = ordering == ExtremeOrdering::probability ? log_p(x) <= l_obs + 1e-9
-                                                                          : statistic(x) >= t_obs - 1e-9 * std::fabs(t_obs);
-            if (extreme) p += std::exp(log_p(x));
-        }
-        std::size_t i = 0;  // odometer over x[0..k-2], each digit 0..n
-        while (i + 1 < k && x[i] == n) x[i++] = 0;
-        if (i + 1 >= k) break;
-        ++x[i];
-    }
-    return p;
-}
+using tallyproof_test::brute_force_p;
 
 MultinomialTestSpec spec_of(const Case& c, ExtremeOrdering ordering, double lambda) {
     MultinomialTestSpec s;
@@ -115,16 +73,16 @@ const std::vector<Case> kUnequalCases = {
 
 TEST_CASE("the brute-force oracle visits every outcome once") {
     const Case centre{{1, 1, 2, 3}, {1, 1, 2, 3}};  // X² = 0 at the expected counts: every outcome is extreme
-    CHECK(enumerate_p(centre, ExtremeOrdering::statistic, 1.0) == doctest::Approx(1.0).epsilon(1e-12));
+    CHECK(brute_force_p(centre, ExtremeOrdering::statistic, 1.0) == doctest::Approx(1.0).epsilon(1e-12));
     // Closed form: under shares 1/2, 1/4, 1/4 only (0, 7, 0) and (0, 0, 7) reach X² = 21: p = 2 4^-7.
-    CHECK(enumerate_p(Case{{0, 7, 0}, {2, 1, 1}}, ExtremeOrdering::statistic, 1.0) == doctest::Approx(2 * std::pow(0.25, 7)).epsilon(1e-12));
+    CHECK(brute_force_p(Case{{0, 7, 0}, {2, 1, 1}}, ExtremeOrdering::statistic, 1.0) == doctest::Approx(2 * std::pow(0.25, 7)).epsilon(1e-12));
 }
 
 TEST_CASE("equal-shares programme: brute force and the walk agree") {
     for (const Case& c : kEqualCases) {
         CAPTURE(c.observed.size());
         const MultinomialTestSpec spec = spec_of(c, ExtremeOrdering::statistic, 1.0);
-        const double brute = enumerate_p(c, ExtremeOrdering::statistic, 1.0);
+        const double brute = brute_force_p(c, ExtremeOrdering::statistic, 1.0);
         const ExactMultinomialResult dp = run_equal_shares(spec);
         ExactMultinomialResult walk;
         REQUIRE(exact_multinomial_p_value(spec, ExactMultinomialOptions{}, &walk).ok);
@@ -160,7 +118,7 @@ TEST_CASE("the bracket contains the brute-force p for every ordering and lambda"
                 CAPTURE(c.observed.size());
                 CAPTURE(lambda);
                 CAPTURE(static_cast<int>(ord));
-                const double brute = enumerate_p(c, ord, lambda);
+                const double brute = brute_force_p(c, ord, lambda);
                 const ExactMultinomialResult r = run_bracket(spec_of(c, ord, lambda), 1e-4);
                 CAPTURE(brute);
                 CAPTURE(r.p.p);
@@ -174,7 +132,7 @@ TEST_CASE("X² with rational shares is exact on the lattice; the choice picks th
     const Case c{{3, 0, 1, 4}, {0.1, 0.2, 0.3, 0.4}};
     const ExactMultinomialResult r = run_bracket(spec_of(c, ExtremeOrdering::statistic, 1.0), 1e-6);
     CHECK(r.error_bound < 1e-12);
-    CHECK(r.p.p == doctest::Approx(enumerate_p(c, ExtremeOrdering::statistic, 1.0)).epsilon(1e-11));
+    CHECK(r.p.p == doctest::Approx(brute_force_p(c, ExtremeOrdering::statistic, 1.0)).epsilon(1e-11));
 
     ExactMethod m = ExactMethod::walk;
     ExactMultinomialResult e;
@@ -243,7 +201,7 @@ TEST_CASE("the chosen exact method matches brute force for every ordering and la
                 ExactMultinomialResult e;
                 ExactMethod m = ExactMethod::walk;
                 REQUIRE(exact_p_value(spec, ExactChoiceOptions{}, &e, &m).ok);
-                const double brute = enumerate_p(c, ord, lambda);
+                const double brute = brute_force_p(c, ord, lambda);
                 CAPTURE(brute);
                 CAPTURE(e.p.p);
                 CAPTURE(exact_method_name(m));
@@ -260,7 +218,7 @@ TEST_CASE("the chosen exact method matches brute force for every ordering and la
 TEST_CASE("equal-shares programme against brute force with N = 12 over 7 categories") {
     // The odometer visits 13^6 = 4.8 million tuples (18,564 outcomes): about a tenth of a second.
     const Case c{{5, 1, 0, 2, 3, 0, 1}, std::vector<double>(7, 1.0)};
-    const double brute = enumerate_p(c, ExtremeOrdering::statistic, 1.0);
+    const double brute = brute_force_p(c, ExtremeOrdering::statistic, 1.0);
     const ExactMultinomialResult dp = run_equal_shares(spec_of(c, ExtremeOrdering::statistic, 1.0));
     CAPTURE(brute);
     CHECK(dp.p.p == doctest::Approx(brute).epsilon(1e-10));
