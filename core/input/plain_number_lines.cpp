@@ -165,4 +165,79 @@ PlainLinesCounted count_plain_number_lines(std::string_view text, bool input_end
     return done;
 }
 
+namespace {
+
+std::size_t count_line_ends(std::string_view s) {  // DelimitedReader's rule: LF, CRLF or a lone CR
+    std::size_t n = 0;
+    for (std::size_t i = 0; i < s.size(); ++i)
+        if (s[i] == '\n' || (s[i] == '\r' && (i + 1 == s.size() || s[i + 1] != '\n'))) ++n;
+    return n;
+}
+
+// `text` read the general way, its lines numbered after `before`; a failure's line renumbered.
+Status general_lines(const RawSource& like, std::string_view text, int header_line, DecimalMark mark, int before,
+                     DigitCounter* counter, std::pair<int, int>* first_where) {
+    RawSource src = like;
+    src.text = text;
+    src.header_line = header_line;
+    Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
+        const int why = counter->add_cell(cell, mark);
+        if (why >= 0 && first_where[why].first == 0) first_where[why] = {line + before, column};
+        return true;
+    });
+    if (!read.ok) {
+        const std::string said = "Line " + std::to_string(read.line);
+        if (read.message.rfind(said, 0) == 0)
+            read.message = "Line " + std::to_string(read.line + before) + read.message.substr(said.size());
+        read.line += before;
+    }
+    return read;
+}
+
+}  // namespace
+
+Status count_digit_lines(const RawSource& src, DecimalMark mark, int line_before, DigitCounter* counter,
+                         std::pair<int, int>* first_where, std::size_t* line_ends) {
+    const std::string_view text = src.text;
+    std::size_t pos = 0, ends = 0;
+    if (src.header_line > 0) {  // the lines up to the header row's end, the general way
+        std::size_t i = 0;
+        for (int line = 1; i < text.size() && line <= src.header_line; ++i) {
+            if (text[i] == '\n') ++line;
+            else if (text[i] == '\r') {
+                if (i + 1 < text.size() && text[i + 1] == '\n') ++i;
+                ++line;
+            }
+        }
+        const std::string_view head = text.substr(0, i);
+        if (head.find('"') != std::string_view::npos) {  // a quoted cell may run on: all of it the general way
+            const Status s = general_lines(src, text, src.header_line, mark, line_before, counter, first_where);
+            *line_ends = count_line_ends(text);
+            return s;
+        }
+        const Status s = general_lines(src, head, src.header_line, mark, line_before, counter, first_where);
+        if (!s.ok) return s;
+        pos = head.size();
+        ends = count_line_ends(head);
+    }
+    const bool input_ends = text.empty() || (text.back() != '\n' && text.back() != '\r');
+    while (pos < text.size()) {
+        const PlainLinesCounted fast = count_plain_number_lines(text.substr(pos), input_ends,
+                                                                line_before + static_cast<int>(ends), counter, first_where);
+        pos += fast.bytes;
+        ends += static_cast<std::size_t>(fast.lines);
+        if (pos >= text.size()) break;
+        const std::string_view rest = text.substr(pos);
+        const std::size_t nl = rest.find('\n');
+        std::string_view line = nl == std::string_view::npos ? rest : rest.substr(0, nl + 1);
+        if (line.find('"') != std::string_view::npos) line = rest;
+        const Status s = general_lines(src, line, 0, mark, line_before + static_cast<int>(ends), counter, first_where);
+        if (!s.ok) return s;
+        ends += count_line_ends(line);
+        pos += line.size();
+    }
+    *line_ends = ends;
+    return Status::success();
+}
+
 }  // namespace tallyproof

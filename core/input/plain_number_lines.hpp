@@ -11,6 +11,8 @@
 #include <utility>
 
 #include "digit_extraction.hpp"
+#include "raw_observations.hpp"
+#include "status.hpp"
 
 namespace tallyproof {
 
@@ -30,5 +32,15 @@ bool plain_lines_serve(const DigitCounter& counter, DecimalMark mark);
 // first_where[reason] = {line, 1} when still {0, 0}.
 PlainLinesCounted count_plain_number_lines(std::string_view text, bool input_ends, int line_before,
                                            DigitCounter* counter, std::pair<int, int>* first_where);
+
+// The values of `src.text` (whole lines; the last may lack its line end) counted into `counter`:
+// plain-number lines by count_plain_number_lines, every other line by raw_observations'
+// for_each_raw_cell and DigitCounter::add_cell on its own (a line holding a quote with all the text
+// after it, since a quoted cell may run over lines; the lines up to src.header_line, when set, the
+// general way too), so the counts and first places equal those of for_each_raw_cell over the whole
+// text. Lines are numbered from line_before + 1, in first_where and in the status returned (the
+// general reader's: a quote left open). *line_ends receives the line ends passed (LF, CRLF, lone CR).
+Status count_digit_lines(const RawSource& src, DecimalMark mark, int line_before, DigitCounter* counter,
+                         std::pair<int, int>* first_where, std::size_t* line_ends);
 
 }  // namespace tallyproof

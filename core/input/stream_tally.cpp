@@ -59,40 +59,23 @@ bool DigitStreamTally::feed(std::string_view piece) {
             }
         }
     }
-    // The fast path (plain_number_lines) takes the lines it can prove it reads as the general
-    // reader does; each line it stops at is read the general way on its own (a line with a quote
-    // and the rest of the piece with it, since a quoted cell may run over lines). A first piece
-    // with a header row is read the general way.
-    if (!plain_lines_serve(counter_, first_.decimal) || (first_piece && header_line_ > 0)) {
-        if (!read_general(piece, first_piece ? header_line_ : 0)) return false;
-        lines_ += line_ends(piece);
-        return true;
-    }
-    const bool input_ends = piece.empty() || (piece.back() != '\n' && piece.back() != '\r');
-    for (std::size_t pos = 0; pos < piece.size();) {
-        const PlainLinesCounted fast = count_plain_number_lines(piece.substr(pos), input_ends,
-                                                                static_cast<int>(lines_), &counter_, first_where_);
-        pos += fast.bytes;
-        lines_ += static_cast<std::size_t>(fast.lines);
-        if (pos >= piece.size()) break;
-        std::string_view rest = piece.substr(pos);
-        const std::size_t nl = rest.find('\n');
-        std::string_view line = nl == std::string_view::npos ? rest : rest.substr(0, nl + 1);
-        if (line.find('"') != std::string_view::npos) line = rest;
-        if (!read_general(line, 0)) return false;
-        lines_ += line_ends(line);
-        pos += line.size();
-    }
-    return true;
-}
-
-bool DigitStreamTally::read_general(std::string_view text, int header_line) {
     RawSource src;
-    src.text = text;
+    src.text = piece;
     src.separator = first_.separator;
     src.numbers = true;
-    src.header_line = header_line;
+    src.header_line = first_piece ? header_line_ : 0;
     const int offset = static_cast<int>(lines_);
+    std::size_t ends = 0;
+    if (plain_lines_serve(counter_, first_.decimal)) {
+        // plain-number lines on the fast path, the others the general way (count_digit_lines)
+        const Status read = count_digit_lines(src, first_.decimal, offset, &counter_, first_where_, &ends);
+        if (!read.ok) {
+            status_ = read;
+            return false;
+        }
+        lines_ += ends;
+        return true;
+    }
     const DecimalMark mark = first_.decimal;
     const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
         const int why = counter_.add_cell(cell, mark);
@@ -107,6 +90,7 @@ bool DigitStreamTally::read_general(std::string_view text, int header_line) {
             status_.message = "Line " + std::to_string(read.line + offset) + read.message.substr(said.size());
         return false;
     }
+    lines_ += line_ends(piece);
     return true;
 }
 

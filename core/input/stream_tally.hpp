@@ -32,8 +32,6 @@ public:
     // every value, and a note that the text after the first `first_bytes` bytes was streamed.
     ParsedInput finish(std::size_t first_bytes, std::size_t total_bytes) const;
 private:
-    // `text` (whole lines after lines_) read by for_each_raw_cell and DigitCounter::add_cell.
-    bool read_general(std::string_view text, int header_line);
     ParsedInput first_;
     DigitTest test_;
     DigitCounter counter_;

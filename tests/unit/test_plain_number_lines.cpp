@@ -84,7 +84,7 @@ std::size_t ends_of(std::string_view s) {
 }
 
 // The general reader over the same pieces (the streamed tally without its fast path).
-ParsedInput general(const std::vector<std::string_view>& parts, DigitTest test, Separator sep, bool* ok) {
+ParsedInput general(const std::vector<std::string_view>& parts, DigitTest test, Separator sep, bool* ok, int header_line = 0) {
     DigitCounter counter(test);
     std::pair<int, int> where[kDigitExclusionReasons] = {};
     std::size_t lines = 0;
@@ -94,6 +94,7 @@ ParsedInput general(const std::vector<std::string_view>& parts, DigitTest test, 
         src.text = piece;
         src.separator = sep;
         src.numbers = true;
+        src.header_line = lines == 0 ? header_line : 0;
         const int offset = static_cast<int>(lines);
         const Status s = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
             const int why = counter.add_cell(cell, DecimalMark::point);
@@ -187,5 +188,30 @@ TEST_CASE("fast path: values on both sides of 1 MiB piece boundaries, against th
         CHECK(a.observed == b.observed);  // source: read_input's whole-text reading
         b.notes.pop_back();               // "was streamed"
         CHECK(a.notes == b.notes);        // source: read_input's whole-text reading
+    }
+}
+
+TEST_CASE("fast path: the whole text read at once (tally_raw_digits), with and without a header row") {
+    for (int header : {0, 1, 3}) {
+        std::string text = header == 0 ? "" : header == 1 ? "Amount\r\n" : "\n\nAmount\n";
+        text += adversarial(8000, 4242, true, header != 3);
+        for (Separator sep : {Separator::tab, Separator::comma, Separator::spaces}) {
+            for (DigitTest test : {DigitTest::first, DigitTest::second, DigitTest::first_two, DigitTest::last, DigitTest::last_even}) {
+                CAPTURE(header);
+                CAPTURE(static_cast<int>(test));
+                bool ok = false;
+                const ParsedInput g = general({std::string_view(text)}, test, sep, &ok, header);
+                RawSource src;
+                src.text = text;
+                src.separator = sep;
+                src.numbers = true;
+                src.header_line = header;
+                ParsedInput f = head_for(test, sep);
+                tally_raw_digits(src, test, &f);
+                CHECK(ok == f.status.ok);             // source: the general reader
+                CHECK(g.observed == f.observed);      // source: the general reader
+                CHECK(g.notes == f.notes);            // source: the general reader (counts left out, first line and column)
+            }
+        }
     }
 }
