@@ -97,6 +97,7 @@ class DigitCounter {
 public:
     explicit DigitCounter(DigitTest test, const DigitExtractionOptions& options = {});
     bool needs_magnitude() const { return floor_ > 0; }  // add() compares magnitudes with a floor
+    double minimum_magnitude() const { return floor_; }    // the floor: values with |x| below it are left out
     // Counts one value; returns the reason it was left out (a DigitExclusion), or -1 when counted.
     int add(const WrittenDigits& w) {
         ++values_;

@@ -11,6 +11,7 @@
 
 #include "digit_extraction.hpp"
 #include "number_format.hpp"
+#include "plain_number_lines.hpp"
 
 namespace tallyproof {
 namespace {
@@ -143,6 +144,14 @@ void tally_raw_digits(const RawSource& src, DigitTest test, ParsedInput* out) {
     DigitCounter counter(test);
     std::pair<int, int> first_where[kDigitExclusionReasons] = {};  // line and column of the first value left out, per reason
     const DecimalMark mark = out->decimal;
+    if (plain_lines_serve(counter, mark)) {  // plain-number lines on the fast path, the same counts (plain_number_lines.hpp)
+        std::size_t ends = 0;
+        const Status read = count_digit_lines(src, mark, 0, &counter, first_where, &ends);
+        const DigitTally total = counter.tally();
+        if (!read.ok) { add_problem(out, read.line, read.column, read.message); return; }
+        put_digit_tally(total, first_where, test, out);
+        return;
+    }
     const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
         const int why = counter.add_cell(cell, mark);
         if (why >= 0 && first_where[why].first == 0) first_where[why] = {line, column};  // lines count from 1

@@ -6,6 +6,7 @@
 #include <string>
 
 #include "delimited_text.hpp"
+#include "plain_number_lines.hpp"
 #include "raw_observations.hpp"
 
 namespace tallyproof {
@@ -44,10 +45,6 @@ bool DigitStreamTally::feed(std::string_view piece) {
                                   " is not UTF-8 text; the lines read before it are not reported on their own.");
         return false;
     }
-    RawSource src;
-    src.text = piece;
-    src.separator = first_.separator;
-    src.numbers = true;
     if (first_piece && !first_.column_names.empty()) {
         // The header row is the first line with a value (read_raw_text's rows begin there).
         int line = 1;
@@ -61,9 +58,24 @@ bool DigitStreamTally::feed(std::string_view piece) {
                 break;
             }
         }
-        src.header_line = header_line_;
     }
+    RawSource src;
+    src.text = piece;
+    src.separator = first_.separator;
+    src.numbers = true;
+    src.header_line = first_piece ? header_line_ : 0;
     const int offset = static_cast<int>(lines_);
+    std::size_t ends = 0;
+    if (plain_lines_serve(counter_, first_.decimal)) {
+        // plain-number lines on the fast path, the others the general way (count_digit_lines)
+        const Status read = count_digit_lines(src, first_.decimal, offset, &counter_, first_where_, &ends);
+        if (!read.ok) {
+            status_ = read;
+            return false;
+        }
+        lines_ += ends;
+        return true;
+    }
     const DecimalMark mark = first_.decimal;
     const Status read = for_each_raw_cell(src, [&](std::string_view cell, int line, int column) {
         const int why = counter_.add_cell(cell, mark);

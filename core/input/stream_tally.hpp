@@ -3,7 +3,8 @@
 // on), so that memory is that of the tally, not of the text. The shape (separator, decimal
 // mark, header row) is decided once, by read_input on the first piece; every piece is then read
 // by raw_observations' for_each_raw_cell and digit_extraction's DigitCounter, the readers of the
-// whole text, so the counts and notes equal those of reading the whole text at once.
+// whole text, so the counts and notes equal those of reading the whole text at once. Lines that
+// hold one plain number go through plain_number_lines' fast path, which reads them identically.
 #pragma once
 #include <cstddef>
 #include <string_view>
