@@ -265,6 +265,7 @@ void step_screen(AppState& s, double budget_ms) {
         const double rate = static_cast<double>(slice) / std::max(took, 0.05);
         slice = static_cast<std::uint64_t>(std::clamp(std::min(rate * left * 0.8, 2.0 * static_cast<double>(slice)), 100.0, 1048576.0));
     }
+    if (p.done) { finish_screen(s); return; }
     set_progress(p.fraction, true);
 }
 
