@@ -972,7 +972,6 @@ void cancel_paste_job(AppState& s) {
     set_progress(fraction, false);
     set_notice(s, "Reading stopped at " + std::to_string(static_cast<int>(100 * fraction)) +
                       "%: the counts on screen are the ones before it.");
-    publish_notice("Reading cancelled.");
     s.view.frames_to_draw = 3;
 }
 

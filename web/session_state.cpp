@@ -196,8 +196,8 @@ void settle_frame(AppState& s) {
     if (due.due_save && whole) remember(s, document);
     else if (due.due_save && s.groups.result.status.ok)
         set_notice(s, "A screen of " + format_grouped(static_cast<std::uint64_t>(s.groups.counts.groups.size())) +
-                          " groups is too large to keep in this browser (it keeps about 5 MB a site): Save & share, "
-                          "Download analysis (JSON) keeps it, and opening that file returns to it.");
+                          " groups is too large to keep in this browser (it keeps about 5 MB a site): to keep it, use "
+                          "Save & share, Download analysis (JSON), and open that file to return to it.");
     due.due_publish = Session::Publish::none;
     due.due_save = false;
 }

@@ -45,6 +45,34 @@ async function expectScreen(page, expectedOrder, where) {
   return r;
 }
 
+// Long tasks of the page's main thread (Chrome's trace, through the DevTools protocol), each
+// named by what took most of it: the page's work slices, an input handler, a frame's read-back
+// of the canvas (software WebGL), or other.
+async function startTaskTrace(page) {
+  const cdp = await page.context().newCDPSession(page);
+  const events = [];
+  cdp.on('Tracing.dataCollected', (e) => events.push(...e.value));
+  const complete = new Promise((r) => cdp.on('Tracing.tracingComplete', r));
+  await cdp.send('Tracing.start', { categories: 'devtools.timeline,disabled-by-default-devtools.timeline', transferMode: 'ReportEvents' });
+  return {
+    async finish() {
+      await cdp.send('Tracing.end');
+      await complete;
+      const main = events.find((e) => e.ph === 'M' && e.name === 'thread_name' && e.args.name === 'CrRendererMain');
+      const on = events.filter((e) => main && e.pid === main.pid && e.tid === main.tid && e.ph === 'X' && e.dur);
+      const tasks = on.filter((e) => (e.name === 'RunTask' || e.name === 'ThreadControllerImpl::RunTask') && e.dur > 50000);
+      return tasks.map((t) => {
+        const inside = on.filter((e) => e !== t && e.ts >= t.ts && e.ts + e.dur <= t.ts + t.dur && e.dur > 0.3 * t.dur);
+        const names = inside.map((e) => e.name + ':' + ((e.args && e.args.data && e.args.data.functionName) || ''));
+        const kind = names.some((n) => n.includes('onmessage')) ? 'work'
+          : names.some((n) => n.startsWith('EventDispatch')) ? 'input'
+          : names.some((n) => n.startsWith('Commit') || n.includes('ReadPixels')) ? 'frame' : 'other';
+        return { kind, ms: t.dur / 1000 };
+      });
+    },
+  };
+}
+
 export const tests = {
   async 'the form view pages through every group of a long screen, 200 at a time, by keys'() {
     await withPage({ permissions: ['clipboard-read', 'clipboard-write'] }, async (page) => {
@@ -150,46 +178,77 @@ export const tests = {
     });
   },
 
-  async '100,000 groups: the testing runs in slices with progress, and Cancel stops it'() {
-    // Long tasks observed from the page's start (PerformanceObserver 'longtask', buffered).
-    const initScript = `globalThis.__long = []; new PerformanceObserver((l) => { for (const e of l.getEntries()) globalThis.__long.push([e.startTime, e.duration]); }).observe({ type: 'longtask', buffered: true });`;
-    await withPage({ permissions: ['clipboard-read', 'clipboard-write'], initScript }, async (page) => {
-      // 100,000 invented groups x 10 categories as a wide table (header: the digits 0-9). Counts of
-      // 1 to 4 make every group thin (expected 2.5 a cell), so each gets an exact or simulated p and
-      // the testing lasts long enough to be cancelled midway.
+  async '100,000 groups: read and tested in slices, on screen in seconds, paged in the form view, never a long freeze'() {
+    await withPage({ permissions: ['clipboard-read', 'clipboard-write'] }, async (page) => {
+      // 100,000 invented groups x 10 categories as a wide table under a header of the digits 0-9,
+      // about 415 counts a group (not thin: each group by the asymptotic test).
       const rows = ['group,0,1,2,3,4,5,6,7,8,9'];
-      for (let g = 0; g < 100000; g++) {
-        const c = Array.from({ length: 10 }, (_, d) => 1 + ((g * 7 + d * 13) % 4));
-        rows.push(`G${g},${c.join(',')}`);
-      }
-      const text = rows.join('\n') + '\n';
+      for (let g = 0; g < 100000; g++) rows.push(`G${g},` + Array.from({ length: 10 }, (_, d) => 40 + ((g * 7 + d * 13) % 4)).join(','));
       await focusCanvas(page);
-      const start = await page.evaluate(() => performance.now());
+      const tasks = await startTaskTrace(page);
+      const start = Date.now();
+      await pasteText(page, rows.join('\n') + '\n', { focus: 'keep' });
+      await page.waitForFunction(() => document.getElementById('tp-results').textContent.includes('0 of 100000 groups depart'), null, { timeout: 60000, polling: 100 });
+      const shown = Date.now() - start;
+      await page.waitForTimeout(500);
+      const long = await tasks.finish();
+      const longest = (kind) => Math.max(0, ...long.filter((t) => t.kind === kind).map((t) => t.ms));
+      // The issue's target is 100 ms a task. The page's own work comes in slices of about 30 ms;
+      // on the shared 2-core build machine, with software WebGL, the slices measured 50-130 ms and a
+      // frame's pixel read-back 80-200 ms (work no page code can split). Asserted here: no freeze of a
+      // second (finishing this screen was one task of 6.3 s before the result was handed over in parts).
+      console.log(`     100,000 groups pasted: on screen after ${shown} ms; longest tasks: page work ${longest('work').toFixed(0)} ms, ` +
+        `paste handler ${longest('input').toFixed(0)} ms, frame read-back ${longest('frame').toFixed(0)} ms, other ${longest('other').toFixed(0)} ms (${long.length} over 50 ms)`);
+      assert(Math.max(0, ...long.map((t) => t.ms)) < 1000, `a task of a second or more: ${JSON.stringify(long.filter((t) => t.ms >= 1000))}`);
+      assert(longest('work') < 400, `a work slice of ${longest('work').toFixed(0)} ms`);
+      // Too large to keep in the browser's storage: said, with the file offered.
+      const notice = await page.evaluate(() => document.getElementById('tp-progress').textContent);
+      assert(notice.includes('too large to keep in this browser') && notice.includes('Download analysis (JSON)'), `notice: ${notice}`);
+      const r = await lastResult(page);
+      assert(r.screen.groups === 100000 && r.screen.groups_listed === false && r.groups.length === 0, `result: ${JSON.stringify(r.screen)}`);
+      await screenshot(page, 'screen-100k');
+      // The form view pages through the groups, asking the page for 200 rows at a time.
+      await openFormView(page);
+      const caption = () => page.evaluate(() => document.querySelector('#tp-groups-table caption').textContent);
+      const names = () => page.evaluate(() => [...document.querySelectorAll('#tp-groups-table tbody th button')].map((b) => b.textContent));
+      assert((await caption()).includes('groups 1 to 200 of 100000'), `caption: ${await caption()}`);
+      const first = await names();
+      assert(first.length === 200 && first[0] === 'G0' && first[199] === 'G199', `first page: ${first.length} rows, ${first.slice(0, 2)} ... ${first.slice(-1)}`);
+      await page.getByRole('button', { name: 'Next 200 groups' }).focus();
+      await page.keyboard.press('Enter');
+      assert((await caption()).includes('groups 201 to 400 of 100000'), `caption: ${await caption()}`);
+      const second = await names();
+      assert(second[0] === 'G200' && second[199] === 'G399', `second page: ${second.slice(0, 2)} ... ${second.slice(-1)}`);
+      await closeFormView(page);
+    });
+  },
+
+  async '100,000 groups: Escape stops the reading midway and the counts before it stay; Cancel stops the testing'() {
+    await withPage({ permissions: ['clipboard-read', 'clipboard-write'] }, async (page) => {
+      // Counts of 1 to 4 make every group thin (expected 2.5 a cell): an exact or simulated p each,
+      // so the testing lasts long enough to be cancelled midway too.
+      const rows = ['group,0,1,2,3,4,5,6,7,8,9'];
+      for (let g = 0; g < 100000; g++) rows.push(`G${g},` + Array.from({ length: 10 }, (_, d) => 1 + ((g * 7 + d * 13) % 4)).join(','));
+      const text = rows.join('\n') + '\n';
+      const before = await resultsText(page);
+      await focusCanvas(page);
       await pasteText(page, text, { focus: 'keep' });
-      const testing = () => (document.getElementById('tp-progress').dataset.running === '1' &&
-        document.getElementById('tp-results').textContent.includes('testing 100,000 groups'));
-      await page.waitForFunction(testing, null, { timeout: 60000, polling: 200 });
-      const read = await page.evaluate(() => performance.now());
-      // Progress moves while the groups are tested; the page answers in between (a frame each 250 ms).
+      // While the text is read, the counts on screen are the ones before it; Escape stops the reading.
+      await page.waitForFunction(() => document.getElementById('tp-progress').dataset.running === '1', null, { timeout: 20000, polling: 20 });
+      assert(!(await resultsText(page)).includes('100,000 groups'), 'the reading was over before Escape');
+      await page.keyboard.press('Escape');
+      await page.waitForFunction(() => /^Reading stopped at/.test(globalThis.tallyproofPage.lastNotice), null, { timeout: 10000 });
+      await page.waitForTimeout(300);
+      assert((await resultsText(page)) === before, `after Escape: ${(await resultsText(page)).slice(0, 200)}`);
+      const said = await page.evaluate(() => document.getElementById('tp-progress').textContent);
+      assert(/Reading stopped at \d+%: the counts on screen are the ones before it\./.test(said), `notice: ${said}`);
+      // Pasted again and left to read: the testing runs in slices with progress, and Cancel stops it.
+      await pasteText(page, text, { focus: 'keep' });
+      await page.waitForFunction(() => document.getElementById('tp-results').textContent.includes('testing 100,000 groups'), null, { timeout: 60000, polling: 200 });
       await page.waitForFunction(() => /Working: ([1-9]\d?)%/.test(document.getElementById('tp-progress').textContent), null, { timeout: 60000, polling: 100 });
-      const midway = await page.evaluate(() => document.getElementById('tp-progress').textContent);
       await clickWidget(page, 'Cancel screen');
       await page.waitForFunction(() => document.getElementById('tp-results').textContent.includes('cancelled at'), null, { timeout: 10000 });
-      const shown = await resultsText(page);
-      const cancelled = await page.evaluate(() => performance.now());
-      await page.waitForTimeout(500);
-      const long = await page.evaluate(() => globalThis.__long);
-      const during = long.filter(([t0]) => t0 >= read - 1 && t0 <= cancelled).map(([, d]) => d);
-      const before = long.filter(([t0]) => t0 >= start - 1 && t0 < read - 1).map(([, d]) => d);
-      const longest = (xs) => (xs.length ? Math.max(...xs) : 0);
-      console.log(`     100,000 groups by Ctrl+V: read and first slice ${(read - start).toFixed(0)} ms (longest task ${longest(before).toFixed(0)} ms); ` +
-        `testing until cancelled (${midway}): ${during.length} long tasks, longest ${longest(during).toFixed(0)} ms`);
       await screenshot(page, 'screen-100k-cancelled');
-      assert(shown.includes('cancelled at'), `after Cancel: ${shown.slice(0, 200)}`);
-      // While the groups are tested (after the one-call reading) the page keeps answering: no task
-      // of a second. The issue's target is 100 ms; with every group thin (an exact or simulated p
-      // each) a task of 455 ms was measured on the shared build machine: not met yet (see report).
-      assert(longest(during) <= 1000, `a task of ${longest(during).toFixed(0)} ms while testing`);
     });
   },
 
