@@ -131,19 +131,11 @@ void step_job(AppState& s, double budget_ms) {
     if (s.pasting.running) return step_paste_job(s, budget_ms);
     if (s.groups.screening && !s.work.running) return step_screen(s, budget_ms);
     if (!s.work.running) return;
-    const double start = emscripten_get_now(), until = start + budget_ms;
-    // Small first slice, then slices sized from the measured rate to fill what is left of the
-    // budget (work units differ a thousandfold in cost between Monte Carlo and exact jobs).
-    std::uint64_t slice = 1000;
-    for (;;) {
-        const double t0 = emscripten_get_now();
-        const WorkProgress p = step_pvalue_job(&s.work.job, slice);
-        if (p.done || p.cancelled) break;
-        const double now = emscripten_get_now(), left = until - now, took = now - t0;
-        if (left <= 0.5) break;
-        const double rate = static_cast<double>(slice) / std::max(took, 0.05);  // units per ms
-        slice = static_cast<std::uint64_t>(std::clamp(rate * left * 0.9, 100.0, 4194304.0));
-    }
+    // Work units differ a thousandfold in cost between Monte Carlo and exact jobs: sized from the rate.
+    run_slices(budget_ms, 1000, 4194304, [&](std::uint64_t units) {
+        const WorkProgress p = step_pvalue_job(&s.work.job, units);
+        return p.done || p.cancelled;
+    });
     if (s.work.job.progress.done || s.work.job.progress.cancelled) {
         s.work.running = false;
         finish_pvalue_job(s.work.job, &s.result);
@@ -936,20 +928,8 @@ void drop_paste_job(AppState& s) {
 void step_paste_job(AppState& s, double budget_ms) {
     PasteJob& p = s.pasting;
     if (!p.running) return;
-    const double until = emscripten_get_now() + budget_ms;
-    // As step_job: a small first slice, then slices sized from the measured rate (rows per ms).
-    std::size_t slice = 2000;
-    bool done = false;
-    for (;;) {
-        const double t0 = emscripten_get_now();
-        done = step_input_read(&p.job, slice);
-        if (done) break;
-        const double now = emscripten_get_now(), left = until - now, took = now - t0;
-        if (left <= 0.5) break;
-        // Rows differ in cost between the stages (splitting, reading, notes): a slice at most doubles.
-        const double rate = static_cast<double>(slice) / std::max(took, 0.05);
-        slice = static_cast<std::size_t>(std::clamp(std::min(rate * left * 0.8, 2.0 * static_cast<double>(slice)), 200.0, 1048576.0));
-    }
+    bool done = false;  // units: rows split or read
+    run_slices(budget_ms, 2000, 1048576, [&](std::uint64_t rows) { return done = step_input_read(&p.job, static_cast<std::size_t>(rows)); });
     if (!done) {
         set_progress(input_read_fraction(p.job), true);
         return;

@@ -10,6 +10,7 @@
 
 #include "analysis_document.hpp"
 #include "app_state.hpp"
+#include "app_state_internal.hpp"
 #include "number_format.hpp"
 #include "page_bridge.hpp"
 #include "read_input.hpp"
@@ -251,20 +252,11 @@ void recompute_groups(AppState& s) {
 void step_screen(AppState& s, double budget_ms) {
     GroupsView& v = s.groups;
     if (!v.screening) return;
-    const double until = emscripten_get_now() + budget_ms;
-    // As step_job: a small first slice, then slices sized from the measured rate.
-    std::uint64_t slice = kFirstScreenSlice;
     WorkProgress p;
-    for (;;) {
-        const double t0 = emscripten_get_now();
-        p = step_screen_job(&v.job, slice);
-        if (p.done || p.cancelled) break;
-        const double now = emscripten_get_now(), left = until - now, took = now - t0;
-        if (left <= 0.5) break;
-        // Groups differ in cost (a total, a short test, an exact p): a slice at most doubles.
-        const double rate = static_cast<double>(slice) / std::max(took, 0.05);
-        slice = static_cast<std::uint64_t>(std::clamp(std::min(rate * left * 0.8, 2.0 * static_cast<double>(slice)), 100.0, 1048576.0));
-    }
+    run_slices(budget_ms, kFirstScreenSlice, 1048576, [&](std::uint64_t units) {
+        p = step_screen_job(&v.job, units);
+        return p.done || p.cancelled;
+    });
     if (p.done) { finish_screen(s); return; }
     set_progress(p.fraction, true);
 }
