@@ -165,6 +165,16 @@ Status sison_glaz_intervals(const std::vector<double>& observed, double confiden
     }
     constexpr double kScan = 64;
     double c = 1, current = 0;
+    // A large sample's c lies far past the scan (c grows as the root of n): where nu(64) is still
+    // below the confidence level, the scan's 63 evaluations below it are skipped (26 ms of 30 at
+    // n = 4e7, k = 10) and the doubling starts there.
+    if (n > kScan) {
+        const double nu_scan = coverage(observed, n, kScan);
+        if (std::isfinite(nu_scan) && !(nu_scan > confidence)) {
+            c = kScan + 1;
+            previous = nu_scan;
+        }
+    }
     for (; c <= std::min(n, kScan); ++c) {
         current = coverage(observed, n, c);
         if (!std::isfinite(current)) return Status::failure("The Sison-Glaz coverage could not be computed.");
