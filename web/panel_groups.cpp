@@ -236,6 +236,7 @@ void draw_funnel(AppState& s, const Theme& t, ImVec2 size) {
 void draw_groups_view(AppState& s, const Theme& t) {
     GroupsView& v = s.groups;
     const ScreenResult& r = v.result;
+    draw_reading_progress(s, t);  // new data being read: the screen below stays until it is read
     if (v.screening) {  // testing in slices: progress and a way to stop
         char label[96];
         std::snprintf(label, sizeof label, "Testing %zu groups: %.0f%%", v.counts.groups.size(), 100 * v.job.progress.fraction);

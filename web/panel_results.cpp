@@ -106,15 +106,7 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
                                                  format_significant(r.monte_carlo.standard_error, 2) + ".");
     ImGui::PopStyleColor();
 
-    if (s.pasting.running) {  // a long text being read: the counts below are the ones before it
-        char label[96];
-        std::snprintf(label, sizeof label, "Reading the new data: %.0f%%", 100 * job_fraction(s));
-        ImGui::PushStyleColor(ImGuiCol_PlotHistogram, ImGui::ColorConvertU32ToFloat4(t.progress));
-        ImGui::ProgressBar(static_cast<float>(job_fraction(s)), ImVec2(std::min(360.0f, ImGui::GetContentRegionAvail().x - 90), 0), label);
-        ImGui::PopStyleColor();
-        ImGui::SameLine();
-        if (ImGui::Button("Cancel##reading")) cancel_paste_job(s); mark_widget("Cancel reading");
-    }
+    draw_reading_progress(s, t);
     if (s.work.running) {
         const char* what = s.analysis.pvalue.method == PValueMethod::exact ? "Exact p-value" : "Monte Carlo p-value";
         char label[96];
@@ -125,6 +117,20 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
         ImGui::SameLine();
         if (ImGui::Button("Cancel")) cancel_job(s); mark_widget("Cancel");
     }
+}
+
+// A long text being read (in slices): its progress and a way to stop; the counts on screen are
+// the ones before it until it is read. Drawn above the results and above the Groups view.
+void draw_reading_progress(AppState& s, const Theme& t) {
+    if (!s.pasting.running) return;
+    char label[96];
+    std::snprintf(label, sizeof label, "Reading the new data: %.0f%%", 100 * job_fraction(s));
+    ImGui::PushStyleColor(ImGuiCol_PlotHistogram, ImGui::ColorConvertU32ToFloat4(t.progress));
+    ImGui::ProgressBar(static_cast<float>(job_fraction(s)), ImVec2(std::min(360.0f, ImGui::GetContentRegionAvail().x - 90), 0), label);
+    ImGui::PopStyleColor();
+    ImGui::SameLine();
+    if (ImGui::Button("Cancel##reading")) cancel_paste_job(s);
+    mark_widget("Cancel reading");
 }
 
 void draw_validity_panel(AppState& s, const Theme& t) {

@@ -25,6 +25,7 @@ void draw_writeup_panel(AppState& state, const Theme& theme);
 
 // panel_groups.cpp: the screen of many groups, and the banner over a group opened from it
 void draw_groups_view(AppState& state, const Theme& theme);
+void draw_reading_progress(AppState& state, const Theme& theme);  // a long text being read, with Cancel
 void draw_funnel(AppState& state, const Theme& theme, ImVec2 size);  // the screen's funnel chart (also for images)
 void draw_group_banner(AppState& state, const Theme& theme);
 
