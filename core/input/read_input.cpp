@@ -46,7 +46,7 @@ void start_input_read(std::string_view text, const ParseOptions& parse, const Re
         GroupReadOptions read = options.group;
         read.parse = parse;
         start_grouped_text(text, read, &job->groups);
-        job->stage = 3;
+        job->stage = InputReadStage::groups_only;
         return;
     }
     start_paste_reading(text, parse, &job->sample);
@@ -66,7 +66,7 @@ bool step_input_read(InputReadJob* job, std::size_t budget) {
     if (j.done) return true;
     InputReading& out = j.result;
     switch (j.stage) {
-        case 0: {  // one sample
+        case InputReadStage::sample: {
             if (!step_paste_reading(&j.sample, budget)) return false;
             out.sample = std::move(j.sample.out);
             std::vector<TableRow> rows = std::move(j.sample.rows);  // every row of the text, when the one-sample reader split them all
@@ -77,7 +77,7 @@ bool step_input_read(InputReadJob* job, std::size_t budget) {
                 // The same text may also read as groups (a wide table of two categories): offered, not chosen.
                 if (j.options.groups == GroupsReading::automatic && j.options.offer_groups && j.text.size() <= kMaxOfferedGroupsBytes) {
                     start_groups(j, GroupReadOptions{}, std::move(rows));
-                    j.stage = 1;
+                    j.stage = InputReadStage::offered_groups;
                     return false;
                 }
                 j.done = true;
@@ -88,17 +88,17 @@ bool step_input_read(InputReadJob* job, std::size_t budget) {
             GroupReadOptions read;
             read.parse = j.parse;
             start_groups(j, read, std::move(rows));
-            j.stage = 2;
+            j.stage = InputReadStage::refused_groups;
             return false;
         }
-        case 1: {  // offered beside one sample
+        case InputReadStage::offered_groups: {
             if (!step_grouped_rows(&j.groups, budget)) return false;
             GroupedCounts& offered = j.groups.out;
             out.groups_offered = offered.status.ok && offered.groups.size() >= 2;
             if (out.groups_offered) out.groups = std::move(offered);
             break;
         }
-        case 2: {  // tried after the one-sample refusal
+        case InputReadStage::refused_groups: {
             if (!step_grouped_rows(&j.groups, budget)) return false;
             GroupedCounts groups = taken_as_groups(std::move(j.groups.out));
             if (groups.status.ok) {
@@ -111,7 +111,7 @@ bool step_input_read(InputReadJob* job, std::size_t budget) {
             }
             break;
         }
-        default: {  // groups only
+        case InputReadStage::groups_only: {
             if (!step_grouped_rows(&j.groups, budget)) return false;
             out.groups = std::move(j.groups.out);
             out.status = out.groups.status;
@@ -128,11 +128,11 @@ double input_read_fraction(const InputReadJob& j) {
     if (j.done) return 1.0;
     // The one-sample reading's split is most of the work when it splits the whole table; the
     // groups' reading follows it.
-    if (j.stage == 0) {
+    if (j.stage == InputReadStage::sample) {
         const std::size_t size = j.sample.text.size();
         return size == 0 ? 0.0 : 0.3 * static_cast<double>(paste_reading_offset(j.sample)) / static_cast<double>(size);
     }
-    if (j.stage == 3) return grouped_rows_fraction(j.groups);
+    if (j.stage == InputReadStage::groups_only) return grouped_rows_fraction(j.groups);
     return std::min(0.99, 0.3 + 0.7 * grouped_rows_fraction(j.groups));
 }
 

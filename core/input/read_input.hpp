@@ -52,6 +52,13 @@ InputReading read_input(std::string_view text, const ParseOptions& parse, const 
 // 100,000 groups): the text split and read a budget of rows per step (PasteReading, then
 // GroupedRowsJob). The same operations in the same order as read_input, which runs it to the end,
 // so the same reading. `text` must outlive the job.
+enum class InputReadStage {
+    sample,         // read as one sample
+    offered_groups, // ...read, and tried as groups to offer beside it
+    refused_groups, // ...refused, and tried as groups
+    groups_only,    // GroupsReading::always
+};
+
 struct InputReadJob {
     InputReading result;  // complete when `done`
     bool done = false;
@@ -59,7 +66,7 @@ struct InputReadJob {
     std::string_view text;
     ParseOptions parse;
     ReadInputOptions options;
-    int stage = 0;        // 0 one sample, 1 groups offered beside it, 2 groups tried after its refusal, 3 groups only
+    InputReadStage stage = InputReadStage::sample;
     PasteReading sample;
     GroupedRowsJob groups;
 };
