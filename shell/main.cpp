@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cerrno>
 #include <cmath>
+#include <csignal>
 #include <cstdio>
 #include <cstdlib>
 #include <cstring>
@@ -10,6 +11,7 @@
 #include <utility>
 #include <vector>
 
+#include <signal.h>
 #include <unistd.h>
 
 #include "analysis_document.hpp"
@@ -145,9 +147,12 @@ const char* kUsage =
     "  --version, --help\n"
     "\n"
     "exit status: 0 analysed, 1 input refused, 2 usage error or input that cannot be read,\n"
-    "             3 output that could not be written (a full disk, a closed output)\n";
+    "             3 output that could not be written (a full disk, a closed output),\n"
+    "             4 analysed, but a streamed input ended in the middle of a line (it may have\n"
+    "               been cut short; the result says so), 128 + N stopped by signal N while\n"
+    "               a stream was read (no result)\n";
 
-constexpr int kRefused = 1, kUsageError = 2, kCannotRead = 2, kCannotWrite = 3;
+constexpr int kRefused = 1, kUsageError = 2, kCannotRead = 2, kCannotWrite = 3, kOpenEnd = 4;
 
 bool g_json = false;  // --json anywhere on the command line: every refusal is also a result document
 
@@ -514,13 +519,40 @@ int read_analysis(int argc, char** argv, std::string* text_in, CommandLine* c, A
     return kGoOn;
 }
 
+// While raw digits are streamed, SIGINT, SIGTERM and SIGHUP stop the reading between pieces: the
+// run says where it stopped and gives no result (a count of part of the data is never printed as
+// a result). The handlers of before are put back when the stream ends.
+volatile std::sig_atomic_t g_stop_signal = 0;
+extern "C" void note_stop_signal(int sig) { g_stop_signal = sig; }
+struct StopSignals {
+    static constexpr int kCaught[3] = {SIGINT, SIGTERM, SIGHUP};
+    struct sigaction before[3];
+    StopSignals() {
+        struct sigaction on {};
+        on.sa_handler = note_stop_signal;
+        sigemptyset(&on.sa_mask);
+        on.sa_flags = 0;  // no SA_RESTART: a read waiting on a pipe returns at once
+        for (int i = 0; i < 3; ++i) sigaction(kCaught[i], &on, &before[i]);
+    }
+    ~StopSignals() {
+        for (int i = 0; i < 3; ++i) sigaction(kCaught[i], &before[i], nullptr);
+    }
+};
+int stopped_by_signal(const std::string& name, std::size_t lines, std::size_t bytes) {
+    const int sig = g_stop_signal;
+    const char* which = sig == SIGINT ? "SIGINT" : sig == SIGTERM ? "SIGTERM" : sig == SIGHUP ? "SIGHUP" : "a signal";
+    std::fprintf(stderr, "stopped by %s while reading %s, after line %zu (%zu bytes read): no result; the input was not read to its end\n",
+                 which, name.c_str(), lines, bytes);
+    return 128 + sig;
+}
+
 constexpr std::size_t kStreamChunk = 1u << 20;  // raw digits are read 1 MiB at a time
 constexpr std::size_t kProgressEvery = 64u << 20;  // progress on a terminal every 64 MB
 
 // Fills `buf` from `in` up to its size; returns the bytes read (fewer only at the end or on error).
 std::size_t read_chunk(std::FILE* in, char* buf, std::size_t size) {
     std::size_t got = 0;
-    for (std::size_t n; got < size && (n = std::fread(buf + got, 1, size - got, in)) > 0;) got += n;
+    for (std::size_t n; got < size && g_stop_signal == 0 && (n = std::fread(buf + got, 1, size - got, in)) > 0;) got += n;
     return got;
 }
 
@@ -529,8 +561,12 @@ std::size_t read_chunk(std::FILE* in, char* buf, std::size_t size) {
 // DigitStreamTally in 1 MiB pieces cut at line ends, so memory does not grow with the input and
 // the 256 MB limit does not apply. Otherwise `text` receives the whole input and the caller reads
 // it as before. Returns kGoOn with *streamed set when the reading is in `reading`, or an exit status.
-int read_streamed_digits(const std::string& path, const CommandLine& c, std::string* text, ParsedInput* reading, bool* streamed) {
+// *open_line: the streamed input's last line when it has no line end (else 0).
+int read_streamed_digits(const std::string& path, const CommandLine& c, std::string* text, ParsedInput* reading, bool* streamed,
+                         std::size_t* open_line) {
     *streamed = false;
+    *open_line = 0;
+    StopSignals stop;
     const bool from_stdin = path.empty() || path == "-";
     const std::string name = from_stdin ? "standard input" : path;
     std::FILE* in = from_stdin ? stdin : std::fopen(path.c_str(), "rb");
@@ -539,6 +575,7 @@ int read_streamed_digits(const std::string& path, const CommandLine& c, std::str
     std::string buf(kStreamChunk, '\0');
     errno = 0;
     std::size_t got = read_chunk(in, buf.data(), buf.size());
+    if (g_stop_signal != 0) return stopped_by_signal(name, 0, got);
     if (std::ferror(in)) return cannot_read(name, errno != 0 ? errno : EIO);
     buf.resize(got);
     const std::size_t cut = buf.find_last_of('\n');
@@ -560,7 +597,8 @@ int read_streamed_digits(const std::string& path, const CommandLine& c, std::str
         *text = std::move(buf);
         if (got == kStreamChunk) {
             char more[65536];
-            for (std::size_t n; (n = std::fread(more, 1, sizeof more, in)) > 0;) text->append(more, n);
+            for (std::size_t n; g_stop_signal == 0 && (n = std::fread(more, 1, sizeof more, in)) > 0;) text->append(more, n);
+            if (g_stop_signal != 0) return stopped_by_signal(name, 0, text->size());
             if (std::ferror(in)) return cannot_read(name, errno != 0 ? errno : EIO);
         }
         return kGoOn;
@@ -575,6 +613,12 @@ int read_streamed_digits(const std::string& path, const CommandLine& c, std::str
         buf.assign(carry);
         buf.resize(carry.size() + kStreamChunk);
         got = read_chunk(in, buf.data() + carry.size(), kStreamChunk);
+        if (g_stop_signal != 0) {  // the whole lines read so far counted, to name the line reached
+            buf.resize(carry.size() + got);
+            const std::size_t cut = buf.find_last_of('\n');
+            if (cut != std::string::npos) tally.feed(std::string_view(buf).substr(0, cut + 1));
+            return stopped_by_signal(name, tally.lines(), total + got);
+        }
         if (std::ferror(in)) return cannot_read(name + " (after line " + std::to_string(tally.lines()) + ")", errno != 0 ? errno : EIO);
         at_end = got < kStreamChunk;
         buf.resize(carry.size() + got);
@@ -585,6 +629,7 @@ int read_streamed_digits(const std::string& path, const CommandLine& c, std::str
         }
         tally.feed(std::string_view(buf).substr(0, end));
         total += got;
+        if (at_end && end > 0 && buf[end - 1] != '\n' && buf[end - 1] != '\r') *open_line = tally.lines() + 1;
         carry = buf.substr(end);
         if (progress && total >= next_progress) {
             std::fprintf(stderr, "read %.1f GB, %zu values\n", static_cast<double>(total) / 1e9, tally.values());
@@ -592,6 +637,10 @@ int read_streamed_digits(const std::string& path, const CommandLine& c, std::str
         }
     }
     *reading = tally.finish(first.size(), total);
+    if (*open_line != 0 && reading->status.ok)
+        reading->notes.push_back("The input ends in the middle of line " + std::to_string(*open_line) +
+                                 " (no line end after it): if it was cut short (a program writing it stopped), these counts are of "
+                                 "part of the data; the run exits with status 4.");
     *streamed = true;
     return kGoOn;
 }
@@ -723,9 +772,10 @@ int main(int argc, char** argv) {
     GroupedCounts groups;
     Status read;
     bool streamed = false;
+    std::size_t open_line = 0;  // a streamed input's last line, when it has no line end
     if (c.input.digits && !c.screening && !c.survey && !c.read_whole && c.workbook.sheet.empty() && c.workbook.range.empty()) {
         ParsedInput reading;
-        if (const int r = read_streamed_digits(c.path, c, &text, &reading, &streamed); r != kGoOn) return r;
+        if (const int r = read_streamed_digits(c.path, c, &text, &reading, &streamed, &open_line); r != kGoOn) return r;
         if (streamed) {
             read = reading.status;
             std::vector<std::string> notes = reading.notes;
@@ -761,5 +811,11 @@ int main(int argc, char** argv) {
         std::any_of(c.opts.begin(), c.opts.end(), [](const auto& o) { return o.first == "--conformity" || o.first == "--conformity-points"; }))
         return usage_error("--conformity (show one sample conforms within w0) cannot be combined with --by or a document's "
                            "\"groups\" (a screen looks for departures across groups); test the group on its own with --conformity");
-    return c.screening ? write_screen(c, analysis, groups, read) : write_result(c, analysis, read);
+    if (c.screening) return write_screen(c, analysis, groups, read);
+    const int written = write_result(c, analysis, read);
+    if (written == 0 && open_line != 0 && read.ok) {
+        std::fprintf(stderr, "warning: the input ends in the middle of line %zu; if it was cut short, the result is of part of the data\n", open_line);
+        return kOpenEnd;
+    }
+    return written;
 }

@@ -10,6 +10,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
 #include <unordered_map>
 #include <string_view>
 #include <unordered_set>
@@ -42,7 +43,17 @@ const std::string& cell_at(const TableRow& row, std::size_t column) {
 }
 
 // A count cell as a count, or a located problem (false).
-bool read_count(const std::string& cell, int line, int column, DecimalMark mark, GroupedCounts* out, double* count) {
+bool read_count(std::string_view cell, int line, int column, DecimalMark mark, GroupedCounts* out, double* count) {
+    // The common cell, ASCII digits only (at most 15: below 2^53), as read_number reads it.
+    if (!cell.empty() && cell.size() <= 15) {
+        std::uint64_t v = 0;
+        std::size_t i = 0;
+        for (; i < cell.size() && cell[i] >= '0' && cell[i] <= '9'; ++i) v = v * 10 + static_cast<std::uint64_t>(cell[i] - '0');
+        if (i == cell.size()) {
+            *count = static_cast<double>(v);
+            return true;
+        }
+    }
     const NumberReading n = read_number(cell, mark);
     const char* fault = nullptr;
     if (cell.empty()) fault = "the count cell is empty; expected a non-negative whole number.";
@@ -58,6 +69,18 @@ bool read_count(const std::string& cell, int line, int column, DecimalMark mark,
     return true;
 }
 
+// An empty or missing group cell of a data row with `size` cells: the located problem.
+void missing_group_cell(int line, std::size_t size, std::size_t column, GroupedCounts* out) {
+    out->group_problem = true;
+    const int col = static_cast<int>(column) + 1;
+    if (column >= size)  // a short row: the group column is missing, not empty
+        add_group_problem(out, line, col, cell_location(line, col) + "the row has only " + std::to_string(size) +
+                                              (size == 1 ? " cell" : " cells") + ", so the group column (" +
+                                              std::to_string(col) + ") is missing; every row needs the name of its group.");
+    else
+        add_group_problem(out, line, col, cell_location(line, col) + "the group cell is empty; every row needs the name of its group.");
+}
+
 // The group cell of a data row, normalised into `name` (its cell as written in `spelling`), or a
 // located problem when it is empty (false).
 bool group_cell(const TableRow& row, std::size_t column, GroupedCounts* out, std::string* name, std::string* spelling) {
@@ -66,14 +89,7 @@ bool group_cell(const TableRow& row, std::size_t column, GroupedCounts* out, std
         *name = normalised_label(*spelling);
         return true;
     }
-    out->group_problem = true;
-    const int col = static_cast<int>(column) + 1;
-    if (column >= row.cells.size())  // a short row: the group column is missing, not empty
-        add_group_problem(out, row.line, col, cell_location(row.line, col) + "the row has only " + std::to_string(row.cells.size()) +
-                                                  (row.cells.size() == 1 ? " cell" : " cells") + ", so the group column (" +
-                                                  std::to_string(col) + ") is missing; every row needs the name of its group.");
-    else
-        add_group_problem(out, row.line, col, cell_location(row.line, col) + "the group cell is empty; every row needs the name of its group.");
+    missing_group_cell(row.line, row.cells.size(), column, out);
     return false;
 }
 
@@ -125,50 +141,106 @@ bool numbered_header_row(const std::vector<TableRow>& rows, std::size_t group_co
     return below > 0 && 10 * alike <= below;
 }
 
-// Long table: group, category, count on every line (in the columns found by the caller). One row
-// read; false when a limit stops the reading.
-bool read_long_row(GroupedRowsJob& j, const TableRow& row) {
+// Long table: group, category, count on every line (in the columns found by the caller), counted
+// into the job's matrix as read. `cells`: the row's `size` cells. False when a limit stops the reading.
+bool add_long_count(GroupedRowsJob& j, std::size_t g, std::size_t c, double count, int line);
+bool read_long_cells(GroupedRowsJob& j, int line, const std::string_view* cells, std::size_t size) {
     GroupedCounts* out = &j.out;
-    std::string name, spelling;
-    if (!group_cell(row, j.group_col, out, &name, &spelling)) return true;
-    const std::string label = normalised_label(cell_at(row, j.category_col));
-    if (label.empty()) {
+    auto at = [&](std::size_t c) { return c < size ? cells[c] : std::string_view(); };
+    const std::string_view group = at(j.group_col), category = at(j.category_col);
+    if (group.empty()) {
+        missing_group_cell(line, size, j.group_col, out);
+        return true;
+    }
+    if (category.empty()) {
         const int col = static_cast<int>(j.category_col) + 1;
-        add_group_problem(out, row.line, col, cell_location(row.line, col) + "the category cell of group " + quote_cell(name) + " is empty.");
+        add_group_problem(out, line, col, cell_location(line, col) + "the category cell of group " + quote_cell(normalised_label(group)) + " is empty.");
         return true;
     }
     double count = 0;
-    if (!read_count(cell_at(row, j.count_col), row.line, static_cast<int>(j.count_col) + 1, j.mark, out, &count)) return true;
+    if (!read_count(at(j.count_col), line, static_cast<int>(j.count_col) + 1, j.mark, out, &count)) return true;
     const std::size_t widest = std::max({j.group_col, j.category_col, j.count_col});
-    if (row.cells.size() > widest + 1) {
+    if (size > widest + 1) {
         const int col = static_cast<int>(widest) + 2;
-        add_group_problem(out, row.line, col, cell_location(row.line, col) + "found " + std::to_string(row.cells.size()) +
-                                                  " cells; expected group, category and count on every line.");
+        add_group_problem(out, line, col, cell_location(line, col) + "found " + std::to_string(size) +
+                                              " cells; expected group, category and count on every line.");
         return true;
     }
-    const std::size_t g = j.names.find_or_add(name, spelling, row.line, out);
-    const auto [it, fresh] = j.category_index.emplace(label, out->categories.size());
-    if (fresh) out->categories.push_back(label);
-    j.cells.push_back(GroupedRowsJob::LongCell{g, it->second, count});
+    // The group: the last one again when written the same (a table sorted by group), else by its
+    // normalised name; a cell written as before names the same group and adds no note.
+    std::size_t g = j.last_group;
+    if (g == static_cast<std::size_t>(-1) || group != j.last_group_cell) {
+        const std::string spelling(group);
+        g = j.names.find_or_add(normalised_label(group), spelling, line, out);
+        j.last_group = g;
+        j.last_group_cell = spelling;
+    }
+    std::size_t c = static_cast<std::size_t>(-1);
+    for (const auto& [written, index] : j.category_cells)
+        if (written == category) { c = index; break; }
+    if (c == static_cast<std::size_t>(-1)) {
+        const std::string label = normalised_label(category);
+        const auto [it, fresh] = j.category_index.emplace(label, out->categories.size());
+        if (fresh) out->categories.push_back(label);
+        c = it->second;
+        if (j.category_cells.size() < 32) j.category_cells.emplace_back(std::string(category), c);
+    }
     if (out->groups.size() > kMaxGroups || out->categories.size() > kMaxCategories) {
-        add_group_problem(out, row.line, 0, cell_location(row.line, 0) + "more than " + std::to_string(kMaxGroups) +
-                                                " groups or " + std::to_string(kMaxCategories) + " categories; expected fewer.");
+        add_group_problem(out, line, 0, cell_location(line, 0) + "more than " + std::to_string(kMaxGroups) +
+                                            " groups or " + std::to_string(kMaxCategories) + " categories; expected fewer.");
         return false;
     }
+    return add_long_count(j, g, c, count, line);
+}
+
+// Group g's count of category c (first-seen order) added to the matrix; false past kMaxGroupCells.
+bool add_long_count(GroupedRowsJob& j, std::size_t g, std::size_t c, double count, int line) {
+    GroupedCounts* out = &j.out;
+    const std::size_t groups = out->groups.size(), k = out->categories.size();
+    if (groups * k > kMaxGroupCells) {
+        add_group_problem(out, line, 0, cell_location(line, 0) + std::to_string(groups) + " groups of " + std::to_string(k) +
+                                            " categories are more than " + std::to_string(kMaxGroupCells) + " cells; screen fewer at once.");
+        return false;
+    }
+    if (c >= j.stride) {  // a new category: the rows laid out wider (by a quarter at least once they are many)
+        const std::size_t rows = j.stride == 0 ? 0 : j.sums.size() / j.stride;
+        const std::size_t wider = rows <= 1024 ? c + 1 : std::max(c + 1, j.stride + (j.stride + 3) / 4);
+        std::vector<double> sums(rows * wider, 0.0);
+        std::vector<unsigned char> seen(rows * wider, 0);
+        for (std::size_t r = 0; r < rows; ++r)
+            for (std::size_t i = 0; i < j.stride; ++i) {
+                sums[r * wider + i] = j.sums[r * j.stride + i];
+                seen[r * wider + i] = j.seen[r * j.stride + i];
+            }
+        j.sums = std::move(sums);
+        j.seen = std::move(seen);
+        j.stride = wider;
+    }
+    if (j.sums.size() < groups * j.stride) {
+        j.sums.resize(groups * j.stride, 0.0);
+        j.seen.resize(groups * j.stride, 0);
+    }
+    const std::size_t cell = g * j.stride + c;
+    j.sums[cell] += count;
+    if (j.seen[cell] && j.repeated++ == 0) j.first_repeat = line;
+    j.seen[cell] = 1;
+    ++j.long_rows;
     return true;
+}
+
+// A held row of a long table read.
+bool read_long_row(GroupedRowsJob& j, const TableRow& row) {
+    j.scratch.assign(row.cells.begin(), row.cells.end());
+    return read_long_cells(j, row.line, j.scratch.data(), j.scratch.size());
 }
 
 // The long table's rows read: the counts placed, categories in numeric order when whole numbers.
 void finish_long_rows(GroupedRowsJob& j) {
     GroupedCounts* out = &j.out;
     if (!out->status.ok) return;
-    const std::vector<TableRow>& rows = j.rows;
-    const auto& cells = j.cells;
-    std::size_t repeated = 0;
-    int first_repeat = 0;
-    const std::size_t k = out->categories.size();
-    if (out->groups.size() * k > kMaxGroupCells) {
-        out->status = Status::failure(std::to_string(out->groups.size()) + " groups of " + std::to_string(k) +
+    const std::size_t k = out->categories.size(), groups = out->groups.size();
+    if (groups * k > kMaxGroupCells) {
+        out->status = Status::failure(std::to_string(groups) + " groups of " + std::to_string(k) +
                                       " categories are more than " + std::to_string(kMaxGroupCells) + " cells; screen fewer at once.");
         return;
     }
@@ -185,27 +257,38 @@ void finish_long_rows(GroupedRowsJob& j) {
     std::vector<std::string> sorted(k);
     for (std::size_t i = 0; i < k; ++i) sorted[position[i]] = out->categories[i];
     out->categories = std::move(sorted);
-    out->counts.assign(out->groups.size() * k, 0.0);
-    std::vector<unsigned char> seen(out->groups.size() * k, 0);
-    for (std::size_t i = 0; i < cells.size(); ++i) {
-        const std::size_t at = cells[i].group * k + position[cells[i].category];
-        out->counts[at] += cells[i].count;
-        if (seen[at] && repeated++ == 0) first_repeat = rows[j.first + i].line;
-        seen[at] = 1;
+    // The rows of stride j.stride made rows of k in category order, in place (row g's new place
+    // ends no later than its old one starts the next row: k <= stride).
+    j.sums.resize(groups * j.stride, 0.0);
+    j.seen.resize(groups * j.stride, 0);
+    std::vector<double> sum_row(k);
+    std::vector<unsigned char> seen_row(k);
+    for (std::size_t g = 0; g < groups; ++g) {
+        for (std::size_t i = 0; i < k; ++i) {
+            sum_row[position[i]] = j.sums[g * j.stride + i];
+            seen_row[position[i]] = j.seen[g * j.stride + i];
+        }
+        std::copy(sum_row.begin(), sum_row.end(), j.sums.begin() + static_cast<std::ptrdiff_t>(g * k));
+        std::copy(seen_row.begin(), seen_row.end(), j.seen.begin() + static_cast<std::ptrdiff_t>(g * k));
     }
+    j.sums.resize(groups * k);
+    j.seen.resize(groups * k);
+    out->counts = std::move(j.sums);
+    out->counts.shrink_to_fit();
     std::size_t missing = 0, first_missing = 0;
-    for (std::size_t i = 0; i < seen.size(); ++i)
-        if (seen[i] == 0 && missing++ == 0) first_missing = i;
-    out->notes.push_back("Read a long table of " + std::to_string(cells.size()) + " rows: " + std::to_string(out->groups.size()) +
+    for (std::size_t i = 0; i < j.seen.size(); ++i)
+        if (j.seen[i] == 0 && missing++ == 0) first_missing = i;
+    { std::vector<unsigned char> spent; std::swap(j.seen, spent); }
+    out->notes.push_back("Read a long table of " + std::to_string(j.long_rows) + " rows: " + std::to_string(groups) +
                          " groups, " + std::to_string(k) + " categories.");
     if (missing > 0)
         out->notes.push_back(std::to_string(missing) + " combinations of group and category do not appear in the table: read as zero counts "
                              "(the first: group " + quote_cell(out->groups[first_missing / k]) + ", first on line " +
                              std::to_string(out->group_lines[first_missing / k]) + ", has no row for category " +
                              quote_cell(out->categories[first_missing % k]) + ").");
-    if (repeated > 0)
-        out->notes.push_back(std::to_string(repeated) + " rows repeat a group and category already seen (first on line " +
-                             std::to_string(first_repeat) + "): their counts were added together.");
+    if (j.repeated > 0)
+        out->notes.push_back(std::to_string(j.repeated) + " rows repeat a group and category already seen (first on line " +
+                             std::to_string(j.first_repeat) + "): their counts were added together.");
     note_respelled(j.names, out);
 }
 
@@ -518,13 +601,16 @@ bool plan_grouped_rows(GroupedRowsJob& j) {
     bool header = header_named || (rows.size() >= 2 && numeric_outside_group(rows[0]) == 0 && numeric_outside_group(rows[1]) > 0);
     double step = 0;
     bool numbered = false;
-    if (!header && !options.header && numbered_header_row(rows, group_col, &step) && detect_shape(1) == GroupShape::wide_table)
-        header = numbered = true;
+    if (!header && !options.header && numbered_header_row(rows, group_col, &step)) {
+        j.numbered_candidate = true;  // the header then depends on the shape below line 1 (all rows)
+        if (detect_shape(1) == GroupShape::wide_table) header = numbered = true;
+    }
     if (options.header) header = *options.header;
     const std::size_t first = header ? 1 : 0;
     if (rows.size() <= first) { out.status = Status::failure("Only a header row: no groups to read."); return false; }
     out.header = header;
     out.numbered_header = numbered;
+    j.first_line = rows[0].line;
     out.group_column = static_cast<int>(group_col) + 1;
     out.group_column_name = header ? normalised_label(cell_at(rows[0], group_col)) : "";
     if (out.group_column_name.empty()) out.group_column_name = "column " + std::to_string(out.group_column);
@@ -552,7 +638,6 @@ bool plan_grouped_rows(GroupedRowsJob& j) {
             if (numeric1 == 0 && numeric0 > 0) std::swap(category_col, count_col);
             j.category_col = category_col;
             j.count_col = count_col;
-            j.cells.reserve(rows.size() - first);
             return true;
         }
         case GroupShape::wide_table: return begin_wide_rows(j, width);
@@ -583,11 +668,11 @@ void finish_grouped_rows(GroupedRowsJob& j) {
     if (shape == GroupShape::raw_values) out.group_problem = false;
     if (!out.status.ok) return;
     if (j.numbered)
-        out.notes.insert(out.notes.begin(), "Line " + std::to_string(rows[0].line) + " read as a header row: its cells " +
+        out.notes.insert(out.notes.begin(), "Line " + std::to_string(j.first_line) + " read as a header row: its cells " +
                                                 quote_cell(out.categories[0]) + ", " + quote_cell(out.categories[1]) + " ... " +
                                                 quote_cell(out.categories.back()) + " are numbers in steps of " + format_plain(j.step) + " beside the text " +
                                                 quote_cell(out.group_column_name) + ", so they name the categories (detected; the line can be read as a group instead).");
-    else if (out.header) out.notes.insert(out.notes.begin(), "Line " + std::to_string(rows[0].line) + " read as a header row.");
+    else if (out.header) out.notes.insert(out.notes.begin(), "Line " + std::to_string(j.first_line) + " read as a header row.");
     out.notes.insert(out.notes.begin(), std::string("Groups read from ") + (out.header ? "column " + std::to_string(out.group_column) + " (" + quote_cell(out.group_column_name) + ")"
                                                                                       : out.group_column_name) +
                                             " as a " + group_shape_name(shape) + " table" +
@@ -610,6 +695,29 @@ void finish_grouped_rows(GroupedRowsJob& j) {
     }
 }
 
+// After the first kPlanRows rows of a text: when they decide a layout the rest cannot change, the
+// rows read and dropped, and the rest of the text counted as it is split. A long table found from
+// these rows stays one whatever follows: a group repeated among them repeats in the whole, the
+// text beside the groups is judged on the first 200 rows, the header on the first two (unless a
+// numbered header row is in question, which depends on every row's shape); wider rows later
+// change neither the group column nor the two columns after it (and are refused as too wide).
+void try_streaming(GroupedRowsJob& j) {
+    j.stream_tried = true;
+    const GroupedCounts before = j.out;
+    const bool planned = plan_grouped_rows(j);
+    if (planned && j.out.shape == GroupShape::long_table && !j.numbered_candidate) {
+        j.planned = j.streaming = true;
+        for (; j.next < j.rows.size() && !j.stopped; ++j.next) j.stopped = !read_long_row(j, j.rows[j.next]);
+        j.rows.clear();
+        j.rows.shrink_to_fit();
+        return;
+    }
+    // Planned again on every row once split.
+    j.out = before;
+    j.count_cols.clear();
+    j.numbered_candidate = false;
+}
+
 }  // namespace
 
 bool step_grouped_rows(GroupedRowsJob* job, std::size_t budget) {
@@ -629,6 +737,11 @@ bool step_grouped_rows(GroupedRowsJob* job, std::size_t budget) {
                 return false;  // the layout is decided at the next step
             }
             if (rec.blank()) continue;
+            if (j.streaming) {  // a long table counted as it is split
+                j.stopped = !read_long_cells(j, rec.line, rec.cells.data(), rec.cells.size());
+                if (j.stopped) { j.splitting = false; return false; }  // refused: the rest is not read
+                continue;
+            }
             if (j.rows.size() == kMaxGroupRows) {
                 j.out.status = Status::failure(cell_location(rec.line, 0) + "more than " + std::to_string(kMaxGroupRows) +
                                                    " rows; screen at most that many rows at once.", rec.line, 0);
@@ -640,8 +753,13 @@ bool step_grouped_rows(GroupedRowsJob* job, std::size_t budget) {
             row.cells.reserve(rec.cells.size());
             for (auto c : rec.cells) row.cells.emplace_back(c);
             j.rows.push_back(std::move(row));
+            if (j.rows.size() == kPlanRows && !j.stream_tried) try_streaming(j);
         }
         return false;
+    }
+    if (j.streaming && !j.rows_read) {  // the text split and counted
+        j.rows_read = true;
+        if (budget != 0) return false;
     }
     if (!j.planned) {
         j.planned = true;
@@ -675,7 +793,11 @@ bool step_grouped_rows(GroupedRowsJob* job, std::size_t budget) {
 double grouped_rows_fraction(const GroupedRowsJob& j) {
     if (j.done) return 1.0;
     // Splitting counts for the first half, reading the rows for the second.
-    if (j.splitting) return j.text.empty() ? 0.0 : 0.5 * static_cast<double>(j.reader.offset()) / static_cast<double>(j.text.size());
+    if (j.splitting) {  // a long table counted as it is split is read by then
+        const double split = j.text.empty() ? 0.0 : static_cast<double>(j.reader.offset()) / static_cast<double>(j.text.size());
+        return std::min(0.99, (j.streaming ? 1.0 : 0.5) * split);
+    }
+    if (j.streaming) return 0.99;
     const double split = j.text.empty() ? 0.0 : 0.5;
     const double read = j.rows.empty() ? 0.0 : static_cast<double>(j.next) / static_cast<double>(j.rows.size());
     return std::min(0.99, split + (1.0 - split) * read);

@@ -11,6 +11,7 @@
 #include <string>
 #include <string_view>
 #include <unordered_map>
+#include <utility>
 #include <vector>
 
 #include "delimited_text.hpp"
@@ -33,9 +34,11 @@ struct GroupReadOptions {
     ParseOptions parse;              // raw values: digits, bins, case folding...; decimal mark, separator
 };
 
-constexpr std::size_t kMaxGroups = 200000;              // more groups are refused
+constexpr std::size_t kMaxGroups = 2000000;             // more groups are refused
 constexpr std::size_t kMaxGroupCells = 20000000;        // groups x categories held at most
-constexpr std::size_t kMaxGroupRows = 2000000;          // lines of a grouped paste read at most (rows are held whole)
+constexpr std::size_t kMaxGroupRows = 2000000;          // rows held at most: a wide table or raw values (rows are held
+                                                        // whole); a long table is counted as it is split, rows not held
+constexpr std::size_t kPlanRows = 1024;                 // a long table's layout is decided from its first rows
 
 struct GroupedCounts {
     Status status;                        // !ok: the first problem, naming line and group
@@ -86,6 +89,11 @@ struct GroupNameIndex {
 // page): the text split a budget of rows per step, the table's layout decided, its rows read a
 // budget per step, then the notes and checks. The same operations in the same order as the
 // one-call readers, so the same reading. A text given must outlive the job.
+// A long table is counted as it is split: once its first kPlanRows rows decide a layout that
+// the rest cannot change (a long table: a group repeated there, or text beside the groups, and
+// no numbered header row), they are read and dropped, and every further line is counted into the
+// groups x categories matrix straight from the text, so memory is that of the matrix and the
+// names, not of the rows (and no row limit applies).
 struct GroupedRowsJob {
     GroupedCounts out;              // complete when `done`
     bool done = false;
@@ -95,7 +103,11 @@ struct GroupedRowsJob {
     std::string_view text;          // being split (start_grouped_text)
     DelimitedReader reader{std::string_view(), Separator::tab};
     bool splitting = false, planned = false, stopped = false, rows_read = false, releasing = false;
+    bool streaming = false;         // a long table counted as it is split (rows not held)
+    bool stream_tried = false;      // the first kPlanRows rows were tried as such a table
+    bool numbered_candidate = false;  // the plan looked at a numbered header row (a wide table's)
     std::vector<TableRow> rows;
+    int first_line = 0;             // the line of the first row (the header row, when there is one)
     std::size_t next = 0, first = 0, group_col = 0, category_col = 0, count_col = 0, value_col = 0;
     std::vector<std::size_t> count_cols;  // a wide table's category columns
     DecimalMark mark = DecimalMark::point;
@@ -103,8 +115,19 @@ struct GroupedRowsJob {
     double step = 0;                // the numbered header's step
     GroupNameIndex names;
     std::unordered_map<std::string, std::size_t> category_index;  // a long table's categories
-    struct LongCell { std::size_t group, category; double count; };
-    std::vector<LongCell> cells;    // a long table's rows read
+    // A long table's counts as read: group g's category c at g * stride + c (categories in
+    // first-seen order; the stride grows as categories appear), and whether a row gave it.
+    std::vector<double> sums;
+    std::vector<unsigned char> seen;
+    std::size_t stride = 0;
+    std::size_t long_rows = 0, repeated = 0;   // rows counted; rows that repeat a group and category
+    int first_repeat = 0;                      // the line of the first repeat
+    // The last group's cell as written and its index (a table sorted by group repeats it), and the
+    // first category cells as written with their index: read again without normalising.
+    std::string last_group_cell;
+    std::size_t last_group = static_cast<std::size_t>(-1);
+    std::vector<std::pair<std::string, std::size_t>> category_cells;
+    std::vector<std::string_view> scratch;     // a held row's cells as views
 };
 void start_grouped_text(std::string_view text, const GroupReadOptions& options, GroupedRowsJob* job);
 void start_grouped_rows(std::vector<TableRow> rows, Separator sep, const GroupReadOptions& options, GroupedRowsJob* job);

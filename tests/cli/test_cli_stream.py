@@ -78,4 +78,35 @@ with tempfile.TemporaryDirectory() as tmp:
     r = run(["--digits", "first", "-"], stdin=bad)
     check(r.returncode != 0 and b"after line" in r.stderr, "a later piece that is not text is refused: %r" % r.stderr[:300])
 
+    # An input that ends in the middle of a line (a producer cut short): the result, a note and a
+    # warning naming the line, and exit status 4; the counts are those of the whole reading.
+    cut = text.rstrip("\n")
+    lines = cut.count("\n") + 1
+    r = run(["--digits", "first", "-"], stdin=cut)
+    check(r.returncode == 4, "an input ending mid-line exits 4: %d %s" % (r.returncode, r.stderr[-300:]))
+    check(("warning: the input ends in the middle of line %d;" % lines) in r.stderr, "the warning names the last line: " + r.stderr[-300:])
+    check("Pearson" in r.stdout or "X²" in r.stdout or "p =" in r.stdout, "the result is still printed: " + r.stdout[:200])
+    j = run(["--json", "--digits", "first", "-"], stdin=cut)
+    doc = json.loads(j.stdout)
+    check(j.returncode == 4 and ("the input ends in the middle of line %d;" % lines) in j.stderr,
+          "with --json too: exit 4 and the warning on standard error: %d %s" % (j.returncode, j.stderr[-300:]))
+    whole_cut = run(["--json", "--digits", "first", "--read-whole", "-"], stdin=cut)
+    check(json.loads(whole_cut.stdout)["observed"] == doc["observed"], "the counts of the cut stream equal the whole reading's")
+
+    # A stream stopped by a signal while it waits for more: no result, the line reached, 128 + N.
+    import signal
+    import time
+    for sig, name in ((signal.SIGTERM, "SIGTERM"), (signal.SIGINT, "SIGINT")):
+        p = subprocess.Popen([TOOL, "--digits", "first", "-"], stdin=subprocess.PIPE, stdout=subprocess.PIPE, stderr=subprocess.PIPE)
+        p.stdin.write(text.encode())  # 2.6 MB: the first piece decides the shape, the rest streams
+        p.stdin.flush()
+        time.sleep(1.5)               # read to the end of what was written: waiting on the pipe
+        p.send_signal(sig)
+        out, err = p.communicate(timeout=30)
+        p.stdin.close() if not p.stdin.closed else None
+        check(p.returncode == 128 + int(sig), "%s: exit %d (expected %d): %r" % (name, p.returncode, 128 + int(sig), err[-300:]))
+        check(out == b"", "%s: no result on standard output" % name)
+        check(("stopped by %s while reading standard input, after line %d" % (name, text.count("\n"))).encode() in err,
+              "%s: the line reached is named: %r" % (name, err[-300:]))
+
 finish("streamed digit tallies: all checks passed")
