@@ -160,7 +160,7 @@ export const tests = {
         await page.setInputFiles('#tp-file', path);
         await page.waitForFunction(() => globalThis.tallyproofPage.lastRefusal !== '', null, { timeout: 10000 });
         const refusal = await page.evaluate(() => globalThis.tallyproofPage.lastRefusal);
-        assert(refusal.startsWith('big-table.tsv is 70.0 MB: this page reads a file of up to 64.0 MB whole'), `refusal: ${refusal}`);
+        assert(/^big-table\.tsv is 70\.\d MB: this page reads a file of up to 64\.0 MB whole/.test(refusal), `refusal: ${refusal}`);
         assert(await page.evaluate(() => globalThis.tallyproofPage.lastResult) === before, 'the previous analysis stays');
         await screenshot(page, 'stream-05-too-large');
         // With a digit test on screen the file is tried in chunks first: its first lines are not amounts.
