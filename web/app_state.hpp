@@ -114,7 +114,7 @@ struct PasteJob {
 constexpr std::size_t kSlicedReadBytes = 1u << 18;  // texts this long are read in slices
 
 // A file larger than kStreamFileBytes opened while a digit test is on screen: the page reads it
-// a chunk at a time (shell.html, file.slice) and hands each chunk here; core's DigitStreamReader
+// a chunk at a time (shell.html, File.slice, 4 MiB) and hands each chunk here; core's DigitStreamReader
 // decides from its first MiB, as the command-line tool does with --digits, and tallies the rest
 // without keeping it, so memory does not grow with the file. Progress and Cancel are the
 // reading's (draw_reading_progress); the counts on screen stay until the file is read.
