@@ -123,12 +123,16 @@ export const tests = {
         // A second reading of the same file, stopped with Escape while its progress shows.
         const shown = JSON.stringify(r);
         await page.setInputFiles('#tp-file', path);
-        await page.waitForFunction(() => document.getElementById('tp-progress').dataset.running === '1', null, { timeout: 20000, polling: 5 });
+        // Escape once a chunk has been counted, so that the reading stops partway through the file.
+        await page.waitForFunction(() => document.getElementById('tp-progress').dataset.running === '1' &&
+          globalThis.tallyproofPage.streamed?.chunks >= 1, null, { timeout: 20000, polling: 5 });
         await page.keyboard.press('Escape');
         await page.waitForFunction(() => / stopped at \d+% /.test(globalThis.tallyproofPage.lastNotice), null, { timeout: 10000 });
         const stopped = await page.evaluate(() => globalThis.tallyproofPage.lastNotice);
         assert(/^Reading amounts\.txt stopped at \d+% \([\d.]+ MB of [\d.]+ MB, line [\d,]+\): the counts on screen are the ones before it\./.test(stopped),
           `stopped notice: ${stopped}`);
+        const at = Number(/ stopped at (\d+)% /.exec(stopped)[1]);
+        assert(at > 0 && at < 100 && !/, line 0\)/.test(stopped), `stopped partway: ${stopped}`);
         await page.waitForTimeout(300);
         assert(JSON.stringify(await lastResult(page)) === shown, 'the counts on screen changed after Cancel');
         assert(await page.evaluate(() => document.getElementById('tp-progress').dataset.running) === '0', 'progress still running');
