@@ -151,7 +151,7 @@ export const tests = {
     }
   },
 
-  async 'a file over the whole-read limit is refused naming the limit; one under it that is not digits is read whole'() {
+  async 'a file over the whole-read limit is refused naming the limit, with or without a digit test on screen'() {
     const dir = mkdtempSync(join(tmpdir(), 'tp-stream-'));
     try {
       // Invented answers, one word a line, 70 MB: raw text to tally, not numbers, so it could only be read whole.
