@@ -546,7 +546,7 @@ int stopped_by_signal(const std::string& name, std::size_t lines, std::size_t by
     return 128 + sig;
 }
 
-constexpr std::size_t kStreamChunk = 1u << 20;  // raw digits are read 1 MiB at a time
+constexpr std::size_t kStreamChunk = kStreamHeadBytes;  // raw digits are read 1 MiB at a time
 constexpr std::size_t kProgressEvery = 64u << 20;  // progress on a terminal every 64 MB
 
 // Fills `buf` from `in` up to its size; returns the bytes read (fewer only at the end or on error).
@@ -572,71 +572,46 @@ int read_streamed_digits(const std::string& path, const CommandLine& c, std::str
     std::FILE* in = from_stdin ? stdin : std::fopen(path.c_str(), "rb");
     if (in == nullptr) return cannot_read(path, errno);
     struct Closer { std::FILE* f; bool own; ~Closer() { if (own) std::fclose(f); } } closer{in, !from_stdin};
-    std::string buf(kStreamChunk, '\0');
-    errno = 0;
-    std::size_t got = read_chunk(in, buf.data(), buf.size());
-    if (g_stop_signal != 0) return stopped_by_signal(name, 0, got);
-    if (std::ferror(in)) return cannot_read(name, errno != 0 ? errno : EIO);
-    buf.resize(got);
-    const std::size_t cut = buf.find_last_of('\n');
-    std::string first = got == kStreamChunk && cut != std::string::npos ? buf.substr(0, cut + 1) : std::string();
-    TextDecoding decoded;
-    if (!first.empty()) {
-        std::string probe = first;
-        decoded = decode_text(&probe);
-    }
-    const std::size_t lead = first.find_first_not_of(" \t\r\n");
-    ParsedInput head;
-    if (!first.empty() && decoded.status.ok && decoded.notice.empty() && lead != std::string::npos && first[lead] != '{') {
-        ReadInputOptions how;
-        how.groups = GroupsReading::never;
-        head = read_input(first, c.input, how).sample;
-    }
-    if (first.empty() || !DigitStreamTally::continues(head)) {
-        // Not streamed: the whole input, read as before (its chunk first).
-        *text = std::move(buf);
-        if (got == kStreamChunk) {
-            char more[65536];
-            for (std::size_t n; g_stop_signal == 0 && (n = std::fread(more, 1, sizeof more, in)) > 0;) text->append(more, n);
-            if (g_stop_signal != 0) return stopped_by_signal(name, 0, text->size());
-            if (std::ferror(in)) return cannot_read(name, errno != 0 ? errno : EIO);
-        }
-        return kGoOn;
-    }
+    // core's DigitStreamReader decides from the first MiB (the page reads a file by the same rule)
+    DigitStreamReader reader(c.input);
     const bool progress = isatty(fileno(stderr)) != 0;
-    DigitStreamTally tally(head);
-    std::size_t total = first.size();
-    tally.feed(first);
-    std::string carry = buf.substr(first.size());
     std::size_t next_progress = kProgressEvery;
-    for (bool at_end = false; !at_end && tally.status().ok;) {
-        buf.assign(carry);
-        buf.resize(carry.size() + kStreamChunk);
-        got = read_chunk(in, buf.data() + carry.size(), kStreamChunk);
+    std::string buf(kStreamChunk, '\0');
+    char last = '\n';  // the last byte read
+    while (!reader.ended()) {
+        errno = 0;
+        const std::size_t got = read_chunk(in, buf.data(), buf.size());
         if (g_stop_signal != 0) {  // the whole lines read so far counted, to name the line reached
-            buf.resize(carry.size() + got);
-            const std::size_t cut = buf.find_last_of('\n');
-            if (cut != std::string::npos) tally.feed(std::string_view(buf).substr(0, cut + 1));
-            return stopped_by_signal(name, tally.lines(), total + got);
+            if (reader.state() != DigitStreamReader::State::whole) reader.push(std::string_view(buf.data(), got));
+            return stopped_by_signal(name, reader.lines(), reader.bytes());
         }
-        if (std::ferror(in)) return cannot_read(name + " (after line " + std::to_string(tally.lines()) + ")", errno != 0 ? errno : EIO);
-        at_end = got < kStreamChunk;
-        buf.resize(carry.size() + got);
-        const std::size_t end = at_end ? buf.size() : buf.find_last_of('\n') + 1;  // a piece of whole lines
-        if (!at_end && end == 0) {  // one line longer than a chunk: keep it whole
-            carry = buf;
-            continue;
+        if (std::ferror(in)) {
+            if (reader.state() == DigitStreamReader::State::streaming)
+                return cannot_read(name + " (after line " + std::to_string(reader.lines()) + ")", errno != 0 ? errno : EIO);
+            return cannot_read(name, errno != 0 ? errno : EIO);
         }
-        tally.feed(std::string_view(buf).substr(0, end));
-        total += got;
-        if (at_end && end > 0 && buf[end - 1] != '\n' && buf[end - 1] != '\r') *open_line = tally.lines() + 1;
-        carry = buf.substr(end);
-        if (progress && total >= next_progress) {
-            std::fprintf(stderr, "read %.1f GB, %zu values\n", static_cast<double>(total) / 1e9, tally.values());
+        if (got > 0) last = buf[got - 1];
+        reader.push(std::string_view(buf.data(), got));
+        if (got < kStreamChunk) reader.end();
+        if (reader.state() == DigitStreamReader::State::whole) {
+            // Not streamed: the whole input, read as before (its start first).
+            *text = reader.take_held();
+            if (!reader.ended()) {
+                char more[65536];
+                for (std::size_t n; g_stop_signal == 0 && (n = std::fread(more, 1, sizeof more, in)) > 0;) text->append(more, n);
+                if (g_stop_signal != 0) return stopped_by_signal(name, 0, text->size());
+                if (std::ferror(in)) return cannot_read(name, errno != 0 ? errno : EIO);
+            }
+            return kGoOn;
+        }
+        if (reader.state() == DigitStreamReader::State::stopped) break;
+        if (progress && reader.bytes() >= next_progress) {
+            std::fprintf(stderr, "read %.1f GB, %zu values\n", static_cast<double>(reader.bytes()) / 1e9, reader.values());
             next_progress += kProgressEvery;
         }
     }
-    *reading = tally.finish(first.size(), total);
+    *reading = reader.finish();
+    if (reader.state() != DigitStreamReader::State::stopped && last != '\n' && last != '\r') *open_line = reader.lines() + 1;
     if (*open_line != 0 && reading->status.ok)
         reading->notes.push_back("The input ends in the middle of line " + std::to_string(*open_line) +
                                  " (no line end after it): if it was cut short (a program writing it stopped), these counts are of "

@@ -28,9 +28,14 @@
 #include "survey_rows.hpp"
 #include "input_text.hpp"
 #include "json_writer.hpp"
+#include "null_model.hpp"
+#include "digit_laws.hpp"
 
 namespace tallyproof::web {
 namespace {
+
+// A size in bytes as the page says it: "52.4 MB" (MB = 2^20 bytes, as the limits are set).
+std::string megabytes(double bytes) { return format_fixed(bytes / (1u << 20), 1) + " MB"; }
 
 std::string list_text(const std::vector<double>& v, const char* sep) {
     std::string s;
@@ -145,6 +150,7 @@ void step_job(AppState& s, double budget_ms) {
 }
 
 void cancel_job(AppState& s) {
+    if (s.streaming.running && !s.work.running) return cancel_paste_job(s);
     if (s.pasting.running && !s.work.running) return cancel_paste_job(s);
     if (s.groups.screening && !s.work.running) return cancel_screen(s);
     if (!s.work.running) return;
@@ -155,7 +161,10 @@ void cancel_job(AppState& s) {
     set_progress(job_fraction(s), false);
 }
 
+bool reading_running(const AppState& s) { return s.pasting.running || s.streaming.running; }
+
 double job_fraction(const AppState& s) {
+    if (s.streaming.running && s.streaming.reader) return s.streaming.size > 0 ? s.streaming.reader->bytes() / s.streaming.size : 0;
     if (s.pasting.running) return input_read_fraction(s.pasting.job);
     return s.groups.screening && !s.work.running ? s.groups.job.progress.fraction : s.work.job.progress.fraction;
 }
@@ -264,6 +273,7 @@ void forget_paste(AppState& s) {
     s.reading.shape = -1;
     s.reading.bins = BinChoice{};
     s.reading.source_name = "opened document";
+    s.reading.streamed.clear();
 }
 }  // namespace
 
@@ -618,6 +628,7 @@ void apply_reading(AppState& s, std::string_view text, const ParseOptions& optio
     }
     s.reading.bins = parsed.shape == InputShape::raw_bins ? options.bins : BinChoice{};
     s.reading.bin_editor.error.clear();
+    if (problem.ok) s.reading.streamed.clear();  // finish_file_stream names the file after this
     s.reading.survey = false;
     s.reading.survey_open = false;
     if (!problem.ok && parsed.shape == InputShape::raw_bins && !s.reading.text.empty()) {
@@ -921,6 +932,7 @@ bool apply_design_effect_text(AppState& s, const std::string& text) {
 namespace tallyproof::web {
 
 void drop_paste_job(AppState& s) {
+    if (s.streaming.running) s.streaming = FileStream{};  // a file being read in chunks is replaced too
     if (!s.pasting.running) return;
     s.pasting = PasteJob{};
 }
@@ -946,6 +958,19 @@ void step_paste_job(AppState& s, double budget_ms) {
 }
 
 void cancel_paste_job(AppState& s) {
+    if (s.streaming.running) {
+        const FileStream f = std::move(s.streaming);
+        const double fraction = f.size > 0 && f.reader ? f.reader->bytes() / f.size : 0;
+        const std::size_t bytes = f.reader ? f.reader->bytes() : 0, lines = f.reader ? f.reader->lines() : 0;
+        const std::string file = f.file;
+        s.streaming = FileStream{};
+        set_progress(fraction, false);
+        set_notice(s, "Reading " + file + " stopped at " + std::to_string(static_cast<int>(100 * fraction)) + "% (" +
+                          megabytes(static_cast<double>(bytes)) + " of " + megabytes(f.size) + ", line " +
+                          format_grouped(lines) + "): the counts on screen are the ones before it.");
+        s.view.frames_to_draw = 3;
+        return;
+    }
     if (!s.pasting.running) return;
     const double fraction = input_read_fraction(s.pasting.job);
     drop_paste_job(s);
@@ -953,6 +978,133 @@ void cancel_paste_job(AppState& s) {
     set_notice(s, "Reading stopped at " + std::to_string(static_cast<int>(100 * fraction)) +
                       "%: the counts on screen are the ones before it.");
     s.view.frames_to_draw = 3;
+}
+
+namespace {
+// The file's own words for what was read: the page streams only for the digit test on screen.
+void finish_file_stream(AppState& s) {
+    FileStream f = std::move(s.streaming);
+    s.streaming = FileStream{};
+    set_progress(1, false);
+    const double seconds = (emscripten_get_now() - f.started_ms) / 1000;
+    InputReading reading;
+    reading.sample = f.reader->finish();
+    reading.status = reading.sample.status;
+    reading.kind = reading.status.ok ? InputKind::sample : InputKind::refused;
+    const std::size_t values = f.reader->values(), bytes = f.reader->bytes();
+    f.reader.reset();
+    f.chunk = std::string();
+    const std::string how = std::string(digit_test_name(f.options.digits.value_or(DigitTest::first)));
+    apply_reading(s, {}, f.options, std::move(reading));
+    if (!s.refused.message.empty()) {
+        s.refused.file = f.file;
+        s.view.frames_to_draw = 3;
+        return;
+    }
+    s.reading.streamed = f.file;
+    s.reading.source_name = f.file + " (read in chunks)";
+    const std::string notes = s.view.notice;
+    set_notice(s, f.file + ": " + format_grouped(values) + " values tallied by their " + how + " (the test on screen) from " +
+                      megabytes(static_cast<double>(bytes)) + " read in chunks in " + format_fixed(seconds, 1) +
+                      " s. Only the counts are kept, not the file's text: to read it another way, open it again." +
+                      (notes.empty() ? "" : " " + notes));
+    s.view.frames_to_draw = 3;
+}
+}  // namespace
+
+FileStart open_file_stream(AppState& s, std::string_view name, double size) {
+    DigitTest test = DigitTest::first;
+    const bool digits = !s.groups.open && digit_test_of(s.analysis.model.kind, &test);
+    if (size > kStreamFileBytes && digits) {
+        const bool stopped = s.work.running;
+        if (stopped) cancel_job(s);
+        drop_paste_job(s);
+        FileStream& f = s.streaming;
+        f.options = ParseOptions{};
+        f.options.digits = test;
+        f.reader.emplace(f.options);
+        f.file = std::string(name);
+        f.size = size;
+        f.running = true;
+        f.started_ms = emscripten_get_now();
+        set_progress(0, true);
+        s.view.frames_to_draw = 3;
+        return FileStart::streaming;
+    }
+    if (size <= kWholeFileBytes) return FileStart::whole;
+    drop_paste_job(s);
+    const std::string limit = megabytes(kWholeFileBytes);
+    record_refusal(s, {}, Status::failure(
+        std::string(name.substr(0, 80)) + " is " + megabytes(size) + ": this page reads a file of up to " + limit +
+        " whole (its WebAssembly memory holds the text several times over while it is read). A larger file of raw numbers is "
+        "read in chunks, without that limit, for a digit test: read a few of the amounts as first digits (Read as) or "
+        "open a Benford example first, then open the file again. Otherwise tally it elsewhere (docs/large-data.md) and "
+        "paste the counts."));
+    s.refused.file = std::string(name);
+    return FileStart::refused;
+}
+
+char* file_stream_buffer(AppState& s, std::size_t bytes) {
+    if (!s.streaming.running) return nullptr;
+    if (s.streaming.chunk.size() < bytes) s.streaming.chunk.resize(bytes);
+    return s.streaming.chunk.data();
+}
+
+int feed_file_stream(AppState& s, std::size_t bytes, bool last) {
+    FileStream& f = s.streaming;
+    if (!f.running || !f.reader || bytes > f.chunk.size()) return 0;
+    if (f.reader->lines() >= kStreamLineLimit) {  // line numbers are ints, counts 32-bit sizes in WebAssembly
+        const std::string file = f.file;
+        s.streaming = FileStream{};
+        set_progress(0, false);
+        record_refusal(s, {}, Status::failure(file.substr(0, 80) + " has more than " + format_grouped(kStreamLineLimit) +
+                                              " lines, the most this page counts in one file; the counts on screen are the ones "
+                                              "before it. The command-line tool counts any number (tallyproof --digits first FILE)."));
+        s.refused.file = file;
+        return 0;
+    }
+    f.reader->push(std::string_view(f.chunk.data(), bytes));
+    if (last) f.reader->end();
+    switch (f.reader->state()) {
+        case DigitStreamReader::State::deciding:
+            set_progress(job_fraction(s), true);
+            return 1;
+        case DigitStreamReader::State::streaming:
+            if (!last) {
+                set_progress(job_fraction(s), true);
+                return 1;
+            }
+            finish_file_stream(s);
+            return 0;
+        case DigitStreamReader::State::stopped:
+            finish_file_stream(s);  // refused with its line, as the whole text would be
+            return 0;
+        case DigitStreamReader::State::whole: break;
+    }
+    // Not raw numbers for the digit test (or shorter than the head): the file is read whole, as
+    // any file is, when the page can hold it.
+    const std::string file = f.file;
+    const double size = f.size;
+    s.streaming = FileStream{};
+    set_progress(0, false);
+    if (size <= kWholeFileBytes) return 2;
+    record_refusal(s, {}, Status::failure(
+        file.substr(0, 80) + " is " + megabytes(size) + " and its first lines are not raw numbers for the digit test on screen, "
+        "so it cannot be read in chunks; this page reads a file of up to " + megabytes(kWholeFileBytes) +
+        " whole. Tally it elsewhere (docs/large-data.md) and paste the counts."));
+    s.refused.file = file;
+    return 0;
+}
+
+void file_stream_failed(AppState& s, const std::string& why) {
+    if (!s.streaming.running) return;
+    const std::string file = s.streaming.file;
+    const std::size_t lines = s.streaming.reader ? s.streaming.reader->lines() : 0;
+    s.streaming = FileStream{};
+    set_progress(0, false);
+    record_refusal(s, {}, Status::failure(file.substr(0, 80) + ": the browser could not read the file after line " +
+                                          format_grouped(lines) + " (" + why + "); the counts on screen are the ones before it."));
+    s.refused.file = file;
 }
 
 }  // namespace tallyproof::web

@@ -14,6 +14,7 @@
 #include "pvalue_job.hpp"
 #include "read_input.hpp"
 #include "result.hpp"
+#include "stream_tally.hpp"
 #include "survey_rows.hpp"
 #include "workbook_reading.hpp"
 
@@ -90,6 +91,7 @@ struct LastReading {
     bool survey_open = false;         // the survey columns' row is shown (chosen in "Read as")
     SurveyColumns survey_columns;
     WorkbookSource workbook;          // set when the last file opened was a workbook
+    std::string streamed;             // the counts were tallied from a file read in chunks: which (else empty)
 };
 
 // Exact / Monte Carlo work, run a slice per frame.
@@ -110,6 +112,25 @@ struct PasteJob {
     std::string notice;           // the file reading's own notice, shown with the reading's
 };
 constexpr std::size_t kSlicedReadBytes = 1u << 18;  // texts this long are read in slices
+
+// A file larger than kStreamFileBytes opened while a digit test is on screen: the page reads it
+// a chunk at a time (shell.html, File.slice, 4 MiB) and hands each chunk here; core's DigitStreamReader
+// decides from its first MiB, as the command-line tool does with --digits, and tallies the rest
+// without keeping it, so memory does not grow with the file. Progress and Cancel are the
+// reading's (draw_reading_progress); the counts on screen stay until the file is read.
+struct FileStream {
+    bool running = false;
+    std::optional<DigitStreamReader> reader;
+    ParseOptions options;
+    std::string file;             // the file's name
+    double size = 0;              // its size in bytes, as the browser gives it
+    std::string chunk;            // where the page puts the next chunk
+    double started_ms = 0;
+};
+constexpr double kStreamFileBytes = 8.0 * (1u << 20);   // larger files are read in chunks (smaller: whole, "Read as" kept)
+constexpr double kWholeFileBytes = 64.0 * (1u << 20);   // the largest file read whole (held about four times over)
+constexpr std::size_t kStreamLineLimit = 2000000000;    // lines counted in one file (line numbers are ints)
+enum class FileStart { whole = 0, streaming = 1, refused = 2 };  // what the page does with a file (tp_open_file_stream)
 
 // The session: what is kept in the browser (autosave, recent list) and what is due to be
 // published to the page and kept, done once per frame by settle_frame().
@@ -160,6 +181,7 @@ struct AppState {
 
     Work work;
     PasteJob pasting;
+    FileStream streaming;
     Refusal refused;
     LastReading reading;
     GroupsView groups;               // many groups at once: the screen read from the last paste
@@ -235,6 +257,16 @@ void step_paste_job(AppState& s, double budget_ms);          // a slice of a lon
 void cancel_paste_job(AppState& s);                          // the counts on screen stay
 void drop_paste_job(AppState& s);                            // stops it silently (new data replace it)
 double job_fraction(const AppState& s);
+bool reading_running(const AppState& s);                     // a long text or a file being read (progress, Cancel)
+// A file chosen or dropped (its name and size): whole (the page reads it and calls apply_input),
+// streaming (the page hands its chunks to feed_file_stream), or refused (over kWholeFileBytes,
+// said on screen with the limit).
+FileStart open_file_stream(AppState& s, std::string_view name, double size);
+char* file_stream_buffer(AppState& s, std::size_t bytes);    // where the next chunk goes
+// The next `bytes` of the file (`last`: its end). 1 go on, 0 stop (read, refused or cancelled),
+// 2 read it whole instead (it is not raw numbers for the digit test), the size allowing.
+int feed_file_stream(AppState& s, std::size_t bytes, bool last);
+void file_stream_failed(AppState& s, const std::string& why);  // the browser could not read the file
 
 void restore_session(AppState& s);
 bool open_share_fragment(AppState& s, const std::string& fragment);  // false: refused, message shown        // share link in the URL, else the autosaved analysis, else an example

@@ -37,6 +37,39 @@ EMSCRIPTEN_KEEPALIVE void tp_open_file(const char* bytes, int length, const char
     tallyproof::web::apply_input(g_page->state, std::string(bytes, static_cast<std::size_t>(length)), name ? name : "");
     want_frames(*g_page, 3);
 }
+// A file chosen or dropped, before any of it is read: its name (UTF-8) and size in bytes. 0: the
+// page reads it whole and calls tp_open_file; 1: it hands its chunks to tp_stream_feed; 2: refused
+// (too large to read whole), said on screen.
+EMSCRIPTEN_KEEPALIVE int tp_open_file_stream(const char* name, double size) {
+    if (!g_page) return 2;
+    const auto start = tallyproof::web::open_file_stream(g_page->state, name ? name : "", size);
+    want_frames(*g_page, 3);
+    return static_cast<int>(start);
+}
+// Where the page puts the next chunk of `bytes` bytes (null when no file is being read in chunks).
+EMSCRIPTEN_KEEPALIVE char* tp_stream_buffer(int bytes) {
+    if (!g_page || bytes < 0) return nullptr;
+    return tallyproof::web::file_stream_buffer(g_page->state, static_cast<std::size_t>(bytes));
+}
+// The chunk put there (`last`: the file's end). 1: read the next; 0: stop (read, refused or
+// cancelled); 2: read the file whole instead (tp_open_file). Progress is drawn about four times a second.
+EMSCRIPTEN_KEEPALIVE int tp_stream_feed(int bytes, int last) {
+    if (!g_page || bytes < 0) return 0;
+    Page& p = *g_page;
+    const int next = tallyproof::web::feed_file_stream(p.state, static_cast<std::size_t>(bytes), last != 0);
+    const double now = emscripten_get_now();
+    if (next != 1 || now - p.last_job_frame_ms >= 250) {
+        want_frames(p, 2);
+        p.last_job_frame_ms = now;
+    }
+    return next;
+}
+// The browser could not read the file (`why`, its error's name).
+EMSCRIPTEN_KEEPALIVE void tp_stream_failed(const char* why) {
+    if (!g_page) return;
+    tallyproof::web::file_stream_failed(g_page->state, why ? why : "");
+    want_frames(*g_page, 3);
+}
 // Called by the page glue on any browser input so the next frames are drawn.
 EMSCRIPTEN_KEEPALIVE void tp_wake() {
     if (g_page) want_frames(*g_page, 3);

@@ -122,14 +122,18 @@ void draw_verdict_panel(AppState& s, const Theme& t) {
 // A long text being read (in slices): its progress and a way to stop; the counts on screen are
 // the ones before it until it is read. Drawn above the results and above the Groups view.
 void draw_reading_progress(AppState& s, const Theme& t) {
-    if (!s.pasting.running) return;
-    char label[96];
-    std::snprintf(label, sizeof label, "Reading the new data: %.0f%%", 100 * job_fraction(s));
+    if (!reading_running(s)) return;
+    char label[160];
+    if (s.streaming.running)  // a file read in chunks: how far into it, in MB
+        std::snprintf(label, sizeof label, "Reading %.60s: %.0f%% (%.1f of %.1f MB)", s.streaming.file.c_str(), 100 * job_fraction(s),
+                      job_fraction(s) * s.streaming.size / (1u << 20), s.streaming.size / (1u << 20));
+    else
+        std::snprintf(label, sizeof label, "Reading the new data: %.0f%%", 100 * job_fraction(s));
     ImGui::PushStyleColor(ImGuiCol_PlotHistogram, ImGui::ColorConvertU32ToFloat4(t.progress));
     ImGui::ProgressBar(static_cast<float>(job_fraction(s)), ImVec2(std::min(360.0f, ImGui::GetContentRegionAvail().x - 90), 0), label);
     ImGui::PopStyleColor();
     ImGui::SameLine();
-    if (ImGui::Button("Cancel##reading")) cancel_paste_job(s);
+    if (ImGui::Button("Cancel##reading")) cancel_paste_job(s);  // a file read in chunks too
     mark_widget("Cancel reading");
 }
 

@@ -28,6 +28,8 @@ constexpr const char* kOldRecentKey = "tallyproof.recent";     // the whole list
 constexpr const char* kLatestKey = "tallyproof.current";   // the latest analysis of any tab: a new tab starts there
 constexpr const char* kTabKey = "tallyproof.tab-current";  // this tab's own (sessionStorage)
 constexpr const char* kTabIdKey = "tallyproof.tab-id";
+// The file this tab's counts were tallied from in chunks: "<analysis id>\n<file name>" (sessionStorage).
+constexpr const char* kTabStreamedKey = "tallyproof.tab-streamed";
 constexpr const char* kStorageRefused =
     "This analysis is not being kept in this browser (storage is refused or full): use Save & share, "
     "Download analysis (JSON) to keep it.";
@@ -157,6 +159,10 @@ void remember(AppState& s, const std::string& document) {
     if (s.session.analysis_id.empty()) s.session.analysis_id = new_analysis_id();
     bool kept = tab_storage_set(kTabKey, document);
     kept = tab_storage_set(kTabIdKey, s.session.analysis_id) && kept;
+    // Counts tallied from a file read in chunks: only the counts are in the document; which file
+    // they came from is kept beside it, for the reload to say so.
+    if (!s.reading.streamed.empty()) tab_storage_set(kTabStreamedKey, s.session.analysis_id + "\n" + s.reading.streamed);
+    else tab_storage_remove(kTabStreamedKey);
     kept = storage_set(kLatestKey, document) && kept;
     // The same data saved under another entry (a restore, another tab) is one analysis: one entry.
     for (const auto& e : read_all_saved_entries())
@@ -219,15 +225,25 @@ void restore_session(AppState& s) {
     // This tab's own analysis on its reload; a new tab starts from the latest of any tab.
     const std::string own = tab_storage_get(kTabKey), own_id = tab_storage_get(kTabIdKey);
     const std::string saved = own.empty() ? storage_get(kLatestKey) : own;
+    const std::string streamed = own.empty() ? "" : tab_storage_get(kTabStreamedKey);
     if (!saved.empty() && open_document(s, saved)) {
         std::string id = own.empty() ? "" : own_id;
         for (const auto& e : s.session.recent)
             if (id.empty() && e.document == saved) id = e.id;
+        const std::size_t cut = streamed.find('\n');
+        const std::string file = cut != std::string::npos && !own_id.empty() && streamed.compare(0, cut, own_id) == 0
+                                     ? streamed.substr(cut + 1) : std::string();
+        s.reading.streamed = file;  // kept beside the document again by remember()
         if (!id.empty()) {  // the same analysis: its entry, not a new one
             s.session.analysis_id = id;
             remember(s, saved);
         }
         s.reading.source_name = "restored from the last session";
+        if (!file.empty()) {
+            s.reading.source_name = "restored: the counts tallied from " + file;
+            set_notice(s, "Restored the counts tallied from " + file + ". The file was read in chunks and only its counts were kept "
+                          "in this browser, not its text: to read it another way, open it again.");
+        }
         return;
     }
     clear_refusal(s);
@@ -253,6 +269,7 @@ void start_fresh(AppState& s) {
     storage_remove(kLatestKey);
     tab_storage_remove(kTabKey);
     tab_storage_remove(kTabIdKey);
+    tab_storage_remove(kTabStreamedKey);
     s.merge_undo.clear();
     load_demo(s, 0);
     set_notice(s, "Started fresh: paste your counts, or pick an example.");

@@ -8,6 +8,8 @@
 #include "delimited_text.hpp"
 #include "plain_number_lines.hpp"
 #include "raw_observations.hpp"
+#include "read_input.hpp"
+#include "text_decoding.hpp"
 
 namespace tallyproof {
 namespace {
@@ -117,6 +119,70 @@ ParsedInput DigitStreamTally::finish(std::size_t first_bytes, std::size_t total_
                             std::to_string(total_bytes - first_bytes) + " bytes, " + std::to_string(lines_) +
                             " lines in all) was streamed through the same reader.");
     return out;
+}
+
+DigitStreamReader::State DigitStreamReader::push(std::string_view bytes) {
+    if (ended_ || state_ == State::stopped) return state_;
+    bytes_ += bytes.size();
+    held_.append(bytes.data(), bytes.size());
+    if (state_ == State::deciding && held_.size() >= kStreamHeadBytes) decide(false);
+    else if (state_ == State::streaming) feed_lines(false);
+    return state_;
+}
+
+DigitStreamReader::State DigitStreamReader::end() {
+    if (ended_) return state_;
+    ended_ = true;
+    if (state_ == State::deciding) decide(true);
+    else if (state_ == State::streaming) feed_lines(true);
+    return state_;
+}
+
+void DigitStreamReader::decide(bool at_end) {
+    state_ = State::whole;
+    if (at_end) return;  // shorter than the head: read whole
+    const std::string_view chunk = std::string_view(held_).substr(0, kStreamHeadBytes);
+    const std::size_t cut = chunk.find_last_of('\n');
+    if (cut == std::string_view::npos) return;
+    const std::string_view first = chunk.substr(0, cut + 1);
+    std::string probe(first);
+    const TextDecoding decoded = decode_text(&probe);
+    const std::size_t lead = first.find_first_not_of(" \t\r\n");
+    if (!decoded.status.ok || !decoded.notice.empty() || lead == std::string_view::npos || first[lead] == '{') return;
+    ReadInputOptions how;
+    how.groups = GroupsReading::never;
+    ParsedInput head = read_input(first, options_, how).sample;
+    if (!DigitStreamTally::continues(head)) return;
+    state_ = State::streaming;
+    tally_.emplace(std::move(head));
+    first_bytes_ = first.size();
+    tally_->feed(first);
+    held_.erase(0, first.size());
+    if (!tally_->status().ok) state_ = State::stopped;
+    else feed_lines(false);
+}
+
+void DigitStreamReader::feed_lines(bool at_end) {
+    // Pieces of whole lines; a line longer than what is held waits for its end.
+    const std::size_t end = at_end ? held_.size() : held_.find_last_of('\n') + 1;  // npos + 1 == 0
+    if (!at_end && end == 0) return;
+    if (!tally_->feed(std::string_view(held_).substr(0, end))) state_ = State::stopped;
+    held_.erase(0, end);
+}
+
+std::string DigitStreamReader::take_held() {
+    std::string out = std::move(held_);
+    held_.clear();
+    return out;
+}
+
+ParsedInput DigitStreamReader::finish() const {
+    if (!tally_) {
+        ParsedInput none;
+        none.status = Status::failure("The text was not read as a stream.");
+        return none;
+    }
+    return tally_->finish(first_bytes_, bytes_);
 }
 
 }  // namespace tallyproof

@@ -7,6 +7,8 @@
 // hold one plain number go through plain_number_lines' fast path, which reads them identically.
 #pragma once
 #include <cstddef>
+#include <optional>
+#include <string>
 #include <string_view>
 #include <utility>
 
@@ -40,6 +42,40 @@ private:
     std::size_t lines_ = 0;
     bool fed_ = false;
     Status status_;
+};
+
+// The one rule for a text that arrives a piece at a time (a file read in chunks by the command-line
+// tool or by the page): its first kStreamHeadBytes bytes, cut at their last line end, decide. When
+// they are plain UTF-8 text (no byte-order mark, not another encoding), not a document, and
+// read_input (groups never) reads them as a raw-digits tally that DigitStreamTally::continues, the
+// text is streamed: every later piece is cut at line ends and fed, and only the part of a line
+// not yet ended is held. Otherwise the text is to be read whole (a text shorter than the head
+// bytes too), from the bytes held so far and the rest.
+constexpr std::size_t kStreamHeadBytes = 1u << 20;
+
+class DigitStreamReader {
+public:
+    enum class State { deciding, streaming, whole, stopped };  // stopped: refused (finish() says why)
+    explicit DigitStreamReader(ParseOptions options) : options_(std::move(options)) {}
+    State push(std::string_view bytes);  // the next bytes of the text, any number
+    State end();                         // the text ended after the last push
+    State state() const { return state_; }
+    bool ended() const { return ended_; }
+    std::string take_held();             // State::whole: the bytes pushed so far (the text's start)
+    // Streamed and ended, or stopped: the reading of the whole text (DigitStreamTally::finish).
+    ParsedInput finish() const;
+    std::size_t bytes() const { return bytes_; }  // pushed so far
+    std::size_t values() const { return tally_ ? tally_->values() : 0; }
+    std::size_t lines() const { return tally_ ? tally_->lines() : 0; }
+private:
+    void decide(bool at_end);
+    void feed_lines(bool at_end);
+    ParseOptions options_;
+    State state_ = State::deciding;
+    bool ended_ = false;
+    std::string held_;                   // deciding: all bytes so far; streaming: a line not yet ended
+    std::optional<DigitStreamTally> tally_;
+    std::size_t first_bytes_ = 0, bytes_ = 0;
 };
 
 }  // namespace tallyproof

@@ -105,3 +105,46 @@ TEST_CASE("a later piece that is not UTF-8 text is refused, with the line reache
     CHECK_FALSE(r.status.ok);
     CHECK(r.status.message.find("after line 51") != std::string::npos);
 }
+
+namespace {
+// `text` pushed to core's DigitStreamReader (the tool's and the page's rule) in pieces of `size` bytes, cut anywhere.
+ParsedInput pushed(const std::string& text, DigitTest test, std::size_t size, DigitStreamReader::State* state) {
+    ParseOptions o;
+    o.digits = test;
+    DigitStreamReader reader(o);
+    for (std::size_t at = 0; at < text.size(); at += size) reader.push(std::string_view(text).substr(at, size));
+    *state = reader.end();
+    CHECK(reader.bytes() == text.size());
+    return *state == DigitStreamReader::State::whole ? ParsedInput{} : reader.finish();
+}
+}  // namespace
+
+TEST_CASE("the stream reader decides from the first MiB and, pushed pieces cut anywhere, equals the whole text") {
+    const std::string text = amounts(170000);  // about 1.6 MB: longer than the head
+    REQUIRE(text.size() > kStreamHeadBytes);
+    const ParsedInput a = whole(text, DigitTest::first);
+    REQUIRE(a.status.ok);
+    for (std::size_t size : {std::size_t(997), std::size_t(4093), std::size_t(1u << 20), std::size_t(3u << 20)}) {
+        CAPTURE(size);
+        DigitStreamReader::State state{};
+        ParsedInput b = pushed(text, DigitTest::first, size, &state);
+        REQUIRE(state == DigitStreamReader::State::streaming);
+        REQUIRE(b.status.ok);
+        CHECK(a.observed == b.observed);
+        REQUIRE(!b.notes.empty());
+        // The last note gives the bytes of the whole text, which the reader counted itself.
+        CHECK(b.notes.back().find(std::to_string(text.size() - text.substr(0, kStreamHeadBytes).rfind('\n') - 1) + " bytes") !=
+              std::string::npos);
+        b.notes.pop_back();
+        CHECK(a.notes == b.notes);
+    }
+    // Shorter than the head, not numbers, or a document: read whole, with every byte handed back.
+    for (const std::string& t : {amounts(100), std::string(kStreamHeadBytes + 10, 'x') + "\n", "{\n" + text}) {
+        ParseOptions o;
+        o.digits = DigitTest::first;
+        DigitStreamReader reader(o);
+        reader.push(t);
+        CHECK(reader.end() == DigitStreamReader::State::whole);
+        CHECK(reader.take_held() == t);
+    }
+}
