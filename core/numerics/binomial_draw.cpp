@@ -1,7 +1,8 @@
 // Binomial draws without tables. BTRD (Hörmann 1993, J. Statist. Comput. Simul. 46:101-110,
 // algorithm BTRD, steps 0-5.3; the constants a, b, alpha, v_r and the Stirling-correction table fc
 // are Hörmann's, as in Boost.Random's binomial_distribution; divisions by b and v_r are made once
-// as multiplications by their reciprocals, which moves the hat's edges by rounding only): a transformed-rejection hat with a
+// as multiplications by their reciprocals, and step 4's ratio f(k)/f(mode) is compared as a
+// product of numerators against one of denominators, which changes only rounding): a transformed-rejection hat with a
 // squeeze that accepts about 86% of draws from one uniform, then recursive evaluation of f(k)/f(mode)
 // near the mode, a second squeeze and the Stirling-series log-density ratio beyond it. For a mode
 // below 11 (where BTRD is not valid) the second waiting-time method (Devroye 1986, Non-Uniform Random
@@ -51,7 +52,6 @@ int btrd(int n, const BinomialShare& s, Xoshiro256* g, int mode) {
     const double alpha = (2.83 + 5.1 * inv_b) * spq;
     const double v_r = 0.92 - 4.2 * inv_b, inv_v_r = 1.0 / v_r;
     const double u_rv_r = 0.86 * v_r;
-    const double nr = (n + 1.0) * r;
     for (;;) {
         double v = next_unit(g);
         double u;
@@ -73,14 +73,23 @@ int btrd(int n, const BinomialShare& s, Xoshiro256* g, int mode) {
         const int k = static_cast<int>(kd);
         v = v * alpha / (a / (us * us) + b);
         const int km = k > mode ? k - mode : mode - k;
-        if (km <= 15) {  // step 4: f(k) / f(mode) by the recursion
-            double f = 1;
+        if (km <= 15) {  // step 4: f(k) / f(mode) by the recursion, as numerator and denominator products
+            // prod (nr / i - r) = prod r (n + 1 - i) / prod i, compared without dividing (both
+            // products stay below 1e150 for n < 2^31 and at most 15 factors).
+            double num = 1, den = 1;
             if (mode < k) {
-                for (int i = mode + 1; i <= k; ++i) f = f * (nr / i - r);
-            } else if (mode > k) {
-                for (int i = k + 1; i <= mode; ++i) v = v * (nr / i - r);
+                for (int i = mode + 1; i <= k; ++i) {
+                    num = num * (r * (n + 1 - i));
+                    den = den * i;
+                }
+                if (v * den <= num) return k;  // v <= f(k) / f(mode)
+            } else {
+                for (int i = k + 1; i <= mode; ++i) {
+                    num = num * (r * (n + 1 - i));
+                    den = den * i;
+                }
+                if (v * num <= den) return k;  // v f(mode) / f(k) <= 1
             }
-            if (v <= f) return k;
             continue;
         }
         // Step 5: squeeze on log v, then the exact log-density ratio by Stirling's series.

@@ -68,7 +68,7 @@ int sample_alias(const AliasTable& t, Xoshiro256* g);
 // (columns plus slots, 16 bytes each) it is emptied. The cache changes speed, never draws.
 // The switch point was chosen by measurement (docs/benchmarks.md, "Monte Carlo p-values on the
 // grid of issue #28").
-constexpr int kDirectMaxTrials = 4096;
+constexpr int kDirectMaxTrials = 1024;
 constexpr double kFirstTableMaxColumns = 65536;  // 1 MB
 constexpr int kCategoricalPerCategory = 32;
 struct CategoryColumn {

@@ -104,7 +104,7 @@ export const tests = {
       const native = JSON.parse(execFileSync(new URL('../../build/native/shell/tallyproof', import.meta.url).pathname, ['--json', '-'],
         { input: JSON.stringify(doc) }).toString());
       assert(native.monte_carlo.hits === r.monte_carlo.hits, `browser b = ${r.monte_carlo.hits}, native b = ${native.monte_carlo.hits}`);
-      // A total above 4096 takes the sampler's table-free (BTRD) path: the same hits here too.
+      // A total above 1024 takes the sampler's table-free (BTRD) path: the same hits here too.
       const big = { categories: ['A', 'B', 'C', 'D'], observed: [2100, 1900, 2050, 1950], pvalue: { method: 'monte-carlo', replicates: 5000, seed: 9 } };
       await pasteText(page, JSON.stringify(big));
       await page.waitForFunction(() => { const x = JSON.parse(globalThis.tallyproofPage.lastResult); return x.monte_carlo && x.monte_carlo.p_value && x.monte_carlo.seed === 9; }, null, { timeout: 20000 });

@@ -85,7 +85,7 @@ void check_binomial_draws(int m, double q, int draws, std::uint64_t seed) {
 TEST_CASE("binomials of all n trials (the first category's one table) follow Boost's binomial pmf") {
     // m = n > kDirectMaxTrials: the table of Bin(n, q_0); tests/unit/test_binomial_draw.cpp checks m < n (BTRD).
     check_binomial_draws(1000000, 0.3, 1000000, 11);
-    check_binomial_draws(4097, 0.01, 300000, 12);     // just past the per-m tables
+    check_binomial_draws(4097, 0.01, 300000, 12);
     check_binomial_draws(250000, 0.97, 300000, 13);
     check_binomial_draws(5120, 0.5, 300000, 14);
 }
