@@ -79,13 +79,13 @@ int btrd(int n, const BinomialShare& s, Xoshiro256* g, int mode) {
             double num = 1, den = 1;
             if (mode < k) {
                 for (int i = mode + 1; i <= k; ++i) {
-                    num = num * (r * (n + 1 - i));
+                    num = num * (r * ((n - i) + 1.0));
                     den = den * i;
                 }
                 if (v * den <= num) return k;  // v <= f(k) / f(mode)
             } else {
                 for (int i = k + 1; i <= mode; ++i) {
-                    num = num * (r * (n + 1 - i));
+                    num = num * (r * ((n - i) + 1.0));
                     den = den * i;
                 }
                 if (v * num <= den) return k;  // v f(mode) / f(k) <= 1
@@ -99,10 +99,10 @@ int btrd(int n, const BinomialShare& s, Xoshiro256* g, int mode) {
         const double t = -kmd * kmd / (2 * npq);
         if (v < t - rho) return k;
         if (v > t + rho) continue;
-        const int nm = n - mode + 1;
+        const double nm = (n - mode) + 1.0;  // in double: n + 1 may pass INT_MAX
         const double h = (mode + 0.5) * portable_log((mode + 1.0) / (r * nm)) + stirling_correction(mode) +
                          stirling_correction(n - mode);
-        const int nk = n - k + 1;
+        const double nk = (n - k) + 1.0;
         // (n + 1) log(nm / nk) as log1p((k - mode) / nk): nm / nk is near 1 and n large.
         if (v <= h + (n + 1.0) * portable_log1p(static_cast<double>(k - mode) / nk) +
                      (k + 0.5) * portable_log(nk * r / (k + 1.0)) - stirling_correction(k) - stirling_correction(n - k))
