@@ -202,11 +202,29 @@ Status make_outcome_scores(const MultinomialTestSpec& spec, OutcomeScores* sc, b
     if (n < 1) return Status::failure("All counts are zero: there is nothing to test.");
     std::size_t kept = 0;
     for (double p : spec.null_shares) kept += p > 0 ? 1 : 0;
-    if (n > 1e7 || n * static_cast<double>(kept) > 2e7) {
+    if (!windowed && (n > 1e7 || n * static_cast<double>(kept) > 2e7)) {
         std::snprintf(buf, sizeof buf,
-                      "A total of %.10g over %zu categories is too large for exact or simulated p-values "
-                      "(limit: total x categories <= 2e7); use the chi-square approximation.", n, kept);
+                      "A total of %.10g over %zu categories is too large for exact p-values "
+                      "(limit: total x categories <= 2e7); use a simulated p-value or the chi-square approximation.",
+                      n, kept);
         return Status::failure(buf);
+    }
+    if (windowed) {
+        // Simulation keeps only the windows (about 80 sqrt(N pi_j) entries a row, so about 80 sqrt(N k) in
+        // all); their total is what bounds its memory, not N k.
+        double entries = 0;
+        for (double p : spec.null_shares) {
+            if (p == 0) continue;
+            const double pi = p / share_total, mean = n * pi;
+            entries += std::min(n + 1, 2 * (40 * std::sqrt(mean * (1 - pi)) + 2) + 2);
+        }
+        if (n > kMaxSimulatedTotal || entries > kMaxWindowedScoreEntries) {
+            std::snprintf(buf, sizeof buf,
+                          "A total of %.10g over %zu categories is too large for simulated p-values "
+                          "(limits: a total of at most 1e9, and score windows of at most 4e6 entries, about "
+                          "total x categories <= 2.5e9); use the chi-square approximation.", n, kept);
+            return Status::failure(buf);
+        }
     }
     sc->ordering = spec.ordering;
     sc->lambda = spec.lambda;

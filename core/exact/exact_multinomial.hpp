@@ -50,9 +50,14 @@ struct OutcomeScores {
 };
 
 // Validates the spec (refusals name the bad input) and builds the score tables. Refuses
-// lambda <= -1 (infinite statistic at every outcome with an empty category) and N * k > 2e7.
+// lambda <= -1 (infinite statistic at every outcome with an empty category) and, for full rows
+// (the exact tests), N > 1e7 or N * k > 2e7 (rows of N + 1 doubles: 160 MB at the limit).
 // windowed (for Monte Carlo): each row holds only x within 40 standard deviations of N pi_j and
-// log_factorial is left empty, so memory does not grow with N * k; outcome_score gives the rest.
+// log_factorial is left empty, so memory grows with sqrt(N k), not N k; outcome_score gives the rest.
+// Refused there: N > kMaxSimulatedTotal (counts are int; Bin(N, q) draws take int trials) or windows
+// of more than kMaxWindowedScoreEntries entries in all (32 MB; about N k <= 2.5e9 for equal shares).
+constexpr double kMaxSimulatedTotal = 1e9;
+constexpr double kMaxWindowedScoreEntries = 4e6;
 Status make_outcome_scores(const MultinomialTestSpec& spec, OutcomeScores* scores, bool windowed = false);
 // T_j(x) for any x in 0..n, the same value a full row holds.
 double outcome_score(const OutcomeScores& scores, std::size_t j, int x);

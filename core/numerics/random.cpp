@@ -1,11 +1,11 @@
 // Portable seeded random numbers: xoshiro256** with splitmix64 seeding (Blackman & Vigna 2021),
 // Lemire's (2019) unbiased bounded integers, and binomial/multinomial sampling by Walker alias
-// tables (Vose 1991 construction). A binomial of m > kDirectMaxTrials trials is the sum of two
-// independent binomials with the same q, Bin(c B, q) + Bin(r, q), m = c B + r, r < B (additivity of
-// the binomial; Johnson, Kemp & Kotz 2005, Univariate Discrete Distributions, 3rd ed., ch. 3): exact,
-// and it needs one table per (category, c) instead of one per (category, m), whose number and size
-// both grow with N. Integer ops and IEEE +,-,*,/ only (no libm), so results do not depend on the
-// platform's math library; each table omits tails below 2^-64 of its mode weight (< 1e-15 in total).
+// tables (Vose 1991 construction) for binomials of at most kDirectMaxTrials trials; larger ones
+// by draw_binomial (BTRD, Hörmann 1993, J. Statist. Comput. Simul. 46:101-110, see
+// binomial_draw.hpp), whose cost does not grow with the trials and which needs no cache.
+// Integer ops, IEEE +,-,*,/, sqrt and portable_log only (no platform libm), so results do not
+// depend on the platform's math library; each table omits tails below 2^-64 of its mode weight
+// (< 1e-15 in total).
 // Sparse tables (n at most kCategoricalPerCategory per category) are drawn instead as n categorical
 // draws from one Walker alias table over the categories (Lemire's exact column choice, 32-bit
 // alias test): O(n + k) per table with no cache, so the cost is linear in k at a fixed n / k.
@@ -24,8 +24,6 @@ std::uint64_t splitmix64(std::uint64_t* x) {
     z = (z ^ (z >> 27)) * 0x94d049bb133111ebULL;
     return z ^ (z >> 31);
 }
-
-inline std::uint64_t rotl(std::uint64_t x, int k) { return (x << k) | (x >> (64 - k)); }
 
 constexpr double kTailCut = 5.421010862427522e-20;  // 2^-64: relative weight where tables stop
 
@@ -72,21 +70,6 @@ Xoshiro256 seed_xoshiro256(std::uint64_t seed) {
     for (auto& w : g.s) w = splitmix64(&x);
     return g;
 }
-
-std::uint64_t next_u64(Xoshiro256* g) {
-    std::uint64_t* s = g->s;
-    const std::uint64_t result = rotl(s[1] * 5, 7) * 9;
-    const std::uint64_t t = s[1] << 17;
-    s[2] ^= s[0];
-    s[3] ^= s[1];
-    s[1] ^= s[2];
-    s[0] ^= s[3];
-    s[2] ^= t;
-    s[3] = rotl(s[3], 45);
-    return result;
-}
-
-double next_unit(Xoshiro256* g) { return static_cast<double>(next_u64(g) >> 11) * 0x1.0p-53; }
 
 std::uint32_t next_below(Xoshiro256* g, std::uint32_t n) {
     // Lemire's multiply-and-reject on 32-bit words: exactly uniform for every n.
@@ -168,9 +151,23 @@ bool make_multinomial_sampler(int n, const std::vector<double>& pi, MultinomialS
     s->n = n;
     s->q.assign(k, 0.0);
     s->odds.assign(k, 0.0);
+    s->share.assign(k, BinomialShare{});
+    s->flipped.assign(k, 0);
     for (std::size_t j = 0; j < k; ++j) {
         s->q[j] = rest[j] > 0 ? pi[j] / rest[j] : 0.0;
         s->odds[j] = rest[j + 1] > 0 ? pi[j] / rest[j + 1] : std::numeric_limits<double>::infinity();
+        // The smaller of q_j and 1 - q_j = rest[j + 1] / rest[j], each with its odds, from the suffix sums.
+        if (!(rest[j] > 0) || pi[j] == 0) continue;  // q_j = 0: Bin(m, 0) = 0
+        if (rest[j + 1] == 0) {                      // q_j = 1: m - Bin(m, 0)
+            s->flipped[j] = 1;
+            continue;
+        }
+        if (pi[j] <= rest[j + 1]) {
+            s->share[j] = binomial_share(pi[j] / rest[j], pi[j] / rest[j + 1]);
+        } else {
+            s->share[j] = binomial_share(rest[j + 1] / rest[j], rest[j + 1] / pi[j]);
+            s->flipped[j] = 1;
+        }
     }
     s->direct_size = static_cast<std::size_t>(std::min(n, kDirectMaxTrials)) + 1;
     s->direct.assign(k, {});  // rows are made on first use
@@ -193,7 +190,6 @@ namespace {
 
 void clear_cache(MultinomialSampler* s) {
     for (auto& row : s->direct) std::vector<MultinomialSampler::Slot>().swap(row);
-    s->blocks.clear();
     s->owned.clear();
     s->cached_entries = 0;
 }
@@ -238,17 +234,6 @@ const MultinomialSampler::Slot& direct_slot(MultinomialSampler* s, std::size_t j
     return *slot;
 }
 
-// The table of Bin(c B, q_j).
-MultinomialSampler::Slot block_slot(MultinomialSampler* s, std::size_t j, int c) {
-    const std::uint64_t key = static_cast<std::uint64_t>(j) * (static_cast<std::uint64_t>(s->n / kBlockTrials) + 1) +
-                              static_cast<std::uint64_t>(c);
-    auto it = s->blocks.find(key);
-    if (it != s->blocks.end()) return it->second;
-    const MultinomialSampler::Slot made = build_slot(s, j, c * kBlockTrials, 4);  // 4: the map node, roughly
-    s->blocks.emplace(key, made);
-    return made;
-}
-
 inline int draw(const MultinomialSampler::Slot& slot, Xoshiro256* g) { return draw_columns(slot.columns, slot.size, slot.lo, g); }
 
 }  // namespace
@@ -260,9 +245,16 @@ int sample_binomial(MultinomialSampler* s, std::size_t j, int m, Xoshiro256* g) 
         if (!row.empty() && row[static_cast<std::size_t>(m)].columns) return draw(row[static_cast<std::size_t>(m)], g);
         return draw(direct_slot(s, j, m), g);
     }
-    const int c = m / kBlockTrials, r = m % kBlockTrials;
-    const int x = draw(block_slot(s, j, c), g);  // drawn before the next table may empty the cache
-    return r == 0 ? x : x + draw(direct_slot(s, j, r), g);
+    if (j == 0 && m == s->n) {  // the first category always has all n trials: one table, if not too wide
+        if (!s->first_built) {
+            s->first_built = true;
+            const double q = s->q[0], sd = std::sqrt(static_cast<double>(m) * q * (1 - q));
+            if (20 * sd + 64 <= kFirstTableMaxColumns) s->first = binomial_alias_table(m, q, s->odds[0]);
+        }
+        if (!s->first.columns.empty()) return sample_alias(s->first, g);
+    }
+    const int x = draw_binomial(m, s->share[j], g);
+    return s->flipped[j] ? m - x : x;
 }
 
 void sample_multinomial(MultinomialSampler* s, Xoshiro256* g, int* counts) {

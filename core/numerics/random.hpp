@@ -1,18 +1,18 @@
 // Portable seeded random numbers: xoshiro256** (Blackman & Vigna 2021, ACM TOMS 47(4):36) seeded
 // by splitmix64 (Steele, Lea & Flood 2014, OOPSLA); Lemire (2019, ACM TOMACS 29:3) bounded integers;
 // binomial and multinomial draws by Walker (1977, ACM TOMS 3:253) alias tables, Vose (1991) build.
-// Binomials of more than kDirectMaxTrials trials are drawn as the sum of two independent binomials
-// with the same q, Bin(c B, q) + Bin(m - c B, q) with B = kBlockTrials (the binomial's additivity,
-// Johnson, Kemp & Kotz 2005, Univariate Discrete Distributions, 3rd ed., ch. 3), each from its
-// own alias table, so only a few tables per category are needed however large the total.
-// Integer ops and IEEE +,-,*,/ only, so a seed gives bit-identical draws natively and in
-// WebAssembly; tables omit only tail weights below 2^-64 of the mode's (< 1e-15 in total per table).
+// Binomials of more than kDirectMaxTrials trials are drawn without tables by BTRD (Hörmann 1993,
+// J. Statist. Comput. Simul. 46:101-110; core/numerics/binomial_draw.hpp), at a cost that does
+// not grow with the trials. Integer ops, IEEE +,-,*,/, sqrt and portable_log only, so a seed gives
+// bit-identical draws natively and in WebAssembly; tables omit only tail weights below 2^-64 of
+// the mode's (< 1e-15 in total per table).
 #pragma once
 #include <cstddef>
 #include <cstdint>
 #include <memory>
-#include <unordered_map>
 #include <vector>
+
+#include "binomial_draw.hpp"
 
 namespace tallyproof {
 
@@ -21,8 +21,21 @@ struct Xoshiro256 {
 };
 
 Xoshiro256 seed_xoshiro256(std::uint64_t seed);        // state from splitmix64(seed)
-std::uint64_t next_u64(Xoshiro256* g);                 // 64 uniform bits
-double next_unit(Xoshiro256* g);                       // uniform on [0, 1), 53-bit grid
+inline std::uint64_t next_u64(Xoshiro256* g) {          // 64 uniform bits (inline: it is in every draw's loop)
+    std::uint64_t* s = g->s;
+    const std::uint64_t result = ((s[1] * 5) << 7 | (s[1] * 5) >> 57) * 9;  // rotl(s1 * 5, 7) * 9
+    const std::uint64_t t = s[1] << 17;
+    s[2] ^= s[0];
+    s[3] ^= s[1];
+    s[1] ^= s[2];
+    s[0] ^= s[3];
+    s[2] ^= t;
+    s[3] = (s[3] << 45) | (s[3] >> 19);  // rotl(s3, 45)
+    return result;
+}
+inline double next_unit(Xoshiro256* g) {  // uniform on [0, 1), 53-bit grid
+    return static_cast<double>(next_u64(g) >> 11) * 0x1.0p-53;
+}
 std::uint32_t next_below(Xoshiro256* g, std::uint32_t n);  // uniform on {0..n-1}, unbiased; n >= 1
 
 // Alias table of a distribution on {lo, ..., lo + size - 1}.
@@ -47,22 +60,28 @@ int sample_alias(const AliasTable& t, Xoshiro256* g);
 // its high 32 bits pick the column by Lemire's exact multiply-and-reject, its low 32 bits decide
 // the alias, so shares are resolved to 2^-32 of a column), O(n + k) per table. Otherwise by
 // sequential conditional binomials. A binomial of m <= kDirectMaxTrials
-// trials is drawn from one alias table for (category, m); a larger one as Bin(c B, q) + Bin(r, q),
-// m = c B + r, r < B = kBlockTrials, from the table for (category, c) and the one for (category, r).
+// trials is drawn from one alias table for (category, m); a larger one by draw_binomial (BTRD or,
+// where its mode is below 11, the waiting-time method) with the smaller of q and 1 - q, except
+// for the first category, which always has all n trials: its one table of Bin(n, q_0) is kept
+// outside the cache when it has at most kFirstTableMaxColumns columns.
 // Tables are built on first use and cached; when the cache would exceed max_cached_entries
 // (columns plus slots, 16 bytes each) it is emptied. The cache changes speed, never draws.
-constexpr int kDirectMaxTrials = 4096;
+// The switch point was chosen by measurement (docs/benchmarks.md, "Monte Carlo p-values on the
+// grid of issue #28").
+constexpr int kDirectMaxTrials = 1024;
+constexpr double kFirstTableMaxColumns = 65536;  // 1 MB
 constexpr int kCategoricalPerCategory = 32;
 struct CategoryColumn {
     std::uint64_t keep;   // keep the column when the low 32 bits are below this (2^32: always)
     std::uint32_t alias;  // otherwise take this category
 };
-constexpr int kBlockTrials = 512;
 struct MultinomialSampler {
     int n = 0;
     std::vector<CategoryColumn> categories;  // non-empty: the categorical path is used
     std::vector<double> q;     // q[j] = pi_j / (pi_j + ... + pi_{k-1})
     std::vector<double> odds;  // pi_j / (pi_{j+1} + ... + pi_{k-1})
+    std::vector<BinomialShare> share;  // min(q_j, 1 - q_j) for draw_binomial
+    std::vector<char> flipped;         // 1 where share[j] is 1 - q_j (then the draw is m - Bin(m, 1 - q_j))
     struct Slot {  // flat view of one cached table: one load before the column itself
         const AliasColumn* columns = nullptr;  // null until built
         int lo = 0;
@@ -70,8 +89,9 @@ struct MultinomialSampler {
     };
     std::size_t direct_size = 0;                           // min(n, kDirectMaxTrials) + 1
     std::vector<std::vector<Slot>> direct;                 // [j][m], m <= kDirectMaxTrials; rows made on first use
-    std::unordered_map<std::uint64_t, Slot> blocks;        // key j * (n / B + 1) + c: table of Bin(c B, q_j)
     std::vector<std::shared_ptr<const AliasTable>> owned;  // keeps the cached tables alive
+    AliasTable first;          // Bin(n, q_0), built on first use when narrow enough (first_built)
+    bool first_built = false;
     std::size_t cached_entries = 0;
     std::size_t max_cached_entries = std::size_t(1) << 22;  // 16 B each: 64 MB; cleared when exceeded
 };

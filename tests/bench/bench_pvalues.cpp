@@ -70,7 +70,7 @@ int main(int argc, char** argv) {
                     static_cast<unsigned long long>(r.extreme));
     }
 
-    {  // large total: N = 1e6 over the nine first-digit shares, B = 1e5 (two-table binomial path)
+    {  // large total: N = 1e6 over the nine first-digit shares, B = 1e5 (table-free BTRD path)
         MultinomialTestSpec big;
         big.observed = {301500, 175800, 124700, 97000, 79300, 66800, 58200, 51300, 45400};
         big.null_shares.clear();

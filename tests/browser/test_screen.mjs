@@ -104,7 +104,7 @@ export const tests = {
       const native = JSON.parse(execFileSync(new URL('../../build/native/shell/tallyproof', import.meta.url).pathname, ['--json', '-'],
         { input: JSON.stringify(doc) }).toString());
       assert(native.monte_carlo.hits === r.monte_carlo.hits, `browser b = ${r.monte_carlo.hits}, native b = ${native.monte_carlo.hits}`);
-      // A total above 4096 takes the sampler's split-binomial path: the same hits here too.
+      // A total above 1024 takes the sampler's table-free (BTRD) path: the same hits here too.
       const big = { categories: ['A', 'B', 'C', 'D'], observed: [2100, 1900, 2050, 1950], pvalue: { method: 'monte-carlo', replicates: 5000, seed: 9 } };
       await pasteText(page, JSON.stringify(big));
       await page.waitForFunction(() => { const x = JSON.parse(globalThis.tallyproofPage.lastResult); return x.monte_carlo && x.monte_carlo.p_value && x.monte_carlo.seed === 9; }, null, { timeout: 20000 });
@@ -112,6 +112,18 @@ export const tests = {
       const nb = JSON.parse(execFileSync(new URL('../../build/native/shell/tallyproof', import.meta.url).pathname, ['--json', '-'],
         { input: JSON.stringify(big) }).toString());
       assert(nb.monte_carlo.hits === rb.monte_carlo.hits, `N = 8000: browser b = ${rb.monte_carlo.hits}, native b = ${nb.monte_carlo.hits}`);
+      // N = 5e6 (N k = 3e7, above the exact tests' limit): BTRD with its logarithms (portable_log) and,
+      // for the share of 2e-6, the waiting-time method: the same hits natively and in the browser.
+      const huge = { categories: ['A', 'B', 'C', 'D', 'E', 'F'], observed: [1500800, 12, 999500, 1250100, 749600, 499988],
+        model: { kind: 'shares', values: [0.3, 0.000002, 0.2, 0.25, 0.15, 0.099998] },
+        pvalue: { method: 'monte-carlo', replicates: 4000, seed: 11 } };
+      await pasteText(page, JSON.stringify(huge));
+      await page.waitForFunction(() => { const x = JSON.parse(globalThis.tallyproofPage.lastResult); return x.monte_carlo && x.monte_carlo.p_value && x.monte_carlo.seed === 11; }, null, { timeout: 30000 });
+      const rh = await lastResult(page);
+      const nh = JSON.parse(execFileSync(new URL('../../build/native/shell/tallyproof', import.meta.url).pathname, ['--json', '-'],
+        { input: JSON.stringify(huge) }).toString());
+      assert(nh.monte_carlo.hits === rh.monte_carlo.hits && nh.monte_carlo.replicates === 4000,
+        `N = 5e6: browser b = ${rh.monte_carlo.hits}, native b = ${nh.monte_carlo.hits}`);
     });
   },
 

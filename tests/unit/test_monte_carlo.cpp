@@ -82,11 +82,12 @@ void check_binomial_draws(int m, double q, int draws, std::uint64_t seed) {
 
 }  // namespace
 
-TEST_CASE("binomials of many trials (two-table path) follow Boost's binomial pmf") {
-    check_binomial_draws(1000000, 0.3, 1000000, 11);  // 1953 blocks of 512 and 64 more
-    check_binomial_draws(4097, 0.01, 300000, 12);     // just past the one-table path
+TEST_CASE("binomials of all n trials (the first category's one table) follow Boost's binomial pmf") {
+    // m = n > kDirectMaxTrials: the table of Bin(n, q_0); tests/unit/test_binomial_draw.cpp checks m < n (BTRD).
+    check_binomial_draws(1000000, 0.3, 1000000, 11);
+    check_binomial_draws(4097, 0.01, 300000, 12);
     check_binomial_draws(250000, 0.97, 300000, 13);
-    check_binomial_draws(5120, 0.5, 300000, 14);      // whole blocks only
+    check_binomial_draws(5120, 0.5, 300000, 14);
 }
 
 TEST_CASE("a bounded cache gives the same draws as a large one") {
