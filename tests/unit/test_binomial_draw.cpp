@@ -5,6 +5,8 @@
 // determinism (same seed, same draws).
 #include <doctest/doctest.h>
 
+#include "binomial_cells.hpp"
+
 #include <boost/math/distributions/binomial.hpp>
 #include <boost/math/distributions/chi_squared.hpp>
 #include <cmath>
@@ -43,18 +45,9 @@ void check_against_boost(int m, double q, int draws, std::uint64_t seed) {
     }
     CHECK(bad == 0);
     CHECK(outside == 0);  // P(beyond 12 sd) < 1e-20 for these m, q (Boost binomial cdf)
-    double chi2 = 0, cell_e = draws * (a > 0 ? boost::math::cdf(dist, a - 1.0) : 0.0), cell_o = 0;
+    // Cells of at least 50 expected draws (Boost pmf), binomial_cells.hpp.
     int cells = 0;
-    for (int x = a; x <= b; ++x) {
-        cell_e += draws * boost::math::pdf(dist, x);
-        cell_o += static_cast<double>(hits[static_cast<std::size_t>(x - a)]);
-        if (x == b) cell_e += draws * boost::math::cdf(boost::math::complement(dist, static_cast<double>(b)));
-        if (cell_e >= 50 || x == b) {
-            chi2 += (cell_o - cell_e) * (cell_o - cell_e) / cell_e;
-            ++cells;
-            cell_e = cell_o = 0;
-        }
-    }
+    const double chi2 = binomial_cells_chi2(hits, a, b, draws, dist, &cells);
     const double limit = boost::math::quantile(boost::math::complement(boost::math::chi_squared(cells - 1), 1e-6));
     CAPTURE(cells);
     CAPTURE(chi2);

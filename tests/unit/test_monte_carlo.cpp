@@ -2,6 +2,8 @@
 // p-value within 4 standard errors, the sampler's distribution, slicing and refusals.
 #include <doctest/doctest.h>
 
+#include "binomial_cells.hpp"
+
 #include <boost/math/distributions/binomial.hpp>
 #include <boost/math/distributions/chi_squared.hpp>
 #include <cmath>
@@ -58,19 +60,9 @@ void check_binomial_draws(int m, double q, int draws, std::uint64_t seed) {
         sum2 += (x - mean) * (x - mean);
     }
     CHECK(outside == 0);  // P(beyond 12 sd) < 1e-20 for these m, q (Boost binomial cdf)
-    // Cells: walk x = a..b gathering expected counts (Boost pmf) until each holds >= 50.
-    double chi2 = 0, cell_e = draws * (a > 0 ? boost::math::cdf(dist, a - 1.0) : 0.0), cell_o = 0;
+    // Cells of at least 50 expected draws (Boost pmf), binomial_cells.hpp.
     int cells = 0;
-    for (int x = a; x <= b; ++x) {
-        cell_e += draws * boost::math::pdf(dist, x);
-        cell_o += static_cast<double>(hits[static_cast<std::size_t>(x - a)]);
-        if (x == b) cell_e += draws * boost::math::cdf(boost::math::complement(dist, static_cast<double>(b)));
-        if (cell_e >= 50 || x == b) {
-            chi2 += (cell_o - cell_e) * (cell_o - cell_e) / cell_e;
-            ++cells;
-            cell_e = cell_o = 0;
-        }
-    }
+    const double chi2 = binomial_cells_chi2(hits, a, b, draws, dist, &cells);
     // Fails with probability 1e-6 if the draws are exactly binomial (Boost chi-square quantile).
     const double limit = boost::math::quantile(boost::math::complement(boost::math::chi_squared(cells - 1), 1e-6));
     CAPTURE(cells);
